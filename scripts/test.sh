@@ -1,0 +1,47 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start, against the test cluster, then every check.
+# Ends with one plain line "N passed, N failed" and exits non-zero on any failure.
+set -uo pipefail
+cd "$(dirname "$0")/.."
+started=$(date +%s)
+bash scripts/ensure-deps.sh || { echo "0 passed, 1 failed"; exit 1; }
+
+if [ ! -x /usr/bin/chromium ] && [ ! -x /usr/lib/chromium/chromium ]; then
+  echo "Installing Debian's chromium for the browser tests (one time)..."
+  if ! { apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends chromium >/dev/null; }; then
+    echo "test.sh: could not install chromium with apt-get; install Debian's 'chromium' package and run again." >&2
+    echo "0 passed, 1 failed"; exit 1
+  fi
+fi
+
+export TEST_PGPORT="${TEST_PGPORT:-54339}" TEST_PGDATA_DIR="${TEST_PGDATA_DIR:-.data/pg-test}"
+pg() { PGPORT="$TEST_PGPORT" PGDATA_DIR="$TEST_PGDATA_DIR" PG_DATABASES="dragoman_test_template" bash scripts/pg.sh "$@"; }
+pg start >/dev/null || { echo "0 passed, 1 failed"; exit 1; }
+trap 'pg stop' EXIT
+
+passed=0; failed=0
+step() {
+  local name="$1"; shift
+  echo "== $name"
+  if "$@"; then passed=$((passed + 1)); echo "   $name: ok"; else failed=$((failed + 1)); echo "   $name: FAILED"; fi
+}
+step typecheck npx tsc --noEmit -p .
+step lint npx eslint . --max-warnings=0
+step "client build" npx vite build --logLevel warn
+
+mkdir -p test-output
+summary="test-output/vitest-summary.json"; rm -f "$summary"
+echo "== vitest (unit, API, browser)"
+SUMMARY_FILE="$summary" npx vitest run --reporter=default --reporter=./tests/summary-reporter.ts
+vitest_rc=$?
+if [ -s "$summary" ]; then
+  vp=$(node -e 'const s=require("./'"$summary"'");process.stdout.write(String(s.passed))')
+  vf=$(node -e 'const s=require("./'"$summary"'");process.stdout.write(String(s.failed))')
+  passed=$((passed + vp)); failed=$((failed + vf))
+fi
+if [ "$vitest_rc" -ne 0 ] && { [ ! -s "$summary" ] || [ "${vf:-0}" -eq 0 ]; }; then failed=$((failed + 1)); fi
+
+pg stop 2>/dev/null; trap - EXIT
+echo "Wall time: $(( $(date +%s) - started )) s"
+echo "${passed} passed, ${failed} failed"
+[ "$failed" -eq 0 ]

@@ -1,0 +1,72 @@
+import { z } from "zod";
+
+/**
+ * The only place that reads process.env. Every key is documented in README.md ("Configuration").
+ * parseConfig fails fast with a sentence naming the variable at fault.
+ */
+const bool = z
+  .enum(["true", "false", "1", "0"])
+  .transform((v) => v === "true" || v === "1");
+
+const csv = z
+  .string()
+  .transform((v) =>
+    v
+      .split(",")
+      .map((s) => s.trim())
+      .filter(Boolean),
+  );
+
+export const configSchema = z
+  .object({
+    NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+    HOST: z.string().min(1).default("127.0.0.1"),
+    PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+    DATABASE_URL: z.url({ protocol: /^postgres(ql)?$/ }),
+    LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
+    PUBLIC_URL: z.url().optional(),
+    SESSION_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
+    CLIENT_DIST: z.string().default("dist"),
+    GITHUB_CLIENT_ID: z.string().default("dragoman-local"),
+    GITHUB_CLIENT_SECRET: z.string().optional(),
+    GITHUB_AUTHORIZE_URL: z.url().default("https://github.com/login/oauth/authorize"),
+    GITHUB_TOKEN_URL: z.url().default("https://github.com/login/oauth/access_token"),
+    GITHUB_USER_URL: z.url().default("https://api.github.com/user"),
+    GITHUB_EMAILS_URL: z.url().default("https://api.github.com/user/emails"),
+    ADMIN_LOGINS: csv.default([]),
+    SMTP_HOST: z.string().default("127.0.0.1"),
+    SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+    SMTP_SECURE: bool.default(false),
+    SMTP_USER: z.string().optional(),
+    SMTP_PASSWORD: z.string().optional(),
+    MAIL_FROM: z.string().default("Dragoman <no-reply@dragoman.invalid>"),
+    DEV_OUTBOX: bool.default(false),
+    RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(120),
+  })
+  .superRefine((c, ctx) => {
+    if (c.NODE_ENV === "production") {
+      if (!c.SESSION_SECRET) ctx.addIssue({ code: "custom", path: ["SESSION_SECRET"], message: "is required in production" });
+      if (c.DEV_OUTBOX) ctx.addIssue({ code: "custom", path: ["DEV_OUTBOX"], message: "must be false in production" });
+      if (!c.GITHUB_CLIENT_SECRET) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_SECRET"], message: "is required in production" });
+    }
+  });
+
+export type Config = z.output<typeof configSchema>;
+
+export class ConfigError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "ConfigError";
+  }
+}
+
+export function parseConfig(env: Record<string, string | undefined> = process.env): Config {
+  const result = configSchema.safeParse(env);
+  if (result.success) return result.data;
+  const lines = result.error.issues.map((i) => {
+    const key = i.path.join(".") || "(environment)";
+    const shown = typeof i.path[0] === "string" && env[i.path[0]] !== undefined && !/SECRET|PASSWORD/.test(key) ? ` (got "${env[i.path[0]]}")` : "";
+    return `${key} ${i.message}${shown}`;
+  });
+  throw new ConfigError(`Bad configuration: ${lines.join("; ")}. See README.md, "Configuration".`);
+}

@@ -1,0 +1,48 @@
+import type { ErrorRequestHandler, RequestHandler } from "express";
+import { AppError, NotFoundError } from "../errors.ts";
+import type { Logger } from "../logger.ts";
+
+interface ErrorBody {
+  error: { code: string; message: string; fields?: Record<string, string>; details?: Record<string, unknown>; stack?: string };
+}
+
+/** Unknown /api routes answer 404 in the standard shape. */
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new NotFoundError(`No API route ${req.method} ${req.originalUrl.split("?")[0]}`));
+};
+
+function fromLibraryError(err: unknown): AppError | undefined {
+  if (typeof err !== "object" || err === null) return undefined;
+  const e = err as { type?: string; status?: number; code?: string; message?: string; field?: string };
+  // body-parser
+  if (e.type === "entity.parse.failed") return new AppError(400, "malformed_json", "The request body is not valid JSON.", { body: "not valid JSON" });
+  if (e.type === "entity.too.large") return new AppError(413, "payload_too_large", "The request body is too large.", { body: "too large" });
+  // multer
+  if (e.code === "LIMIT_FILE_SIZE") return new AppError(400, "file_too_large", "The uploaded file is too large.", { [e.field ?? "file"]: "too large" });
+  if (typeof e.code === "string" && e.code.startsWith("LIMIT_")) return new AppError(400, "bad_upload", e.message ?? "Bad upload.", { [e.field ?? "file"]: e.message ?? "bad upload" });
+  // csrf-csrf
+  if (e.code === "EBADCSRFTOKEN") return new AppError(403, "csrf_failed", "Missing or wrong X-CSRF-Token header; fetch one from GET /api/v1/csrf.");
+  if (typeof e.status === "number" && e.status >= 400 && e.status < 500) return new AppError(e.status, "bad_request", e.message ?? "Bad request.");
+  return undefined;
+}
+
+export function errorMiddleware(logger: Logger, exposeStack: boolean): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    const known = err instanceof AppError ? err : fromLibraryError(err);
+    const status = known?.status ?? 500;
+    const body: ErrorBody = {
+      error: {
+        code: known?.code ?? "internal",
+        message: known?.message ?? "Something went wrong on our side; it has been logged.",
+      },
+    };
+    if (known?.fields) body.error.fields = known.fields;
+    if (known?.details) body.error.details = known.details;
+    if (status >= 500) {
+      logger.error({ err, method: req.method, url: req.originalUrl }, "request failed");
+      if (exposeStack && err instanceof Error && err.stack) body.error.stack = err.stack;
+    }
+    if (res.headersSent) return;
+    res.status(status).json(body);
+  };
+}

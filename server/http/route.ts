@@ -1,0 +1,109 @@
+import type { NextFunction, Request, RequestHandler, Response, Router } from "express";
+import type { z } from "zod";
+import { ForbiddenError, UnauthorizedError, ValidationError, type FieldErrors } from "../errors.ts";
+import type { Role } from "./identity.ts";
+
+/**
+ * Every API route is declared here, with who may call it. mountRoutes is the only way routes reach
+ * Express, and tests/api/route-rules.test.ts fails when a route exists without a declared rule.
+ */
+export type Access =
+  | { kind: "public" }
+  | { kind: "signed_in" }
+  | { kind: "roles"; roles: readonly Role[] }
+  | { kind: "dev_only" };
+
+export const access = {
+  public: { kind: "public" } as Access,
+  signedIn: { kind: "signed_in" } as Access,
+  roles: (...roles: Role[]): Access => ({ kind: "roles", roles }),
+  devOnly: { kind: "dev_only" } as Access,
+};
+
+export type Method = "get" | "post" | "put" | "patch" | "delete";
+
+export interface RouteSpec {
+  method: Method;
+  /** Express path relative to the mount point, e.g. "/theories/:slug". */
+  path: string;
+  access: Access;
+  summary: string;
+  tags?: string[];
+  body?: z.ZodType;
+  query?: z.ZodType;
+  response?: z.ZodType;
+  /** Extra statuses the route can answer with, for the API document. */
+  errors?: number[];
+  /** Middleware that runs after the access check (rate limits, uploads). */
+  before?: RequestHandler[];
+  handler: (req: Request, res: Response, next: NextFunction) => unknown;
+}
+
+export interface MountedRoute extends RouteSpec {
+  fullPath: string;
+}
+
+export class RouteTable {
+  readonly routes: MountedRoute[] = [];
+  devRoutesEnabled = false;
+
+  mount(router: Router, prefix: string, specs: RouteSpec[]): void {
+    for (const spec of specs) {
+      if (!spec.access) throw new Error(`Route ${spec.method.toUpperCase()} ${prefix}${spec.path} declares no access rule`);
+      this.routes.push({ ...spec, fullPath: prefix + spec.path });
+      const guard = accessGuard(spec.access, () => this.devRoutesEnabled);
+      router[spec.method](spec.path, guard, ...(spec.before ?? []), async (req, res, next) => {
+        await spec.handler(req, res, next);
+      });
+    }
+  }
+
+  find(method: string, fullPath: string): MountedRoute | undefined {
+    return this.routes.find((r) => r.method === method.toLowerCase() && r.fullPath === fullPath);
+  }
+}
+
+export function describeAccess(a: Access): string {
+  switch (a.kind) {
+    case "public":
+      return "anyone";
+    case "signed_in":
+      return "any signed-in user";
+    case "roles":
+      return `role ${a.roles.join(" or ")}`;
+    case "dev_only":
+      return "local development only";
+  }
+}
+
+export function accessGuard(a: Access, devEnabled: () => boolean): RequestHandler {
+  return (req, _res, next) => {
+    if (a.kind === "public") return next();
+    if (a.kind === "dev_only") {
+      if (devEnabled()) return next();
+      return next(new ForbiddenError("This route exists only while the local mail sink is in use."));
+    }
+    const who = req.identity;
+    if (!who) return next(new UnauthorizedError());
+    if (a.kind === "signed_in") return next();
+    if (a.roles.some((r) => who.roles.includes(r))) return next();
+    return next(
+      new ForbiddenError(`This needs the ${a.roles.join(" or ")} role; you have ${who.roles.length ? who.roles.join(", ") : "no role beyond reader"}.`, {
+        required_roles: [...a.roles],
+      }),
+    );
+  };
+}
+
+/** Parse with a zod schema; a failure becomes a 400 whose fields name each offending path. */
+export function parseWith<S extends z.ZodType>(schema: S, value: unknown, what = "request body"): z.output<S> {
+  const result = schema.safeParse(value);
+  if (result.success) return result.data;
+  const fields: FieldErrors = {};
+  for (const issue of result.error.issues) {
+    const key = issue.path.map(String).join(".") || what;
+    fields[key] ??= issue.message;
+  }
+  const first = Object.entries(fields)[0];
+  throw new ValidationError(first ? `Invalid ${what}: ${first[0]}: ${first[1]}` : `Invalid ${what}`, fields);
+}

@@ -1,0 +1,19 @@
+import { parseConfig, type Config } from "../../server/config.ts";
+import { createApp, type AppDeps } from "../../server/app.ts";
+import { createLogger } from "../../server/logger.ts";
+import type { TestDatabase } from "./db.ts";
+
+export function testConfig(databaseUrl: string, overrides: Record<string, string> = {}): Config {
+  return parseConfig({
+    NODE_ENV: "test",
+    DATABASE_URL: databaseUrl,
+    SESSION_SECRET: "test-secret-test-secret-test-secret-0123",
+    LOG_LEVEL: "silent",
+    ...overrides,
+  });
+}
+
+export function buildTestApp(tdb: TestDatabase, overrides: Record<string, string> = {}, extra: Partial<AppDeps> = {}) {
+  const config = testConfig(tdb.url, overrides);
+  return createApp({ db: tdb.db, config, logger: createLogger(config), ...extra });
+}
