@@ -1,0 +1,318 @@
+/**
+ * Catalogue entries whose correction is generated at the binary (dipole or curvature-induced
+ * scalar radiation): EdGB, dCS, Brans-Dicke and generic dipole radiation.
+ * Formulas and statuses follow the project's physics primer, section 2.
+ */
+import { SPEED_OF_LIGHT_KM_S } from "../../server/physics/units.ts";
+import { literal } from "./expression-literals.ts";
+import { REFS } from "./references.ts";
+import type { TheoryEntry, ValidityEntry } from "./theory-entry.ts";
+
+/** Horizon regularity / small coupling on each black hole with its own mass (physics.md 2, 5). */
+function perBlackHoleCoupling(theory: string): ValidityEntry[] {
+  return ([1, 2] as const).map((i) => ({
+    expression: `16*pi*alpha^2/m${i}^4`,
+    max: 1 / 6,
+    label: `${theory} coupling on body ${i}: 16 pi alpha^2 / m${i}^4 below 1/6`,
+    kind: "hard" as const,
+    reference: "small-coupling expansion; 1/6 as the regular-horizon limit is a value from memory (to confirm)",
+    source_status: "memory" as const,
+    body: i,
+    applies_to: ["bh"] as const,
+  }));
+}
+
+export const edgb: TheoryEntry = {
+  slug: "edgb",
+  name: "Einstein-dilaton-Gauss-Bonnet gravity (linear, shift-symmetric coupling)",
+  family: "quadratic gravity",
+  summary:
+    "A scalar coupled linearly to the Gauss-Bonnet invariant. Black holes carry a scalar charge that depends on their spin; neutron stars carry none at leading order. Unequal charges radiate scalar dipole waves, a -1PN correction to the phase.",
+  action_latex:
+    "S = \\int d^4x\\,\\sqrt{-g}\\left[\\frac{R}{16\\pi} + \\alpha\\,\\phi\\,\\mathcal{G} - \\frac{1}{2}\\nabla_\\mu\\phi\\nabla^\\mu\\phi\\right],\\quad \\mathcal{G} = R^2 - 4R_{\\mu\\nu}R^{\\mu\\nu} + R_{\\mu\\nu\\rho\\sigma}R^{\\mu\\nu\\rho\\sigma}",
+  assumptions: [
+    "small coupling: 16 pi alpha^2 / m^4 << 1 for every black hole",
+    "leading PN order of the scalar dipole flux; conservative corrections are higher order",
+    "aligned spins; spin enters only through the black-hole charge factor s(chi)",
+  ],
+  couplings: [
+    {
+      symbol: "alpha",
+      latex: "\\alpha",
+      dimension: "L^2",
+      unit: "km^2",
+      description: "Gauss-Bonnet coupling in convention A",
+      quoted: { form: "sqrt", symbol: "sqrt_alpha", latex: "\\sqrt{\\alpha}", unit: "km" },
+      convention: "A",
+      conventions: [
+        {
+          name: "A",
+          action_latex: "\\int\\sqrt{-g}\\,[R/16\\pi + \\alpha\\,\\phi\\,\\mathcal{G} - \\tfrac12(\\partial\\phi)^2]",
+          factor: 1,
+          factor_expression: "1",
+        },
+        {
+          name: "SZ",
+          action_latex: "\\frac{1}{8\\pi}\\int\\sqrt{-g}\\,[R/2 - \\tfrac12(\\partial\\phi)^2 + \\alpha\\,\\phi\\,\\mathcal{G}]",
+          factor: 1 / Math.sqrt(8 * Math.PI),
+          factor_expression: "1/sqrt(8*pi)",
+          source_status: "derived",
+          note: "rescale phi to a canonical kinetic term with R/(16 pi) in front",
+        },
+        {
+          name: "JB",
+          action_latex: "\\frac{1}{16\\pi}\\int\\sqrt{-g}\\,[R - 2(\\partial\\phi)^2 + \\alpha f(\\phi)\\,\\mathcal{G}],\\ f = 2\\phi",
+          factor: 1 / Math.sqrt(16 * Math.PI),
+          factor_expression: "1/sqrt(16*pi)",
+          reference: REFS.sanger2024.key,
+          source_status: "derived",
+          note: "check: l_GB = 0.51 M_sun in JB is sqrt(alpha_A) = 0.28 km (Sanger et al. 2024)",
+        },
+      ],
+    },
+  ],
+  definitions: [
+    { symbol: "zeta", expression: "16*pi*alpha^2/M^4", latex: "\\zeta = 16\\pi\\alpha^2/M^4", description: "dimensionless coupling" },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))",
+      latex: "\\beta = -\\frac{5}{7168}\\,\\zeta\\,\\frac{(m_1^2 s_2 - m_2^2 s_1)^2}{M^4\\,\\eta^{18/5}}",
+      derivation: {
+        kind: "energy_flux",
+        order: -1,
+        A: "0",
+        B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
+        note: "dipole flux F = F_GR [1 + B v^-2]; physics.md 2.3 checks this B against beta",
+      },
+      gimr_equivalent: { k: -2, expression: "-(10*pi/21)*alpha^2*(s1/m1^2 - s2/m2^2)^2", source_status: "derived" },
+      body_rules: [
+        {
+          kind: "charge",
+          description: "black holes carry the spin-dependent charge factor s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2; neutron stars s = 0",
+          bodies: ["bh", "ns"],
+          reference: REFS.yagi2012.key,
+        },
+      ],
+      validity: perBlackHoleCoupling("EdGB"),
+      source_status: "derived",
+      references: [REFS.yunesYagiPretorius2016.key, REFS.yagi2012.key, REFS.yagiSteinYunes2016.key],
+      notes:
+        "Normalisation derived from the dipole flux; that Yunes, Yagi & Pretorius 2016 Table I prints this form is from memory. beta < 0 always; equal-mass, equal-spin black holes give beta = 0 (no constraint).",
+    },
+  ],
+  references: [REFS.yunesYagiPretorius2016, REFS.yagi2012, REFS.yagiSteinYunes2016, REFS.perkins2021, REFS.lyuJiangYagi2022, REFS.sanger2024],
+  reference_bounds: [
+    {
+      coupling: "alpha",
+      quoted_symbol: "sqrt_alpha",
+      value: 1.9,
+      unit: "km",
+      side: "upper",
+      reference: REFS.yagi2012.key,
+      source_status: "memory",
+      convention: "A",
+      note: "orbital decay of a low-mass X-ray binary",
+    },
+    {
+      coupling: "alpha",
+      quoted_symbol: "sqrt_alpha",
+      value: 1.7,
+      unit: "km",
+      side: "upper",
+      reference: REFS.perkins2021.key,
+      source_status: "confirmed",
+      convention: "A",
+      note: "stacking GWTC-1/2 events",
+    },
+    {
+      coupling: "alpha",
+      quoted_symbol: "sqrt_alpha",
+      value: 1.33,
+      unit: "km",
+      side: "upper",
+      reference: REFS.lyuJiangYagi2022.key,
+      source_status: "confirmed",
+      convention: "A",
+      note: "neutron-star - black-hole events",
+    },
+  ],
+  needs_source_confirmation: true,
+};
+
+export const dcs: TheoryEntry = {
+  slug: "dcs",
+  name: "Dynamical Chern-Simons gravity",
+  family: "quadratic gravity",
+  summary:
+    "A pseudo-scalar coupled to the Pontryagin density. Spinning black holes acquire a scalar dipole and a modified quadrupole; the leading inspiral correction enters at 2PN and vanishes for non-spinning binaries.",
+  action_latex:
+    "S = \\int d^4x\\,\\sqrt{-g}\\left[\\frac{R}{16\\pi} + \\frac{\\alpha}{4}\\,\\vartheta\\,{}^{*}\\!RR - \\frac{1}{2}\\nabla_\\mu\\vartheta\\nabla^\\mu\\vartheta\\right]",
+  assumptions: [
+    "small coupling zeta = 16 pi alpha^2 / M^4 << 1",
+    "slow rotation: leading order in the spins",
+    "derived for binary black holes",
+    "action normalisation as written is from memory; the mapping's zeta convention is the one of Yagi, Stein, Yunes & Tanaka 2012",
+  ],
+  couplings: [
+    {
+      symbol: "alpha",
+      latex: "\\alpha",
+      dimension: "L^2",
+      unit: "km^2",
+      description: "Chern-Simons coupling, normalised so that zeta = 16 pi alpha^2 / M^4",
+      quoted: { form: "sqrt", symbol: "sqrt_alpha", latex: "\\sqrt{\\alpha}", unit: "km" },
+      convention: "A",
+      conventions: [{ name: "A", factor: 1, factor_expression: "1" }],
+    },
+  ],
+  definitions: [{ symbol: "zeta", expression: "16*pi*alpha^2/M^4", latex: "\\zeta = 16\\pi\\alpha^2/M^4" }],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: 2,
+      b: -1,
+      expression:
+        "(1549225/11812864)*(zeta/eta^(14/5))*((1 - 231808*eta/61969)*chi_s^2 + (1 - 16068*eta/61969)*chi_a^2 - 2*dm*chi_s*chi_a)",
+      latex:
+        "\\beta = \\frac{1549225}{11812864}\\frac{\\zeta}{\\eta^{14/5}}\\left[\\left(1 - \\frac{231808}{61969}\\eta\\right)\\chi_s^2 + \\left(1 - \\frac{16068}{61969}\\eta\\right)\\chi_a^2 - 2\\delta m\\,\\chi_s\\chi_a\\right]",
+      body_rules: [{ kind: "derived_for", description: "derived for binary black holes", bodies: ["bh"] }],
+      validity: [
+        ...([1, 2] as const).map((i) => ({
+          expression: `16*pi*alpha^2/m${i}^4`,
+          max: 0.1,
+          label: `small coupling on body ${i}: 16 pi alpha^2 / m${i}^4 well below 1`,
+          kind: "rule_of_thumb" as const,
+          reference: "project choice: 0.1 stands for 'much less than 1'",
+          body: i,
+          applies_to: ["bh"] as const,
+        })),
+      ],
+      source_status: "confirmed",
+      references: [REFS.yagiSteinYunesTanaka2012.key],
+      notes: "Non-spinning binaries give beta = 0 (no constraint).",
+    },
+  ],
+  references: [REFS.yagiSteinYunesTanaka2012, REFS.alexanderYunes2009, REFS.yunesYagiPretorius2016],
+};
+
+export const bransDicke: TheoryEntry = {
+  slug: "brans-dicke",
+  name: "Brans-Dicke theory (massless scalar-tensor)",
+  family: "scalar-tensor",
+  summary:
+    "A massless scalar with coupling omega_BD. Bodies radiate scalar dipole waves in proportion to the difference of their sensitivities; black holes all have sensitivity 1/2, so only mixed binaries constrain omega_BD.",
+  action_latex:
+    "S = \\frac{1}{16\\pi}\\int d^4x\\,\\sqrt{-g}\\left[\\phi R - \\frac{\\omega_{BD}}{\\phi}\\nabla_\\mu\\phi\\nabla^\\mu\\phi\\right] + S_m[g, \\psi_m]",
+  assumptions: [
+    "omega_BD >> 1 (leading order in 1/omega_BD)",
+    "sensitivities: black hole 1/2; neutron star from its equation of state (an input)",
+  ],
+  couplings: [
+    {
+      symbol: "omega_BD",
+      latex: "\\omega_{BD}",
+      dimension: "1",
+      unit: "1",
+      quoted: { form: "identity", symbol: "omega_BD", latex: "\\omega_{BD}", unit: "1" },
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(5/3584)*eta^(2/5)*(sigma1 - sigma2)^2/(2 + omega_BD)",
+      latex: "\\beta = -\\frac{5}{3584}\\,\\eta^{2/5}\\,\\frac{(s_1 - s_2)^2}{2 + \\omega_{BD}}",
+      derivation: {
+        kind: "energy_flux",
+        order: -1,
+        A: "0",
+        B: "(5/48)*(sigma1 - sigma2)^2/(2 + omega_BD)",
+        note: "dipole flux (1/3) eta^2 v^8 (a1 - a2)^2 with scalar charges a_i = (1 - 2 s_i)/sqrt(2 omega_BD + 3), to leading order in 1/omega_BD [derived]",
+      },
+      body_rules: [
+        {
+          kind: "charge",
+          description: "sensitivity s = 1/2 for a black hole; a neutron star's sensitivity must be supplied",
+          bodies: ["bh", "ns"],
+          reference: REFS.willZaglauer1989.key,
+        },
+      ],
+      validity: [
+        {
+          expression: "1/omega_BD",
+          max: 0.1,
+          label: "omega_BD >> 1 (leading order in 1/omega_BD)",
+          kind: "rule_of_thumb",
+          reference: "project choice: omega_BD >= 10 stands for 'much greater than 1'",
+        },
+      ],
+      source_status: "memory",
+      references: [REFS.will1994.key, REFS.yunesYagiPretorius2016.key],
+      notes: "Recalled form, cross-checked by re-deriving the dipole flux. Not a power law in omega_BD: the limit is a numeric root.",
+    },
+  ],
+  references: [REFS.will1994, REFS.willZaglauer1989, REFS.bertottiIessTortora2003, REFS.yunesYagiPretorius2016],
+  reference_bounds: [
+    {
+      coupling: "omega_BD",
+      quoted_symbol: "omega_BD",
+      value: 40000,
+      unit: "1",
+      side: "lower",
+      reference: REFS.bertottiIessTortora2003.key,
+      source_status: "memory",
+      note: "Shapiro delay of the Cassini radio link (Solar System, not a GW bound)",
+    },
+  ],
+  needs_source_confirmation: true,
+};
+
+/** Lowest frequency at which the dipole term must stay a perturbation (a detector's low end). */
+const DIPOLE_CHECK_FREQUENCY_HZ = 10;
+
+export const scalarDipole: TheoryEntry = {
+  slug: "scalar-dipole",
+  name: "Generic dipole radiation",
+  family: "scalar-tensor",
+  summary:
+    "Theory-agnostic extra dipole flux F = F_GR [1 + B v^-2], the common form of scalar or vector dipole emission. A limit on B can be reused for any theory that predicts it.",
+  assumptions: ["the extra flux is a small correction at every frequency analysed", "the binding energy is unchanged at -1PN"],
+  couplings: [
+    {
+      symbol: "B_dip",
+      latex: "B",
+      dimension: "1",
+      unit: "1",
+      description: "relative dipole flux coefficient",
+      quoted: { form: "identity", symbol: "B_dip", latex: "B", unit: "1" },
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(3/224)*eta^(2/5)*B_dip",
+      latex: "\\beta = -\\frac{3}{224}\\,\\eta^{2/5} B",
+      derivation: { kind: "energy_flux", order: -1, A: "0", B: "B_dip" },
+      validity: [
+        {
+          expression: `B_dip*(pi*(M/${literal(SPEED_OF_LIGHT_KM_S)})*${DIPOLE_CHECK_FREQUENCY_HZ})^(-2/3)`,
+          max: 0.1,
+          label: `dipole flux small against the quadrupole flux at ${DIPOLE_CHECK_FREQUENCY_HZ} Hz: B v^-2 well below 1`,
+          kind: "rule_of_thumb",
+          reference: "project choice: 0.1 stands for 'much less than 1'",
+        },
+      ],
+      source_status: "derived",
+      references: [REFS.yunesPretorius2009.key],
+      notes: "Energy balance and the stationary-phase approximation (physics.md 1.1).",
+    },
+  ],
+  references: [REFS.yunesPretorius2009, REFS.yunesYagiPretorius2016],
+};

@@ -1,0 +1,113 @@
+/**
+ * Catalogue entries whose correction is a slow secular drift (-4PN, b = -13): a time-varying
+ * Newton constant and black-hole mass loss into an extra dimension (Randall-Sundrum II).
+ */
+import { JULIAN_YEAR_S, SOLAR_MASS_LENGTH_KM, SOLAR_MASS_TIME_S } from "../../server/physics/units.ts";
+import { literal } from "./expression-literals.ts";
+import { REFS } from "./references.ts";
+import type { TheoryEntry } from "./theory-entry.ts";
+
+export const varyingG: TheoryEntry = {
+  slug: "varying-g",
+  name: "Time-varying Newton constant",
+  family: "varying constants",
+  summary:
+    "A slow drift of G changes the binding energy and the radiation reaction of the binary; the leading phase correction is a -4PN term proportional to (dG/dt / G) times the chirp mass.",
+  assumptions: [
+    "Gdot/G constant over the observed inspiral and evaluated at the source (source-frame Mc)",
+    "the same drift for the conservative and dissipative sectors (Gdot_C = Gdot_D)",
+    "constant masses and zero sensitivities (the general case with sensitivities: Tahura & Yagi 2018)",
+  ],
+  couplings: [
+    {
+      symbol: "Gdot",
+      latex: "\\dot G/G",
+      dimension: "L^-1",
+      unit: "1/km",
+      description: "fractional rate of change of G in geometric units (a rate r in 1/s is r/c in 1/km)",
+      quoted: { form: "per_year", symbol: "Gdot_over_G", latex: "|\\dot G/G|", unit: "1/yr" },
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -4,
+      b: -13,
+      expression: "-(275/851968)*Gdot*Mc",
+      latex: "\\beta = -\\frac{275}{851968}\\,\\frac{\\dot G}{G}\\,\\mathcal{M}",
+      frame_note:
+        "Gdot/G is the rate at the source and Mc the source-frame chirp mass; the observed rate (1+z)^-1 Gdot/G times Mc_z gives the same product.",
+      source_status: "derived",
+      references: [REFS.tahuraYagi2018.key, REFS.yunesPretoriusSpergel2010.key],
+      notes: "General form -(25/851968)(14 Gdot_C/G - 3 Gdot_D/G) Mc; here Gdot_C = Gdot_D.",
+    },
+  ],
+  references: [REFS.yunesPretoriusSpergel2010, REFS.tahuraYagi2018],
+};
+
+/**
+ * Mass-loss rate of a brane black hole, dM/dt = -2.8e-7 (M_sun/M)^2 (ell/10 um)^2 M_sun/yr
+ * (Emparan, Garcia-Bellido & Kaloper 2003, as used in Yunes, Yagi & Pretorius 2016 with the
+ * binary's total mass) [memory], as the dimensionless geometric rate.
+ */
+const RSII_RATE_AT_UNIT = (2.8e-7 * SOLAR_MASS_TIME_S) / JULIAN_YEAR_S;
+const TEN_MICROMETRES_KM = 1e-8;
+const mdotOfEll = `${literal(RSII_RATE_AT_UNIT)}*(${literal(SOLAR_MASS_LENGTH_KM)}/M)^2*(ell/${literal(TEN_MICROMETRES_KM)})^2`;
+const massLossShape = "(3 - 26*eta + 34*eta^2)/(eta^(2/5)*(1 - 2*eta))";
+
+export const extraDimension: TheoryEntry = {
+  slug: "extra-dimension",
+  name: "Randall-Sundrum II braneworld: black-hole mass loss",
+  family: "extra dimensions",
+  summary:
+    "With one warped extra dimension of AdS curvature length ell, black holes on the brane may lose mass at a rate growing as ell^2 / M^2. The drift of the masses during the inspiral is a -4PN phase correction.",
+  assumptions: [
+    "|Mdot| T_obs << M: the masses change little during the observation",
+    "the mass-loss estimate of Emparan, Garcia-Bellido & Kaloper applies (debated in the literature)",
+    "the ell mapping applies the rate to the total mass of the binary [memory]",
+  ],
+  couplings: [
+    {
+      symbol: "Mdot_loss",
+      latex: "|\\dot M|",
+      dimension: "1",
+      unit: "1",
+      description: "mass-loss rate -dM/dt in geometric units (dimensionless)",
+      quoted: { form: "solar_mass_per_year", symbol: "Mdot_loss", latex: "|\\dot M|", unit: "M_sun/yr" },
+    },
+    {
+      symbol: "ell",
+      latex: "\\ell",
+      dimension: "L",
+      unit: "km",
+      description: "AdS curvature length of the extra dimension",
+      quoted: { form: "micrometre", symbol: "ell", latex: "\\ell", unit: "um" },
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -4,
+      b: -13,
+      coupling: "Mdot_loss",
+      expression: `-(25/851968)*Mdot_loss*${massLossShape}`,
+      latex: "\\beta = \\frac{25}{851968}\\,\\dot M\\,\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad \\dot M = -|\\dot M|",
+      source_status: "derived",
+      references: [REFS.yunesYagiPretorius2016.key],
+      notes:
+        "Derived; matches the review form [memory]. The sign of beta follows 3 - 26 eta + 34 eta^2, which vanishes near eta = 0.1416: such a binary constrains nothing.",
+    },
+    {
+      kind: "inspiral_phase",
+      pn_order: -4,
+      b: -13,
+      coupling: "ell",
+      expression: `-(25/851968)*(${mdotOfEll})*${massLossShape}`,
+      source_status: "memory",
+      references: [REFS.emparanGarciaBellidoKaloper2003.key, REFS.yunesYagiPretorius2016.key],
+      notes: "The rate formula and its application to the total mass are from memory: an editor must confirm both.",
+    },
+  ],
+  references: [REFS.emparanGarciaBellidoKaloper2003, REFS.yunesYagiPretorius2016],
+  needs_source_confirmation: true,
+};

@@ -1,0 +1,138 @@
+/**
+ * The data the conversion core takes and returns (see convert.ts for the algorithm).
+ */
+import type { BodyKind } from "./binary.ts";
+import type { Cosmology } from "./cosmology.ts";
+import type { QuotedFormSpec, QuotedValue, Side } from "./quoted-forms.ts";
+import type { GimrIndex, SignConvention } from "./taylorf2.ts";
+
+export type Env = Readonly<Record<string, number>>;
+
+export interface CouplingConvention {
+  readonly name: string;
+  /** alpha_reference = factor * alpha_this (the reference is the convention the mapping uses). */
+  readonly factor: number;
+  readonly reference?: string;
+}
+
+export interface CouplingSpec {
+  readonly symbol: string;
+  readonly latex: string;
+  /** Canonical (geometric) unit of the coupling the mapping takes, e.g. "km^2", "km", "1/km", "1". */
+  readonly unit: string;
+  readonly quoted: QuotedFormSpec;
+  /** Name of the convention the mapping uses (default "A"). */
+  readonly convention?: string;
+  readonly conventions?: readonly CouplingConvention[];
+}
+
+export type ValidityKind = "hard" | "rule_of_thumb";
+
+export interface ValidityCondition {
+  readonly label: string;
+  /** Human-readable condition, e.g. "16 pi alpha^2 / m2^4 <= 1/6". */
+  readonly condition: string;
+  readonly evaluate: (coupling: number, env: Env) => number;
+  readonly max: number;
+  readonly kind: ValidityKind;
+  readonly reference?: string;
+  /** Evaluate only when body `body` is one of `appliesTo` (e.g. horizon conditions: black holes). */
+  readonly body?: 1 | 2;
+  readonly appliesTo?: readonly BodyKind[];
+}
+
+export interface MappingSpec {
+  readonly b: number;
+  readonly coupling: CouplingSpec;
+  /** beta as a function of the canonical coupling and the binary's symbols. */
+  readonly evaluate: (coupling: number, env: Env) => number;
+  /** Optional fast path: the same function with the environment bound once. */
+  readonly bind?: (env: Env) => (coupling: number) => number;
+  /** Symbols that must be present in the environment (e.g. "D_0", "sigma2"). */
+  readonly requires?: readonly string[];
+  /** Propagation effect: the environment gets D_alpha (km) for this exponent, and D_0 when it is 0. */
+  readonly distance?: { readonly alphaMd: number };
+  readonly validity?: readonly ValidityCondition[];
+  /** Bodies the formula was derived for; other bodies get a caution. */
+  readonly derivedFor?: readonly BodyKind[];
+  readonly cautions?: readonly string[];
+  /** Coupling range searched by the numeric inversion, canonical units. */
+  readonly domain?: readonly [number, number];
+}
+
+export type BoundInput =
+  | {
+      readonly kind: "ppe";
+      readonly b: number;
+      /** Symmetric bound |beta| <= beta_max ... */
+      readonly beta_max?: number;
+      /** ... or an interval [low, high] containing 0. */
+      readonly interval?: readonly [number, number];
+      readonly convention?: SignConvention;
+      readonly credibility?: number;
+    }
+  | {
+      readonly kind: "gimr";
+      readonly k: GimrIndex;
+      readonly dphi_max?: number;
+      readonly interval?: readonly [number, number];
+      readonly includes_spin?: boolean;
+      readonly credibility?: number;
+    };
+
+export interface ValidityResult {
+  readonly label: string;
+  readonly condition: string;
+  readonly value: number;
+  readonly max: number;
+  readonly ok: boolean;
+  readonly kind: ValidityKind;
+  readonly reference?: string;
+}
+
+export interface BoundedResult {
+  readonly status: "bounded";
+  readonly side: Side;
+  readonly coupling: { readonly symbol: string; readonly latex: string; readonly value: number; readonly unit: string };
+  readonly quoted: QuotedValue;
+  readonly extras: readonly QuotedValue[];
+  readonly conventions: readonly { readonly name: string; readonly quoted: QuotedValue; readonly factor: number }[];
+  readonly method: "closed_form" | "numeric_root";
+  /** For a power law: |beta| = prefactor * coupling^power (canonical units). */
+  readonly power?: number;
+  readonly prefactor?: number;
+  readonly latex: string;
+  readonly b: number;
+  /** The |beta| the limit saturates (after sign conventions and one-signed theories). */
+  readonly beta_max: number;
+  /** Sign of beta predicted by the theory for this binary (0 when it changes with the coupling). */
+  readonly theory_sign: -1 | 0 | 1;
+  readonly beta_at_limit: number;
+  readonly validity: readonly ValidityResult[];
+  /** False when a hard validity condition fails at the limit: the limit is then not trustworthy. */
+  readonly valid: boolean;
+  readonly warnings: readonly string[];
+  readonly cautions: readonly string[];
+}
+
+export type NoConstraintCode =
+  | "vanishing_mapping"
+  | "coupling_independent"
+  | "degenerate_b"
+  | "no_ppe_equivalent"
+  | "interval_excludes_gr"
+  | "out_of_range";
+
+export interface NoConstraintResult {
+  readonly status: "no_constraint";
+  readonly code: NoConstraintCode;
+  readonly reason: string;
+  readonly warnings: readonly string[];
+  readonly cautions: readonly string[];
+}
+
+export type ConversionResult = BoundedResult | NoConstraintResult;
+
+export interface ConvertOptions {
+  readonly cosmology?: Cosmology;
+}
