@@ -1,0 +1,5 @@
+import { SignInPanel } from "../../features/auth/components/sign-in-panel.tsx";
+
+export function Component() {
+  return <SignInPanel />;
+}
