@@ -3,6 +3,7 @@ import { createApp, type AppDeps } from "./app.ts";
 import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
 import { createLogger } from "./logger.ts";
+import { closeSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
 
 export interface RunningServer {
   server: Server;
@@ -23,6 +24,10 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
       else reject(err);
     });
   });
+  // A cold symbolic worker costs about a second; start them now rather than on the first check.
+  getSymbolicPool()
+    .warm()
+    .catch((err: unknown) => logger.warn({ err }, "symbolic workers did not warm up"));
   const addr = server.address();
   const port = typeof addr === "object" && addr ? addr.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
@@ -34,6 +39,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      await closeSymbolicPool();
       if (!extra.db) await db.destroy();
     })());
   return { server, url, close };

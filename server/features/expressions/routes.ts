@@ -1,0 +1,85 @@
+import type { Config } from "../../config.ts";
+import { AppError, ValidationError } from "../../errors.ts";
+import { computeRateLimit } from "../../http/compute-rate-limit.ts";
+import { access, parseWith, type RouteSpec } from "../../http/route.ts";
+import { checkMapping, DerivationError, deriveBeta, expressionErrorToHttp } from "../../physics/checks/index.ts";
+import { isExpressionError, type ExpressionError } from "../../physics/expr/errors.ts";
+import { guardExpression } from "../../physics/expr/guard.ts";
+import { createSymbolTable } from "../../physics/expr/symbols.ts";
+import { checkRequest, checkResponse, deriveRequest, deriveResponse } from "./schemas.ts";
+
+/**
+ * Input the guard refuses to read at all (too long, too deep, characters or syntax we never parse)
+ * is a bad request; anything readable gets a 200 report in which each failed check says why.
+ */
+const UNUSABLE = new Set<ExpressionError["code"]>(["too_long", "too_deep", "too_large", "bad_character", "forbidden_syntax", "bad_input"]);
+
+function toAppError(err: ExpressionError, field: string): AppError {
+  const { body } = expressionErrorToHttp(err, field);
+  return new AppError(400, body.error.code, body.error.message, { ...body.error.fields }, { ...body.error.detail });
+}
+
+export function expressionRoutes(config: Config): RouteSpec[] {
+  const limiter = computeRateLimit(config, "expression");
+  return [
+    {
+      method: "post",
+      path: "/v1/expressions/check",
+      access: access.public,
+      summary: "Check one mapping or validity expression: parse, symbols, dimension, GR limit, PN order, derivation",
+      tags: ["engine"],
+      body: checkRequest,
+      response: checkResponse,
+      errors: [400, 429],
+      before: [limiter],
+      handler: async (req, res) => {
+        const input = parseWith(checkRequest, req.body);
+        try {
+          guardExpression(input.expression);
+        } catch (err) {
+          if (isExpressionError(err) && UNUSABLE.has(err.code)) throw toAppError(err, "expression");
+          if (!isExpressionError(err)) throw err;
+        }
+        try {
+          const report = await checkMapping(input);
+          res.json(report);
+        } catch (err) {
+          if (isExpressionError(err)) throw toAppError(err, err.definition !== undefined ? "definitions" : "expression");
+          throw err;
+        }
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/expressions/derive",
+      access: access.public,
+      summary: "Derive b and beta (and the amplitude term) from a change of the binding energy, the flux or the frequency drift",
+      tags: ["engine"],
+      body: deriveRequest,
+      response: deriveResponse,
+      errors: [400, 429],
+      before: [limiter],
+      handler: (req, res) => {
+        const input = parseWith(deriveRequest, req.body);
+        let table;
+        try {
+          table = createSymbolTable({ couplings: input.couplings, definitions: input.definitions ?? [] });
+        } catch (err) {
+          if (isExpressionError(err)) throw toAppError(err, "definitions");
+          throw err;
+        }
+        try {
+          const d = deriveBeta(input, table, input.evaluate_at ? { evaluate_at: input.evaluate_at } : {});
+          res.json({ terms: d.terms, ...(d.amplitude ? { amplitude: d.amplitude } : {}), steps: d.steps, notes: d.notes });
+        } catch (err) {
+          if (err instanceof DerivationError) throw new ValidationError(err.message, { [err.field]: err.message });
+          if (isExpressionError(err)) {
+            const field = (["energy", "flux", "frequency_drift"] as const).find((f) => err.message.startsWith(f)) ?? "derivation";
+            throw toAppError(err, `${field}.coefficient`);
+          }
+          throw err;
+        }
+      },
+    },
+  ];
+}

@@ -1,0 +1,131 @@
+import type { Node } from "../expr/ast.ts";
+import type { SymbolicPool } from "../expr/pool.ts";
+import type { SymbolTable } from "../expr/symbols.ts";
+import type { Prepared } from "./evaluate.ts";
+import { createRandom, describePoint, samplePoint } from "./sampling.ts";
+import type { CheckResult, MappingTarget } from "./types.ts";
+
+const POINTS = 3;
+const SMALL = [1e-4, 1e-8, 1e-12] as const;
+const LARGE = [1e4, 1e8, 1e12] as const;
+/** Below this a value at zero coupling may be rounding residue; the CAS then decides. */
+const RESIDUE = 1e-9;
+
+function withCouplings(point: Float64Array, indices: readonly number[], scale: number): Float64Array {
+  const out = Float64Array.from(point);
+  for (const k of indices) out[k] = scale === 0 ? 0 : (out[k] as number) * scale;
+  return out;
+}
+
+/** |f| shrinks along the sequence and ends well below where it started. */
+function tendsToZero(values: readonly number[]): boolean {
+  if (!values.every(Number.isFinite)) return false;
+  const abs = values.map(Math.abs);
+  for (let k = 1; k < abs.length; k += 1) if ((abs[k] as number) > (abs[k - 1] as number)) return false;
+  const first = abs[0] as number;
+  const last = abs[abs.length - 1] as number;
+  return last === 0 || last <= 0.1 * first;
+}
+
+const fmt = (x: number): string => (Number.isFinite(x) ? Number(x.toPrecision(6)).toString() : String(x));
+
+/**
+ * A correction must vanish when the theory's couplings vanish. Evaluated at couplings = 0 and,
+ * where that is undefined (0/0, log 0), along couplings -> 0; a coupling whose GR value is
+ * infinite (a graviton Compton wavelength) passes with a warning.
+ */
+export async function grLimitCheck(
+  p: Prepared,
+  table: SymbolTable,
+  target: MappingTarget,
+  pool: SymbolicPool | undefined,
+): Promise<CheckResult> {
+  const failSeverity = target === "validity" ? "warning" : "error";
+  if (p.couplingIndices.length === 0) {
+    const declared = table.couplings.length > 0 ? ` (declared: ${table.couplings.join(", ")})` : "";
+    return {
+      name: "gr_limit",
+      ok: target === "validity",
+      severity: failSeverity,
+      message: `the expression uses no coupling${declared}, so it cannot vanish in the GR limit`,
+    };
+  }
+  const rng = createRandom(7321);
+  const points = Array.from({ length: POINTS }, () => samplePoint(p.args, table, rng));
+  const atZero = points.map((pt) => p.f(withCouplings(pt, p.couplingIndices, 0)));
+  const names = p.couplingIndices.map((k) => p.args[k]).join(", ");
+
+  const finiteAtZero = atZero.every(Number.isFinite);
+  const worst = atZero.reduce((w, v, k) => (Math.abs(v) > Math.abs(atZero[w] as number) ? k : w), 0);
+  const value = atZero[worst] as number;
+  if (finiteAtZero) {
+    if (value === 0) return { name: "gr_limit", ok: true, message: `the expression vanishes when ${names} = 0` };
+    if (Math.abs(value) < RESIDUE && pool !== undefined && (await vanishesSymbolically(p.expanded, table, pool))) {
+      return { name: "gr_limit", ok: true, message: `the expression vanishes when ${names} = 0 (confirmed symbolically)` };
+    }
+  } else {
+    const small = points.map((pt) => SMALL.map((s) => p.f(withCouplings(pt, p.couplingIndices, s))));
+    if (small.every(tendsToZero)) {
+      return {
+        name: "gr_limit",
+        ok: true,
+        message: `the expression is undefined at ${names} = 0 but tends to 0 as ${names} -> 0`,
+      };
+    }
+  }
+  // Some couplings reach GR at infinity: a graviton Compton wavelength, omega_BD.
+  const large = points.map((pt) => LARGE.map((s) => p.f(withCouplings(pt, p.couplingIndices, s))));
+  if (large.every(tendsToZero)) {
+    return {
+      name: "gr_limit",
+      ok: true,
+      severity: "warning",
+      message: `the expression vanishes as ${names} -> infinity, not as ${names} -> 0: GR is recovered at infinite ${names} (like a graviton Compton wavelength, or omega_BD in Brans-Dicke); check that this is the intended parameterization`,
+    };
+  }
+  if (finiteAtZero) {
+    const at = describePoint(p.args, withCouplings(points[worst] as Float64Array, p.couplingIndices, 0));
+    return {
+      name: "gr_limit",
+      ok: false,
+      severity: failSeverity,
+      message: `with ${names} = 0 the expression equals ${fmt(value)} (at ${at}); a correction to GR must vanish there (is there a constant term?)`,
+    };
+  }
+  const tiny = p.f(withCouplings(points[0] as Float64Array, p.couplingIndices, 1e-12));
+  return {
+    name: "gr_limit",
+    ok: false,
+    severity: failSeverity,
+    message: `the expression does not vanish as ${names} -> 0 (with ${names} scaled by 1e-12 it is ${fmt(tiny)}; at ${names} = 0 it is ${fmt(atZero.find((v) => !Number.isFinite(v)) ?? Number.NaN)}), nor as ${names} -> infinity`,
+  };
+}
+
+/** Substitutes 0 for every coupling and asks the CAS whether what is left is identically 0. */
+async function vanishesSymbolically(ast: Node, table: SymbolTable, pool: SymbolicPool): Promise<boolean> {
+  const couplings = new Set(table.couplings);
+  const zero = (n: Node): Node => {
+    switch (n.kind) {
+      case "sym":
+        return couplings.has(n.name) ? { kind: "num", value: 0, text: "0", pos: n.pos } : n;
+      case "num":
+      case "const":
+        return n;
+      case "neg":
+      case "call":
+        return { ...n, arg: zero(n.arg) };
+      case "add":
+        return { ...n, terms: n.terms.map((t) => ({ neg: t.neg, node: zero(t.node) })) };
+      case "mul":
+        return { ...n, factors: n.factors.map((f) => ({ div: f.div, node: zero(f.node) })) };
+      case "pow":
+        return { ...n, base: zero(n.base), exp: zero(n.exp) };
+    }
+  };
+  try {
+    const { zero: isZero } = await pool.isZero([zero(ast)]);
+    return isZero;
+  } catch {
+    return false;
+  }
+}

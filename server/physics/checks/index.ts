@@ -1,0 +1,7 @@
+export { checkMapping, type CheckMappingOptions } from "./check-mapping.ts";
+export { compareBeta, type BetaComparison, type CompareOptions } from "./compare.ts";
+export { deriveBeta, DerivationError, type Derivation, type DerivedAmplitudeTerm, type DerivedPhaseTerm } from "./derive.ts";
+export { measureDimension, type MeasuredDimension } from "./dimension-check.ts";
+export { expressionErrorToHttp, type ExpressionErrorBody } from "./http.ts";
+export { Rational } from "./rational.ts";
+export type * from "./types.ts";

@@ -1,0 +1,55 @@
+import type { CouplingDeclaration, DefinitionDeclaration } from "../expr/symbols.ts";
+
+export type CheckName = "parse" | "symbols" | "dimension" | "gr_limit" | "pn_order" | "derivation";
+export type Severity = "error" | "warning";
+
+export interface CheckResult {
+  readonly name: CheckName;
+  readonly ok: boolean;
+  /** "warning" marks an ok check the contributor should still read; "error" a failed one. */
+  readonly severity?: Severity;
+  readonly message: string;
+}
+
+export type MappingTarget = "ppe_phase" | "ppe_amplitude" | "ringdown_frequency" | "ringdown_damping" | "validity";
+
+export const MAPPING_TARGETS: readonly MappingTarget[] = [
+  "ppe_phase",
+  "ppe_amplitude",
+  "ringdown_frequency",
+  "ringdown_damping",
+  "validity",
+];
+
+/** A relative PN order n and the coefficient (A, B or gamma) in declared symbols. */
+export interface DerivationTerm {
+  readonly order: number;
+  readonly coefficient: string;
+}
+
+export interface DerivationInput {
+  /** E(v) = -(1/2) M eta v^2 [1 + A v^(2p)]: order p, coefficient A. */
+  readonly energy?: DerivationTerm;
+  /** F(v) = (32/5) eta^2 v^10 [1 + B v^(2q)]: order q, coefficient B. */
+  readonly flux?: DerivationTerm;
+  /** df/dt = (df/dt)_GR [1 + gamma u^(2n)]: order n, coefficient gamma. */
+  readonly frequency_drift?: DerivationTerm;
+}
+
+export interface MappingInput {
+  readonly expression: string;
+  readonly target: MappingTarget;
+  readonly b?: number;
+  readonly a?: number;
+  readonly pn_order?: number;
+  readonly couplings: readonly CouplingDeclaration[];
+  readonly definitions?: readonly DefinitionDeclaration[];
+  readonly derivation?: DerivationInput;
+}
+
+export interface MappingReport {
+  readonly ok: boolean;
+  readonly checks: readonly CheckResult[];
+  /** LaTeX of the expression as typed; null when it does not parse. */
+  readonly latex: string | null;
+}
