@@ -1,3 +1,4 @@
+/* eslint-disable no-loss-of-precision -- constants are written with the digits of their published source; rounding them to the nearest double is intended. */
 /**
  * Flat Lambda-CDM distances for propagation effects.
  *

@@ -1,3 +1,4 @@
+/* eslint-disable no-loss-of-precision -- constants are written with the digits of their published source; rounding them to the nearest double is intended. */
 import * as math from "mathjs";
 import { describe, expect, it } from "vitest";
 import {

@@ -1,0 +1,20 @@
+import type { Config } from "../../config.ts";
+import type { Knex } from "../../db/knex.ts";
+import type { RouteSpec } from "../../http/route.ts";
+import { siteUrl } from "../../mail/templates.ts";
+import { checkMapping } from "../../physics/checks/index.ts";
+import { outboxRoutes } from "../outbox/routes.ts";
+import { referencesRoutes } from "../references/routes.ts";
+import { referencesService } from "../references/service.ts";
+import { submissionsRoutes } from "../submissions/routes.ts";
+import { submissionsService } from "../submissions/service.ts";
+import { catalogueRoutes } from "./routes.ts";
+import { catalogueService } from "./service.ts";
+
+/** The catalogue, its references, the review process and the development outbox, wired for createApp. */
+export function catalogueApiRoutes(deps: { db: Knex; config: Config; clock: () => Date; mailQueued: () => void }): RouteSpec[] {
+  const { db } = deps;
+  const references = referencesService(db);
+  const submissions = submissionsService({ ...deps, siteUrl: siteUrl(deps.config), checkMapping: (input) => checkMapping(input) });
+  return [...catalogueRoutes(catalogueService(db), references), ...referencesRoutes(references), ...submissionsRoutes(submissions), ...outboxRoutes(db)];
+}

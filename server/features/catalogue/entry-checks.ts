@@ -1,0 +1,107 @@
+import type { CheckResult, ChecksReport, Mapping, MappingKind, TheoryEntry } from "../../../common/catalogue.ts";
+import { ValidationError, type FieldErrors } from "../../errors.ts";
+import type { DerivationInput, MappingInput, MappingReport, MappingTarget } from "../../physics/checks/types.ts";
+import { isExpressionError } from "../../physics/expr/errors.ts";
+import { guardExpression } from "../../physics/expr/guard.ts";
+
+/** The physics engine's check of one expression; injected so the catalogue does not pick the engine's internals. */
+export type MappingChecker = (input: MappingInput) => Promise<MappingReport>;
+
+const TARGETS: Record<MappingKind, MappingTarget> = {
+  inspiral_phase: "ppe_phase",
+  inspiral_amplitude: "ppe_amplitude",
+  ringdown_frequency: "ringdown_frequency",
+  ringdown_damping: "ringdown_damping",
+};
+
+/** Every expression of the entry with its field path, for the guard. */
+function expressionFields(entry: TheoryEntry): [string, string][] {
+  const out: [string, string][] = [];
+  entry.definitions.forEach((d, i) => out.push([`definitions.${i}.expression`, d.expression]));
+  entry.mappings.forEach((m, i) => {
+    out.push([`mappings.${i}.expression`, m.expression]);
+    m.validity.forEach((v, j) => out.push([`mappings.${i}.validity.${j}.expression`, v.expression]));
+    for (const k of ["A", "B", "gamma"] as const) {
+      const e = m.derivation?.[k];
+      if (e !== undefined) out.push([`mappings.${i}.derivation.${k}`, e]);
+    }
+    if (m.gimr_equivalent) out.push([`mappings.${i}.gimr_equivalent.expression`, m.gimr_equivalent.expression]);
+  });
+  return out;
+}
+
+/**
+ * Expressions the guard refuses (forbidden syntax, unknown functions, too long or deep) are not
+ * saved at all: 400 naming each field, under `prefix` ("theory." for a submission body). Expressions
+ * that parse are saved even when later checks fail, so a theorist can keep a draft.
+ */
+export function guardEntryExpressions(entry: TheoryEntry, prefix = "theory."): void {
+  const fields: FieldErrors = {};
+  for (const [path, source] of expressionFields(entry)) {
+    try {
+      guardExpression(source);
+    } catch (err) {
+      if (!isExpressionError(err)) throw err;
+      fields[`${prefix}${path}`] = err.message;
+    }
+  }
+  const first = Object.entries(fields)[0];
+  if (first) throw new ValidationError(`Invalid request body: ${first[0]}: ${first[1]}`, fields);
+}
+
+/** The engine's derivation input from the entry's: E / flux change at one order, or a frequency-drift change. */
+export function derivationInput(m: Mapping): DerivationInput | undefined {
+  const d = m.derivation;
+  if (!d) return undefined;
+  if (d.kind === "energy_flux") {
+    const out: { energy?: { order: number; coefficient: string }; flux?: { order: number; coefficient: string } } = {};
+    if (d.A !== undefined) out.energy = { order: d.order, coefficient: d.A };
+    if (d.B !== undefined) out.flux = { order: d.order, coefficient: d.B };
+    return out.energy || out.flux ? out : undefined;
+  }
+  if (d.kind === "frequency_drift" && d.gamma !== undefined) return { frequency_drift: { order: d.order, coefficient: d.gamma } };
+  // Propagation effects are not an energy-balance derivation; nothing for the engine to re-derive.
+  return undefined;
+}
+
+function toResult(path: string, r: MappingReport["checks"][number]): CheckResult {
+  return { path, name: r.name, ok: r.ok, severity: r.severity ?? (r.ok ? "info" : "error"), message: r.message };
+}
+
+/** One engine call; declarations it cannot use at all (a bad coupling or definition) become a failed check. */
+async function run(check: MappingChecker, input: MappingInput, path: string): Promise<CheckResult[]> {
+  try {
+    return (await check(input)).checks.map((c) => toResult(path, c));
+  } catch (err) {
+    if (!isExpressionError(err)) throw err;
+    return [{ path, name: "declarations", ok: false, severity: "error", message: err.message }];
+  }
+}
+
+/**
+ * Runs the engine on every mapping and every validity condition of the entry. The report is stored
+ * with the submission (and, once accepted, with the revision and on each mapping row).
+ */
+export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now: Date): Promise<ChecksReport> {
+  const couplings = entry.couplings.map((c) => ({ symbol: c.symbol, dimension: c.dimension, ...(c.description ? { description: c.description } : {}) }));
+  const definitions = entry.definitions.map((d) => ({ symbol: d.symbol, expression: d.expression }));
+  const jobs: Promise<CheckResult[]>[] = [];
+  entry.mappings.forEach((m, i) => {
+    const input: MappingInput = {
+      expression: m.expression,
+      target: TARGETS[m.kind],
+      couplings,
+      definitions,
+      ...(m.b === undefined ? {} : { b: m.b }),
+      ...(m.a === undefined ? {} : { a: m.a }),
+      ...(m.pn_order === undefined ? {} : { pn_order: m.pn_order }),
+    };
+    const derivation = derivationInput(m);
+    jobs.push(run(check, derivation ? { ...input, derivation } : input, `mappings.${i}`));
+    m.validity.forEach((v, j) => jobs.push(run(check, { expression: v.expression, target: "validity", couplings, definitions }, `mappings.${i}.validity.${j}`)));
+  });
+  const results = (await Promise.all(jobs)).flat();
+  const failures = results.filter((r) => !r.ok && r.severity === "error").length;
+  const warnings = results.filter((r) => r.severity === "warning").length;
+  return { ok: failures === 0, failures, warnings, results, checked_at: now.toISOString() };
+}
