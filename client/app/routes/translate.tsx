@@ -1,0 +1,32 @@
+import { Link } from "react-router-dom";
+import type { ConvertRequest } from "../../../common/convert.ts";
+import { useAuth } from "../../features/auth/components/auth-context.tsx";
+import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
+import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
+import { paths } from "../../lib/paths.ts";
+
+function SaveSlot({ request }: { request: ConvertRequest }) {
+  const { user, hasRole } = useAuth();
+  if (hasRole("analyst")) return <SaveToSheet request={request} />;
+  return (
+    <p className="text-sm text-ink-faint">
+      {user ? "Saving translations to sheets needs the analyst role." : <>Sign in with the analyst role to save translations to a sheet (<Link to={paths.signIn({ returnTo: paths.translate() })}>sign in</Link>).</>}
+    </p>
+  );
+}
+
+/** The translate page: a measured bound in, a limit on every catalogued coupling out. */
+export function Component() {
+  return (
+    <article className="flex flex-col gap-6">
+      <header className="max-w-3xl">
+        <h1 className="text-4xl leading-tight">Translate a bound</h1>
+        <p className="mt-3 text-lg leading-relaxed text-ink-soft">
+          Give a bound on a theory-agnostic deviation, the binary it was measured on, and the cosmology. Every accepted catalogue entry that enters at that b turns it into a
+          limit on its coupling, with the conditions of its approximation checked at the limit.
+        </p>
+      </header>
+      <TranslatePanel footer={(request) => <SaveSlot request={request} />} />
+    </article>
+  );
+}

@@ -1,0 +1,199 @@
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useEffect, useMemo } from "react";
+import { get, useForm, useWatch, type FieldPath } from "react-hook-form";
+import type { z } from "zod";
+import { DEFAULT_COSMOLOGY, GIMR_KS, convertRequestSchema, type ConvertRequest } from "../../../../common/convert.ts";
+import { Button } from "../../../components/ui/button.tsx";
+import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
+import { ApiError } from "../../../lib/api-client.ts";
+
+type FormInput = z.input<typeof convertRequestSchema>;
+type FormPath = FieldPath<FormInput>;
+
+/** A worked example that opens the page: a 10 + 5 solar-mass black-hole binary and a -1PN bound. */
+export const EXAMPLE_REQUEST: FormInput = {
+  bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus" },
+  binary: { m1: 10, m2: 5, chi1: 0, chi2: 0, bodies: ["bh", "bh"], frame: "source" },
+  cosmology: { ...DEFAULT_COSMOLOGY },
+};
+
+const FIELD_NAMES: readonly string[] = [
+  "bound.parameter",
+  "bound.b",
+  "bound.k",
+  "bound.upper",
+  "bound.credibility",
+  "bound.sign_convention",
+  "bound.includes_spin",
+  "binary.m1",
+  "binary.m2",
+  "binary.chi1",
+  "binary.chi2",
+  "binary.bodies.0",
+  "binary.bodies.1",
+  "binary.frame",
+  "binary.z",
+  "cosmology.H0",
+  "cosmology.Omega_m",
+];
+
+const num = { valueAsNumber: true } as const;
+const optionalNum = { setValueAs: (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v)) } as const;
+const gimrK = { setValueAs: (v: unknown) => (v === "5l" || v === "6l" ? v : Number(v)) } as const;
+
+interface Props {
+  onSubmit: (request: ConvertRequest) => void;
+  /** The last request's failure: its field errors are put beside their fields. */
+  serverError?: unknown;
+  busy?: boolean;
+  initial?: FormInput;
+}
+
+/** The bound, the binary and the cosmology; validated with the same schema the server uses. */
+export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMPLE_REQUEST }: Props) {
+  const form = useForm<FormInput, unknown, ConvertRequest>({ resolver: zodResolver(convertRequestSchema), defaultValues: initial, mode: "onSubmit" });
+  const { register, handleSubmit, setError, formState, control } = form;
+  const errors = formState.errors;
+  const parameter = useWatch({ control, name: "bound.parameter" });
+  const frame = useWatch({ control, name: "binary.frame" });
+
+  // Server field errors go to the field they name (the form's own store); the rest are listed below.
+  useEffect(() => {
+    if (!(serverError instanceof ApiError)) return;
+    for (const [path, message] of Object.entries(serverError.fields)) {
+      if (FIELD_NAMES.includes(path)) setError(path as FormPath, { type: "server", message });
+    }
+  }, [serverError, setError]);
+  const otherErrors = useMemo(() => {
+    if (!(serverError instanceof ApiError)) return [];
+    const entries = Object.entries(serverError.fields);
+    if (entries.length === 0) return [serverError.message];
+    return entries.filter(([path]) => !FIELD_NAMES.includes(path)).map(([path, message]) => `${path}: ${message}`);
+  }, [serverError]);
+
+  const err = (path: string): string | undefined => {
+    const node: unknown = get(errors, path);
+    const message = node && typeof node === "object" && "message" in node ? node.message : undefined;
+    return typeof message === "string" ? message : undefined;
+  };
+
+  return (
+    <form onSubmit={handleSubmit(onSubmit)} noValidate aria-label="Bound to translate" className="flex flex-col gap-6" data-testid="bound-form">
+      <fieldset className="grid gap-4 sm:grid-cols-3">
+        <legend className="mb-2 text-lg font-semibold">The bound</legend>
+        <Field label="Deviation parameter" error={err("bound.parameter")}>
+          {(c) => (
+            <Select {...c} {...register("bound.parameter")}>
+              <option value="ppe_beta">ppE β at exponent b</option>
+              <option value="gimr_dphi">gIMR δφ_k</option>
+            </Select>
+          )}
+        </Field>
+        {parameter === "gimr_dphi" ? (
+          <Field label="Index k" hint="b = k − 5; 5l, 6l are the log terms" error={err("bound.k")}>
+            {(c) => (
+              <Select {...c} {...register("bound.k", gimrK)} defaultValue="-2">
+                {GIMR_KS.map((k) => (
+                  <option key={String(k)} value={String(k)}>
+                    {String(k)}
+                  </option>
+                ))}
+              </Select>
+            )}
+          </Field>
+        ) : (
+          <Field label="Exponent b" hint="b = 2n − 5 at n-th PN order" error={err("bound.b")}>
+            {(c) => <TextInput {...c} type="number" step="any" {...register("bound.b", num)} />}
+          </Field>
+        )}
+        <Field label={parameter === "gimr_dphi" ? "Upper bound on |δφ_k|" : "Upper bound on |β|"} error={err("bound.upper")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("bound.upper", num)} />}
+        </Field>
+        <Field label="Credibility" hint="fraction, e.g. 0.9" error={err("bound.credibility")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("bound.credibility", num)} />}
+        </Field>
+        {parameter === "gimr_dphi" ? (
+          <label className="flex items-center gap-2 self-end text-sm sm:col-span-2">
+            <input type="checkbox" {...register("bound.includes_spin")} />
+            the analysis stretched the spin-including φ_k
+          </label>
+        ) : (
+          <Field label="Phase sign convention of the analysis" error={err("bound.sign_convention")} className="sm:col-span-2">
+            {(c) => (
+              <Select {...c} {...register("bound.sign_convention")}>
+                <option value="plus">h ∝ exp(+iΨ) (as here)</option>
+                <option value="minus">h ∝ exp(−iΨ): β is flipped</option>
+              </Select>
+            )}
+          </Field>
+        )}
+      </fieldset>
+
+      <fieldset className="grid gap-4 sm:grid-cols-4">
+        <legend className="mb-2 text-lg font-semibold">The binary</legend>
+        <Field label="m₁ (M☉)" error={err("binary.m1")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("binary.m1", num)} />}
+        </Field>
+        <Field label="m₂ (M☉)" error={err("binary.m2")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("binary.m2", num)} />}
+        </Field>
+        <Field label="χ₁ (aligned)" error={err("binary.chi1")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("binary.chi1", num)} />}
+        </Field>
+        <Field label="χ₂ (aligned)" error={err("binary.chi2")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("binary.chi2", num)} />}
+        </Field>
+        <Field label="Body 1" error={err("binary.bodies.0")}>
+          {(c) => (
+            <Select {...c} {...register("binary.bodies.0")}>
+              <option value="bh">black hole</option>
+              <option value="ns">neutron star</option>
+            </Select>
+          )}
+        </Field>
+        <Field label="Body 2" error={err("binary.bodies.1")}>
+          {(c) => (
+            <Select {...c} {...register("binary.bodies.1")}>
+              <option value="bh">black hole</option>
+              <option value="ns">neutron star</option>
+            </Select>
+          )}
+        </Field>
+        <Field label="Masses are" error={err("binary.frame")}>
+          {(c) => (
+            <Select {...c} {...register("binary.frame")}>
+              <option value="source">source-frame</option>
+              <option value="detector">detector-frame (redshifted)</option>
+            </Select>
+          )}
+        </Field>
+        <Field label="Redshift z" hint={frame === "detector" ? "needed for detector-frame masses" : "needed for propagation effects"} error={err("binary.z")}>
+          {(c) => <TextInput {...c} type="number" step="any" placeholder="none" {...register("binary.z", optionalNum)} />}
+        </Field>
+      </fieldset>
+
+      <fieldset className="grid gap-4 sm:grid-cols-4">
+        <legend className="mb-2 text-lg font-semibold">Cosmology</legend>
+        <Field label="H₀ (km/s/Mpc)" hint={`Planck 2018: ${DEFAULT_COSMOLOGY.H0}`} error={err("cosmology.H0")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("cosmology.H0", num)} />}
+        </Field>
+        <Field label="Ωₘ (flat)" hint={`Planck 2018: ${DEFAULT_COSMOLOGY.Omega_m}`} error={err("cosmology.Omega_m")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("cosmology.Omega_m", num)} />}
+        </Field>
+      </fieldset>
+
+      {otherErrors.length > 0 && (
+        <div role="alert" className="rounded border border-brick/40 bg-brick-wash p-3 text-sm text-brick">
+          {otherErrors.map((m) => (
+            <p key={m}>{m}</p>
+          ))}
+        </div>
+      )}
+      <div>
+        <Button kind="primary" type="submit" busy={busy}>
+          Translate the bound
+        </Button>
+      </div>
+    </form>
+  );
+}

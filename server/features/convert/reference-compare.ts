@@ -1,0 +1,97 @@
+import type { QuotedValueDto, ReferenceComparison } from "../../../common/convert.ts";
+
+/**
+ * Puts a translated limit beside the published bounds on the same quantity: "3.2 times tighter than
+ * Lyu et al. 2022". Only like is compared with like (same symbol, unit and side, and the same coupling
+ * convention when the published bound names one); anything else is listed as incomparable.
+ */
+
+export interface CitableReference {
+  key: string;
+  authors: readonly string[];
+  year: number;
+}
+
+export interface KnownBound {
+  /** Symbol of the coupling or of its quoted quantity (sqrt_alpha, m_g, lambda_g ...). */
+  symbol: string;
+  value: number;
+  unit: string;
+  side: "upper" | "lower";
+  convention: string | null;
+  credibility: number | null;
+  note: string | null;
+  reference: CitableReference;
+}
+
+/** The translated limit in every form it can be compared in: per convention, the quoted value and its extras. */
+export interface TranslatedForms {
+  /** Convention name -> quoted values (primary first). */
+  byConvention: ReadonlyMap<string, readonly QuotedValueDto[]>;
+  /** The convention the result is shown in. */
+  shown: string;
+}
+
+function surname(author: string): string {
+  const a = author.trim();
+  if (a.includes(",")) return a.split(",")[0]!.trim();
+  const words = a.split(/\s+/);
+  return words[words.length - 1] ?? a;
+}
+
+/** "Yagi 2012", "Yunes & Pretorius 2009", "Lyu et al. 2022", "LIGO-Virgo 2016" (common practice for collaborations). */
+export function shortCitation(ref: Pick<CitableReference, "authors" | "year">): string {
+  const joined = ref.authors.join(", ");
+  if (/collaboration/i.test(joined)) {
+    const members = joined
+      .replace(/\([^)]*\)/g, " ")
+      .replace(/\b(?:Scientific|Collaborations?)\b/gi, " ")
+      .split(/\s*(?:,|\band\b)\s*/i)
+      .map((m) => m.trim())
+      .filter(Boolean);
+    return `${members.join("-")} ${ref.year}`;
+  }
+  const names = ref.authors.map(surname).filter(Boolean);
+  const who = names.length === 0 ? "Anonymous" : names.length === 1 ? names[0]! : names.length === 2 ? `${names[0]} & ${names[1]}` : `${names[0]} et al.`;
+  return `${who} ${ref.year}`;
+}
+
+function fmt(x: number): string {
+  return Number(x.toPrecision(3)).toString();
+}
+
+export function compareWithBound(forms: TranslatedForms, bound: KnownBound): ReferenceComparison {
+  const citation = shortCitation(bound.reference);
+  const convention = bound.convention ?? forms.shown;
+  const candidates = forms.byConvention.get(convention) ?? [];
+  const ours = candidates.find((q) => q.symbol === bound.symbol && q.unit === bound.unit && q.side === bound.side);
+  const base = {
+    symbol: bound.symbol,
+    value: bound.value,
+    unit: bound.unit,
+    side: bound.side,
+    convention: bound.convention,
+    credibility: bound.credibility,
+    reference: { key: bound.reference.key, citation },
+    note: bound.note,
+  };
+  const quotedBound = `${fmt(bound.value)}${bound.unit && bound.unit !== "1" ? ` ${bound.unit}` : ""}`;
+  if (!ours || !(ours.value > 0) || !(bound.value > 0)) {
+    return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${bound.symbol} ${quotedBound})` };
+  }
+  // ratio > 1: ours is tighter. An upper limit is tighter when smaller, a lower limit when larger.
+  const ratio = bound.side === "upper" ? bound.value / ours.value : ours.value / bound.value;
+  const rel = Math.abs(ratio - 1);
+  const credibilityNote = bound.credibility === null ? "" : `, ${fmt(bound.credibility * 100)}% credibility`;
+  const against = `${citation} (${quotedBound}${credibilityNote})`;
+  if (rel < 0.005) return { ...base, ratio, verdict: "equal", sentence: `the same as ${against}` };
+  if (ratio > 1) return { ...base, ratio, verdict: "tighter", sentence: `${fmt(ratio)} times tighter than ${against}` };
+  return { ...base, ratio, verdict: "weaker", sentence: `${fmt(1 / ratio)} times weaker than ${against}` };
+}
+
+/** The published bound this translation is best compared with: the tightest comparable one. */
+export function bestComparison(comparisons: readonly ReferenceComparison[]): ReferenceComparison | undefined {
+  const comparable = comparisons.filter((c) => c.ratio !== null);
+  if (comparable.length === 0) return comparisons[0];
+  return comparable.reduce((best, c) => (c.ratio! < best.ratio! ? c : best));
+}

@@ -1,0 +1,98 @@
+import type { Request, RequestHandler } from "express";
+import multer from "multer";
+import { convertRequestSchema, convertResponseSchema, convertTableRequestSchema, convertTableResponseSchema } from "../../../common/convert.ts";
+import type { Config } from "../../config.ts";
+import { ValidationError } from "../../errors.ts";
+import { access, parseWith, type RouteSpec } from "../../http/route.ts";
+import { parseBoundsCsv, withCsvLines } from "./csv-rows.ts";
+import { convertRateLimit } from "./rate-limit.ts";
+import type { ConvertService } from "./service.ts";
+
+/**
+ * POST /api/v1/convert and /api/v1/convert/table: open to anyone, rate-limited. The table route takes
+ * JSON rows, or a multipart upload whose `file` is a CSV and whose other fields carry the rest of the
+ * request (binary and cosmology as JSON text).
+ */
+
+function jsonField(req: Request, name: string): unknown {
+  const raw: unknown = req.body?.[name];
+  if (raw === undefined || raw === "") return undefined;
+  if (typeof raw !== "string") return raw;
+  try {
+    return JSON.parse(raw);
+  } catch {
+    throw new ValidationError(`Invalid ${name}: the form field must hold JSON`, { [name]: "must be JSON text, e.g. {\"m1\": 10, ...}" });
+  }
+}
+
+function scalarField(req: Request, name: string): unknown {
+  const raw: unknown = req.body?.[name];
+  if (typeof raw !== "string" || raw.trim() === "") return raw === "" ? undefined : raw;
+  const t = raw.trim();
+  if (t === "true" || t === "false") return t === "true";
+  const n = Number(t);
+  return Number.isFinite(n) ? n : t;
+}
+
+/** The multipart request, reassembled into the JSON shape so one schema judges both. */
+function tableRequestFromUpload(req: Request): unknown {
+  const file = req.file;
+  if (!file) throw new ValidationError("Invalid upload: attach the CSV as the form field file", { file: "attach the CSV as the form field file" });
+  const rows = parseBoundsCsv(file.buffer.toString("utf8"), "file");
+  const theories = scalarField(req, "theories");
+  return {
+    rows,
+    binary: jsonField(req, "binary"),
+    cosmology: jsonField(req, "cosmology"),
+    credibility: scalarField(req, "credibility"),
+    sign_convention: scalarField(req, "sign_convention"),
+    includes_spin: scalarField(req, "includes_spin"),
+    ...(typeof theories === "string" ? { theories: theories.startsWith("[") ? jsonField(req, "theories") : theories.split(",").map((s) => s.trim()).filter(Boolean) } : {}),
+  };
+}
+
+export function convertRoutes(service: ConvertService, config: Config): RouteSpec[] {
+  const limit = convertRateLimit(config.RATE_LIMIT_PER_MINUTE);
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: config.CONVERT_UPLOAD_MAX_BYTES, files: 1, fields: 12 } });
+  // multer skips requests that are not multipart, so JSON bodies pass straight through.
+  const csvUpload: RequestHandler = upload.single("file");
+
+  return [
+    {
+      method: "post",
+      path: "/v1/convert",
+      access: access.public,
+      summary: "Translate one bound on a ppE beta or gIMR dphi_k into limits on every applicable catalogued coupling",
+      tags: ["convert"],
+      body: convertRequestSchema,
+      response: convertResponseSchema,
+      errors: [400, 429],
+      before: [limit],
+      handler: async (req, res) => {
+        const request = parseWith(convertRequestSchema, req.body);
+        res.json(await service.convert(request));
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/convert/table",
+      access: access.public,
+      summary: "Translate a table of bounds over b (JSON rows or a CSV upload in the field `file`) for one binary",
+      tags: ["convert"],
+      body: convertTableRequestSchema,
+      response: convertTableResponseSchema,
+      errors: [400, 429],
+      before: [limit, csvUpload],
+      handler: async (req, res) => {
+        const fromUpload = Boolean(req.is("multipart/form-data"));
+        let request;
+        try {
+          request = parseWith(convertTableRequestSchema, fromUpload ? tableRequestFromUpload(req) : req.body);
+        } catch (err) {
+          throw fromUpload && err instanceof ValidationError ? withCsvLines(err) : err;
+        }
+        res.json(await service.convertTable(request));
+      },
+    },
+  ];
+}

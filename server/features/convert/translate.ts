@@ -1,0 +1,203 @@
+import {
+  DEFAULT_COSMOLOGY,
+  type BinaryRequest,
+  type BoundRequest,
+  type Caution,
+  type ConvertRequest,
+  type ConvertResponse,
+  type ConvertResult,
+  type CosmologyRequest,
+  type NotApplicable,
+} from "../../../common/convert.ts";
+import { ValidationError } from "../../errors.ts";
+import { makeBinary, type Binary } from "../../physics/binary.ts";
+import { convertInContext, createConversionContext, type BoundInput, type ConversionContext } from "../../physics/convert.ts";
+import { PhysicsInputError } from "../../physics/input-error.ts";
+import { degeneracyOfB, gimrFactor, type GimrIndex } from "../../physics/taylorf2.ts";
+import { distanceAlphaMpc } from "../../physics/cosmology.ts";
+import { engineCautions, gimrSpinCaution, logTermCaution, signConventionCaution } from "./cautions.ts";
+import type { CompiledCatalogue, CompiledTheory } from "./compiled-catalogue.ts";
+import { buildResult } from "./build-result.ts";
+
+/**
+ * One bound, one binary, every applicable theory. Synchronous and free of I/O: the service hands it
+ * a compiled catalogue, the benchmark calls it directly.
+ */
+
+export interface Prepared {
+  binary: Binary;
+  cosmology: CosmologyRequest;
+  context: ConversionContext;
+  /** Cautions about the binary itself (frame conversion). */
+  cautions: Caution[];
+}
+
+/** Physics refusals become 400s naming the request field (binary.m1, cosmology.H0, ...). */
+function asValidation(err: unknown, prefix: string): never {
+  if (err instanceof PhysicsInputError) {
+    const field = err.field.startsWith("cosmology.") ? err.field : `${prefix}${err.field}`;
+    throw new ValidationError(`Invalid ${field}: ${err.message}`, { [field]: err.message });
+  }
+  throw err;
+}
+
+export function prepareBinary(input: BinaryRequest, cosmology: CosmologyRequest | undefined): Prepared {
+  const cosmo = cosmology ?? { ...DEFAULT_COSMOLOGY };
+  try {
+    const sens = input.scalar_sensitivities;
+    const binary = makeBinary({
+      m1: input.m1,
+      m2: input.m2,
+      chi1: input.chi1,
+      chi2: input.chi2,
+      bodies: input.bodies,
+      frame: input.frame,
+      ...(input.z === undefined ? {} : { z: input.z }),
+      ...(sens ? { scalar_sensitivities: [sens[0] ?? undefined, sens[1] ?? undefined] as const } : {}),
+    });
+    const context = createConversionContext(binary, { cosmology: cosmo });
+    const cautions: Caution[] = [];
+    if (input.frame === "detector" && input.z !== undefined) {
+      cautions.push({
+        code: "frame",
+        message: `Detector-frame masses were divided by 1 + z = ${Number((1 + input.z).toPrecision(6))}: source-frame m₁ = ${binary.m1.toPrecision(4)} M☉, m₂ = ${binary.m2.toPrecision(4)} M☉ set the length scale of generation effects.`,
+      });
+    }
+    return { binary, cosmology: cosmo, context, cautions };
+  } catch (err) {
+    return asValidation(err, "binary.");
+  }
+}
+
+/** Unknown slugs and conventions are the caller's mistake: 400 naming theories.<i> or conventions.<slug>. */
+export function checkSelection(catalogue: CompiledCatalogue, theories: readonly string[] | undefined, conventions: Readonly<Record<string, string>> | undefined): void {
+  const fields: Record<string, string> = {};
+  const known = [...catalogue.bySlug.keys()].sort();
+  theories?.forEach((slug, i) => {
+    if (!catalogue.bySlug.has(slug)) fields[`theories.${i}`] = `unknown theory "${slug}"; accepted theories are ${known.join(", ")}`;
+  });
+  for (const [slug, name] of Object.entries(conventions ?? {})) {
+    const t = catalogue.bySlug.get(slug);
+    if (!t) {
+      fields[`conventions.${slug}`] = `unknown theory "${slug}"`;
+      continue;
+    }
+    const names = new Set(t.mappings.flatMap((m) => [m.compiled.coupling.convention ?? "", ...(m.compiled.coupling.conventions ?? []).map((c) => c.name)]));
+    names.delete("");
+    if (!names.has(name)) fields[`conventions.${slug}`] = `unknown convention "${name}" for ${slug}; stored conventions are ${[...names].join(", ") || "none"}`;
+  }
+  const first = Object.entries(fields)[0];
+  if (first) throw new ValidationError(`Invalid ${first[0]}: ${first[1]}`, fields);
+}
+
+export function boundInputOf(bound: BoundRequest): BoundInput {
+  return bound.parameter === "ppe_beta"
+    ? { kind: "ppe", b: bound.b, beta_max: bound.upper, convention: bound.sign_convention, credibility: bound.credibility }
+    : // The schema admits only the indices of GIMR_KS, which are the engine's GimrIndex values.
+      { kind: "gimr", k: bound.k as GimrIndex, dphi_max: bound.upper, includes_spin: bound.includes_spin, credibility: bound.credibility };
+}
+
+interface BoundSummary {
+  b: number | null;
+  betaMax: number | null;
+  cautions: Caution[];
+  /** Set when no theory can be translated from this bound, with the reason for each. */
+  unusable?: { code: NotApplicable["code"]; reason: string };
+}
+
+function summarise(bound: BoundRequest, binary: Binary): BoundSummary {
+  const cautions: Caution[] = [];
+  if (bound.parameter === "ppe_beta") {
+    if (bound.sign_convention === "minus") cautions.push(signConventionCaution(false));
+    const degenerate = degeneracyOfB(bound.b);
+    if (degenerate) cautions.push({ code: "engine", message: `${degenerate.charAt(0).toUpperCase()}${degenerate.slice(1)}.` });
+    return { b: bound.b, betaMax: bound.upper, cautions, ...(degenerate ? { unusable: { code: "degenerate_b", reason: degenerate } } : {}) };
+  }
+  const k = bound.k;
+  if (k === "5l" || k === "6l") {
+    cautions.push(logTermCaution(k));
+    return { b: null, betaMax: null, cautions, unusable: { code: "no_ppe_equivalent", reason: `δφ_${k} multiplies a log term: it has no single-b ppE equivalent` } };
+  }
+  const f = gimrFactor(k as GimrIndex, binary.eta, {
+    includesSpin: bound.includes_spin,
+    spins: { eta: binary.eta, dm: binary.dm, chi_s: binary.chi_s, chi_a: binary.chi_a, bodies: binary.bodies },
+  });
+  if (f.status !== "ok") {
+    cautions.push({ code: "engine", message: `${f.reason.charAt(0).toUpperCase()}${f.reason.slice(1)}.` });
+    return { b: f.b, betaMax: null, cautions, unusable: { code: "degenerate_b", reason: f.reason } };
+  }
+  const spinning = binary.chi_s !== 0 || binary.chi_a !== 0;
+  const spin = spinning ? gimrSpinCaution(k, bound.includes_spin, f.spinModelled) : undefined;
+  if (spin) cautions.push(spin);
+  cautions.push(...engineCautions({ warnings: [], cautions: f.cautions }));
+  return { b: f.b, betaMax: Math.abs(f.factor) * bound.upper, cautions };
+}
+
+function notApplicable(t: CompiledTheory, code: NotApplicable["code"], reason: string): NotApplicable {
+  return { theory: t.theory.slug, theory_name: t.theory.name, code, reason, b: t.bs };
+}
+
+function sameB(a: number, b: number): boolean {
+  return Math.abs(a - b) < 1e-9;
+}
+
+function translateTheory(t: CompiledTheory, summary: BoundSummary, boundInput: BoundInput, bound: BoundRequest, prepared: Prepared, conventions: Readonly<Record<string, string>> | undefined): ConvertResult | NotApplicable {
+  if (t.noPhaseMapping) return notApplicable(t, "different_b", "its catalogued mappings are not inspiral-phase terms (ringdown or amplitude only)");
+  if (summary.unusable) return notApplicable(t, summary.unusable.code, summary.unusable.reason);
+  const b = summary.b!;
+  const ready = t.mappings.find((m) => sameB(m.compiled.b, b));
+  if (!ready) {
+    const broken = t.broken.find((x) => x.b !== null && sameB(x.b, b));
+    if (broken) return notApplicable(t, "evaluation_failed", `its mapping at b = ${b} could not be compiled: ${broken.reason}`);
+    return notApplicable(t, "different_b", `its mapping enters at b = ${t.bs.join(", ") || "none"}, not at b = ${b}`);
+  }
+  let result;
+  try {
+    result = convertInContext(boundInput, prepared.context, ready.compiled);
+  } catch (err) {
+    if (err instanceof PhysicsInputError && err.field === "z") {
+      return notApplicable(t, "needs_distance", "it is a propagation effect: the bound needs the source's distance, and no redshift z was given");
+    }
+    if (err instanceof PhysicsInputError) return notApplicable(t, "needs_input", `${err.message} (field ${err.field})`);
+    return notApplicable(t, "evaluation_failed", `the mapping could not be evaluated for this binary: ${err instanceof Error ? err.message : String(err)}`);
+  }
+  if (result.status === "no_constraint") return notApplicable(t, result.code, result.reason);
+  const distance = ready.compiled.distance;
+  const propagation =
+    distance && prepared.binary.z !== undefined
+      ? { z: prepared.binary.z, alphaMd: distance.alphaMd, mpc: distanceAlphaMpc(prepared.binary.z, distance.alphaMd, prepared.cosmology) }
+      : undefined;
+  return buildResult({ theory: t.theory, ready, result, bound, requestedConvention: conventions?.[t.theory.slug], propagation });
+}
+
+export function translateBound(catalogue: CompiledCatalogue, prepared: Prepared, bound: BoundRequest, selection: Pick<ConvertRequest, "theories" | "conventions">): ConvertResponse {
+  const summary = summarise(bound, prepared.binary);
+  const boundInput = boundInputOf(bound);
+  const scope = selection.theories ? selection.theories.flatMap((s) => catalogue.bySlug.get(s) ?? []) : catalogue.theories;
+  const results: ConvertResult[] = [];
+  const notApplicableList: NotApplicable[] = [];
+  for (const t of scope) {
+    const out = translateTheory(t, summary, boundInput, bound, prepared, selection.conventions);
+    if ("code" in out) notApplicableList.push(out);
+    else results.push(out);
+  }
+  const keys = new Set(results.flatMap((r) => [...r.references.map((c) => c.key), ...r.reference_bounds.map((c) => c.reference.key)]));
+  const bibliography = new Map<string, ConvertResponse["bibliography"][number]>();
+  for (const t of scope) for (const ref of t.theory.references) if (keys.has(ref.key) && !bibliography.has(ref.key)) bibliography.set(ref.key, ref);
+  return {
+    bound: { b: summary.b, beta_max: summary.betaMax, credibility: bound.credibility },
+    cosmology: { H0: prepared.cosmology.H0, Omega_m: prepared.cosmology.Omega_m },
+    catalogue_revision: catalogue.revision,
+    results,
+    not_applicable: notApplicableList,
+    cautions: [...summary.cautions, ...prepared.cautions],
+    bibliography: [...bibliography.values()],
+  };
+}
+
+/** The whole request: selection checks, the binary, the bound. */
+export function translate(catalogue: CompiledCatalogue, request: ConvertRequest): ConvertResponse {
+  checkSelection(catalogue, request.theories, request.conventions);
+  const prepared = prepareBinary(request.binary, request.cosmology);
+  return translateBound(catalogue, prepared, request.bound, request);
+}

@@ -1,0 +1,103 @@
+import type { Sheet } from "../../../common/sheets.ts";
+import { boundIndex, exportLines, failedConditions } from "./export-rows.ts";
+
+/**
+ * CSV (RFC 4180: comma-separated, CRLF line ends, fields quoted when they hold a comma, quote or line
+ * break). Text cells that a spreadsheet would run as a formula (=, +, -, @ first) get a leading
+ * apostrophe; numbers are written as numbers, so a negative b stays a number.
+ */
+type Cell = string | number | boolean | null;
+
+export const CSV_COLUMNS = [
+  "record",
+  "detector_network",
+  "analysis_method",
+  "data_link",
+  "parameter",
+  "b",
+  "k",
+  "upper",
+  "credibility",
+  "sign_convention",
+  "m1",
+  "m2",
+  "chi1",
+  "chi2",
+  "bodies",
+  "frame",
+  "z",
+  "H0",
+  "Omega_m",
+  "theory",
+  "status",
+  "convention",
+  "symbol",
+  "side",
+  "value",
+  "unit",
+  "also",
+  "valid",
+  "failed_conditions",
+  "reason",
+  "catalogue_revision",
+] as const;
+
+export function escapeCsvCell(cell: Cell): string {
+  if (cell === null) return "";
+  if (typeof cell === "number") return Number.isFinite(cell) ? String(cell) : "";
+  if (typeof cell === "boolean") return cell ? "true" : "false";
+  let s = cell;
+  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+export function sheetToCsv(sheet: Sheet): string {
+  const lines: Cell[][] = [[...CSV_COLUMNS]];
+  for (const line of exportLines(sheet, { includeNotApplicable: true })) {
+    const r = line.record;
+    const { b, k } = boundIndex(r);
+    const common: Cell[] = [
+      r.label,
+      r.detector_network,
+      r.analysis_method,
+      r.data_link,
+      r.bound.parameter,
+      b,
+      k,
+      r.bound.upper,
+      r.bound.credibility,
+      r.bound.parameter === "ppe_beta" ? r.bound.sign_convention : null,
+      r.binary.m1,
+      r.binary.m2,
+      r.binary.chi1,
+      r.binary.chi2,
+      r.binary.bodies.join("-"),
+      r.binary.frame,
+      r.binary.z ?? null,
+      r.translation.cosmology.H0,
+      r.translation.cosmology.Omega_m,
+    ];
+    if (line.kind === "limit") {
+      const x = line.result;
+      lines.push([
+        ...common,
+        x.theory,
+        "bounded",
+        x.convention,
+        x.coupling.symbol,
+        x.coupling.side,
+        x.coupling.value,
+        x.coupling.unit,
+        x.also.map((a) => `${a.symbol} ${a.side === "upper" ? "<=" : ">="} ${a.value} ${a.unit}`).join("; "),
+        x.valid,
+        failedConditions(x).join("; "),
+        null,
+        r.translation.catalogue_revision,
+      ]);
+    } else {
+      const n = line.item;
+      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, n.reason, r.translation.catalogue_revision]);
+    }
+  }
+  return lines.map((cells) => cells.map(escapeCsvCell).join(",")).join("\r\n") + "\r\n";
+}

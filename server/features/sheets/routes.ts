@@ -1,0 +1,182 @@
+import type { Request, Response } from "express";
+import { z } from "zod";
+import {
+  createSheetSchema,
+  exportQuerySchema,
+  sheetIdSchema,
+  sheetListSchema,
+  sheetSchema,
+  shareResponseSchema,
+  shareTokenSchema,
+  updateSheetSchema,
+} from "../../../common/sheets.ts";
+import type { Config } from "../../config.ts";
+import { UnauthorizedError } from "../../errors.ts";
+import type { Identity } from "../../http/identity.ts";
+import { access, parseWith, type RouteSpec } from "../../http/route.ts";
+import { convertRateLimit } from "../convert/rate-limit.ts";
+import type { ExportFile } from "./export-files.ts";
+import type { SheetsService } from "./service.ts";
+
+/** Saved sheets: analysts manage their own; a share token opens one read-only for anyone. */
+
+const analyst = access.roles("analyst");
+const idParams = z.object({ id: sheetIdSchema });
+const tokenParams = z.object({ token: shareTokenSchema });
+const deleteQuery = z.object({ version: z.coerce.number({ error: "version must be a number" }).int().positive().optional() });
+
+function caller(req: Request): Identity {
+  if (!req.identity) throw new UnauthorizedError();
+  return req.identity;
+}
+
+function sendFile(res: Response, file: ExportFile): void {
+  res.setHeader("Content-Type", file.contentType);
+  res.setHeader("Content-Disposition", `attachment; filename="${file.filename}"`);
+  res.setHeader("Cache-Control", "no-store");
+  res.send(file.body);
+}
+
+export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[] {
+  const limit = convertRateLimit(config.RATE_LIMIT_PER_MINUTE);
+  const tags = ["sheets"];
+  return [
+    {
+      method: "get",
+      path: "/v1/sheets",
+      access: analyst,
+      summary: "Your saved sheets",
+      tags,
+      response: sheetListSchema,
+      handler: async (req, res) => {
+        res.json({ sheets: await service.list(caller(req)) });
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/sheets",
+      access: analyst,
+      summary: "Save a new sheet of bound records; each record is translated as it is saved",
+      tags,
+      body: createSheetSchema,
+      response: sheetSchema,
+      errors: [400],
+      handler: async (req, res) => {
+        const input = parseWith(createSheetSchema, req.body);
+        res.status(201).json(await service.create(caller(req), input));
+      },
+    },
+    {
+      method: "get",
+      path: "/v1/sheets/:id",
+      access: analyst,
+      summary: "One of your sheets, with each record's stored translation",
+      tags,
+      response: sheetSchema,
+      errors: [400, 404],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        res.json(await service.get(caller(req), id));
+      },
+    },
+    {
+      method: "patch",
+      path: "/v1/sheets/:id",
+      access: analyst,
+      summary: "Change a sheet's name, description or records (give the version you read; a stale one answers 409)",
+      tags,
+      body: updateSheetSchema,
+      response: sheetSchema,
+      errors: [400, 404, 409],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        const input = parseWith(updateSheetSchema, req.body);
+        res.json(await service.update(caller(req), id, input));
+      },
+    },
+    {
+      method: "delete",
+      path: "/v1/sheets/:id",
+      access: analyst,
+      summary: "Delete a sheet (optionally ?version=, answering 409 when it is stale)",
+      tags,
+      query: deleteQuery,
+      errors: [400, 404, 409],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        const { version } = parseWith(deleteQuery, req.query, "query");
+        await service.remove(caller(req), id, version);
+        res.status(204).end();
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/sheets/:id/share",
+      access: analyst,
+      summary: "Issue a read-only share link for the sheet (a new one withdraws the previous link)",
+      tags,
+      response: shareResponseSchema,
+      errors: [404],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        res.status(201).json(await service.share(caller(req), id));
+      },
+    },
+    {
+      method: "delete",
+      path: "/v1/sheets/:id/share",
+      access: analyst,
+      summary: "Withdraw the sheet's share link",
+      tags,
+      errors: [404],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        await service.unshare(caller(req), id);
+        res.status(204).end();
+      },
+    },
+    {
+      method: "get",
+      path: "/v1/sheets/:id/export",
+      access: analyst,
+      summary: "Download a sheet as CSV, JSON, a LaTeX table (booktabs) or the BibTeX of every reference it cites",
+      tags,
+      query: exportQuerySchema,
+      errors: [400, 404],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        const { format, digits } = parseWith(exportQuerySchema, req.query, "query");
+        sendFile(res, await service.exportOwn(caller(req), id, format, digits));
+      },
+    },
+    {
+      method: "get",
+      path: "/v1/shared/:token",
+      access: access.public,
+      summary: "A shared sheet, read-only, through its share token",
+      tags,
+      response: sheetSchema,
+      errors: [400, 404, 429],
+      before: [limit],
+      handler: async (req, res) => {
+        const { token } = parseWith(tokenParams, req.params, "path");
+        res.json(await service.shared(token));
+      },
+    },
+    {
+      method: "get",
+      path: "/v1/shared/:token/export",
+      access: access.public,
+      summary: "Download a shared sheet in one of the export formats",
+      tags,
+      query: exportQuerySchema,
+      errors: [400, 404, 429],
+      before: [limit],
+      handler: async (req, res) => {
+        const { token } = parseWith(tokenParams, req.params, "path");
+        const { format, digits } = parseWith(exportQuerySchema, req.query, "query");
+        sendFile(res, await service.exportShared(token, format, digits));
+      },
+    },
+  ];
+}

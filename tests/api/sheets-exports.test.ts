@@ -1,0 +1,160 @@
+import Papa from "papaparse";
+import request from "supertest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { parseBibtexEntries, parseBibtexReference } from "../../common/bibtex.ts";
+import { sheetSchema, type Sheet } from "../../common/sheets.ts";
+import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { CSV_COLUMNS, escapeCsvCell } from "../../server/features/sheets/export-csv.ts";
+import { fileStem } from "../../server/features/sheets/export-files.ts";
+import { escapeLatex, sciLatex } from "../../server/features/sheets/export-latex.ts";
+import { buildTestApp } from "../helpers/app.ts";
+import { bearerFor, ensureUser } from "../helpers/auth.ts";
+import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+
+describe("export formatting (pure)", () => {
+  it("when numbers are written for LaTeX, then they are plain scientific notation with the requested figures", () => {
+    expect(sciLatex(1.7, 2)).toBe("1.7\\times10^{0}");
+    expect(sciLatex(4.0721, 3)).toBe("4.07\\times10^{0}");
+    expect(sciLatex(1.2e-22, 2)).toBe("1.2\\times10^{-22}");
+    expect(sciLatex(-2.5e13, 3)).toBe("-2.50\\times10^{13}");
+    expect(sciLatex(0)).toBe("0");
+  });
+
+  it("when text holds LaTeX specials, then each is escaped for text mode", () => {
+    expect(escapeLatex("KV_1 & 50% #2 {x} ~ ^ \\ $")).toBe("KV\\_1 \\& 50\\% \\#2 \\{x\\} \\textasciitilde{} \\textasciicircum{} \\textbackslash{} \\$");
+  });
+
+  it("when CSV cells hold commas, quotes or formula starts, then they are quoted or defused; numbers stay numbers", () => {
+    expect(escapeCsvCell('a "b", c')).toBe('"a ""b"", c"');
+    expect(escapeCsvCell("=HYPERLINK(1)")).toBe("'=HYPERLINK(1)");
+    expect(escapeCsvCell(-7)).toBe("-7");
+    expect(escapeCsvCell(null)).toBe("");
+    expect(fileStem("Demo: Kestrel–Vireo bounds!")).toBe("demo-kestrel-vireo-bounds");
+  });
+});
+
+describe("GET /api/v1/sheets/:id/export", () => {
+  let tdb: TestDatabase;
+  let app: ReturnType<typeof buildTestApp>;
+  let token: string;
+  let sheet: Sheet;
+
+  beforeAll(async () => {
+    tdb = await createTestDatabase();
+    await tdb.db.transaction((trx) => catalogueSeed.run(trx));
+    app = buildTestApp(tdb, { RATE_LIMIT_PER_MINUTE: "1000" });
+    await ensureUser(tdb.db, { login: "x-analyst", roles: ["analyst"] });
+    token = `Bearer ${await bearerFor(tdb.db, "x-analyst")}`;
+    const res = await request(app)
+      .post("/api/v1/sheets")
+      .set("Authorization", token)
+      .send({
+        name: "Egret & Crane 90% bounds",
+        records: [
+          {
+            label: "EC-01_a",
+            detector_network: "Egret-Crane (test)",
+            analysis_method: "ppE",
+            bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 },
+            binary: { m1: 10, m2: 5, frame: "source" },
+          },
+          {
+            label: "EC-02",
+            detector_network: "Egret-Crane (test)",
+            analysis_method: "ppE, propagation",
+            bound: { parameter: "ppe_beta", b: -3, upper: 0.02, credibility: 0.9 },
+            binary: { m1: 30, m2: 25, frame: "source", z: 0.2 },
+          },
+        ],
+      });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    sheet = sheetSchema.parse(res.body);
+  });
+  afterAll(async () => {
+    await tdb?.drop();
+  });
+
+  const exportOf = (format: string) => request(app).get(`/api/v1/sheets/${sheet.id}/export?format=${format}`).set("Authorization", token);
+
+  it("when the LaTeX table is exported, then it has booktabs rules, scientific numbers, escaped text and the credibility in the caption", async () => {
+    const res = await exportOf("latex");
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toMatch(/application\/x-tex/);
+    expect(res.headers["content-disposition"]).toBe('attachment; filename="egret-crane-90-bounds.tex"');
+    const tex = res.text;
+    const order = ["\\begin{table}", "\\caption{", "\\begin{tabular}", "\\toprule", "\\midrule", "\\bottomrule", "\\end{tabular}", "\\end{table}"].map((s) => tex.indexOf(s));
+    expect(order.every((i) => i >= 0)).toBe(true);
+    expect([...order].sort((a, b) => a - b)).toEqual(order);
+    expect(tex).toMatch(/\\caption\{[^}]*at 90\\% credibility/);
+    expect(tex).toContain("EC-01\\_a");
+    expect(tex).toContain("Egret \\& Crane");
+    const edgb = sheet.records[0]!.translation.results.find((r) => r.theory === "edgb")!;
+    expect(tex).toContain(`$\\sqrt{\\alpha} \\le ${sciLatex(edgb.coupling.value, 3)}\\,\\mathrm{km}$`);
+    // EdGB fails its small-coupling condition here: the limit carries a dagger and the caption explains it.
+    expect(tex).toMatch(/\\mathrm\{km\}\$\\textsuperscript\{\$\\dagger\$\}/);
+    expect(tex).not.toContain("$$");
+    expect(tex).toMatch(/validity condition/);
+    // Data rows: one per limit, each with the same number of cells as the header.
+    const rows = tex.split("\n").filter((l) => l.trim().endsWith("\\\\"));
+    const cells = rows.map((l) => l.split(" & ").length);
+    expect(new Set(cells).size).toBe(1);
+    expect(rows.length - 1).toBe(sheet.records.reduce((n, r) => n + r.translation.results.length, 0));
+  });
+
+  it("when the BibTeX is exported, then it parses back and holds every reference the limits cite", async () => {
+    const res = await exportOf("bibtex");
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toMatch(/application\/x-bibtex/);
+    const entries = parseBibtexEntries(res.text);
+    const cited = new Set(sheet.records.flatMap((r) => r.translation.results.flatMap((x) => [...x.references.map((c) => c.key), ...x.reference_bounds.map((c) => c.reference.key)])));
+    expect(new Set(entries.map((e) => e.key))).toEqual(cited);
+    expect(cited.has("lyu-jiang-yagi-2022")).toBe(true);
+    const lyuText = res.text.slice(res.text.indexOf("{lyu-jiang-yagi-2022,") - 9);
+    const lyu = parseBibtexReference(lyuText.slice(0, lyuText.indexOf("\n}\n") + 3));
+    expect(lyu).toMatchObject({ key: "lyu-jiang-yagi-2022", year: 2022, arxiv: "2201.02543" });
+    expect(lyu.authors.length).toBeGreaterThan(1);
+  });
+
+  it("when the CSV is exported, then it reads back with one row per record and theory, numbers intact", async () => {
+    const res = await exportOf("csv");
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toMatch(/text\/csv/);
+    const parsed = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.meta.fields).toEqual([...CSV_COLUMNS]);
+    const total = sheet.records.reduce((n, r) => n + r.translation.results.length + r.translation.not_applicable.length, 0);
+    expect(parsed.data).toHaveLength(total);
+    const edgb = parsed.data.find((r) => r.record === "EC-01_a" && r.theory === "edgb")!;
+    const expected = sheet.records[0]!.translation.results.find((r) => r.theory === "edgb")!;
+    expect(edgb).toMatchObject({ status: "bounded", b: "-7", symbol: "sqrt_alpha", unit: "km", side: "upper", valid: "false" });
+    expect(Number(edgb.value)).toBe(expected.coupling.value);
+    const mg = parsed.data.find((r) => r.record === "EC-02" && r.theory === "massive-graviton")!;
+    expect(mg.also).toMatch(/^m_g <= [0-9.e-]+ eV$/);
+    expect(parsed.data.some((r) => r.status === "not_applicable" && (r.reason ?? "").length > 0)).toBe(true);
+  });
+
+  it("when the JSON is exported, then it is the sheet with its translations and without the share token", async () => {
+    await request(app).post(`/api/v1/sheets/${sheet.id}/share`).set("Authorization", token).expect(201);
+    const res = await exportOf("json");
+    expect(res.status).toBe(200);
+    const doc = JSON.parse(res.text);
+    expect(doc).toMatchObject({ format: "dragoman-sheet", format_version: 1, sheet: { id: sheet.id, name: sheet.name } });
+    expect(doc.sheet.share_token).toBeUndefined();
+    expect(doc.sheet.records[1].translation.results[0].theory).toBe("massive-graviton");
+  });
+
+  it("when the format is unknown, then 400 names format", async () => {
+    const res = await exportOf("pdf");
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toEqual(["format"]);
+  });
+
+  it("when the sheet is shared, then anyone can export it through the token; without the token or role, no export", async () => {
+    const share = await request(app).post(`/api/v1/sheets/${sheet.id}/share`).set("Authorization", token);
+    const res = await request(app).get(`/api/v1/shared/${share.body.token}/export?format=latex&digits=2`);
+    expect(res.status).toBe(200);
+    expect(res.text).toContain("\\toprule");
+    expect(res.text).toMatch(/\\le \d\.\d\\times10\^\{/);
+    expect((await request(app).get(`/api/v1/sheets/${sheet.id}/export?format=csv`)).status).toBe(401);
+  });
+});

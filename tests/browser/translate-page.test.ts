@@ -1,0 +1,159 @@
+import { readFileSync } from "node:fs";
+import type { BrowserContext, Download, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { parseBibtexEntries } from "../../common/bibtex.ts";
+import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
+import { clientIsBuilt, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
+import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+
+/**
+ * The translate journey in Chromium against the real app: a visitor translates the page's worked
+ * example (a -1PN bound on a 10 + 5 solar-mass binary), reads the table with its validity verdicts and
+ * cautions, sees both plots and downloads one as SVG, switches a convention and runs a table over b;
+ * then the demo analyst saves the translation to a new sheet, downloads its LaTeX table and BibTeX,
+ * and shares it with a reader who is not signed in.
+ */
+describe("browser: translating a bound, plotting it and saving it to a sheet", () => {
+  let tdb: TestDatabase;
+  let stack: SignInStack;
+  let visitor: BrowserContext;
+  let analyst: BrowserContext;
+  let reader: BrowserContext;
+
+  beforeAll(async () => {
+    if (!clientIsBuilt()) throw new Error("dist/ is missing: run `npx vite build` first (npm test does it).");
+    tdb = await createTestDatabase();
+    stack = await startSignInStack(tdb, { env: { RATE_LIMIT_PER_MINUTE: "1000" } });
+    await tdb.db.transaction((trx) => catalogueSeed.run(trx));
+    visitor = await launchBrowser();
+    analyst = await launchBrowser();
+    reader = await launchBrowser();
+  }, 120_000);
+  afterAll(async () => {
+    await visitor?.close();
+    await analyst?.close();
+    await reader?.close();
+    await stack?.close();
+    await tdb?.drop();
+  });
+
+  function watch(page: Page) {
+    const errors: string[] = [];
+    page.on("console", (m) => {
+      if (m.type() === "error") errors.push(m.text());
+    });
+    page.on("pageerror", (e) => errors.push(e.message));
+    return errors;
+  }
+
+  async function downloaded(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
+    const [download] = (await Promise.all([page.waitForEvent("download"), click()])) as [Download, void];
+    const file = await download.path();
+    return { name: download.suggestedFilename(), text: readFileSync(file, "utf8") };
+  }
+
+  it("when a visitor translates the worked example, then the table, cautions, both plots and the table over b appear", { timeout: 90_000 }, async () => {
+    const page = await visitor.newPage();
+    const requests = recordRequests(page);
+    const errors = watch(page);
+    await page.goto(`${stack.baseUrl}/translate`, { waitUntil: "networkidle" });
+    await expect(page.getByLabel("Exponent b").inputValue()).resolves.toBe("-7");
+    await expect(page.getByLabel("H₀ (km/s/Mpc)").inputValue()).resolves.toBe("67.66");
+
+    // A field error from the shared schema lands on its field.
+    await page.getByLabel("m₁ (M☉)").fill("-10");
+    await page.getByRole("button", { name: "Translate the bound" }).click();
+    await expect(page.getByText("m1 must be positive (solar masses)").isVisible()).resolves.toBe(true);
+    await page.getByLabel("m₁ (M☉)").fill("10");
+    await page.getByRole("button", { name: "Translate the bound" }).click();
+
+    const row = page.getByTestId("result-edgb");
+    await row.waitFor();
+    // Independent value: sqrt(alpha) = 4.07 km for this binary (tests/api/convert-post.test.ts derives it from physics.md's EdGB beta).
+    await expect(page.getByTestId("limit-edgb").textContent()).resolves.toMatch(/4\.07\s*km/);
+    await expect(page.getByTestId("validity-edgb").textContent()).resolves.toMatch(/not valid.*body 2/);
+    await expect(page.getByTestId("comparison-edgb").textContent()).resolves.toMatch(/3\.06 times weaker than Lyu et al\. 2022/);
+    await expect(page.getByTestId("cautions-edgb").textContent()).resolves.toMatch(/one-signed.*β < 0/i);
+    await expect(page.getByTestId("not-applicable").textContent()).resolves.toMatch(/Dynamical Chern-Simons.*b = -1/);
+    await row.locator(".katex").first().waitFor();
+
+    const betaPlot = page.getByTestId("beta-plot");
+    await betaPlot.locator("svg").first().waitFor();
+    await expect(betaPlot.locator("svg circle").count()).resolves.toBe(1);
+    await expect(betaPlot.textContent()).resolves.toMatch(/edgb/);
+    const couplingPlot = page.getByTestId("coupling-plot-edgb");
+    await couplingPlot.locator("svg").first().waitFor();
+    await expect(couplingPlot.textContent()).resolves.toMatch(/Lyu et al\. 2022/);
+    const svg = await downloaded(page, () => page.getByTestId("beta-plot-download").click());
+    expect(svg.name).toBe("beta-against-b.svg");
+    expect(svg.text).toMatch(/^<\?xml/);
+    expect(svg.text).toContain('xmlns="http://www.w3.org/2000/svg"');
+    expect(svg.text).toMatch(/<circle/);
+
+    // Convention JB: sqrt(alpha) grows by (16 pi)^(1/4) = 2.663 (physics.md 2.1), 4.072 km -> 10.84 km.
+    await page.getByLabel(/Convention for Einstein-dilaton/).selectOption("JB");
+    await expect.poll(() => page.getByTestId("limit-edgb").textContent()).toMatch(/10\.8\s*km/);
+
+    await page.getByTestId("run-table").click();
+    await page.getByTestId("table-results").waitFor();
+    await expect(page.getByTestId("table-row-0").first().textContent()).resolves.toMatch(/dipole/);
+    await expect.poll(() => betaPlot.locator("svg circle").count()).toBe(4);
+    await page.evaluate(() => document.fonts.ready);
+    await page.screenshot({ path: screenshotPath("translate-visitor"), fullPage: true });
+    expect(offLoopback(requests)).toEqual([]);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("when the analyst saves the translation to a new sheet, then its LaTeX table and BibTeX download, and a share link opens it read-only", { timeout: 90_000 }, async () => {
+    const page = await analyst.newPage();
+    const errors = watch(page);
+    await page.goto(`${stack.baseUrl}/auth/github?login_hint=demo-analyst&return_to=${encodeURIComponent("/translate")}`, { waitUntil: "networkidle" });
+    await page.getByTestId("user-menu").waitFor();
+    await page.getByRole("button", { name: "Translate the bound" }).click();
+    await page.getByTestId("result-edgb").waitFor();
+
+    const save = page.getByTestId("save-to-sheet");
+    await save.getByLabel("Event or analysis label").fill("HW-250101a");
+    await save.getByLabel("Detector network").fill("Harrier-Wren (demo)");
+    await save.getByLabel("Analysis method").fill("ppE, one deviation (demo)");
+    await save.getByLabel("Data link").fill("https://data.harrier-wren.example/HW-250101a");
+    await save.getByLabel("New sheet's name").fill("Harrier-Wren test sheet");
+    await save.getByTestId("save-record").click();
+    await save.getByRole("link", { name: "Harrier-Wren test sheet" }).click();
+
+    await page.getByTestId("sheet-page").waitFor();
+    await page.getByTestId("record-HW-250101a").waitFor();
+    const stored = await tdb.db("sheets as s").join("sheet_records as r", "r.sheet_id", "s.id").where("s.name", "Harrier-Wren test sheet").first("r.label", "r.detector_network");
+    expect(stored).toEqual({ label: "HW-250101a", detector_network: "Harrier-Wren (demo)" });
+
+    const tex = await downloaded(page, () => page.getByTestId("export-latex").click());
+    expect(tex.name).toBe("harrier-wren-test-sheet.tex");
+    expect(tex.text).toContain("\\toprule");
+    expect(tex.text).toContain("\\midrule");
+    expect(tex.text).toContain("\\bottomrule");
+    expect(tex.text).toMatch(/\\sqrt\{\\alpha\} \\le 4\.07\\times10\^\{0\}/);
+    expect(tex.text).toMatch(/90\\% credibility/);
+    const bib = await downloaded(page, () => page.getByTestId("export-bibtex").click());
+    expect(bib.name).toBe("harrier-wren-test-sheet.bib");
+    expect(parseBibtexEntries(bib.text).map((e) => e.key)).toContain("lyu-jiang-yagi-2022");
+
+    await page.getByTestId("share-create").click();
+    const link = await page.getByTestId("share-link").inputValue();
+    expect(link).toMatch(new RegExp(`^${stack.baseUrl}/shared/[A-Za-z0-9_-]{43}$`));
+    await page.screenshot({ path: screenshotPath("translate-sheet-owner"), fullPage: true });
+    expect(errors).toEqual([]);
+
+    const anon = await reader.newPage();
+    const readerErrors = watch(anon);
+    await anon.goto(link, { waitUntil: "networkidle" });
+    await anon.getByTestId("shared-sheet").waitFor();
+    await expect(anon.getByTestId("record-HW-250101a").textContent()).resolves.toMatch(/Einstein-dilaton-Gauss-Bonnet/);
+    await expect(anon.getByRole("button", { name: /Remove record|Delete this sheet/ }).count()).resolves.toBe(0);
+    await anon.screenshot({ path: screenshotPath("translate-sheet-shared"), fullPage: true });
+    expect(readerErrors).toEqual([]);
+    await anon.close();
+    await page.close();
+  });
+});

@@ -1,0 +1,68 @@
+// @vitest-environment jsdom
+import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import type { ConvertRequest } from "../../common/convert.ts";
+import { BoundForm } from "../../client/features/translate/components/bound-form.tsx";
+import { ApiError } from "../../client/lib/api-client.ts";
+
+afterEach(cleanup);
+
+const submit = () => fireEvent.click(screen.getByRole("button", { name: "Translate the bound" }));
+const field = (label: string) => screen.getByLabelText(label) as HTMLInputElement;
+
+describe("<BoundForm>", () => {
+  it("when the worked example is submitted, then the request is the shared schema's output with the Planck 2018 cosmology", async () => {
+    const onSubmit = vi.fn<(r: ConvertRequest) => void>();
+    render(<BoundForm onSubmit={onSubmit} />);
+    expect(field("H₀ (km/s/Mpc)").value).toBe("67.66");
+    expect(field("Ωₘ (flat)").value).toBe("0.3111");
+    submit();
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0]).toEqual({
+      bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus" },
+      binary: { m1: 10, m2: 5, chi1: 0, chi2: 0, bodies: ["bh", "bh"], frame: "source" },
+      cosmology: { H0: 67.66, Omega_m: 0.3111 },
+    });
+  });
+
+  it("when a mass is negative or a spin reaches 1, then the schema's message sits under that field and nothing is sent", async () => {
+    const onSubmit = vi.fn();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(field("m₂ (M☉)"), { target: { value: "-5" } });
+    fireEvent.change(field("χ₁ (aligned)"), { target: { value: "1" } });
+    submit();
+    await screen.findByText("m2 must be positive (solar masses)");
+    expect(screen.getByText("|chi1| must be below 1")).toBeTruthy();
+    expect(field("m₂ (M☉)").getAttribute("aria-invalid")).toBe("true");
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it("when detector-frame masses have no redshift, then z is the field at fault", async () => {
+    const onSubmit = vi.fn();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByLabelText("Masses are"), { target: { value: "detector" } });
+    submit();
+    await screen.findByText("detector-frame masses need the redshift z");
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it("when gIMR is chosen, then k replaces b, and the log term is sent as text", async () => {
+    const onSubmit = vi.fn<(r: ConvertRequest) => void>();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByLabelText("Deviation parameter"), { target: { value: "gimr_dphi" } });
+    const k = await screen.findByLabelText("Index k");
+    expect(screen.queryByLabelText("Exponent b")).toBeNull();
+    fireEvent.change(k, { target: { value: "5l" } });
+    submit();
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "gimr_dphi", k: "5l", upper: 1e-3, credibility: 0.9, includes_spin: false });
+  });
+
+  it("when the server names fields, then its messages land on those fields and the rest are listed", async () => {
+    const error = new ApiError(400, "validation_failed", "Invalid binary.m2: nope", { "binary.m2": "m2 refused by the server", "conventions.edgb": 'unknown convention "XYZ"' });
+    render(<BoundForm onSubmit={() => undefined} serverError={error} />);
+    await screen.findByText("m2 refused by the server");
+    expect(field("m₂ (M☉)").getAttribute("aria-invalid")).toBe("true");
+    expect(screen.getByText('conventions.edgb: unknown convention "XYZ"')).toBeTruthy();
+  });
+});

@@ -1,0 +1,140 @@
+// @vitest-environment jsdom
+import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { convertRequestSchema, type ConvertResponse } from "../../common/convert.ts";
+import { BetaPlot, theoryLabels } from "../../client/features/translate/components/beta-plot.tsx";
+import { comparableQuantity, CouplingPlot } from "../../client/features/translate/components/coupling-plot.tsx";
+import { NotApplicableList } from "../../client/features/translate/components/not-applicable-list.tsx";
+import { ResultsTable } from "../../client/features/translate/components/results-table.tsx";
+import { decadeLabel, formatPlain, splitScientific, unitText } from "../../client/features/translate/components/sci-number.tsx";
+import { TableOverB } from "../../client/features/translate/components/table-over-b.tsx";
+import { parseBoundsCsv } from "../../client/features/translate/lib/parse-bounds-csv.ts";
+import { serializeSvg } from "../../client/lib/plot.ts";
+import { translate } from "../../server/features/convert/translate.ts";
+import { seedCatalogue } from "../api/convert-fixture.ts";
+
+afterEach(cleanup);
+
+/** A real answer from the translator over the seeded catalogue (no server round trip needed). */
+function answer(body: unknown): ConvertResponse {
+  return translate(seedCatalogue(), convertRequestSchema.parse(body));
+}
+const dipole = () => answer({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary: { m1: 10, m2: 5, frame: "source" } });
+const graviton = () => answer({ bound: { parameter: "ppe_beta", b: -3, upper: 0.02, credibility: 0.9 }, binary: { m1: 30, m2: 25, frame: "source", z: 0.2 } });
+
+describe("number formatting", () => {
+  it("when numbers are shown, then three figures, scientific outside [1e-3, 1e4), and decades as powers of ten", () => {
+    expect(splitScientific(4.0721)).toEqual({ mantissa: "4.07", exponent: null });
+    expect(splitScientific(1.27e-23)).toEqual({ mantissa: "1.27", exponent: -23 });
+    expect(formatPlain(2.5e13)).toBe("2.50×10¹³");
+    expect(decadeLabel(1e-3)).toBe("10⁻³");
+    expect(decadeLabel(2e-3)).toBe("");
+    expect(unitText("km^2")).toBe("km²");
+    expect(unitText("1/yr")).toBe("yr⁻¹");
+    expect(unitText("1")).toBe("");
+  });
+});
+
+describe("<ResultsTable>", () => {
+  it("when EdGB fails its validity at the limit, then the row shows the limit, the failing condition with its number, the comparison and the cautions", async () => {
+    const r = dipole();
+    render(<ResultsTable results={r.results} onConvention={() => undefined} />);
+    const row = screen.getByTestId("result-edgb");
+    expect(within(row).getByTestId("limit-edgb").textContent).toMatch(/≤\s*4\.07\s*km/);
+    const validity = within(row).getByTestId("validity-edgb").textContent ?? "";
+    expect(validity).toMatch(/not valid/);
+    expect(validity).toMatch(/body 2.*4\.65 > 0\.167/);
+    expect(within(row).getByTestId("comparison-edgb").textContent).toMatch(/times weaker than Lyu et al\. 2022/);
+    const cautions = within(row).getByTestId("cautions-edgb");
+    expect([...cautions.querySelectorAll("li")].map((li) => li.getAttribute("data-caution"))).toEqual(["validity", "validity", "leading_pn", "prior", "one_signed"]);
+    // KaTeX arrives lazily; the closed form is then rendered, not shown as source.
+    await waitFor(() => expect(row.querySelector(".katex")).not.toBeNull());
+  });
+
+  it("when another convention is picked, then the table asks for it by theory", () => {
+    const onConvention = vi.fn();
+    render(<ResultsTable results={dipole().results} onConvention={onConvention} />);
+    fireEvent.change(screen.getByLabelText(/Convention for Einstein-dilaton/), { target: { value: "JB" } });
+    expect(onConvention).toHaveBeenCalledWith("edgb", "JB");
+  });
+
+  it("when a massive graviton limit is shown, then m_g in eV is quoted beside lambda_g", () => {
+    render(<ResultsTable results={graviton().results} onConvention={() => undefined} />);
+    expect(screen.getByTestId("also-massive-graviton-m_g").textContent).toMatch(/≤.*eV/);
+  });
+});
+
+describe("<NotApplicableList>", () => {
+  it("when theories are not constrained, then each is listed with its b and reason", () => {
+    render(<NotApplicableList items={dipole().not_applicable} />);
+    const item = screen.getByTestId("not-applicable").querySelector('[data-theory="dcs"]');
+    expect(item?.textContent).toMatch(/Chern-Simons.*b = -1.*not at b = -7/);
+  });
+});
+
+describe("plots", () => {
+  it("when theories share a b, then they share one marker label", () => {
+    expect(theoryLabels([{ b: -7, theory: "edgb" }, { b: -1, theory: "dcs" }, { b: -7, theory: "brans-dicke" }])).toEqual([
+      { b: -7, label: "brans-dicke · edgb" },
+      { b: -1, label: "dcs" },
+    ]);
+  });
+
+  it("when the beta plot is drawn, then it is an SVG with one dot per bound and a label per theory b, downloadable as a standalone file", async () => {
+    render(
+      <BetaPlot
+        points={[
+          { b: -7, beta_max: 1e-3, label: "a" },
+          { b: -3, beta_max: 2e-2, label: "b" },
+        ]}
+        theories={[
+          { b: -7, theory: "edgb" },
+          { b: -3, theory: "massive-graviton" },
+          { b: -1, theory: "dcs" },
+        ]}
+      />,
+    );
+    const figure = screen.getByTestId("beta-plot");
+    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull());
+    const svg = figure.querySelector("svg")!;
+    expect(svg.querySelectorAll("circle")).toHaveLength(2);
+    expect(svg.textContent).toMatch(/massive-graviton/);
+    const file = serializeSvg(svg);
+    expect(file.startsWith("<?xml")).toBe(true);
+    expect(file).toContain('xmlns="http://www.w3.org/2000/svg"');
+    expect(screen.getByTestId("beta-plot-download").hasAttribute("disabled")).toBe(false);
+  });
+
+  it("when the massive graviton is plotted, then the comparison is drawn in m_g, the quantity the published bounds use", async () => {
+    const mg = graviton().results[0]!;
+    expect(comparableQuantity(mg)?.quantity.symbol).toBe("m_g");
+    render(<CouplingPlot result={mg} />);
+    const figure = screen.getByTestId("coupling-plot-massive-graviton");
+    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull());
+    expect(figure.textContent).toMatch(/LIGO-Virgo 2016/);
+    expect(figure.querySelectorAll("svg circle")).toHaveLength(3);
+  });
+});
+
+describe("the table over b", () => {
+  it("when CSV is parsed, then numbers become numbers and text stays text for the schema to judge", async () => {
+    const parsed = await parseBoundsCsv("b,upper,label\n-7,1e-3,dipole\n-3,lots,\n");
+    expect(parsed.problems).toEqual([]);
+    expect(parsed.rows).toEqual([{ b: -7, upper: 1e-3, label: "dipole" }, { b: -3, upper: "lots" }]);
+    expect((await parseBoundsCsv("x,y\n1,2\n")).problems[0]).toMatch(/b \(or k\) and upper/);
+  });
+
+  it("when a cell is bad, then the CSV line is named and nothing is sent; when good, the request carries the form's binary", async () => {
+    const base = convertRequestSchema.parse({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary: { m1: 10, m2: 5, frame: "source" } });
+    const onRequest = vi.fn();
+    render(<TableOverB base={base} onRequest={onRequest} data={undefined} error={null} busy={false} />);
+    fireEvent.change(screen.getByTestId("csv-input"), { target: { value: "b,upper\n-7,1e-3\n-3,-2\n" } });
+    fireEvent.click(screen.getByTestId("run-table"));
+    await screen.findByText(/line 3, upper: upper must be positive/);
+    expect(onRequest).not.toHaveBeenCalled();
+    fireEvent.change(screen.getByTestId("csv-input"), { target: { value: "k,upper\n-2,0.05\n" } });
+    fireEvent.click(screen.getByTestId("run-table"));
+    await waitFor(() => expect(onRequest).toHaveBeenCalledTimes(1));
+    expect(onRequest.mock.calls[0]![0]).toMatchObject({ rows: [{ k: -2, upper: 0.05 }], binary: base.binary, credibility: 0.9 });
+  });
+});
