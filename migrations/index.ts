@@ -1,5 +1,9 @@
 import type { Knex } from "knex";
 import * as platform from "./20261201000000_platform.ts";
+import * as accounts from "./20261201000100_accounts.ts";
+import * as catalogue from "./20261201000200_catalogue.ts";
+import * as mail from "./20261201000210_mail.ts";
+import * as sheets from "./20261201000300_sheets.ts";
 
 /**
  * Every migration, in order. Listed explicitly (not read from the folder) so that the same code runs
@@ -7,4 +11,8 @@ import * as platform from "./20261201000000_platform.ts";
  */
 export const migrations: Record<string, Knex.Migration> = {
   "20261201000000_platform": platform,
+  "20261201000100_accounts": accounts,
+  "20261201000200_catalogue": catalogue,
+  "20261201000210_mail": mail,
+  "20261201000300_sheets": sheets,
 };

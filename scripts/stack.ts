@@ -6,7 +6,7 @@ import { parseConfig } from "../server/config.ts";
 import { createDb, migrateLatest } from "../server/db/knex.ts";
 import { exitOnFatal, startServer } from "../server/index.ts";
 import { createLogger } from "../server/logger.ts";
-import { seedDemo } from "../seeds/index.ts";
+import { seedSteps } from "../seeds/index.ts";
 import { startLocalFakes } from "./fakes.ts";
 
 async function main(): Promise<void> {
@@ -17,8 +17,8 @@ async function main(): Promise<void> {
   const db = createDb(config.DATABASE_URL);
   const applied = await migrateLatest(db);
   if (applied.length) process.stdout.write(`Applied ${applied.length} migration(s).\n`);
-  const seeded = await seedDemo(db);
-  process.stdout.write(seeded === "seeded" ? "Seeded the demo data.\n" : "Demo data already present: kept as is.\n");
+  const seeded = await seedSteps(db);
+  process.stdout.write(seeded.length ? `Seeded demo data: ${seeded.join(", ")}.\n` : "Demo data already present: kept as is.\n");
   const running = await startServer(config, { db, logger });
   process.stdout.write(`\nDragoman is running at ${running.url}\n${fakes.describe()}Press Ctrl-C to stop.\n`);
 

@@ -16,8 +16,11 @@ fi
 
 export TEST_PGPORT="${TEST_PGPORT:-54339}" TEST_PGDATA_DIR="${TEST_PGDATA_DIR:-.data/pg-test}"
 pg() { PGPORT="$TEST_PGPORT" PGDATA_DIR="$TEST_PGDATA_DIR" PG_DATABASES="dragoman_test_template" bash scripts/pg.sh "$@"; }
+# Stop the cluster at the end only if this run started it (another run may be using it).
+was_running=0; pg status >/dev/null 2>&1 && was_running=1
 pg start >/dev/null || { echo "0 passed, 1 failed"; exit 1; }
-trap 'pg stop' EXIT
+stop_pg() { [ "$was_running" = 1 ] || pg stop 2>/dev/null; }
+trap stop_pg EXIT
 
 passed=0; failed=0
 step() {
@@ -41,7 +44,7 @@ if [ -s "$summary" ]; then
 fi
 if [ "$vitest_rc" -ne 0 ] && { [ ! -s "$summary" ] || [ "${vf:-0}" -eq 0 ]; }; then failed=$((failed + 1)); fi
 
-pg stop 2>/dev/null; trap - EXIT
+stop_pg; trap - EXIT
 echo "Wall time: $(( $(date +%s) - started )) s"
 echo "${passed} passed, ${failed} failed"
 [ "$failed" -eq 0 ]

@@ -1,4 +1,8 @@
 import type { Knex } from "knex";
+import { accountsSeed } from "./accounts.ts";
+import { catalogueSeed } from "./catalogue.ts";
+import { demoScenarioSeed } from "./demo-scenario.ts";
+import { sheetsSeed } from "./sheets.ts";
 
 export interface SeedStep {
   name: string;
@@ -6,20 +10,32 @@ export interface SeedStep {
 }
 
 /** Seed steps in order. Later features append theirs (accounts, catalogue, demo scenario). */
-export const demoSeedSteps: SeedStep[] = [];
+// sheetsSeed stays after accounts and catalogue: it translates the demo analyst's sheet against the seeded catalogue.
+export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, sheetsSeed];
 
 /**
- * Seeds the demo data into an empty database, inside ONE transaction: an interrupted seed leaves
- * nothing behind, and a database that was seeded once is never seeded again (no duplicates, no wipes).
+ * Seeds the demo data inside ONE transaction: an interrupted seed leaves nothing behind. Each step is
+ * recorded by name in seed_runs and never runs twice, so a seeded database is never duplicated or
+ * wiped; a step added by a later release (a new feature's demo data) is applied once on the next start.
  */
 export async function seedDemo(db: Knex, steps: SeedStep[] = demoSeedSteps): Promise<"seeded" | "already-seeded"> {
+  const applied = await seedSteps(db, steps);
+  return applied.length ? "seeded" : "already-seeded";
+}
+
+/** Runs the steps not yet recorded, in order, and returns their names. */
+export async function seedSteps(db: Knex, steps: SeedStep[] = demoSeedSteps): Promise<string[]> {
   return db.transaction(async (trx) => {
     // Serialise concurrent seeders (two npm start at once).
     await trx.raw("select pg_advisory_xact_lock(4711)");
-    const done = await trx("seed_runs").where({ name: "demo" }).first();
-    if (done) return "already-seeded" as const;
-    for (const step of steps) await step.run(trx);
-    await trx("seed_runs").insert({ name: "demo" });
-    return "seeded" as const;
+    const done = new Set((await trx("seed_runs").select<{ name: string }[]>("name")).map((r) => r.name));
+    const applied: string[] = [];
+    for (const step of steps) {
+      if (done.has(step.name)) continue;
+      await step.run(trx);
+      await trx("seed_runs").insert({ name: step.name });
+      applied.push(step.name);
+    }
+    return applied;
   });
 }

@@ -4,20 +4,36 @@ import express, { type Express } from "express";
 import { pinoHttp } from "pino-http";
 import type { Config } from "./config.ts";
 import type { Knex } from "./db/knex.ts";
+import { installAuth } from "./auth/install-auth.ts";
+import { accountsRoutes } from "./features/accounts/routes.ts";
+import { adminRoutes } from "./features/admin/routes.ts";
+import { catalogueApiRoutes } from "./features/catalogue/api.ts";
+import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
+import { convertRoutes } from "./features/convert/routes.ts";
+import { convertService } from "./features/convert/service.ts";
+import { expressionRoutes } from "./features/expressions/routes.ts";
 import { healthRoutes } from "./features/health/routes.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
 import { RouteTable } from "./http/route.ts";
 import type { Logger } from "./logger.ts";
+import type { MailDispatcher } from "./mail/dispatcher.ts";
+import type { Mailer } from "./mail/mailer.ts";
+import { createMailOutbox } from "./mail/outbox.ts";
+import { openApiRoutes } from "./openapi/routes.ts";
+import { sheetsRoutes } from "./features/sheets/routes.ts";
+import { sheetsService } from "./features/sheets/service.ts";
 
 export interface AppDeps {
   db: Knex;
   config: Config;
   logger: Logger;
   clock?: () => Date;
+  /** Sends mail from the outbox; default: SMTP as configured (the local sink in development and tests). */
+  mailer?: Mailer;
 }
 
 export interface DragomanApp extends Express {
-  locals: Express["locals"] & { routeTable: RouteTable };
+  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher };
 }
 
 /** Builds the Express application. No listen here: server/index.ts and the tests do that. */
@@ -26,6 +42,10 @@ export function createApp(deps: AppDeps): DragomanApp {
   const app = express() as DragomanApp;
   const table = new RouteTable();
   app.locals.routeTable = table;
+  // The outbox route and the local mail sink exist together; config refuses DEV_OUTBOX in production.
+  table.devRoutesEnabled = config.DEV_OUTBOX;
+  const mailOutbox = createMailOutbox({ db, config, logger, mailer: deps.mailer });
+  app.locals.mailOutbox = mailOutbox;
   app.disable("x-powered-by");
   app.set("trust proxy", "loopback");
 
@@ -37,9 +57,21 @@ export function createApp(deps: AppDeps): DragomanApp {
     }),
   );
   app.use(express.json({ limit: "2mb" }));
+  // Headers, rate limits, session, identity, CSRF and the /auth routes (server/auth/install-auth.ts).
+  const auth = installAuth(app, table, deps);
 
   const api = express.Router();
   table.mount(api, "/api", healthRoutes(db));
+  table.mount(api, "/api", accountsRoutes(auth));
+  table.mount(api, "/api", adminRoutes(db));
+  table.mount(api, "/api", expressionRoutes(config));
+  table.mount(api, "/api", catalogueApiRoutes({ db, config, clock: deps.clock ?? (() => new Date()), mailQueued: mailOutbox.kick }));
+  // One translator per app: its compiled catalogue is shared by the convert and sheets routes.
+  const translator = convertService(dbCatalogueReader(db));
+  table.mount(api, "/api", convertRoutes(translator, config));
+  table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
+  // Reads the table at request time, so routes mounted above or below are all in the document.
+  table.mount(api, "/api", openApiRoutes(table));
   app.use("/api", api);
   app.use("/api", apiNotFound);
 

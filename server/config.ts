@@ -41,13 +41,25 @@ export const configSchema = z
     SMTP_PASSWORD: z.string().optional(),
     MAIL_FROM: z.string().default("Dragoman <no-reply@dragoman.invalid>"),
     DEV_OUTBOX: bool.default(false),
+    // Outbox dispatcher: first retry after MAIL_RETRY_BASE_MS, doubling up to MAIL_RETRY_MAX_MS; gives up after MAIL_MAX_ATTEMPTS.
+    MAIL_RETRY_BASE_MS: z.coerce.number().int().min(0).default(5000),
+    MAIL_RETRY_MAX_MS: z.coerce.number().int().min(0).default(3_600_000),
+    MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(10),
+    MAIL_SWEEP_MS: z.coerce.number().int().min(100).default(30_000),
     RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(120),
+    // Largest CSV accepted by POST /api/v1/convert/table (bytes); 256 kB is some thousand rows.
+    CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),
+    SESSION_TTL_HOURS: z.coerce.number().positive().max(24 * 90).default(336),
+    // Unset: 30 a minute, 10 000 under NODE_ENV=test (server/auth/rate-limits.ts).
+    AUTH_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().optional(),
   })
   .superRefine((c, ctx) => {
     if (c.NODE_ENV === "production") {
       if (!c.SESSION_SECRET) ctx.addIssue({ code: "custom", path: ["SESSION_SECRET"], message: "is required in production" });
       if (c.DEV_OUTBOX) ctx.addIssue({ code: "custom", path: ["DEV_OUTBOX"], message: "must be false in production" });
       if (!c.GITHUB_CLIENT_SECRET) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_SECRET"], message: "is required in production" });
+      // The OAuth callback URL is built from it; the Host header must not decide where GitHub sends people.
+      if (!c.PUBLIC_URL) ctx.addIssue({ code: "custom", path: ["PUBLIC_URL"], message: "is required in production" });
     }
   });
 
