@@ -1,5 +1,8 @@
 import { Suspense } from "react";
 import { NavLink, Outlet } from "react-router-dom";
+import type { Role } from "../features/auth/api/get-me.ts";
+import { useAuth } from "../features/auth/components/auth-context.tsx";
+import { UserMenu } from "../features/auth/components/user-menu.tsx";
 import { useHealth } from "../features/platform/api/get-health.ts";
 import { paths } from "../lib/paths.ts";
 import { ErrorBoundary } from "../components/ui/error-boundary.tsx";
@@ -7,11 +10,23 @@ import { ErrorBoundary } from "../components/ui/error-boundary.tsx";
 interface NavItem {
   to: string;
   label: string;
+  /** Shown only to people with one of these roles (the server checks them again). */
+  role?: Role | readonly Role[];
 }
 
-const navItems: NavItem[] = [{ to: paths.home(), label: "Overview" }];
+const navItems: NavItem[] = [
+  { to: paths.home(), label: "Overview" },
+  { to: paths.catalogue(), label: "Catalogue" },
+  { to: paths.translate(), label: "Translate" },
+  { to: paths.sheets(), label: "Sheets", role: "analyst" },
+  { to: paths.mySubmissions(), label: "My submissions", role: ["contributor", "editor"] },
+  { to: paths.reviewQueue(), label: "Review", role: "editor" },
+  { to: paths.adminUsers(), label: "People", role: "admin" },
+];
 
 export function Layout() {
+  const { hasRole } = useAuth();
+  const visibleNav = navItems.filter((item) => !item.role || hasRole(item.role));
   return (
     <div className="min-h-screen flex flex-col">
       <header className="border-b border-paper-edge bg-paper-deep/60">
@@ -21,7 +36,7 @@ export function Layout() {
             <span className="ml-3 text-sm italic text-ink-soft hidden sm:inline">from deviations to couplings</span>
           </NavLink>
           <nav aria-label="Main" className="flex gap-5 text-[0.95rem]">
-            {navItems.map((item) => (
+            {visibleNav.map((item) => (
               <NavLink
                 key={item.to}
                 to={item.to}
@@ -34,6 +49,9 @@ export function Layout() {
               </NavLink>
             ))}
           </nav>
+          <div className="ml-auto self-center">
+            <UserMenu />
+          </div>
         </div>
       </header>
       <main className="flex-1 mx-auto w-full max-w-page px-6 py-10">

@@ -2,8 +2,61 @@
 export const paths = {
   home: () => "/",
   forbidden: (role?: string) => (role ? `/forbidden?role=${encodeURIComponent(role)}` : "/forbidden"),
+  signIn: (opts: { returnTo?: string; error?: string } = {}) => `/sign-in${qs({ return_to: opts.returnTo, error: opts.error })}`,
+  adminUsers: () => "/admin/people",
+  apiTokens: () => "/account/tokens",
+  translate: () => "/translate",
+  sheets: () => "/sheets",
+  sheet: (id: number) => `/sheets/${id}`,
+  sharedSheet: (token: string) => `/shared/${encodeURIComponent(token)}`,
+  catalogue: () => "/catalogue",
+  theory: (slug: string) => `/catalogue/${encodeURIComponent(slug)}`,
+  submit: (opts: { target?: string } = {}) => (opts.target ? `/submit?target=${encodeURIComponent(opts.target)}` : "/submit"),
+  editSubmission: (id: number) => `/submit/${id}`,
+  mySubmissions: () => "/my-submissions",
+  reviewQueue: () => "/review",
+  review: (id: number) => `/review/${id}`,
+  outbox: () => "/dev/outbox",
 } as const;
+
+/** Query string from defined, non-empty values only (so URLs never carry "b=undefined"). */
+function qs(params: Record<string, string | number | boolean | undefined>): string {
+  const sp = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== "") sp.set(k, String(v));
+  const s = sp.toString();
+  return s ? `?${s}` : "";
+}
 
 export const apiPaths = {
   health: () => "/api/health",
+  me: () => "/api/v1/me",
+  session: () => "/api/v1/session",
+  csrf: () => "/api/v1/csrf",
+  tokens: () => "/api/v1/tokens",
+  token: (id: number) => `/api/v1/tokens/${id}`,
+  adminUsers: () => "/api/v1/admin/users",
+  adminUserRoles: (login: string) => `/api/v1/admin/users/${encodeURIComponent(login)}/roles`,
+  adminAudit: (opts: { limit?: number; subject?: string } = {}) => `/api/v1/admin/audit${qs(opts)}`,
+  /** Full-page navigations (not fetched): the server redirects to GitHub and back. */
+  githubSignIn: (opts: { returnTo?: string; loginHint?: string } = {}) => `/auth/github${qs({ return_to: opts.returnTo, login_hint: opts.loginHint })}`,
+  signOut: () => "/auth/signout",
+  convert: () => "/api/v1/convert",
+  convertTable: () => "/api/v1/convert/table",
+  sheets: () => "/api/v1/sheets",
+  sheet: (id: number) => `/api/v1/sheets/${id}`,
+  sheetShare: (id: number) => `/api/v1/sheets/${id}/share`,
+  sheetExport: (id: number, format: "csv" | "json" | "latex" | "bibtex") => `/api/v1/sheets/${id}/export?format=${format}`,
+  sharedSheet: (token: string) => `/api/v1/shared/${encodeURIComponent(token)}`,
+  sharedSheetExport: (token: string, format: "csv" | "json" | "latex" | "bibtex") => `/api/v1/shared/${encodeURIComponent(token)}/export?format=${format}`,
+  theories: (filters: Record<string, string | number | undefined> = {}) => `/api/v1/theories${qs(filters)}`,
+  theory: (slug: string) => `/api/v1/theories/${encodeURIComponent(slug)}`,
+  theoryRevisions: (slug: string) => `/api/v1/theories/${encodeURIComponent(slug)}/revisions`,
+  theoryRevision: (slug: string, n: number) => `/api/v1/theories/${encodeURIComponent(slug)}/revisions/${n}`,
+  submissions: (filters: { mine?: boolean; status?: string } = {}) => `/api/v1/submissions${qs({ mine: filters.mine ? 1 : undefined, status: filters.status })}`,
+  submission: (id: number) => `/api/v1/submissions/${id}`,
+  submissionAction: (id: number, action: "submit" | "start-review" | "decision" | "withdraw" | "comments") => `/api/v1/submissions/${id}/${action}`,
+  parseBibtex: () => "/api/v1/references/parse-bibtex",
+  expressionCheck: () => "/api/v1/expressions/check",
+  expressionDerive: () => "/api/v1/expressions/derive",
+  outbox: () => "/api/v1/dev/outbox",
 } as const;

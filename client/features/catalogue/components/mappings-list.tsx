@@ -1,0 +1,161 @@
+import type { TheoryDetail } from "../../../../common/catalogue.ts";
+import { Badge } from "../../../components/ui/badge.tsx";
+import { CheckBadge, CheckList, worstOutcome } from "../../../components/ui/check-list.tsx";
+import { MathTex } from "../../../components/ui/math-tex.tsx";
+import { shortNumber } from "../../../components/ui/text-format.ts";
+import { authorList, equationTex, pnLabel, signed } from "./format.ts";
+
+type StoredMapping = TheoryDetail["mappings"][number];
+
+const kindLabel: Record<StoredMapping["kind"], string> = {
+  inspiral_phase: "Inspiral phase (ppE β)",
+  inspiral_amplitude: "Inspiral amplitude (ppE α)",
+  ringdown_frequency: "Ringdown frequency shift",
+  ringdown_damping: "Ringdown damping-time shift",
+};
+
+/** The deviation parameter each kind of mapping gives, for expressions stored without their left-hand side. */
+const lhsTex: Record<StoredMapping["kind"], string> = {
+  inspiral_phase: "\\beta",
+  inspiral_amplitude: "\\alpha_{\\rm ppE}",
+  ringdown_frequency: "\\delta\\omega/\\omega",
+  ringdown_damping: "\\delta\\tau/\\tau",
+};
+
+function exponentTex(m: StoredMapping): string | undefined {
+  if (m.kind === "inspiral_phase" && m.b !== null) return `b = ${m.b}`;
+  if (m.kind === "inspiral_amplitude" && m.a !== null) return `a = ${m.a}`;
+  if (m.mode) return `(\\ell, m, n) = (${m.mode.l}, ${m.mode.m}, ${m.mode.n})`;
+  return undefined;
+}
+
+function SourceBadge({ status }: { status: StoredMapping["source_status"] }) {
+  if (status === "memory")
+    return (
+      <Badge tone="caution" title="The formula was recalled, not read in its paper; an editor must confirm it before relying on it.">
+        source to be confirmed
+      </Badge>
+    );
+  if (status === "derived") return <Badge tone="info" title="Re-derived from the stated assumptions.">derived</Badge>;
+  return <Badge tone="ok" title="Seen in the cited source.">source confirmed</Badge>;
+}
+
+function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
+  const all = [...m.checks, ...m.validity.flatMap((v) => v.checks)];
+  const outcome = worstOutcome(all);
+  const exponent = exponentTex(m);
+  return (
+    <article className="rounded border border-paper-edge bg-white/40 p-4" data-testid={`mapping-${index}`}>
+      <header className="flex flex-wrap items-center gap-x-3 gap-y-1">
+        <h3 className="text-lg">{kindLabel[m.kind]}</h3>
+        {exponent && <MathTex tex={exponent} />}
+        {m.pn_order !== null && <span className="text-sm text-ink-soft tabular-nums">{pnLabel(m.pn_order)}</span>}
+        <span className="ml-auto flex gap-2">
+          <SourceBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
+          <CheckBadge outcome={outcome} title={`${all.length} engine checks`} />
+        </span>
+      </header>
+      <div className="my-3 overflow-x-auto rounded bg-paper px-3 py-2">
+        <MathTex display tex={equationTex(lhsTex[m.kind], m.latex)} />
+      </div>
+      <p className="text-xs text-ink-faint font-mono break-all">{m.expression}</p>
+      <dl className="mt-3 grid gap-x-6 gap-y-2 text-[0.95rem] sm:grid-cols-[10rem_1fr]">
+        <dt className="font-semibold">Constrains</dt>
+        <dd className="font-mono text-sm">
+          {m.coupling}
+          {m.held_fixed && Object.keys(m.held_fixed).length > 0 && (
+            <span className="ml-2 text-ink-soft font-serif">
+              with {Object.entries(m.held_fixed).map(([k, v]) => `${k} = ${v}`).join(", ")} held fixed
+            </span>
+          )}
+        </dd>
+        {m.derivation && (
+          <>
+            <dt className="font-semibold">Derived from</dt>
+            <dd className="text-sm">
+              {m.derivation.kind === "energy_flux" && (
+                <span>
+                  energy and flux change at order <span className="tabular-nums">{signed(m.derivation.order)}</span>
+                  {m.derivation.A !== undefined && <span className="block font-mono">A = {m.derivation.A}</span>}
+                  {m.derivation.B !== undefined && <span className="block font-mono">B = {m.derivation.B}</span>}
+                </span>
+              )}
+              {m.derivation.kind === "frequency_drift" && <span className="font-mono">γ = {m.derivation.gamma}</span>}
+              {m.derivation.kind === "propagation" && <span>propagation over cosmological distance</span>}
+              {m.derivation.note && <span className="block text-ink-soft">{m.derivation.note}</span>}
+            </dd>
+          </>
+        )}
+        {m.gimr_equivalent && (
+          <>
+            <dt className="font-semibold">gIMR form</dt>
+            <dd className="text-sm">
+              <MathTex tex={`\\delta\\varphi_{${m.gimr_equivalent.k}}`} /> = <span className="font-mono">{m.gimr_equivalent.expression}</span>
+            </dd>
+          </>
+        )}
+        {m.frame_note && (
+          <>
+            <dt className="font-semibold">Frame</dt>
+            <dd className="text-sm">{m.frame_note}</dd>
+          </>
+        )}
+        {m.body_rules.length > 0 && (
+          <>
+            <dt className="font-semibold">Bodies</dt>
+            <dd className="text-sm">
+              <ul className="list-disc pl-5">
+                {m.body_rules.map((r, i) => (
+                  <li key={i}>{r.description}</li>
+                ))}
+              </ul>
+            </dd>
+          </>
+        )}
+        {m.references.length > 0 && (
+          <>
+            <dt className="font-semibold">Sources</dt>
+            <dd className="text-sm">
+              {m.references.map((r) => `${authorList(r.authors, 2)} ${r.year}`).join("; ")}
+              {m.locator && <span className="text-ink-soft">, {m.locator}</span>}
+            </dd>
+          </>
+        )}
+      </dl>
+      {m.validity.length > 0 && (
+        <section className="mt-3 border-t border-paper-edge pt-3">
+          <h4 className="text-sm font-semibold mb-1">Valid while</h4>
+          <ul className="flex flex-col gap-2">
+            {m.validity.map((v, i) => (
+              <li key={i} className="flex flex-wrap items-center gap-x-3 gap-y-1 text-[0.95rem]" data-testid={`validity-${index}-${i}`}>
+                <MathTex tex={`\\displaystyle ${v.latex} < ${shortNumber(v.max)}`} />
+                <span className="text-sm text-ink-soft">{v.label}</span>
+                <Badge tone={v.kind === "hard" ? "fail" : "neutral"}>{v.kind === "hard" ? "hard limit" : "rule of thumb"}</Badge>
+                {v.applies_to && <span className="text-xs text-ink-faint">only for {v.applies_to.join(" / ").toUpperCase()}{v.body ? `, body ${v.body}` : ""}</span>}
+                {v.source_status === "memory" && <Badge tone="caution">source to be confirmed</Badge>}
+                {v.checks.some((c) => !c.ok) && <CheckBadge outcome={worstOutcome(v.checks)} />}
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+      <details className="mt-3 border-t border-paper-edge pt-2">
+        <summary className="cursor-pointer text-sm text-sea">Engine checks ({all.length})</summary>
+        <div className="mt-2">
+          <CheckList checks={all} />
+        </div>
+      </details>
+      {m.notes && <p className="mt-2 text-sm text-ink-soft">{m.notes}</p>}
+    </article>
+  );
+}
+
+export function MappingsList({ mappings }: { mappings: StoredMapping[] }) {
+  return (
+    <div className="flex flex-col gap-4">
+      {mappings.map((m, i) => (
+        <MappingCard key={m.id} m={m} index={i} />
+      ))}
+    </div>
+  );
+}

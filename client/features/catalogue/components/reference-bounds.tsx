@@ -1,0 +1,52 @@
+import type { TheoryDetail } from "../../../../common/catalogue.ts";
+import { Badge } from "../../../components/ui/badge.tsx";
+import { sciText } from "../../../components/ui/text-format.ts";
+import { authorList, unitLabel } from "./format.ts";
+
+type Bound = TheoryDetail["reference_bounds"][number];
+
+/** Published limits on the couplings, as their papers quote them. */
+export function ReferenceBounds({ bounds }: { bounds: Bound[] }) {
+  return (
+    <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+      <table className="w-full border-collapse text-[0.95rem] tabular-nums">
+        <caption className="sr-only">Published bounds</caption>
+        <thead className="bg-paper-deep text-left text-sm">
+          <tr>
+            <th scope="col" className="px-3 py-2">Quantity</th>
+            <th scope="col" className="px-3 py-2 text-right">Bound</th>
+            <th scope="col" className="px-3 py-2">Credibility</th>
+            <th scope="col" className="px-3 py-2">Data</th>
+            <th scope="col" className="px-3 py-2">Source</th>
+          </tr>
+        </thead>
+        <tbody>
+          {bounds.map((b, i) => (
+            <tr key={i} className="border-t border-paper-edge/70 align-top">
+              <td className="px-3 py-2 font-mono text-sm">
+                {b.quoted_symbol ?? b.coupling}
+                {b.convention && <span className="ml-1 font-serif text-xs text-ink-faint">(convention {b.convention})</span>}
+              </td>
+              <td className="px-3 py-2 text-right whitespace-nowrap">
+                {b.side === "upper" ? "<" : ">"} {sciText(b.value)} {unitLabel(b.unit)}
+              </td>
+              <td className="px-3 py-2">{b.credibility !== null ? `${Math.round(b.credibility * 100)} %` : "—"}</td>
+              <td className="px-3 py-2">
+                {b.data ?? (b.note ? null : "—")}
+                {b.note && <span className={b.data ? "block text-sm text-ink-soft" : "text-sm"}>{b.note}</span>}
+              </td>
+              <td className="px-3 py-2">
+                {authorList(b.reference.authors, 2)} {b.reference.year}
+                {b.source_status === "memory" && (
+                  <Badge tone="caution" className="ml-2">
+                    value from memory
+                  </Badge>
+                )}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

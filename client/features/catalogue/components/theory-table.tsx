@@ -1,0 +1,88 @@
+import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { useMemo, useState } from "react";
+import { Link } from "react-router-dom";
+import { FAMILY_LABELS, type TheorySummary } from "../../../../common/catalogue.ts";
+import { Badge } from "../../../components/ui/badge.tsx";
+import { DataTable } from "../../../components/ui/data-table.tsx";
+import { MathTex } from "../../../components/ui/math-tex.tsx";
+import { paths } from "../../../lib/paths.ts";
+import { pnLabel, shortDate, signed, unitLabel } from "./format.ts";
+
+const col = createColumnHelper<TheorySummary>();
+
+/** Sorting by "b" uses the most negative exponent (the lowest PN order the theory enters at). */
+function lowestB(t: TheorySummary): number {
+  const bs = t.mappings.map((m) => m.b).filter((b): b is number => b !== null);
+  return bs.length ? Math.min(...bs) : Number.POSITIVE_INFINITY;
+}
+
+const columns = [
+  col.accessor("name", {
+    header: "Theory",
+    cell: (info) => {
+      const t = info.row.original;
+      return (
+        <div className="min-w-56">
+          <Link to={paths.theory(t.slug)} className="font-semibold">
+            {t.name}
+          </Link>
+          <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{t.summary}</p>
+          {t.source_to_be_confirmed && (
+            <Badge tone="caution" className="mt-1" title="At least one formula was recalled rather than read in its paper; an editor still has to confirm it.">
+              source to be confirmed
+            </Badge>
+          )}
+        </div>
+      );
+    },
+  }),
+  col.accessor((t) => FAMILY_LABELS[t.family], { id: "family", header: "Family", cell: (info) => <span className="whitespace-nowrap">{info.getValue()}</span> }),
+  col.display({
+    id: "couplings",
+    header: "Couplings",
+    cell: (info) => (
+      <ul className="flex flex-col gap-0.5">
+        {info.row.original.couplings.map((c) => (
+          <li key={c.symbol} className="whitespace-nowrap">
+            <MathTex tex={c.latex} /> <span className="text-xs text-ink-faint">{unitLabel(c.unit)}</span>
+          </li>
+        ))}
+      </ul>
+    ),
+  }),
+  col.accessor(lowestB, {
+    id: "b",
+    header: "ppE b / PN order",
+    // Lowest PN order first on the first click, as the literature lists corrections.
+    sortDescFirst: false,
+    cell: (info) => (
+      <ul className="flex flex-col gap-0.5 tabular-nums">
+        {info.row.original.mappings.map((m, i) => (
+          <li key={i} className="whitespace-nowrap">
+            {m.b !== null ? <MathTex tex={`b = ${m.b}`} label={`b = ${signed(m.b)}`} /> : m.a !== null ? <MathTex tex={`a = ${m.a}`} /> : <span>{m.kind.replace(/_/g, " ")}</span>}
+            <span className="ml-2 text-sm text-ink-soft">{pnLabel(m.pn_order)}</span>
+          </li>
+        ))}
+      </ul>
+    ),
+  }),
+  col.accessor("revision", { header: "Revision", cell: (info) => <span className="tabular-nums">{info.getValue()}</span> }),
+  col.accessor("updated_at", { header: "Updated", cell: (info) => <span className="tabular-nums whitespace-nowrap">{shortDate(info.getValue())}</span> }),
+];
+
+export function TheoryTable({ theories }: { theories: TheorySummary[] }) {
+  const [sorting, setSorting] = useState<SortingState>([{ id: "name", desc: false }]);
+  const data = useMemo(() => theories, [theories]);
+  // TanStack Table returns fresh functions each render by design; the React Compiler must not memoise them.
+  // eslint-disable-next-line react-hooks/incompatible-library
+  const table = useReactTable({
+    data,
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getRowId: (t) => t.slug,
+  });
+  return <DataTable table={table} caption="Catalogued theories" empty="No theory matches these filters." rowTestId={(t) => `theory-row-${t.slug}`} />;
+}
