@@ -40,7 +40,9 @@ export function Layout() {
               <NavLink
                 key={item.to}
                 to={item.to}
-                end
+                // Only the overview needs an exact match; the others stay marked on their sub-pages
+                // (a theory page under Catalogue, a review under Review).
+                end={item.to === paths.home()}
                 className={({ isActive }) =>
                   `no-underline pb-1 border-b-2 ${isActive ? "border-sea text-sea" : "border-transparent text-ink-soft hover:text-sea"}`
                 }

@@ -1,8 +1,13 @@
+import { useState } from "react";
 import { Badge } from "../../../components/ui/badge.tsx";
+import { Button } from "../../../components/ui/button.tsx";
+import { Field, TextArea } from "../../../components/ui/field.tsx";
 import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
+import { ApiError } from "../../../lib/api-client.ts";
+import { useAddSubmissionComment } from "../api/add-comment.ts";
 import { useSubmissionComments } from "../api/get-submission.ts";
 
-/** The editors' comments on a submission, newest last, so the author sees what to change. */
+/** The editors' comments on a submission, newest last, so the author sees what to change and can answer. */
 export function SubmissionComments({ id }: { id: number }) {
   const comments = useSubmissionComments(id);
   if (comments.isPending) return <Loading what="comments" />;
@@ -26,6 +31,32 @@ export function SubmissionComments({ id }: { id: number }) {
           </li>
         ))}
       </ol>
+      <ReplyBox id={id} />
     </section>
+  );
+}
+
+function ReplyBox({ id }: { id: number }) {
+  const [body, setBody] = useState("");
+  const add = useAddSubmissionComment(id);
+  const error = add.error ? (add.error instanceof ApiError ? (add.error.fields.body ?? add.error.message) : add.error.message) : undefined;
+  return (
+    <form
+      className="mt-4 flex flex-col gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (!body.trim()) return;
+        add.mutate(body.trim(), { onSuccess: () => setBody("") });
+      }}
+    >
+      <Field label="Answer the editors" error={error}>
+        {(control) => <TextArea {...control} mono={false} rows={3} value={body} onChange={(e) => setBody(e.target.value)} />}
+      </Field>
+      <div>
+        <Button type="submit" busy={add.isPending} disabled={!body.trim()}>
+          Post answer
+        </Button>
+      </div>
+    </form>
   );
 }
