@@ -1,5 +1,5 @@
 /**
- * Every seeded mapping, compiled from its stored expression: transcription against the formulas
+ * Every seeded mapping, compiled from its stored expression, checked against the formulas
  * of physics.md section 2 (typed again here), inversion round trips, frames, and catalogue shape.
  */
 import katex from "katex";
@@ -71,7 +71,7 @@ describe("frames: detector-frame input with z gives the source-frame limit, for 
   }
 });
 
-describe("transcription: stored expressions equal the formulas of physics.md section 2", () => {
+describe("stored expressions equal the published formulas (physics.md section 2)", () => {
   const b = makeBinary(NSBH);
   const env = { ...binarySymbols(b), D_0: distanceAlphaKm(0.1, 0) };
   const { m1, m2, M, Mc } = b.km;
