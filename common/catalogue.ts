@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MAX_DB_INT } from "./ids.ts";
 import {
   BOUND_SIDES,
   ENTRY_KINDS,
@@ -343,7 +344,7 @@ export const bibtexExportQuerySchema = z.object({
     .string()
     .min(1, "must list reference ids, e.g. ids=1,2,3")
     .transform((v) => v.split(",").map((s) => Number(s.trim())))
-    .pipe(z.array(z.number().int("must be integer ids").positive("must be positive integer ids")).min(1).max(500)),
+    .pipe(z.array(z.number().int("must be integer ids").positive("must be positive integer ids").max(MAX_DB_INT, "must be existing reference ids")).min(1).max(500)),
 });
 
 // ---------------------------------------------------------------------------------------------

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { dbId, MAX_DB_INT } from "./ids.ts";
 import { binarySchema, boundSchema, convertResponseSchema, cosmologySchema, theorySlugSchema } from "./convert.ts";
 
 /**
@@ -40,7 +41,7 @@ export type CreateSheetRequest = z.output<typeof createSheetSchema>;
 export const updateSheetSchema = z
   .object({
     /** The version the client last read: a stale one gets 409. */
-    version: z.number({ error: "version is required (the version you last read)" }).int().positive(),
+    version: z.number({ error: "version is required (the version you last read)" }).int().positive().max(MAX_DB_INT, `version must be at most ${MAX_DB_INT}`),
     name: name.optional(),
     description: description.optional(),
     records: records.optional(),
@@ -51,7 +52,7 @@ export const updateSheetSchema = z
   });
 export type UpdateSheetRequest = z.output<typeof updateSheetSchema>;
 
-export const sheetIdSchema = z.coerce.number({ error: "id must be a sheet number" }).int("id must be a whole number").positive("id must be positive");
+export const sheetIdSchema = dbId("id");
 
 export const EXPORT_FORMATS = ["csv", "json", "latex", "bibtex"] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];

@@ -20,6 +20,13 @@ function fromLibraryError(err: unknown): AppError | undefined {
   // multer
   if (e.code === "LIMIT_FILE_SIZE") return new AppError(400, "file_too_large", "The uploaded file is too large.", { [e.field ?? "file"]: "too large" });
   if (typeof e.code === "string" && e.code.startsWith("LIMIT_")) return new AppError(400, "bad_upload", e.message ?? "Bad upload.", { [e.field ?? "file"]: e.message ?? "bad upload" });
+  // busboy (under multer): a multipart body cut short or without its boundary
+  if (typeof e.message === "string" && /^(Multipart: |Unexpected end of form|Malformed part header)/.test(e.message)) {
+    return new AppError(400, "bad_upload", `The multipart upload is malformed: ${e.message}.`, { file: e.message });
+  }
+  // PostgreSQL refused a value (a backstop: request schemas should have caught it first)
+  if (e.code === "22003") return new AppError(400, "out_of_range", "A number in the request is out of range for storage.");
+  if (e.code === "22P05" || e.code === "22021") return new AppError(400, "bad_text", "Text in the request contains characters that cannot be stored.");
   // csrf-csrf
   if (e.code === "EBADCSRFTOKEN") return new AppError(403, "csrf_failed", "Missing or wrong X-CSRF-Token header; fetch one from GET /api/v1/csrf.");
   if (typeof e.status === "number" && e.status >= 400 && e.status < 500) return new AppError(e.status, "bad_request", e.message ?? "Bad request.");

@@ -95,6 +95,7 @@ describe("GET /api/v1/theories/:slug", () => {
     expect(m?.validity[0]).toMatchObject({ max: 1 / 6, kind: "hard", body: 1, applies_to: ["bh"] });
     expect(m?.validity[0]?.reference).toBeNull();
     expect(m?.validity[0]?.reference_note).toContain("memory");
+    expect(m?.validity[0]?.checks.length).toBeGreaterThan(0);
     expect(m?.validity[0]?.checks.every((c) => c.path === "mappings.0.validity.0")).toBe(true);
     expect(m?.body_rules[0]).toMatchObject({ kind: "charge", bodies: ["bh", "ns"] });
     expect(m?.references.map((r) => r.key)).toEqual(["yunes-yagi-pretorius-2016", "yagi-2012", "yagi-stein-yunes-2016"]);

@@ -254,6 +254,7 @@ describe("POST /api/v1/convert", () => {
     expect(r.results).toEqual([]);
     expect(r.bound.b).toBeNull();
     expect(r.cautions.map((c) => c.code)).toContain("log_term");
+    expect(r.not_applicable.length).toBeGreaterThan(0);
     expect(r.not_applicable.every((n) => n.code === "no_ppe_equivalent")).toBe(true);
   });
 

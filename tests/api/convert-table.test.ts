@@ -34,6 +34,7 @@ describe("POST /api/v1/convert/table", () => {
     expect(table.rows[0]!.results.map((r) => r.theory)).toContain("edgb");
     expect(table.rows[2]!.results.map((r) => r.theory)).toEqual(["massive-graviton"]);
     expect(table.rows[3]!.results).toEqual([]);
+    expect(table.rows[3]!.not_applicable.length).toBeGreaterThan(0);
     expect(table.rows[3]!.not_applicable.every((n) => n.code === "degenerate_b")).toBe(true);
 
     const single = await request(app).post("/api/v1/convert").send({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary });

@@ -250,17 +250,14 @@ describe("bound handling", () => {
 });
 
 describe("fast path", () => {
-  it("converts 20 entries for one binary in under 2 ms", () => {
+  // Speed is measured by npm run bench (bench/convert.bench.ts), never here.
+  it("when 20 entries are converted for one binary, then each equals the one-at-a-time conversion", () => {
     const mappings = Array.from({ length: 20 }, (_, i) => [edgb, massiveGraviton, bransDicke, edgb][i % 4]!);
     const binary = makeBinary({ m1: 10, m2: 1.4, bodies: ["bh", "ns"], frame: "source", z: 0.05, scalar_sensitivities: [undefined, 0.2] });
     const bound = (m: MappingSpec) => ({ kind: "ppe" as const, b: m.b, beta_max: 1e-6 });
-    const run = () => mappings.map((m) => convertMany(bound(m), binary, [m])[0]!);
-    for (let i = 0; i < 300; i++) run(); // let the JIT settle: the server is a long-running process
-    const reps = 50;
-    const t0 = performance.now();
-    for (let i = 0; i < reps; i++) run();
-    const perRun = (performance.now() - t0) / reps;
-    expect(run().every((r) => r.status === "bounded")).toBe(true);
-    expect(perRun).toBeLessThan(2);
+    const many = mappings.map((m) => convertMany(bound(m), binary, [m])[0]!);
+    expect(many).toHaveLength(20);
+    expect(many.every((r) => r.status === "bounded")).toBe(true);
+    mappings.forEach((m, i) => expect(many[i]).toEqual(convertToCoupling(bound(m), binary, m)));
   });
 });

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { createTokenSchema } from "../../../common/accounts.ts";
+import { dbId } from "../../../common/ids.ts";
 import { UnauthorizedError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import type { Request } from "express";
@@ -21,7 +22,7 @@ const tokenSummary = z.object({
 });
 export const createTokenResponse = tokenSummary.pick({ id: true, name: true, created_at: true }).extend({ token: z.string() });
 export const listTokensResponse = z.object({ tokens: z.array(tokenSummary) });
-const tokenParams = z.object({ id: z.coerce.number().int("must be a whole number").positive("must be a positive whole number") });
+const tokenParams = z.object({ id: dbId("token id") });
 
 function who(req: Request) {
   // The access guard has run; this only narrows the type.

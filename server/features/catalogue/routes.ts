@@ -1,4 +1,6 @@
 import { z } from "zod";
+import { theorySlugSchema } from "../../../common/convert.ts";
+import { dbId } from "../../../common/ids.ts";
 import {
   revisionDetailSchema,
   revisionListResponseSchema,
@@ -10,8 +12,8 @@ import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import type { ReferencesService } from "../references/service.ts";
 import type { CatalogueService } from "./service.ts";
 
-const slugParams = z.object({ slug: z.string().min(1).max(64) });
-const revisionParams = slugParams.extend({ n: z.coerce.number().int("must be a whole number").positive("must be a revision number, 1 or more") });
+const slugParams = z.object({ slug: theorySlugSchema });
+const revisionParams = slugParams.extend({ n: dbId("revision number") });
 export const bibtexText = z.string().meta({ description: "BibTeX entries", "x-content-type": "application/x-bibtex" });
 
 /** The accepted catalogue: public reading. */

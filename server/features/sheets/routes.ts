@@ -1,5 +1,6 @@
 import type { Request, Response } from "express";
 import { z } from "zod";
+import { dbId } from "../../../common/ids.ts";
 import {
   createSheetSchema,
   exportQuerySchema,
@@ -23,7 +24,7 @@ import type { SheetsService } from "./service.ts";
 const analyst = access.roles("analyst");
 const idParams = z.object({ id: sheetIdSchema });
 const tokenParams = z.object({ token: shareTokenSchema });
-const deleteQuery = z.object({ version: z.coerce.number({ error: "version must be a number" }).int().positive().optional() });
+const deleteQuery = z.object({ version: dbId("version").optional() });
 
 function caller(req: Request): Identity {
   if (!req.identity) throw new UnauthorizedError();

@@ -1,5 +1,6 @@
 import type { Request } from "express";
 import { z } from "zod";
+import { dbId } from "../../../common/ids.ts";
 import {
   commentListResponseSchema,
   commentSchema,
@@ -17,7 +18,7 @@ import { UnauthorizedError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import type { SubmissionsService } from "./service.ts";
 
-const idParams = z.object({ id: z.coerce.number().int("must be a whole number").positive("must be a submission id, 1 or more") });
+const idParams = z.object({ id: dbId("submission id") });
 const writers = access.roles("contributor", "editor");
 
 function who(req: Request) {

@@ -62,7 +62,7 @@ export function submissionsService(deps: SubmissionsDeps) {
   async function load(id: number, who: Identity): Promise<repo.SubmissionRecord> {
     const s = await repo.findSubmission(db, id);
     if (!s) throw new NotFoundError(`No submission #${id}.`);
-    if (!mayRead(who, s)) throw new ForbiddenError(`Submission #${id} belongs to ${s.author.login}; only its author and editors may see it.`);
+    if (!mayRead(who, s)) throw new ForbiddenError(`Submission #${id} is not yours; only its author and editors may see it.`);
     return s;
   }
 
@@ -87,7 +87,7 @@ export function submissionsService(deps: SubmissionsDeps) {
     const result = await db.transaction(async (trx) => {
       const s = await repo.lockSubmission(trx, id);
       if (!s) throw new NotFoundError(`No submission #${id}.`);
-      if (!mayRead(who, s)) throw new ForbiddenError(`Submission #${id} belongs to ${s.author.login}; only its author and editors may act on it.`);
+      if (!mayRead(who, s)) throw new ForbiddenError(`Submission #${id} is not yours; only its author and editors may act on it.`);
       rule(s);
       const status = nextStatus(action, s.status);
       await repo.setStatus(trx, id, status, { updated_at: now, ...(action === "submit" ? { submitted_at: now } : {}) });
