@@ -55,6 +55,9 @@ const spin = (what: string) =>
   finite(what).gt(-1, `|${what}| must be below 1`).lt(1, `|${what}| must be below 1`).default(0);
 const mass = (what: string) => finite(what).positive(`${what} must be positive (solar masses)`);
 
+/** A body's scalar sensitivity: 0 (no scalar charge) to 1/2 (a black hole). */
+const sensitivity = finite("scalar sensitivity").min(0, "scalar sensitivity must lie in [0, 0.5]").max(0.5, "scalar sensitivity must lie in [0, 0.5] (a black hole has 1/2)");
+
 export const binarySchema = z
   .object({
     m1: mass("m1"),
@@ -66,7 +69,7 @@ export const binarySchema = z
     z: finite("z").min(0, "z must be >= 0").optional(),
     /** Scalar-tensor sensitivities, same order as m1, m2; a black hole's is 1/2 when left out. */
     scalar_sensitivities: z
-      .tuple([finite("scalar sensitivity").min(0).max(0.5).nullable(), finite("scalar sensitivity").min(0).max(0.5).nullable()])
+      .tuple([sensitivity.nullable(), sensitivity.nullable()])
       .optional(),
   })
   .superRefine((b, ctx) => {

@@ -176,7 +176,7 @@ export function solveMagnitude(f: (x: number) => number, target: number, lo = 1e
   const order = grAtLow ? ts.map((_, i) => i) : ts.map((_, i) => n - 1 - i);
   const start = hs[order[0]!]!;
   if (start >= 0) {
-    return { kind: "none", reason: "the bound excludes every coupling in the searched range: the mapping does not approach GR" };
+    return { kind: "none", reason: "the bound excludes every coupling in the searched range (1e-60 to 1e60 in the canonical unit): either the mapping does not approach GR, or the bound or a mass is so extreme that the limit lies outside that range" };
   }
   for (let j = 1; j < n; j++) {
     const i0 = order[j - 1]!;

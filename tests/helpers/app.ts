@@ -9,6 +9,8 @@ export function testConfig(databaseUrl: string, overrides: Record<string, string
     DATABASE_URL: databaseUrl,
     SESSION_SECRET: "test-secret-test-secret-test-secret-0123",
     LOG_LEVEL: "silent",
+    // Suites send many requests from one address; a test that wants to see a 429 sets its own limit.
+    RATE_LIMIT_PER_MINUTE: "100000",
     ...overrides,
   });
 }

@@ -89,9 +89,3 @@ export function compareWithBound(forms: TranslatedForms, bound: KnownBound): Ref
   return { ...base, ratio, verdict: "weaker", sentence: `${fmt(1 / ratio)} times weaker than ${against}` };
 }
 
-/** The published bound this translation is best compared with: the tightest comparable one. */
-export function bestComparison(comparisons: readonly ReferenceComparison[]): ReferenceComparison | undefined {
-  const comparable = comparisons.filter((c) => c.ratio !== null);
-  if (comparable.length === 0) return comparisons[0];
-  return comparable.reduce((best, c) => (c.ratio! < best.ratio! ? c : best));
-}
