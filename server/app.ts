@@ -10,11 +10,13 @@ import { adminRoutes } from "./features/admin/routes.ts";
 import { catalogueApiRoutes } from "./features/catalogue/api.ts";
 import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
 import { convertRoutes } from "./features/convert/routes.ts";
+import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
 import { healthRoutes } from "./features/health/routes.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
 import { RouteTable } from "./http/route.ts";
+import { textGuard } from "./http/text-guard.ts";
 import type { Logger } from "./logger.ts";
 import type { MailDispatcher } from "./mail/dispatcher.ts";
 import type { Mailer } from "./mail/mailer.ts";
@@ -53,10 +55,24 @@ export function createApp(deps: AppDeps): DragomanApp {
     pinoHttp({
       logger,
       autoLogging: { ignore: (req) => req.url === "/api/health" },
+      // Log what a request was, never what authenticates it: no headers (cookies, tokens, CSRF) and
+      // no query string on /auth (the OAuth code and state).
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({
+          id: req.id,
+          method: req.method,
+          url: req.url.startsWith("/auth/") ? req.url.split("?")[0] : req.url,
+          remoteAddress: req.remoteAddress,
+        }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? "error" : res.statusCode >= 400 ? "warn" : "info"),
     }),
   );
+  // Posterior samples arrive as long JSON columns (up to 200 000 rows): that one route gets its own, larger limit.
+  app.use("/api/v1/convert/samples", express.json({ limit: config.CONVERT_SAMPLES_MAX_BYTES }));
   app.use(express.json({ limit: "2mb" }));
+  app.use(textGuard);
   // Headers, rate limits, session, identity, CSRF and the /auth routes (server/auth/install-auth.ts).
   const auth = installAuth(app, table, deps);
 
@@ -69,6 +85,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   // One translator per app: its compiled catalogue is shared by the convert and sheets routes.
   const translator = convertService(dbCatalogueReader(db));
   table.mount(api, "/api", convertRoutes(translator, config));
+  table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));

@@ -49,6 +49,8 @@ export const configSchema = z
     RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(120),
     // Largest CSV accepted by POST /api/v1/convert/table (bytes); 256 kB is some thousand rows.
     CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),
+    // Largest body (JSON columns or CSV upload) accepted by POST /api/v1/convert/samples (bytes); 32 MiB holds 200 000 samples of six columns.
+    CONVERT_SAMPLES_MAX_BYTES: z.coerce.number().int().positive().default(33_554_432),
     SESSION_TTL_HOURS: z.coerce.number().positive().max(24 * 90).default(336),
     // Unset: 30 a minute, 10 000 under NODE_ENV=test (server/auth/rate-limits.ts).
     AUTH_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().optional(),

@@ -2,6 +2,8 @@ import { Link } from "react-router-dom";
 import type { ConvertRequest } from "../../../common/convert.ts";
 import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
+import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
+import { SamplesPanel } from "../../features/translate/components/samples-panel.tsx";
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
 import { paths } from "../../lib/paths.ts";
 
@@ -27,6 +29,8 @@ export function Component() {
         </p>
       </header>
       <TranslatePanel footer={(request) => <SaveSlot request={request} />} />
+      <SamplesPanel />
+      <EventsPanel />
     </article>
   );
 }

@@ -52,7 +52,7 @@ function tableRequestFromUpload(req: Request): unknown {
 }
 
 export function convertRoutes(service: ConvertService, config: Config): RouteSpec[] {
-  const limit = convertRateLimit(config.RATE_LIMIT_PER_MINUTE);
+  const limit = convertRateLimit(config);
   const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: config.CONVERT_UPLOAD_MAX_BYTES, files: 1, fields: 12 } });
   // multer skips requests that are not multipart, so JSON bodies pass straight through.
   const csvUpload: RequestHandler = upload.single("file");

@@ -39,7 +39,7 @@ function sendFile(res: Response, file: ExportFile): void {
 }
 
 export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[] {
-  const limit = convertRateLimit(config.RATE_LIMIT_PER_MINUTE);
+  const limit = convertRateLimit(config);
   const tags = ["sheets"];
   return [
     {
@@ -57,6 +57,8 @@ export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[
       method: "post",
       path: "/v1/sheets",
       access: analyst,
+      // Each save translates every record again: it spends the translator's budget.
+      before: [limit],
       summary: "Save a new sheet of bound records; each record is translated as it is saved",
       tags,
       body: createSheetSchema,
@@ -84,6 +86,8 @@ export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[
       method: "patch",
       path: "/v1/sheets/:id",
       access: analyst,
+      // Each save translates every record again: it spends the translator's budget.
+      before: [limit],
       summary: "Change a sheet's name, description or records (give the version you read; a stale one answers 409)",
       tags,
       body: updateSheetSchema,

@@ -1,0 +1,249 @@
+import { useState } from "react";
+import { eventsRequestSchema, MAX_EVENTS, type EventsRequest, type EventsResponse } from "../../../../common/convert-samples.ts";
+import { Button } from "../../../components/ui/button.tsx";
+import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
+import { ErrorNote } from "../../../components/ui/states.tsx";
+import { ApiError } from "../../../lib/api-client.ts";
+import { useConvertEvents } from "../api/convert-events.ts";
+import { useTheoriesAtB } from "../api/theories-at-b.ts";
+import { CautionList } from "./caution-list.tsx";
+import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, issuesByPath, type DeviationValues, type TheoryOption } from "./samples-panel-fields.tsx";
+import { SciNumber, unitText } from "./sci-number.tsx";
+
+export interface EventRow {
+  label: string;
+  m1: string;
+  m2: string;
+  chi1: string;
+  chi2: string;
+  bodies: string;
+  z: string;
+  upper: string;
+}
+
+// Accessible names differ from the single-bound form's labels ("m₁ (M☉)" there), so each control is found by one name.
+const COLUMNS: { key: keyof EventRow; label: string; spoken: string; width: string }[] = [
+  { key: "label", label: "Event", spoken: "label", width: "w-32" },
+  { key: "m1", label: "m₁ (M☉)", spoken: "primary mass", width: "w-20" },
+  { key: "m2", label: "m₂ (M☉)", spoken: "secondary mass", width: "w-20" },
+  { key: "chi1", label: "χ₁", spoken: "primary spin", width: "w-16" },
+  { key: "chi2", label: "χ₂", spoken: "secondary spin", width: "w-16" },
+  { key: "z", label: "z", spoken: "redshift", width: "w-16" },
+  { key: "upper", label: "bound", spoken: "bound", width: "w-24" },
+];
+
+/** Invented events of the fictional Kestrel-Vireo network. */
+export const EXAMPLE_EVENTS: EventRow[] = [
+  { label: "KV-231107a", m1: "10", m2: "5", chi1: "0", chi2: "0", bodies: "bh,bh", z: "0.1", upper: "1e-3" },
+  { label: "KV-240322c", m1: "35", m2: "9", chi1: "0.2", chi2: "0", bodies: "bh,bh", z: "0.3", upper: "4e-4" },
+  { label: "KV-240815b", m1: "7", m2: "1.4", chi1: "0", chi2: "0", bodies: "bh,ns", z: "0.05", upper: "2e-3" },
+];
+
+const num = (s: string): unknown => {
+  const t = s.trim();
+  if (t === "") return undefined;
+  const n = Number(t);
+  return Number.isFinite(n) ? n : t;
+};
+
+export function eventsCandidate(deviation: DeviationValues, rows: readonly EventRow[], frame: "source" | "detector"): unknown {
+  return {
+    ...deviationRequest(deviation),
+    events: rows.map((r) => ({
+      label: r.label,
+      upper: num(r.upper),
+      binary: { m1: num(r.m1), m2: num(r.m2), chi1: num(r.chi1), chi2: num(r.chi2), bodies: r.bodies.split(","), frame, ...(r.z.trim() === "" ? {} : { z: num(r.z) }) },
+    })),
+  };
+}
+
+/** "events.1.binary.m1" -> "KV-240322c, m1: ...". */
+function describeEventIssue(path: string, message: string, rows: readonly EventRow[]): string {
+  const m = /^events\.(\d+)\.?(.*)$/.exec(path);
+  if (!m) return `${path}: ${message}`;
+  const row = rows[Number(m[1])];
+  return `${row?.label || `event ${Number(m[1]) + 1}`}${m[2] ? `, ${m[2].replace(/^binary\./, "")}` : ""}: ${message}`;
+}
+
+interface FormProps {
+  theories: readonly TheoryOption[];
+  theoriesLoading: boolean;
+  deviation: DeviationValues;
+  onDeviation: (v: DeviationValues) => void;
+  onSubmit: (request: EventsRequest) => void;
+  busy: boolean;
+  serverFields: Record<string, string>;
+}
+
+export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, onSubmit, busy, serverFields }: FormProps) {
+  const [rows, setRows] = useState<EventRow[]>(EXAMPLE_EVENTS);
+  const [frame, setFrame] = useState<"source" | "detector">("source");
+  const [problems, setProblems] = useState<Record<string, string>>({});
+  const setCell = (i: number, key: keyof EventRow, value: string) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: value } : r)));
+
+  const run = () => {
+    const checked = eventsRequestSchema.safeParse(eventsCandidate(deviation, rows, frame));
+    if (!checked.success) {
+      setProblems(issuesByPath(checked.error.issues));
+      return;
+    }
+    setProblems({});
+    onSubmit(checked.data);
+  };
+  const all = { ...serverFields, ...problems };
+  const listed = Object.entries(all).filter(([k]) => !["b", "k", "credibility", "theory"].includes(k));
+
+  return (
+    <div className="flex flex-col gap-4">
+      <DeviationFields idPrefix="events" value={deviation} onChange={onDeviation} theories={theories} theoriesLoading={theoriesLoading} errors={all} />
+      <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+        <table className="border-collapse text-sm" data-testid="events-input">
+          <caption className="sr-only">Events: one bound and one binary each</caption>
+          <thead className="bg-paper-deep text-left">
+            <tr>
+              {COLUMNS.map((c) => (
+                <th key={c.key} scope="col" className="px-2 py-1.5 font-semibold">
+                  {c.key === "upper" ? (deviation.parameter === "ppe_beta" ? "|β| ≤" : "|δφ| ≤") : c.label}
+                </th>
+              ))}
+              <th scope="col" className="px-2 py-1.5 font-semibold">Bodies</th>
+              <th scope="col" className="px-2 py-1.5">
+                <span className="sr-only">Remove</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r, i) => (
+              <tr key={i} className="border-b border-paper-edge/70">
+                {COLUMNS.map((c) => (
+                  <td key={c.key} className="px-1 py-1">
+                    <TextInput
+                      aria-label={`Event ${i + 1} ${c.spoken}`}
+                      aria-invalid={Boolean(all[`events.${i}.${c.key === "label" || c.key === "upper" ? c.key : `binary.${c.key}`}`])}
+                      className={c.width}
+                      value={r[c.key]}
+                      onChange={(e) => setCell(i, c.key, e.target.value)}
+                      data-testid={`event-${i}-${c.key}`}
+                    />
+                  </td>
+                ))}
+                <td className="px-1 py-1">
+                  <Select aria-label={`Bodies of event ${i + 1}`} value={r.bodies} onChange={(e) => setCell(i, "bodies", e.target.value)} className="w-32">
+                    <option value="bh,bh">BH + BH</option>
+                    <option value="bh,ns">BH + NS</option>
+                    <option value="ns,ns">NS + NS</option>
+                  </Select>
+                </td>
+                <td className="px-1 py-1">
+                  <Button kind="quiet" onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} disabled={rows.length === 1} aria-label={`Remove event ${i + 1}`}>
+                    remove
+                  </Button>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <div className="flex flex-wrap items-end gap-3">
+        <Button onClick={() => setRows((rs) => [...rs, { label: `event ${rs.length + 1}`, m1: "", m2: "", chi1: "0", chi2: "0", bodies: "bh,bh", z: "", upper: "" }])} disabled={rows.length >= MAX_EVENTS} data-testid="add-event">
+          Add an event
+        </Button>
+        <Field label="Event masses are">
+          {(c) => (
+            <Select {...c} value={frame} onChange={(e) => setFrame(e.target.value === "detector" ? "detector" : "source")} className="w-56">
+              <option value="source">source frame</option>
+              <option value="detector">detector frame (needs z)</option>
+            </Select>
+          )}
+        </Field>
+        <Button kind="primary" onClick={run} busy={busy} data-testid="run-events">
+          Translate and combine
+        </Button>
+      </div>
+      {listed.length > 0 && (
+        <ul role="alert" className="text-sm text-brick" data-testid="events-problems">
+          {listed.map(([path, message]) => (
+            <li key={path}>{describeEventIssue(path, message, rows)}</li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+export function EventsResult({ data }: { data: EventsResponse }) {
+  const rel = data.coupling.side === "upper" ? "≤" : "≥";
+  const unit = unitText(data.coupling.unit);
+  return (
+    <div className="flex flex-col gap-3" data-testid="events-result">
+      <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+        <table className="w-full border-collapse text-[0.95rem]" data-testid="events-table">
+          <caption className="sr-only">Each event's limit and the combined limit</caption>
+          <thead className="bg-paper-deep text-left text-sm">
+            <tr>
+              {["Event", `${data.coupling.symbol} limit`, "Validity", "Note"].map((h) => (
+                <th key={h} scope="col" className="border-b border-paper-edge px-3 py-2 font-semibold">
+                  {h}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {data.events.map((e, i) => (
+              <tr key={`${e.label}-${i}`} className="border-b border-paper-edge/70 align-top" data-testid={`events-row-${i}`}>
+                <td className="px-3 py-2">{e.label}</td>
+                <td className="px-3 py-2 whitespace-nowrap">
+                  {e.limit === null ? "—" : <>{rel} <SciNumber value={e.limit} /> {unit}</>}
+                  {data.tightest?.label === e.label && e.limit !== null && <span className="ml-2 text-xs font-semibold text-sea">tightest</span>}
+                </td>
+                <td className={`px-3 py-2 text-sm ${e.valid === false ? "text-brick" : "text-ink-soft"}`}>{e.valid === null ? "" : e.valid ? "valid" : "not valid"}</td>
+                <td className="px-3 py-2 text-sm text-ink-soft">{e.reason ?? ""}</td>
+              </tr>
+            ))}
+            <tr className="bg-sea-wash/40 align-top" data-testid="events-combined">
+              <th scope="row" className="px-3 py-2 text-left font-semibold">
+                Combined ({data.combined?.events_used ?? 0} events)
+              </th>
+              <td className="px-3 py-2 whitespace-nowrap font-semibold">{data.combined ? <>{rel} <SciNumber value={data.combined.limit} /> {unit}</> : "—"}</td>
+              <td colSpan={2} className="px-3 py-2 text-xs text-ink-soft">
+                combined under a Gaussian approximation of each event's bound
+              </td>
+            </tr>
+          </tbody>
+        </table>
+      </div>
+      {data.combined && <p className="text-xs text-ink-faint">{data.combined.rule}</p>}
+      <CautionList cautions={data.cautions} testId="events-cautions" />
+    </div>
+  );
+}
+
+/** The "Several events" panel: one bound per event, one theory, combined at the coupling level. */
+export function EventsPanel() {
+  const [deviation, setDeviation] = useState<DeviationValues>(DEFAULT_DEVIATION);
+  const [request, setRequest] = useState<EventsRequest | undefined>();
+  const theories = useTheoriesAtB(bOfDeviation(deviation));
+  const result = useConvertEvents(request);
+  const serverFields = result.error instanceof ApiError ? result.error.fields : {};
+  return (
+    <section aria-labelledby="events-title" className="flex flex-col gap-4">
+      <h2 id="events-title" className="text-2xl">
+        Several events
+      </h2>
+      <p className="max-w-3xl text-sm text-ink-soft">
+        Each event maps the same coupling to a different deviation, so events are combined at the level of the coupling, never by combining their bounds on the deviation.
+      </p>
+      <EventsForm
+        theories={(theories.data?.theories ?? []).map((t) => ({ slug: t.slug, name: t.name }))}
+        theoriesLoading={theories.isFetching}
+        deviation={deviation}
+        onDeviation={setDeviation}
+        onSubmit={setRequest}
+        busy={result.isFetching}
+        serverFields={serverFields}
+      />
+      {result.error && Object.keys(serverFields).length === 0 && <ErrorNote error={result.error} title="The events could not be translated." />}
+      {result.data && <EventsResult data={result.data} />}
+    </section>
+  );
+}

@@ -1,0 +1,56 @@
+import { useCallback } from "react";
+import type { SamplesResponse } from "../../../../common/convert-samples.ts";
+import type { PlotModule } from "../../../lib/plot.ts";
+import { PlotFigure } from "./plot-figure.tsx";
+import { decadeLabel, formatPlain, unitText } from "./sci-number.tsx";
+
+const SEA = "#24484a";
+const BRICK = "#8f3a2c";
+
+interface Bin {
+  x1: number;
+  x2: number;
+  count: number;
+}
+
+export function histogramBins(h: SamplesResponse["histogram"]): Bin[] {
+  return h.counts.map((count, i) => ({ x1: h.edges[i]!, x2: h.edges[i + 1]!, count }));
+}
+
+/** The translated samples on log-spaced bins, with the credible bound drawn across them. */
+export function SamplesHistogram({ data }: { data: SamplesResponse }) {
+  const build = useCallback(
+    (Plot: PlotModule) => {
+      const bins = histogramBins(data.histogram);
+      if (bins.length === 0) throw new Error("no positive sample to plot");
+      const unit = unitText(data.coupling.unit);
+      const { value } = data.coupling;
+      const wide = bins[bins.length - 1]!.x2 / bins[0]!.x1 >= 100;
+      return Plot.plot({
+        width: 560,
+        height: 240,
+        marginLeft: 50,
+        style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
+        // Within less than two decades powers of ten give too few labels: plain numbers instead.
+        x: { type: "log", label: `${data.coupling.symbol}${unit ? ` (${unit})` : ""} →`, ...(wide ? { tickFormat: decadeLabel } : { ticks: 4, tickFormat: (d: number) => formatPlain(d, 2) }) },
+        y: { label: "↑ samples", grid: true },
+        marks: [
+          Plot.rectY(bins, { x1: "x1", x2: "x2", y: "count", fill: SEA, fillOpacity: 0.55, inset: 0.5 }),
+          Plot.ruleY([0]),
+          Plot.ruleX([value], { stroke: BRICK, strokeWidth: 2 }),
+          Plot.text([value], { x: (d: number) => d, frameAnchor: "top", dy: 4, dx: data.coupling.side === "upper" ? -4 : 4, textAnchor: data.coupling.side === "upper" ? "end" : "start", text: () => `${data.coupling.side === "upper" ? "≤" : "≥"} ${formatPlain(value)}`, fill: BRICK }),
+        ],
+      });
+    },
+    [data],
+  );
+  return (
+    <PlotFigure
+      build={build}
+      title={`${data.theory_name}: ${data.coupling.symbol} per sample`}
+      filename={`${data.theory}-${data.coupling.symbol}-samples`}
+      testId="samples-histogram"
+      caption={`Each sample's ${data.coupling.symbol} at its own binary; brick: the ${Math.round(data.credibility * 1000) / 10}% ${data.coupling.side} bound. Not reweighted for the prior.`}
+    />
+  );
+}

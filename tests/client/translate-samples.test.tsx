@@ -1,0 +1,137 @@
+// @vitest-environment jsdom
+import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
+import { useState } from "react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import { eventsRequestSchema, samplesRequestSchema, type EventsRequest, type SamplesRequest } from "../../common/convert-samples.ts";
+import { EventsForm, EventsResult } from "../../client/features/translate/components/events-panel.tsx";
+import { DEFAULT_DEVIATION, type DeviationValues } from "../../client/features/translate/components/samples-panel-fields.tsx";
+import { SamplesForm, SamplesResult } from "../../client/features/translate/components/samples-panel.tsx";
+import { convertEvents } from "../../server/features/convert/events.ts";
+import { convertSamples } from "../../server/features/convert/samples.ts";
+import { seedCatalogue } from "../api/convert-fixture.ts";
+
+afterEach(cleanup);
+
+const THEORIES = [{ slug: "edgb", name: "Einstein-dilaton-Gauss-Bonnet gravity" }];
+
+/** The forms are controlled for their deviation fields; this host keeps that state as the panels do. */
+function Host({ kind, onSubmit, serverFields = {} }: { kind: "samples" | "events"; onSubmit: (r: SamplesRequest | EventsRequest) => void; serverFields?: Record<string, string> }) {
+  const [deviation, setDeviation] = useState<DeviationValues>(DEFAULT_DEVIATION);
+  const props = { theories: THEORIES, theoriesLoading: false, deviation, onDeviation: setDeviation, busy: false, serverFields };
+  return kind === "samples" ? <SamplesForm {...props} onSubmit={onSubmit} /> : <EventsForm {...props} onSubmit={onSubmit} />;
+}
+
+describe("<SamplesForm>", () => {
+  it("when the example posterior is sent for EdGB, then the request carries every column, row by row", async () => {
+    const onSubmit = vi.fn();
+    render(<Host kind="samples" onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("samples-theory"), { target: { value: "edgb" } });
+    fireEvent.click(screen.getByTestId("run-samples"));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    const request = onSubmit.mock.calls[0]![0] as SamplesRequest;
+    expect(request).toMatchObject({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", bodies: ["bh", "bh"] });
+    expect(request.columns.beta).toEqual([-8.1e-4, 3.2e-4, -1.1e-3, 6.0e-4, -2.4e-4]);
+    expect(request.columns.m2[2]).toBe(5.3);
+    expect(request.columns.chi2?.[1]).toBe(0.1);
+  });
+
+  it("when a pasted cell is not a number, then the problem names the column, the row and the CSV line, and nothing is sent", async () => {
+    const onSubmit = vi.fn();
+    render(<Host kind="samples" onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("samples-theory"), { target: { value: "edgb" } });
+    fireEvent.change(screen.getByTestId("samples-csv"), { target: { value: "beta,m1,m2\n1e-3,10,5\n1e-3,ten,5\n" } });
+    fireEvent.click(screen.getByTestId("run-samples"));
+    const problems = await screen.findByTestId("samples-problems");
+    expect(problems.textContent).toMatch(/column m1, row 1: "ten" is not a finite number \(CSV line 3\)/);
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it("when no theory is chosen, then the theory field says why", async () => {
+    const onSubmit = vi.fn();
+    render(<Host kind="samples" onSubmit={onSubmit} />);
+    fireEvent.click(screen.getByTestId("run-samples"));
+    await waitFor(() => expect(screen.getByLabelText("Theory to constrain").getAttribute("aria-invalid")).toBe("true"));
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+});
+
+describe("<SamplesResult>", () => {
+  it("when half the samples fail EdGB's condition, then the bound, the count, the 50% pass rate, the prior caution and the histogram are shown", async () => {
+    const n = 200;
+    const data = await convertSamples(
+      seedCatalogue(),
+      samplesRequestSchema.parse({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", columns: { beta: Array.from({ length: n }, (_, i) => (i < n / 2 ? 1e-3 : 1e-7)), m1: Array(n).fill(10), m2: Array(n).fill(5) } }),
+    );
+    render(<SamplesResult data={data} />);
+    // The 0.9 quantile of the samples is the 1e-3 half: 4.07 km, the /convert limit for 10 + 5 Msun (tests/api/convert-post.test.ts).
+    expect(screen.getByTestId("samples-bound").textContent).toMatch(/sqrt_alpha\s*≤\s*4\.07\s*km/);
+    expect(screen.getByTestId("samples-count").textContent).toMatch(/200 of 200 samples translated/);
+    expect(within(screen.getByTestId("samples-validity")).getAllByText("50%").length).toBeGreaterThan(0);
+    const cautions = screen.getByTestId("samples-cautions");
+    expect([...cautions.querySelectorAll("li")].map((li) => li.getAttribute("data-caution"))).toEqual(expect.arrayContaining(["validity", "prior", "leading_pn"]));
+    const figure = screen.getByTestId("samples-histogram");
+    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull());
+    // Two occupied bins (1e-7 and 1e-3 give two sqrt(alpha) values a factor 10 apart), among the 40 drawn.
+    expect(figure.querySelectorAll("svg rect").length).toBeGreaterThanOrEqual(2);
+  });
+});
+
+describe("<EventsForm>", () => {
+  it("when an event is edited and sent, then the request holds every event with its binary and bound", () => {
+    const onSubmit = vi.fn();
+    render(<Host kind="events" onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("events-theory"), { target: { value: "edgb" } });
+    fireEvent.change(screen.getByTestId("event-1-upper"), { target: { value: "5e-4" } });
+    fireEvent.click(screen.getByTestId("run-events"));
+    const request = onSubmit.mock.calls[0]![0] as EventsRequest;
+    expect(eventsRequestSchema.parse(request)).toEqual(request);
+    expect(request.events).toHaveLength(3);
+    expect(request.events[1]).toMatchObject({ label: "KV-240322c", upper: 5e-4, binary: { m1: 35, m2: 9, chi1: 0.2, frame: "source", z: 0.3 } });
+    expect(request.events[2]!.binary.bodies).toEqual(["bh", "ns"]);
+  });
+
+  it("when an event's mass is not positive, then the problem names the event and the field, and nothing is sent", () => {
+    const onSubmit = vi.fn();
+    render(<Host kind="events" onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("events-theory"), { target: { value: "edgb" } });
+    fireEvent.change(screen.getByTestId("event-0-m1"), { target: { value: "-2" } });
+    fireEvent.click(screen.getByTestId("run-events"));
+    expect(screen.getByTestId("events-problems").textContent).toMatch(/KV-231107a, m1: m1 must be positive/);
+    expect(screen.getByTestId("event-0-m1").getAttribute("aria-invalid")).toBe("true");
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it("when an event is added and one removed, then the table follows", () => {
+    render(<Host kind="events" onSubmit={vi.fn()} />);
+    fireEvent.click(screen.getByTestId("add-event"));
+    expect(screen.getAllByRole("button", { name: /Remove event/ })).toHaveLength(4);
+    fireEvent.click(screen.getByRole("button", { name: "Remove event 1" }));
+    expect((screen.getByTestId("event-0-label") as HTMLInputElement).value).toBe("KV-240322c");
+  });
+});
+
+describe("<EventsResult>", () => {
+  it("when three events are translated, then each row has its limit, the tightest is marked and the combined row is labelled as a Gaussian approximation", () => {
+    const data = convertEvents(
+      seedCatalogue(),
+      eventsRequestSchema.parse({
+        theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9,
+        events: [
+          { label: "KV-231107a", binary: { m1: 10, m2: 5, frame: "source" }, upper: 1e-3 },
+          { label: "KV-240322c", binary: { m1: 35, m2: 9, frame: "source" }, upper: 4e-4 },
+          { label: "KV-x", binary: { m1: 8, m2: 8, frame: "source" }, upper: 1e-3 },
+        ],
+      }),
+    );
+    render(<EventsResult data={data} />);
+    expect(screen.getByTestId("events-row-0").textContent).toMatch(/≤\s*4\.07\s*km/);
+    expect(screen.getByTestId("events-row-2").textContent).toMatch(/—/);
+    const tightest = data.tightest!.label;
+    const index = data.events.findIndex((e) => e.label === tightest);
+    expect(screen.getByTestId(`events-row-${index}`).textContent).toMatch(/tightest/);
+    const combined = screen.getByTestId("events-combined");
+    expect(combined.textContent).toMatch(/Combined \(2 events\)/);
+    expect(combined.textContent).toMatch(/Gaussian approximation/);
+    expect(screen.getByTestId("events-cautions").textContent).toMatch(/left out of the combination/);
+  });
+});
