@@ -39,6 +39,18 @@ describe("text no column can hold", () => {
   });
 });
 
+describe("malformed uploads", () => {
+  it("when a multipart body has no boundary or ends early, then 400 bad_upload (not a 500)", async () => {
+    const app = buildTestApp(tdb);
+    const noBoundary = await request(app).post("/api/v1/convert/table").set("Content-Type", "multipart/form-data").send("x");
+    expect(noBoundary.status).toBe(400);
+    expect(noBoundary.body.error.code).toBe("bad_upload");
+    const cut = await request(app).post("/api/v1/convert/table").set("Content-Type", "multipart/form-data; boundary=X").send("--X\r\nbroken");
+    expect(cut.status).toBe(400);
+    expect(cut.body.error.fields).toHaveProperty("file");
+  });
+});
+
 describe("ids beyond a database integer", () => {
   it("when an id exceeds 2^31 - 1, then 400 naming it, for submissions, tokens and revisions", async () => {
     await ensureUser(tdb.db, { login: "hygiene-editor", roles: ["editor", "contributor"] });
