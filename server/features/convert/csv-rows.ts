@@ -64,12 +64,12 @@ export function parseBoundsCsv(text: string, field = "file"): CsvRow[] {
   });
 }
 
-/** Adds "(CSV line n)" to each rows.<i>... message: line 1 is the header, so row i sits on line i + 2. */
-export function withCsvLines(err: ValidationError): ValidationError {
+/** Adds "(CSV line n)" to each message whose field names a row (rows.<i>... by default; rowPattern captures i): line 1 is the header, so row i sits on line i + 2. */
+export function withCsvLines(err: ValidationError, rowPattern: RegExp = /^rows\.(\d+)\./): ValidationError {
   if (!err.fields) return err;
   const fields: Record<string, string> = {};
   for (const [key, message] of Object.entries(err.fields)) {
-    const m = /^rows\.(\d+)\./.exec(key);
+    const m = rowPattern.exec(key);
     fields[key] = m ? `${message} (CSV line ${Number(m[1]) + 2})` : message;
   }
   const first = Object.entries(fields)[0];

@@ -6,6 +6,7 @@ import { ValidationError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import { parseBoundsCsv, withCsvLines } from "./csv-rows.ts";
 import { convertRateLimit } from "./rate-limit.ts";
+import { formField, uploadedCsv } from "./upload-fields.ts";
 import type { ConvertService } from "./service.ts";
 
 /**
@@ -14,40 +15,19 @@ import type { ConvertService } from "./service.ts";
  * request (binary and cosmology as JSON text).
  */
 
-function jsonField(req: Request, name: string): unknown {
-  const raw: unknown = req.body?.[name];
-  if (raw === undefined || raw === "") return undefined;
-  if (typeof raw !== "string") return raw;
-  try {
-    return JSON.parse(raw);
-  } catch {
-    throw new ValidationError(`Invalid ${name}: the form field must hold JSON`, { [name]: "must be JSON text, e.g. {\"m1\": 10, ...}" });
-  }
-}
-
-function scalarField(req: Request, name: string): unknown {
-  const raw: unknown = req.body?.[name];
-  if (typeof raw !== "string" || raw.trim() === "") return raw === "" ? undefined : raw;
-  const t = raw.trim();
-  if (t === "true" || t === "false") return t === "true";
-  const n = Number(t);
-  return Number.isFinite(n) ? n : t;
-}
-
 /** The multipart request, reassembled into the JSON shape so one schema judges both. */
 function tableRequestFromUpload(req: Request): unknown {
-  const file = req.file;
-  if (!file) throw new ValidationError("Invalid upload: attach the CSV as the form field file", { file: "attach the CSV as the form field file" });
-  const rows = parseBoundsCsv(file.buffer.toString("utf8"), "file");
-  const theories = scalarField(req, "theories");
+  const rows = parseBoundsCsv(uploadedCsv(req), "file");
+  const theories = formField(req, "theories");
   return {
     rows,
-    binary: jsonField(req, "binary"),
-    cosmology: jsonField(req, "cosmology"),
-    credibility: scalarField(req, "credibility"),
-    sign_convention: scalarField(req, "sign_convention"),
-    includes_spin: scalarField(req, "includes_spin"),
-    ...(typeof theories === "string" ? { theories: theories.startsWith("[") ? jsonField(req, "theories") : theories.split(",").map((s) => s.trim()).filter(Boolean) } : {}),
+    binary: formField(req, "binary", true),
+    cosmology: formField(req, "cosmology", true),
+    credibility: formField(req, "credibility"),
+    sign_convention: formField(req, "sign_convention"),
+    includes_spin: formField(req, "includes_spin"),
+    // A JSON array arrives parsed; a plain "edgb, dcs" list is split here.
+    ...(theories === undefined ? {} : { theories: typeof theories === "string" ? theories.split(",").map((s) => s.trim()).filter(Boolean) : theories }),
   };
 }
 

@@ -5,7 +5,9 @@ import type { Config } from "../../config.ts";
 import { ValidationError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import { convertEvents } from "./events.ts";
+import { withCsvLines } from "./csv-rows.ts";
 import { convertRateLimit } from "./rate-limit.ts";
+import { formField, uploadedCsv } from "./upload-fields.ts";
 import { parseSamplesCsv } from "./samples-csv.ts";
 import { convertSamples } from "./samples.ts";
 import type { ConvertService } from "./service.ts";
@@ -15,53 +17,26 @@ import type { ConvertService } from "./service.ts";
  * POST /api/v1/convert/events. Open to anyone and rate-limited, like /convert.
  */
 
-function field(req: Request, name: string, json = false): unknown {
-  const raw: unknown = req.body?.[name];
-  if (typeof raw !== "string") return raw;
-  const t = raw.trim();
-  if (t === "") return undefined;
-  if (json || t.startsWith("{") || t.startsWith("[")) {
-    try {
-      return JSON.parse(t);
-    } catch {
-      throw new ValidationError(`Invalid ${name}: the form field must hold JSON`, { [name]: "must be JSON text" });
-    }
-  }
-  if (t === "true" || t === "false") return t === "true";
-  const n = Number(t);
-  return Number.isFinite(n) ? n : t;
-}
-
 function samplesFromUpload(req: Request): unknown {
-  const file = req.file;
-  if (!file) throw new ValidationError("Invalid upload: attach the CSV as the form field file", { file: "attach the CSV as the form field file" });
-  const theory = field(req, "theory");
+  const csv = uploadedCsv(req);
+  const theory = formField(req, "theory");
   return {
     theory: typeof theory === "number" ? String(theory) : theory,
-    parameter: field(req, "parameter"),
-    b: field(req, "b"),
-    k: field(req, "k"),
-    credibility: field(req, "credibility"),
-    sign_convention: field(req, "sign_convention"),
-    includes_spin: field(req, "includes_spin"),
-    bodies: field(req, "bodies", true),
-    frame: field(req, "frame"),
-    cosmology: field(req, "cosmology", true),
-    columns: parseSamplesCsv(file.buffer.toString("utf8")),
+    parameter: formField(req, "parameter"),
+    b: formField(req, "b"),
+    k: formField(req, "k"),
+    credibility: formField(req, "credibility"),
+    sign_convention: formField(req, "sign_convention"),
+    includes_spin: formField(req, "includes_spin"),
+    bodies: formField(req, "bodies", true),
+    frame: formField(req, "frame"),
+    cosmology: formField(req, "cosmology", true),
+    columns: parseSamplesCsv(csv),
   };
 }
 
 /** "columns.m1.4" gains "(CSV line 6)": line 1 is the header. */
-function withLines(err: ValidationError): ValidationError {
-  if (!err.fields) return err;
-  const fields: Record<string, string> = {};
-  for (const [key, message] of Object.entries(err.fields)) {
-    const m = /^columns\.\w+\.(\d+)$/.exec(key);
-    fields[key] = m ? `${message} (CSV line ${Number(m[1]) + 2})` : message;
-  }
-  const first = Object.entries(fields)[0];
-  return new ValidationError(first ? `Invalid CSV upload: ${first[0]}: ${first[1]}` : err.message, fields);
-}
+const SAMPLE_ROW = /^columns\.\w+\.(\d+)$/;
 
 export function samplesRoutes(service: ConvertService, config: Config): RouteSpec[] {
   const limit = convertRateLimit(config);
@@ -85,7 +60,7 @@ export function samplesRoutes(service: ConvertService, config: Config): RouteSpe
         try {
           request = parseWith(samplesRequestSchema, fromUpload ? samplesFromUpload(req) : req.body);
         } catch (err) {
-          throw fromUpload && err instanceof ValidationError ? withLines(err) : err;
+          throw fromUpload && err instanceof ValidationError ? withCsvLines(err, SAMPLE_ROW) : err;
         }
         res.json(await convertSamples(await service.catalogue(), request));
       },
