@@ -15,24 +15,6 @@ export interface SheetRow {
   updated_at: Date;
 }
 
-export interface SheetRecordRow {
-  id: number;
-  sheet_id: number;
-  position: number;
-  label: string;
-  detector_network: string;
-  analysis_method: string;
-  data_link: string;
-  notes: string;
-  bound: unknown;
-  binary: unknown;
-  cosmology: unknown;
-  conventions: unknown;
-  translation: unknown;
-  catalogue_revision: string;
-  translated_at: Date;
-}
-
 export interface NewRecord {
   position: number;
   label: string;
@@ -46,6 +28,13 @@ export interface NewRecord {
   conventions: unknown;
   translation: unknown;
   catalogue_revision: string;
+}
+
+/** A stored record: what was written, plus where it sits and when it was translated. */
+export interface SheetRecordRow extends NewRecord {
+  id: number;
+  sheet_id: number;
+  translated_at: Date;
 }
 
 export interface SheetSummaryRow {

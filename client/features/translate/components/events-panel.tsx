@@ -7,7 +7,7 @@ import { ApiError } from "../../../lib/api-client.ts";
 import { useConvertEvents } from "../api/convert-events.ts";
 import { useTheoriesAtB } from "../api/theories-at-b.ts";
 import { CautionList } from "./caution-list.tsx";
-import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, issuesByPath, type DeviationValues, type TheoryOption } from "./samples-panel-fields.tsx";
+import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, useCheckedRequest, type DeviationValues, type TheoryOption } from "./samples-panel-fields.tsx";
 import { SciNumber, unitText } from "./sci-number.tsx";
 
 export interface EventRow {
@@ -78,20 +78,10 @@ interface FormProps {
 export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, onSubmit, busy, serverFields }: FormProps) {
   const [rows, setRows] = useState<EventRow[]>(EXAMPLE_EVENTS);
   const [frame, setFrame] = useState<"source" | "detector">("source");
-  const [problems, setProblems] = useState<Record<string, string>>({});
+  const { errors: all, listed, submit } = useCheckedRequest(eventsRequestSchema, serverFields, onSubmit);
   const setCell = (i: number, key: keyof EventRow, value: string) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: value } : r)));
 
-  const run = () => {
-    const checked = eventsRequestSchema.safeParse(eventsCandidate(deviation, rows, frame));
-    if (!checked.success) {
-      setProblems(issuesByPath(checked.error.issues));
-      return;
-    }
-    setProblems({});
-    onSubmit(checked.data);
-  };
-  const all = { ...serverFields, ...problems };
-  const listed = Object.entries(all).filter(([k]) => !["b", "k", "credibility", "theory"].includes(k));
+  const run = () => submit(eventsCandidate(deviation, rows, frame));
 
   return (
     <div className="flex flex-col gap-4">

@@ -1,3 +1,5 @@
+import { useState } from "react";
+import type { z } from "zod";
 import { GIMR_KS } from "../../../../common/convert.ts";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 
@@ -88,4 +90,30 @@ export function issuesByPath(issues: readonly { path: readonly PropertyKey[]; me
   const fields: Record<string, string> = {};
   for (const issue of issues) fields[issue.path.map(String).join(".")] ??= issue.message;
   return fields;
+}
+
+/** Fields the deviation inputs show next to themselves; the rest is listed under the form. */
+const SHOWN_BY_DEVIATION_FIELDS = ["b", "k", "credibility", "theory"];
+
+/**
+ * Both panels judge their request with the shared schema before sending it: problems found here
+ * and fields the server named are shown together, and only a request that passes is submitted.
+ */
+export function useCheckedRequest<S extends z.ZodType>(schema: S, serverFields: Record<string, string>, onSubmit: (request: z.output<S>) => void) {
+  const [problems, setProblems] = useState<Record<string, string>>({});
+  const errors = { ...serverFields, ...problems };
+  return {
+    errors,
+    listed: Object.entries(errors).filter(([k]) => !SHOWN_BY_DEVIATION_FIELDS.includes(k)),
+    fail: (field: string, message: string) => setProblems({ [field]: message }),
+    submit: (candidate: unknown) => {
+      const checked = schema.safeParse(candidate);
+      if (!checked.success) {
+        setProblems(issuesByPath(checked.error.issues));
+        return;
+      }
+      setProblems({});
+      onSubmit(checked.data);
+    },
+  };
 }

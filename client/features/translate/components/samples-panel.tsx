@@ -8,7 +8,7 @@ import { useConvertSamples } from "../api/convert-samples.ts";
 import { useTheoriesAtB } from "../api/theories-at-b.ts";
 import { CautionList } from "./caution-list.tsx";
 import { SamplesHistogram } from "./samples-panel-histogram.tsx";
-import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, issuesByPath, type DeviationValues, type TheoryOption } from "./samples-panel-fields.tsx";
+import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, useCheckedRequest, type DeviationValues, type TheoryOption } from "./samples-panel-fields.tsx";
 import { SciNumber, unitText } from "./sci-number.tsx";
 
 /** Invented example posterior (a 10 + 5 Msun black-hole binary, beta spread around 1e-3). */
@@ -57,7 +57,7 @@ export function SamplesForm({ theories, theoriesLoading, deviation, onDeviation,
   const [csv, setCsv] = useState(EXAMPLE_SAMPLES_CSV);
   const [frame, setFrame] = useState<"source" | "detector">("source");
   const [bodies, setBodies] = useState("bh,bh");
-  const [problems, setProblems] = useState<Record<string, string>>({});
+  const { errors: all, listed, fail, submit } = useCheckedRequest(samplesRequestSchema, serverFields, onSubmit);
 
   const upload = async (e: ChangeEvent<HTMLInputElement>) => {
     const file = e.target.files?.[0];
@@ -66,19 +66,11 @@ export function SamplesForm({ theories, theoriesLoading, deviation, onDeviation,
   const run = async () => {
     const { columns, problem } = await columnsFromCsv(csv);
     if (problem) {
-      setProblems({ file: problem });
+      fail("file", problem);
       return;
     }
-    const checked = samplesRequestSchema.safeParse({ ...deviationRequest(deviation), columns, frame, bodies: bodies.split(",") });
-    if (!checked.success) {
-      setProblems(issuesByPath(checked.error.issues));
-      return;
-    }
-    setProblems({});
-    onSubmit(checked.data);
+    submit({ ...deviationRequest(deviation), columns, frame, bodies: bodies.split(",") });
   };
-  const all = { ...serverFields, ...problems };
-  const listed = Object.entries(all).filter(([k]) => !["b", "k", "credibility", "theory"].includes(k));
 
   return (
     <div className="flex flex-col gap-4">
