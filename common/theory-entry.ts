@@ -60,6 +60,12 @@ export const DERIVATION_KINDS = ["energy_flux", "frequency_drift", "propagation"
 export const BODY_RULE_KINDS = ["charge", "derived_for"] as const;
 export const BODY_TYPES = ["bh", "ns"] as const;
 export const BOUND_SIDES = ["upper", "lower"] as const;
+/** Where a coupling may lie physically: x > 0, x >= 0, or either sign. */
+export const COUPLING_RANGES = ["positive", "non_negative", "any_sign"] as const;
+export type CouplingRange = (typeof COUPLING_RANGES)[number];
+/** The coupling's value in general relativity: the limit in which every deviation vanishes. */
+export const GR_VALUES = ["zero", "infinity"] as const;
+export type GrValue = (typeof GR_VALUES)[number];
 
 export const SUBMISSION_STATUSES = ["draft", "submitted", "in_review", "accepted", "returned", "resubmitted", "withdrawn"] as const;
 export type SubmissionStatus = (typeof SUBMISSION_STATUSES)[number];
@@ -181,6 +187,10 @@ export const couplingSchema = z.object({
   /** Name of the convention the mappings use (one of `conventions`, or the canonical one). */
   convention: optionalText(80),
   conventions: z.array(conventionSchema).max(20).default([]),
+  /** Physical range of the coupling: decides, per binary, whether a mapping has one sign. */
+  range: z.enum(COUPLING_RANGES).optional(),
+  /** Value of the coupling in general relativity (zero for most; infinity for omega_BD, lambda_g). */
+  gr_value: z.enum(GR_VALUES).optional(),
 });
 
 export const definitionSchema = z.object({
