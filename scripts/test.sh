@@ -14,6 +14,14 @@ if [ ! -x /usr/bin/chromium ] && [ ! -x /usr/lib/chromium/chromium ]; then
   fi
 fi
 
+if ! command -v pdflatex >/dev/null 2>&1 || ! command -v bibtex >/dev/null 2>&1 || ! kpsewhich booktabs.sty >/dev/null 2>&1; then
+  echo "Installing Debian's texlive for the LaTeX export test (one time)..."
+  if ! { apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends texlive-latex-base texlive-latex-recommended >/dev/null; }; then
+    echo "test.sh: could not install texlive with apt-get; install Debian's 'texlive-latex-base' and 'texlive-latex-recommended' and run again." >&2
+    echo "0 passed, 1 failed"; exit 1
+  fi
+fi
+
 export TEST_PGPORT="${TEST_PGPORT:-54339}" TEST_PGDATA_DIR="${TEST_PGDATA_DIR:-.data/pg-test}"
 # The test cluster is throw-away: PG_THROWAWAY=1 trades durability for speed (scripts/pg.sh).
 pg() { PGPORT="$TEST_PGPORT" PGDATA_DIR="$TEST_PGDATA_DIR" PG_DATABASES="dragoman_test_template" PG_THROWAWAY=1 bash scripts/pg.sh "$@"; }
