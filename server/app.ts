@@ -15,6 +15,7 @@ import { convertService } from "./features/convert/service.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
 import { healthRoutes } from "./features/health/routes.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
+import { redactUrl } from "./http/redact-url.ts";
 import { RouteTable } from "./http/route.ts";
 import { textGuard } from "./http/text-guard.ts";
 import type { Logger } from "./logger.ts";
@@ -55,13 +56,13 @@ export function createApp(deps: AppDeps): DragomanApp {
     pinoHttp({
       logger,
       autoLogging: { ignore: (req) => req.url === "/api/health" },
-      // Log what a request was, never what authenticates it: no headers (cookies, tokens, CSRF) and
-      // no query string on /auth (the OAuth code and state).
+      // Log what a request was, never what authenticates it: no headers (cookies, tokens, CSRF), no
+      // query string on /auth (the OAuth code and state), no share-link secrets (server/http/redact-url.ts).
       serializers: {
         req: (req: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({
           id: req.id,
           method: req.method,
-          url: req.url.startsWith("/auth/") ? req.url.split("?")[0] : req.url,
+          url: redactUrl(req.url),
           remoteAddress: req.remoteAddress,
         }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),

@@ -27,7 +27,8 @@ export const configSchema = z
     PUBLIC_URL: z.url().optional(),
     SESSION_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
     CLIENT_DIST: z.string().default("dist"),
-    GITHUB_CLIENT_ID: z.string().default("dragoman-local"),
+    // Unset outside production: the local fake's id ("dragoman-local"); production refuses to start without it.
+    GITHUB_CLIENT_ID: z.string().min(1).optional(),
     GITHUB_CLIENT_SECRET: z.string().optional(),
     GITHUB_AUTHORIZE_URL: z.url().default("https://github.com/login/oauth/authorize"),
     GITHUB_TOKEN_URL: z.url().default("https://github.com/login/oauth/access_token"),
@@ -59,11 +60,13 @@ export const configSchema = z
     if (c.NODE_ENV === "production") {
       if (!c.SESSION_SECRET) ctx.addIssue({ code: "custom", path: ["SESSION_SECRET"], message: "is required in production" });
       if (c.DEV_OUTBOX) ctx.addIssue({ code: "custom", path: ["DEV_OUTBOX"], message: "must be false in production" });
+      if (!c.GITHUB_CLIENT_ID) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_ID"], message: "is required in production" });
       if (!c.GITHUB_CLIENT_SECRET) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_SECRET"], message: "is required in production" });
       // The OAuth callback URL is built from it; the Host header must not decide where GitHub sends people.
       if (!c.PUBLIC_URL) ctx.addIssue({ code: "custom", path: ["PUBLIC_URL"], message: "is required in production" });
     }
-  });
+  })
+  .transform((c) => ({ ...c, GITHUB_CLIENT_ID: c.GITHUB_CLIENT_ID ?? "dragoman-local" }));
 
 export type Config = z.output<typeof configSchema>;
 

@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
 import { AppError, NotFoundError } from "../errors.ts";
 import type { Logger } from "../logger.ts";
+import { redactUrl } from "./redact-url.ts";
 
 interface ErrorBody {
   error: { code: string; message: string; fields?: Record<string, string>; details?: Record<string, unknown>; stack?: string };
@@ -46,7 +47,7 @@ export function errorMiddleware(logger: Logger, exposeStack: boolean): ErrorRequ
     if (known?.fields) body.error.fields = known.fields;
     if (known?.details) body.error.details = known.details;
     if (status >= 500) {
-      logger.error({ err, method: req.method, url: req.originalUrl }, "request failed");
+      logger.error({ err, method: req.method, url: redactUrl(req.originalUrl) }, "request failed");
       if (exposeStack && err instanceof Error && err.stack) body.error.stack = err.stack;
     }
     if (res.headersSent) return;
