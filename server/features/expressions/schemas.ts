@@ -36,9 +36,9 @@ export const checkResponse = z.object({
   ok: z.boolean(),
   checks: z.array(
     z.object({
-      name: z.enum(["parse", "symbols", "dimension", "gr_limit", "pn_order", "derivation"]),
+      name: z.enum(["parse", "symbols", "dimension", "gr_limit", "pn_order", "derivation", "evaluation"]),
       ok: z.boolean(),
-      severity: z.enum(["error", "warning"]).optional(),
+      severity: z.enum(["error", "warning", "inconclusive"]).optional(),
       message: z.string(),
     }),
   ),
