@@ -1,7 +1,8 @@
 import Papa from "papaparse";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseBibtexEntries, parseBibtexReference } from "../../common/bibtex.ts";
+import { readBibtexReference } from "../../server/features/references/bibtex-read.ts";
+import { readBibtexFile } from "../helpers/bibtex.ts";
 import { sheetSchema, type Sheet } from "../../common/sheets.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { CSV_COLUMNS, escapeCsvCell } from "../../server/features/sheets/export-csv.ts";
@@ -128,12 +129,12 @@ describe("GET /api/v1/sheets/:id/export", () => {
     const res = await exportOf("bibtex");
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/application\/x-bibtex/);
-    const entries = parseBibtexEntries(res.text);
+    const entries = readBibtexFile(res.text);
     const cited = new Set(sheet.records.flatMap((r) => r.translation.results.flatMap((x) => [...x.references.map((c) => c.key), ...x.reference_bounds.map((c) => c.reference.key)])));
     expect(new Set(entries.map((e) => e.key))).toEqual(cited);
     expect(cited.has("lyu-jiang-yagi-2022")).toBe(true);
     const lyuText = res.text.slice(res.text.indexOf("{lyu-jiang-yagi-2022,") - 9);
-    const lyu = parseBibtexReference(lyuText.slice(0, lyuText.indexOf("\n}\n") + 3));
+    const lyu = readBibtexReference(lyuText.slice(0, lyuText.indexOf("\n}\n") + 3));
     expect(lyu).toMatchObject({ key: "lyu-jiang-yagi-2022", year: 2022, arxiv: "2201.02543" });
     expect(lyu.authors.length).toBeGreaterThan(1);
   });

@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseBibtexEntries } from "../../common/bibtex.ts";
+import { readBibtexFile } from "../helpers/bibtex.ts";
 import { sheetSchema, type Sheet } from "../../common/sheets.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { buildTestApp } from "../helpers/app.ts";
@@ -101,7 +101,7 @@ describe("LaTeX export compiled with pdflatex", () => {
     const limits = sheet.records.reduce((n, r) => n + r.translation.results.length, 0);
     expect(limits).toBeGreaterThanOrEqual(8);
     // Every key cited in the table is a key of the BibTeX export.
-    const bibKeys = new Set(parseBibtexEntries(bib).map((e) => e.key));
+    const bibKeys = new Set(readBibtexFile(bib).map((e) => e.key));
     const cited = [...tex.matchAll(/\\cite\{([^}]*)\}/g)].flatMap((m) => m[1]!.split(","));
     expect(cited.length).toBeGreaterThan(0);
     for (const key of cited) expect(bibKeys, key).toContain(key);

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseBibtexEntries } from "../../common/bibtex.ts";
+import { readBibtexFile } from "../helpers/bibtex.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
 import { clientIsBuilt, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
@@ -133,11 +133,12 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     expect(tex.text).toContain("\\toprule");
     expect(tex.text).toContain("\\midrule");
     expect(tex.text).toContain("\\bottomrule");
-    expect(tex.text).toMatch(/\\sqrt\{\\alpha\} \\le 4\.07\\times10\^\{0\}/);
+    // sqrt(alpha) = 4.07 km, written to two figures in the EdGB row (symbol with its unit, then the limit).
+    expect(tex.text).toMatch(/EdGB & \$\\sqrt\{\\alpha\}\$ \[\$\\mathrm\{km\}\$\] & \$\\le 4\.1\$/);
     expect(tex.text).toMatch(/90\\% credibility/);
     const bib = await downloaded(page, () => page.getByTestId("export-bibtex").click());
     expect(bib.name).toBe("harrier-wren-test-sheet.bib");
-    expect(parseBibtexEntries(bib.text).map((e) => e.key)).toContain("lyu-jiang-yagi-2022");
+    expect(readBibtexFile(bib.text).map((e) => e.key)).toContain("lyu-jiang-yagi-2022");
 
     await page.getByTestId("share-create").click();
     const link = await page.getByTestId("share-link").inputValue();
