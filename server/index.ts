@@ -39,6 +39,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      await app.locals.jobQueue.stop();
       await closeSymbolicPool();
       if (!extra.db) await db.destroy();
     })());
