@@ -9,6 +9,7 @@ import { accountsRoutes } from "./features/accounts/routes.ts";
 import { adminRoutes } from "./features/admin/routes.ts";
 import { catalogueApiRoutes } from "./features/catalogue/api.ts";
 import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
+import { consistencyRoutes } from "./features/consistency/routes.ts";
 import { convertRoutes } from "./features/convert/routes.ts";
 import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
@@ -18,6 +19,7 @@ import { createJobQueue, type JobQueue } from "./features/jobs/queue.ts";
 import { jobsRoutes } from "./features/jobs/routes.ts";
 import { jobsService } from "./features/jobs/service.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
+import { redactUrl } from "./http/redact-url.ts";
 import { RouteTable } from "./http/route.ts";
 import { textGuard } from "./http/text-guard.ts";
 import type { Logger } from "./logger.ts";
@@ -62,13 +64,13 @@ export function createApp(deps: AppDeps): DragomanApp {
     pinoHttp({
       logger,
       autoLogging: { ignore: (req) => req.url === "/api/health" },
-      // Log what a request was, never what authenticates it: no headers (cookies, tokens, CSRF) and
-      // no query string on /auth (the OAuth code and state).
+      // Log what a request was, never what authenticates it: no headers (cookies, tokens, CSRF), no
+      // query string on /auth (the OAuth code and state), no share-link secrets (server/http/redact-url.ts).
       serializers: {
         req: (req: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({
           id: req.id,
           method: req.method,
-          url: req.url.startsWith("/auth/") ? req.url.split("?")[0] : req.url,
+          url: redactUrl(req.url),
           remoteAddress: req.remoteAddress,
         }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
@@ -94,6 +96,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
+  table.mount(api, "/api", consistencyRoutes(config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));

@@ -3,7 +3,7 @@ import { ExpressionError, isExpressionError } from "../expr/errors.ts";
 import { guardExpression } from "../expr/guard.ts";
 import { toLatex } from "../expr/latex.ts";
 import { getSymbolicPool, type SymbolicPool } from "../expr/pool.ts";
-import { createSymbolTable, type SymbolTable } from "../expr/symbols.ts";
+import { assertWithinBudget, createSymbolTable, type SymbolTable } from "../expr/symbols.ts";
 import { compareBeta, type BetaComparison } from "./compare.ts";
 import { DerivationError, deriveBeta } from "./derive.ts";
 import { dimensionCheck } from "./dimension-check.ts";
@@ -50,6 +50,10 @@ export async function checkMapping(input: MappingInput, options: CheckMappingOpt
     checks.push(fail("symbols", err.message));
     return report(latex);
   }
+
+  // The evaluation budget, before any work: throws (a 400 naming the field) when an expression
+  // is over it once its definitions are substituted.
+  assertBudget(input, ast, table);
 
   const pool = options.pool ?? getSymbolicPool();
   let prepared;
@@ -117,6 +121,24 @@ async function derivationCheck(input: MappingInput, ast: Node, table: SymbolTabl
     ok: true,
     message: `the stated ${quantity} equals the derived ${first?.c.expression} at ${letter} = ${first?.c.exponent} [method: ${methods}]${notes}`,
   };
+}
+
+const DERIVATION_FIELDS = ["energy", "flux", "frequency_drift"] as const;
+
+function assertBudget(input: MappingInput, ast: Node, table: SymbolTable): void {
+  assertWithinBudget(ast, table, "expression");
+  for (const key of DERIVATION_FIELDS) {
+    const coefficient = input.derivation?.[key]?.coefficient;
+    if (typeof coefficient !== "string") continue;
+    let parsed: Node;
+    try {
+      parsed = guardExpression(coefficient, { symbols: table.names }).ast;
+    } catch (err) {
+      if (isExpressionError(err)) continue; // the derivation check reports it
+      throw err;
+    }
+    assertWithinBudget(parsed, table, `derivation.${key}.coefficient`);
+  }
 }
 
 function validateShape(input: MappingInput): void {
