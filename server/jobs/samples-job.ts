@@ -3,10 +3,11 @@ import { performance } from "node:perf_hooks";
 import type { SamplesJobRequest, SamplesJobResult } from "../../common/jobs.ts";
 import type { Caution } from "../../common/convert.ts";
 import { DEFAULT_COSMOLOGY } from "../../common/convert.ts";
-import { mappingCautions, selectTarget, targetReferences } from "../features/convert/samples-common.ts";
+import { mappingCautions, selectTarget } from "../features/convert/samples-common.ts";
 import type { CompiledCatalogue } from "../features/convert/compiled-catalogue.ts";
 import type { CatalogueTheory } from "../physics/catalogue-mapping.ts";
 import type { GimrIndex } from "../physics/taylorf2.ts";
+import { quotedValueOf, type QuotedFormName } from "../physics/quoted-forms.ts";
 import { runPipeline, type ColumnRole, type PipelineResult, type SampleColumns } from "../physics/samples/pipeline.ts";
 import { readHdf5Columns } from "../physics/samples/read-hdf5.ts";
 import { readJsonColumns } from "../physics/samples/read-json.ts";
@@ -109,7 +110,6 @@ export async function runSamplesJob(input: SamplesJobInput): Promise<SamplesJobO
   return { result, blobs: [{ name: "values.csv.gz", data: csv }, { name: "stack.f64", data: stack }] };
 }
 
-import { quotedValueOf, type QuotedFormName } from "../physics/quoted-forms.ts";
 function quotedOf(form: QuotedFormName, v: number): number {
   return quotedValueOf(form, v);
 }
@@ -134,7 +134,6 @@ function resultCautions(p: PipelineResult, request: SamplesJobRequest, target: R
   for (const note of p.notes) out.push({ code: "engine", message: note });
   if (p.samples.dropped > 0) out.push({ code: "engine", message: `${p.samples.dropped} of ${p.samples.read} samples were not used: ${p.samples.dropped_reasons.map((r) => `${r.count} because ${r.reason}`).join("; ")}.` });
   out.push(...mappingCautions(target));
-  void targetReferences;
   return out;
 }
 

@@ -77,8 +77,19 @@ export async function openHdf5(filePath: string, fileLabel: string): Promise<Ins
 }
 
 export async function readHdf5Columns(filePath: string, wanted: readonly string[], options: ReadOptions): Promise<ReadColumns> {
+  try {
+    return await readHdf5Unchecked(filePath, wanted, options);
+  } catch (err) {
+    if (err instanceof SampleInputError || (err instanceof Error && err.name === "JobCancelled")) throw err;
+    const file = options.fileLabel;
+    throw new SampleInputError(`${file}: the HDF5 file could not be read (${err instanceof Error ? err.message : String(err)}); is it truncated?`, { file, ...(options.table ? { path: options.table } : {}) });
+  }
+}
+
+async function readHdf5Unchecked(filePath: string, wanted: readonly string[], options: ReadOptions): Promise<ReadColumns> {
   const file = options.fileLabel;
   const f = await openHdf5(filePath, file);
+  if (!(Number(f.file_id) > 0)) throw new SampleInputError(`${file}: not a readable HDF5 file; is it truncated?`, { file });
   try {
     const path = options.table && options.table !== "" ? options.table : "/";
     let node: unknown;
@@ -147,6 +158,10 @@ export async function readHdf5Columns(filePath: string, wanted: readonly string[
     if (rows <= 0) throw new SampleInputError(`${file} (${path}): the table holds no samples.`, { file, path });
     return { rows, columns, header };
   } finally {
-    f.close();
+    try {
+      f.close();
+    } catch {
+      // a file that never opened has nothing to close
+    }
   }
 }
