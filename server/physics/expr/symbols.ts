@@ -27,6 +27,10 @@ export interface CouplingDeclaration {
   readonly symbol: string;
   readonly dimension: number;
   readonly description?: string;
+  /** Where GR lies: the coupling's value at which every deviation must vanish (checked by gr_limit). */
+  readonly gr_value?: "zero" | "infinity";
+  /** Physical range of the coupling (informational for the checks; the translator uses it). */
+  readonly range?: "positive" | "non_negative" | "any_sign";
 }
 
 export interface DefinitionDeclaration {
@@ -69,6 +73,9 @@ const PRIMITIVES: ReadonlyArray<readonly [string, number, string]> = [
   ["D", 1, "distance"],
   ["D_0", 1, "distance measure D_0 (massive graviton)"],
   ["D_alpha", 1, "distance measure D_alpha (modified dispersion)"],
+  // Ringdown and remnant mappings: the final black hole (source frame).
+  ["M_f", 1, "mass of the remnant black hole"],
+  ["chi_f", 0, "dimensionless spin of the remnant black hole"],
 ];
 
 const DERIVED: ReadonlyArray<readonly [string, string, string]> = [
