@@ -61,7 +61,12 @@ export function derivationInput(m: Mapping): DerivationInput | undefined {
     return out.energy || out.flux ? out : undefined;
   }
   if (d.kind === "frequency_drift" && d.gamma !== undefined) return { frequency_drift: { order: d.order, coefficient: d.gamma } };
-  // Propagation effects are not an energy-balance derivation; nothing for the engine to re-derive.
+  // Propagation: A is the dispersion coefficient (E^2 = p^2 + A p^alpha_md, as a power of length);
+  // alpha_md is the mapping's, or follows from the order (n = (3 alpha_md + 2) / 2).
+  if (d.kind === "propagation" && d.A !== undefined) {
+    const alpha = m.alpha_md ?? (2 * d.order - 2) / 3;
+    return { propagation: { alpha_md: alpha, coefficient: d.A, order: d.order } };
+  }
   return undefined;
 }
 
@@ -75,6 +80,7 @@ const ENTRY_FIELDS: Record<string, string> = {
   "derivation.energy.coefficient": "derivation.A",
   "derivation.flux.coefficient": "derivation.B",
   "derivation.frequency_drift.coefficient": "derivation.gamma",
+  "derivation.propagation.coefficient": "derivation.A",
 };
 
 /** An expression over the evaluation budget: nothing is saved, the 400 names it. */
@@ -102,7 +108,13 @@ async function run(check: MappingChecker, input: MappingInput, path: string): Pr
  * with the submission (and, once accepted, with the revision and on each mapping row).
  */
 export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now: Date, prefix = "theory."): Promise<ChecksReport> {
-  const couplings = entry.couplings.map((c) => ({ symbol: c.symbol, dimension: c.dimension, ...(c.description ? { description: c.description } : {}) }));
+  const couplings = entry.couplings.map((c) => ({
+    symbol: c.symbol,
+    dimension: c.dimension,
+    ...(c.description ? { description: c.description } : {}),
+    ...(c.gr_value ? { gr_value: c.gr_value } : {}),
+    ...(c.range ? { range: c.range } : {}),
+  }));
   const definitions = entry.definitions.map((d) => ({ symbol: d.symbol, expression: d.expression }));
   const jobs: Promise<CheckResult[] | OverBudget>[] = [];
   entry.mappings.forEach((m, i) => {

@@ -27,6 +27,10 @@ export interface CouplingDeclaration {
   readonly symbol: string;
   readonly dimension: number;
   readonly description?: string;
+  /** Where GR lies: the coupling's value at which every deviation must vanish (checked by gr_limit). */
+  readonly gr_value?: "zero" | "infinity";
+  /** Physical range of the coupling (informational for the checks; the translator uses it). */
+  readonly range?: "positive" | "non_negative" | "any_sign";
 }
 
 export interface DefinitionDeclaration {
