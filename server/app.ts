@@ -18,6 +18,10 @@ import { convertRoutes } from "./features/convert/routes.ts";
 import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
+import { getForecastPool } from "./features/forecasts/pool.ts";
+import { curvesRepository } from "./features/forecasts/repository.ts";
+import { forecastsRoutes } from "./features/forecasts/routes.ts";
+import { forecastsService } from "./features/forecasts/service.ts";
 import { healthRoutes } from "./features/health/routes.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
 import { redactUrl } from "./http/redact-url.ts";
@@ -94,9 +98,11 @@ export function createApp(deps: AppDeps): DragomanApp {
   const translator = convertService(dbCatalogueReader(db));
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
-  table.mount(api, "/api", consistencyRoutes(config));
-  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdownCatalogue(db)), config));
+  const ringdown = ringdownCatalogue(db);
+  table.mount(api, "/api", consistencyRoutes(config, ringdown));
+  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
+  table.mount(api, "/api", forecastsRoutes(forecastsService(curvesRepository(db), getForecastPool(), translator), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));
   app.use("/api", api);
