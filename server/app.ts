@@ -11,10 +11,17 @@ import { adminRoutes } from "./features/admin/routes.ts";
 import { catalogueApiRoutes } from "./features/catalogue/api.ts";
 import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
 import { consistencyRoutes } from "./features/consistency/routes.ts";
+import { ringdownCatalogue } from "./features/ringdown/catalogue.ts";
+import { ringdownRoutes } from "./features/ringdown/routes.ts";
+import { ringdownService } from "./features/ringdown/service.ts";
 import { convertRoutes } from "./features/convert/routes.ts";
 import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
+import { getForecastPool } from "./features/forecasts/pool.ts";
+import { curvesRepository } from "./features/forecasts/repository.ts";
+import { forecastsRoutes } from "./features/forecasts/routes.ts";
+import { forecastsService } from "./features/forecasts/service.ts";
 import { healthRoutes } from "./features/health/routes.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
 import { redactUrl } from "./http/redact-url.ts";
@@ -92,7 +99,9 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", consistencyRoutes(config));
+  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdownCatalogue(db)), config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
+  table.mount(api, "/api", forecastsRoutes(forecastsService(curvesRepository(db), getForecastPool(), translator), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));
   app.use("/api", api);
