@@ -98,8 +98,9 @@ export function createApp(deps: AppDeps): DragomanApp {
   const translator = convertService(dbCatalogueReader(db));
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
-  table.mount(api, "/api", consistencyRoutes(config));
-  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdownCatalogue(db)), config));
+  const ringdown = ringdownCatalogue(db);
+  table.mount(api, "/api", consistencyRoutes(config, ringdown));
+  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   table.mount(api, "/api", forecastsRoutes(forecastsService(curvesRepository(db), getForecastPool(), translator), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
