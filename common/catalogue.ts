@@ -217,7 +217,10 @@ export const revisionSummarySchema = z.object({
   number: z.number().int(),
   published_at: z.string(),
   submission_id: z.number().int().nullable(),
+  /** Who opened the submission (null for seeded revisions). */
   author: personSchema.nullable(),
+  /** Everyone who wrote a version of the accepted submission (editors' edits included), first contribution first. */
+  authors: z.array(personSchema),
   accepted_by: personSchema.nullable(),
   /** Added + removed + changed paths against the previous revision. */
   change_count: z.number().int(),
@@ -292,6 +295,8 @@ export const submissionDetailSchema = submissionSummarySchema.extend({
   target_revision: z.number().int().nullable(),
   /** Against the target's current accepted revision (null for a new entry). */
   diff: entryDiffSchema.nullable(),
+  /** Everyone who wrote a version so far (the author, and editors who saved a change), first contribution first. */
+  authors: z.array(personSchema),
 });
 export type SubmissionDetail = z.infer<typeof submissionDetailSchema>;
 

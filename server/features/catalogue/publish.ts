@@ -10,6 +10,8 @@ export interface PublishMeta {
   targetSlug: string | null;
   submissionId: number | null;
   authorId: number | null;
+  /** Every author of the accepted version (default: authorId alone). */
+  authorIds?: number[];
   acceptedBy: number | null;
   now: Date;
   /** An editor's retire or restore: the entry's retirement marks are the change itself. */
@@ -108,6 +110,7 @@ export async function publishEntry(trx: Knex.Transaction, entry: TheoryEntry, ch
     diff: diffEntries(previous ?? {}, entry),
     submissionId: meta.submissionId,
     authorId: meta.authorId,
+    authorIds: meta.authorIds ?? (meta.authorId === null ? [] : [meta.authorId]),
     acceptedBy: meta.acceptedBy,
     publishedAt: meta.now,
   });

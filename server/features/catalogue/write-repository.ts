@@ -65,6 +65,8 @@ export interface RevisionInsert {
   diff: EntryDiff;
   submissionId: number | null;
   authorId: number | null;
+  /** Everyone who wrote a version of the accepted submission, first contribution first. */
+  authorIds: number[];
   acceptedBy: number | null;
   publishedAt: Date;
 }
@@ -78,6 +80,7 @@ export async function insertRevision(trx: Knex.Transaction, r: RevisionInsert): 
     diff: JSON.stringify(r.diff),
     submission_id: r.submissionId,
     author_id: r.authorId,
+    author_ids: r.authorIds,
     accepted_by: r.acceptedBy,
     published_at: r.publishedAt,
   });
