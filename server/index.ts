@@ -62,6 +62,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       await app.locals.checkPool.close();
+      await app.locals.jobQueue.stop();
       await closeSymbolicPool();
       await closeForecastPool();
       if (!extra.db) await db.destroy();
