@@ -120,6 +120,8 @@ export async function replaceTheoryContent(trx: Knex.Transaction, theoryId: numb
         quoted_alpha_md: c.quoted?.alpha_md ?? null,
         description: c.description ?? null,
         convention: c.convention ?? null,
+        range: c.range ?? null,
+        gr_value: c.gr_value ?? null,
       })
       .returning<{ id: number }[]>("id");
     if (!row) throw new Error("coupling insert returned no row");
@@ -179,6 +181,7 @@ export async function replaceTheoryContent(trx: Knex.Transaction, theoryId: numb
         source_status: m.source_status,
         locator: m.locator ?? null,
         notes: m.notes ?? null,
+        caution: m.caution ?? null,
         checks: JSON.stringify(own),
         checks_ok: !failed(all),
       })

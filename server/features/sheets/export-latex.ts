@@ -39,10 +39,16 @@ function percent(c: number): string {
 
 function boundCell(record: SheetRecord, digits: number): string {
   const bound = record.bound;
-  if (bound.parameter === "ppe_beta") {
-    return `$|\\beta| \\le ${sciLatex(bound.upper, digits)}$, $b = ${bound.b}$`;
+  const symbol = bound.parameter === "ppe_beta" ? "\\beta" : `\\delta\\varphi_{${bound.k}}`;
+  let text: string;
+  if (bound.upper !== undefined) text = `$|${symbol}| \\le ${sciLatex(bound.upper, digits)}$`;
+  else {
+    const [lo, hi] = bound.interval ?? [null, null];
+    if (lo !== null && hi !== null) text = `$${symbol} \\in [${sciLatex(lo, digits)}, ${sciLatex(hi, digits)}]$`;
+    else if (lo !== null) text = `$${symbol} \\ge ${sciLatex(lo, digits)}$`;
+    else text = `$${symbol} \\le ${sciLatex(hi ?? Number.NaN, digits)}$`;
   }
-  return `$|\\delta\\varphi_{${bound.k}}| \\le ${sciLatex(bound.upper, digits)}$`;
+  return bound.parameter === "ppe_beta" ? `${text}, $b = ${bound.b}$` : text;
 }
 
 function limitCell(result: ConvertResult, digits: number): string {
