@@ -1,16 +1,8 @@
 /**
- * A small BibTeX reader and writer for single references: enough for a paste box and for exporting
- * what the catalogue cites. It reads @type{key, field = {..} | ".." | number | macro, ...} with nested
- * braces, # concatenation and the month macros, turns common LaTeX accents into Unicode, and writes
- * entries that it reads back to the same reference (see tests/api/catalogue-references.test.ts).
+ * BibTeX out: the entries the catalogue, a theory page and a sheet export. Reading pasted BibTeX is the
+ * server's (server/features/references/bibtex-read.ts, a maintained parser); the tests read every
+ * exported file back with that same parser.
  */
-
-export interface BibtexEntry {
-  type: string;
-  key: string;
-  /** Field names lower-cased; values as written (braces and escapes kept). */
-  fields: Record<string, string>;
-}
 
 export interface BibReference {
   key?: string;
@@ -35,275 +27,14 @@ export class BibtexError extends Error {
   }
 }
 
-const MONTHS: Record<string, string> = {
-  jan: "January", feb: "February", mar: "March", apr: "April", may: "May", jun: "June",
-  jul: "July", aug: "August", sep: "September", oct: "October", nov: "November", dec: "December",
-};
-
-/** Reads every entry in the text (comments, @string and @preamble are skipped). */
-export function parseBibtexEntries(text: string): BibtexEntry[] {
-  const entries: BibtexEntry[] = [];
-  const macros: Record<string, string> = { ...MONTHS };
-  let i = 0;
-  while (i < text.length) {
-    const at = text.indexOf("@", i);
-    if (at < 0) break;
-    let j = at + 1;
-    while (j < text.length && /[A-Za-z]/.test(text[j] as string)) j++;
-    const type = text.slice(at + 1, j).toLowerCase();
-    j = skipSpace(text, j);
-    const open = text[j];
-    if (!type || (open !== "{" && open !== "(")) {
-      i = at + 1;
-      continue;
-    }
-    const close = open === "{" ? "}" : ")";
-    const end = findClosing(text, j, open, close);
-    if (end < 0) throw new BibtexError("bibtex", `the @${type} entry is not closed: a '${close}' is missing`);
-    const body = text.slice(j + 1, end);
-    i = end + 1;
-    if (type === "comment" || type === "preamble") continue;
-    if (type === "string") {
-      const { fields } = readFields(body, macros, `@string`);
-      Object.assign(macros, fields);
-      continue;
-    }
-    const comma = body.indexOf(",");
-    const key = (comma < 0 ? body : body.slice(0, comma)).trim();
-    if (!key || /[\s{}"=]/.test(key)) throw new BibtexError("bibtex", `the @${type} entry has no citation key before its first comma`);
-    const { fields } = readFields(comma < 0 ? "" : body.slice(comma + 1), macros, key);
-    entries.push({ type, key, fields });
-  }
-  return entries;
-}
-
-function skipSpace(s: string, i: number): number {
-  while (i < s.length && /\s/.test(s[i] as string)) i++;
-  return i;
-}
-
-function findClosing(s: string, openAt: number, open: string, close: string): number {
-  let depth = 0;
-  for (let k = openAt; k < s.length; k++) {
-    const c = s[k];
-    if (c === "\\") {
-      k++;
-      continue;
-    }
-    if (c === open) depth++;
-    else if (c === close && --depth === 0) return k;
-  }
-  return -1;
-}
-
-function readFields(body: string, macros: Record<string, string>, where: string): { fields: Record<string, string> } {
-  const fields: Record<string, string> = {};
-  let i = 0;
-  while (true) {
-    i = skipSpace(body, i);
-    while (body[i] === ",") i = skipSpace(body, i + 1);
-    if (i >= body.length) break;
-    const nameMatch = /^[A-Za-z][\w\-:.+]*/.exec(body.slice(i));
-    if (!nameMatch) throw new BibtexError("bibtex", `in ${where}: expected a field name at "${body.slice(i, i + 20)}"`);
-    const name = nameMatch[0].toLowerCase();
-    i = skipSpace(body, i + nameMatch[0].length);
-    if (body[i] !== "=") throw new BibtexError(name, `in ${where}: field "${name}" has no "=" after its name`);
-    i++;
-    let value = "";
-    while (true) {
-      i = skipSpace(body, i);
-      const c = body[i];
-      if (c === "{") {
-        const end = findClosing(body, i, "{", "}");
-        if (end < 0) throw new BibtexError(name, `in ${where}: the value of "${name}" has an unclosed "{"`);
-        value += body.slice(i + 1, end);
-        i = end + 1;
-      } else if (c === '"') {
-        let k = i + 1;
-        let depth = 0;
-        for (; k < body.length; k++) {
-          const ch = body[k];
-          if (ch === "\\") k++;
-          else if (ch === "{") depth++;
-          else if (ch === "}") depth--;
-          else if (ch === '"' && depth === 0) break;
-        }
-        if (k >= body.length) throw new BibtexError(name, `in ${where}: the value of "${name}" has an unclosed quote`);
-        value += body.slice(i + 1, k);
-        i = k + 1;
-      } else {
-        const m = /^[\w\-:.+/]+/.exec(body.slice(i));
-        if (!m) throw new BibtexError(name, `in ${where}: field "${name}" has no value`);
-        const word = m[0];
-        value += /^\d+$/.test(word) ? word : (macros[word.toLowerCase()] ?? word);
-        i += word.length;
-      }
-      i = skipSpace(body, i);
-      if (body[i] === "#") {
-        i++;
-        continue;
-      }
-      break;
-    }
-    if (i < body.length && body[i] !== ",") throw new BibtexError(name, `in ${where}: expected "," after the value of "${name}"`);
-    fields[name] = value;
-  }
-  return { fields };
-}
-
-// ---------------------------------------------------------------------------------------------
-// LaTeX text <-> plain Unicode
-
-const ACCENTS: Record<string, Record<string, string>> = {
-  '"': { a: "ä", e: "ë", i: "ï", o: "ö", u: "ü", y: "ÿ", A: "Ä", E: "Ë", I: "Ï", O: "Ö", U: "Ü" },
-  "'": { a: "á", e: "é", i: "í", o: "ó", u: "ú", y: "ý", c: "ć", n: "ń", s: "ś", z: "ź", A: "Á", E: "É", I: "Í", O: "Ó", U: "Ú", C: "Ć", S: "Ś", Z: "Ź" },
-  "`": { a: "à", e: "è", i: "ì", o: "ò", u: "ù", A: "À", E: "È", I: "Ì", O: "Ò", U: "Ù" },
-  "^": { a: "â", e: "ê", i: "î", o: "ô", u: "û", A: "Â", E: "Ê", I: "Î", O: "Ô", U: "Û" },
-  "~": { a: "ã", n: "ñ", o: "õ", A: "Ã", N: "Ñ", O: "Õ" },
-  c: { c: "ç", C: "Ç", s: "ş", S: "Ş" },
-  v: { c: "č", s: "š", z: "ž", r: "ř", e: "ě", n: "ň", C: "Č", S: "Š", Z: "Ž", R: "Ř" },
-  H: { o: "ő", u: "ű", O: "Ő", U: "Ű" },
-  k: { a: "ą", e: "ę", A: "Ą", E: "Ę" },
-  u: { a: "ă", g: "ğ", A: "Ă", G: "Ğ" },
-};
-const LETTERS: Record<string, string> = { o: "ø", O: "Ø", l: "ł", L: "Ł", ss: "ß", ae: "æ", AE: "Æ", aa: "å", AA: "Å", i: "ı" };
-
-/** Turns BibTeX field text into plain text: accents to Unicode, escapes undone, grouping braces dropped. Math ($...$) is kept as is. */
-export function latexToText(value: string): string {
-  let out = "";
-  let i = 0;
-  const s = value;
-  while (i < s.length) {
-    const c = s[i] as string;
-    if (c === "$") {
-      const end = s.indexOf("$", i + 1);
-      if (end > i) {
-        out += s.slice(i, end + 1);
-        i = end + 1;
-        continue;
-      }
-    }
-    if (c === "\\") {
-      const next = s[i + 1] ?? "";
-      if ("&%#_{}$".includes(next)) {
-        out += next;
-        i += 2;
-        continue;
-      }
-      const accentTable = ACCENTS[next];
-      if (accentTable && ("\"'`^~".includes(next) || /[^A-Za-z]/.test(s[i + 2] ?? "") || s[i + 2] === "{")) {
-        let k = i + 2;
-        while (s[k] === " ") k++;
-        let letter = s[k] ?? "";
-        let consumed = k + 1;
-        if (letter === "{") {
-          const close = s.indexOf("}", k);
-          letter = close > k ? s.slice(k + 1, close).replace(/^\\/, "") : "";
-          consumed = close + 1;
-        } else if (letter === "\\") {
-          letter = s[k + 1] ?? "";
-          consumed = k + 2;
-        }
-        const mapped = accentTable[letter];
-        if (mapped) {
-          out += mapped;
-          i = consumed;
-          continue;
-        }
-      }
-      const word = /^[A-Za-z]+/.exec(s.slice(i + 1))?.[0];
-      if (word && LETTERS[word]) {
-        out += LETTERS[word];
-        i += 1 + word.length;
-        if (s[i] === " ") i++;
-        continue;
-      }
-      out += c;
-      i++;
-      continue;
-    }
-    if (c === "{" || c === "}") {
-      i++;
-      continue;
-    }
-    if (c === "~") {
-      out += " ";
-      i++;
-      continue;
-    }
-    out += c;
-    i++;
-  }
-  return out.replace(/\s+/g, " ").trim();
-}
-
 /** Escapes plain text for a braced BibTeX value; math ($...$) is left alone. */
 export function textToLatex(value: string): string {
   const parts = value.split(/(\$[^$]*\$)/);
   return parts.map((p, idx) => (idx % 2 === 1 ? p : p.replace(/[&%#_{}]/g, (m) => `\\${m}`))).join("");
 }
 
-/** Splits an author list at " and " outside braces; braces protect corporate names. */
-export function splitAuthors(value: string): string[] {
-  const names: string[] = [];
-  let depth = 0;
-  let start = 0;
-  for (let k = 0; k < value.length; k++) {
-    const c = value[k];
-    if (c === "{") depth++;
-    else if (c === "}") depth--;
-    else if (depth === 0 && /\s/.test(c as string)) {
-      const m = /^\s+and\s+/i.exec(value.slice(k));
-      if (m) {
-        names.push(value.slice(start, k));
-        k += m[0].length - 1;
-        start = k + 1;
-      }
-    }
-  }
-  names.push(value.slice(start));
-  return names.map((n) => latexToText(n)).filter(Boolean);
-}
-
 // ---------------------------------------------------------------------------------------------
 // Entry <-> reference
-
-function stripArxiv(v: string): string {
-  return v.trim().replace(/^arxiv:\s*/i, "");
-}
-
-function stripDoi(v: string): string {
-  return v.trim().replace(/^(?:https?:\/\/(?:dx\.)?doi\.org\/|doi:\s*)/i, "");
-}
-
-/** Reads one reference from BibTeX text. Format checks of arXiv ids and DOIs are the caller's (zod). */
-export function parseBibtexReference(text: string): BibReference {
-  const entries = parseBibtexEntries(text);
-  const entry = entries[0];
-  if (!entry) throw new BibtexError("bibtex", "no BibTeX entry found: expected something like @article{key, author = {...}, ...}");
-  if (entries.length > 1) throw new BibtexError("bibtex", `found ${entries.length} entries; paste one at a time`);
-  const f = entry.fields;
-  const authorField = f.author ?? f.editor;
-  if (!authorField || !authorField.trim()) throw new BibtexError("author", "the entry has no author field");
-  const title = f.title === undefined ? "" : latexToText(f.title);
-  if (!title) throw new BibtexError("title", "the entry has no title field");
-  const yearText = (f.year ?? f.date ?? "").trim();
-  const yearMatch = /^(\d{4})(?:-\d{2}(?:-\d{2})?)?$/.exec(latexToText(yearText));
-  if (!yearText) throw new BibtexError("year", "the entry has no year field");
-  if (!yearMatch) throw new BibtexError("year", `year "${yearText}" is not a four-digit year`);
-
-  const ref: BibReference = { key: entry.key, authors: splitAuthors(authorField), title, year: Number(yearMatch[1]) };
-  const archive = (f.archiveprefix ?? f.eprinttype ?? "").toLowerCase();
-  const eprint = f.eprint ?? f.arxiv ?? f.arxivid;
-  if (eprint && (archive === "" || archive === "arxiv" || f.arxiv !== undefined || f.arxivid !== undefined)) ref.arxiv = stripArxiv(latexToText(eprint));
-  if (f.doi) ref.doi = stripDoi(f.doi.replace(/\\_/g, "_"));
-  const journal = f.journal ?? f.journaltitle ?? f.booktitle;
-  if (journal) ref.journal = latexToText(journal);
-  if (f.volume) ref.volume = latexToText(f.volume);
-  if (f.pages) ref.pages = latexToText(f.pages).replace(/\s*-{1,3}\s*/g, "-");
-  if (f.note) ref.note = latexToText(f.note);
-  return ref;
-}
 
 /** A citation key made from the first author's surname and the year (yagi2012). */
 export function suggestKey(ref: Pick<BibReference, "authors" | "year">): string {
@@ -317,25 +48,102 @@ export function suggestKey(ref: Pick<BibReference, "authors" | "year">): string 
   return `${ascii || "ref"}${ref.year}`;
 }
 
+
+// ---------------------------------------------------------------------------------------------
+// Unicode -> LaTeX, so the file works with classic BibTeX and pdflatex without inputenc tricks
+
+const COMBINING: Record<string, string> = {
+  "\u0300": "`", "\u0301": "'", "\u0302": "^", "\u0303": "~", "\u0304": "=", "\u0306": "u", "\u0307": ".",
+  "\u0308": '"', "\u030a": "r", "\u030b": "H", "\u030c": "v", "\u0327": "c", "\u0328": "k",
+};
+const SPECIAL_LETTERS: Record<string, string> = {
+  "ø": "{\\o}", "Ø": "{\\O}", "ł": "{\\l}", "Ł": "{\\L}", "ß": "{\\ss}", "æ": "{\\ae}", "Æ": "{\\AE}",
+  "œ": "{\\oe}", "Œ": "{\\OE}", "ı": "{\\i}", "đ": "{\\dj}", "–": "--", "—": "---", "’": "'", "‘": "`",
+  "“": "``", "”": "''", "∼": "$\\sim$", "×": "$\\times$", "±": "$\\pm$", "²": "$^2$", "³": "$^3$",
+};
+const GREEK = "alpha beta gamma delta epsilon zeta eta theta iota kappa lambda mu nu xi omicron pi rho sigma tau upsilon phi chi psi omega".split(" ");
+
+function unicodeToLatex(text: string): string {
+  let out = "";
+  for (const ch of text) {
+    const code = ch.codePointAt(0) ?? 0;
+    if (code < 0x80) {
+      out += ch;
+      continue;
+    }
+    const special = SPECIAL_LETTERS[ch];
+    if (special) {
+      out += special;
+      continue;
+    }
+    if (code >= 0x3b1 && code <= 0x3c9 && code !== 0x3c2) {
+      const name = GREEK[code - 0x3b1 - (code > 0x3c2 ? 1 : 0)];
+      if (name && name !== "omicron") {
+        out += `$\\${name}$`;
+        continue;
+      }
+    }
+    const [base, ...marks] = [...ch.normalize("NFD")];
+    const mark = marks.length === 1 ? COMBINING[marks[0] as string] : undefined;
+    if (base && mark) {
+      const letter = base === "i" ? "\\i" : base;
+      out += /[A-Za-z]/.test(mark) ? `{\\${mark}{${letter}}}` : `{\\${mark}${letter}}`;
+      continue;
+    }
+    out += ch;
+  }
+  return out;
+}
+
 function braced(value: string): string {
-  return `{${textToLatex(value)}}`;
+  return `{${unicodeToLatex(textToLatex(value))}}`;
+}
+
+const CORPORATE = /\b(?:collaborations?|consortium|team|group|project|observator(?:y|ies)|scientific|survey)\b/i;
+
+/** True for an author that is an organisation: BibTeX must not split it into first and last names. */
+export function isCorporateAuthor(name: string): boolean {
+  return CORPORATE.test(name) || /\sand\s/i.test(name);
 }
 
 function authorToBibtex(name: string): string {
-  // A name holding " and " or a comma-free corporate name would be split or reordered: protect it.
-  return /\sand\s/i.test(name) ? `{${textToLatex(name)}}` : textToLatex(name);
+  const latex = unicodeToLatex(textToLatex(name));
+  return isCorporateAuthor(name) ? `{${latex}}` : latex;
 }
 
-/** Writes one reference as a BibTeX entry: @article with a journal, else @misc (an e-print). */
+/** Page ranges go to `pages`; a single article number (Phys. Rev. style) to `eid`, and `pages` as well for styles without eid. */
+function pageFields(pages: string): [string, string][] {
+  const range = /^\s*([A-Za-z]?\d+)\s*[-\u2013\u2014]+\s*([A-Za-z]?\d+)\s*$/.exec(pages);
+  if (range) return [["pages", `{${range[1]}--${range[2]}}`]];
+  const cleaned = pages.trim().replace(/\(R\)$/, "");
+  return [
+    ["pages", braced(cleaned)],
+    ["eid", braced(cleaned)],
+  ];
+}
+
+/**
+ * Writes one reference as an @article entry: journal, volume, pages (or eid), doi, eprint and
+ * archivePrefix. An e-print without a journal is written as journal "arXiv e-prints" with the arXiv id
+ * as its eid (the form the astrophysics data services use; common practice).
+ */
 export function formatBibtexReference(ref: BibReference, key = ref.key ?? suggestKey(ref)): string {
   const lines: [string, string][] = [];
   // "A. Author et al." as typed in a list becomes BibTeX's own "A. Author and others".
   const names = ref.authors.flatMap((a) => (/\s+et\s+al\.?$/.test(a) ? [a.replace(/\s+et\s+al\.?$/, ""), "others"] : [a]));
   lines.push(["author", `{${names.map(authorToBibtex).join(" and ")}}`]);
   lines.push(["title", `{${braced(ref.title)}}`]);
-  if (ref.journal) lines.push(["journal", braced(ref.journal)]);
-  if (ref.volume) lines.push(["volume", braced(ref.volume)]);
-  if (ref.pages) lines.push(["pages", braced(ref.pages)]);
+  if (ref.journal) {
+    lines.push(["journal", braced(ref.journal)]);
+    if (ref.volume) lines.push(["volume", braced(ref.volume)]);
+    if (ref.pages) lines.push(...pageFields(ref.pages));
+  } else if (ref.arxiv) {
+    lines.push(["journal", "{arXiv e-prints}"]);
+    lines.push(["eid", `{arXiv:${ref.arxiv}}`]);
+  } else {
+    if (ref.volume) lines.push(["volume", braced(ref.volume)]);
+    if (ref.pages) lines.push(...pageFields(ref.pages));
+  }
   lines.push(["year", `{${ref.year}}`]);
   if (ref.doi) lines.push(["doi", `{${ref.doi}}`]);
   if (ref.arxiv) {
@@ -343,20 +151,51 @@ export function formatBibtexReference(ref: BibReference, key = ref.key ?? sugges
     lines.push(["archivePrefix", "{arXiv}"]);
   }
   if (ref.note) lines.push(["note", braced(ref.note)]);
-  const type = ref.journal ? "article" : "misc";
-  return `@${type}{${key},\n${lines.map(([k, v]) => `  ${k} = ${v},`).join("\n")}\n}\n`;
+  return `@article{${key},\n${lines.map(([k, v]) => `  ${k} = ${v},`).join("\n")}\n}\n`;
 }
 
-/** Writes several references, keeping citation keys unique (a second yagi2012 becomes yagi2012b). */
+/** What makes two references the same paper: DOI, else arXiv id (without version), else title and year. */
+function identity(r: BibReference): string {
+  if (r.doi) return `doi:${r.doi.toLowerCase()}`;
+  if (r.arxiv) return `arxiv:${r.arxiv.replace(/v\d+$/, "")}`;
+  return `title:${r.title.toLowerCase()}:${r.year}`;
+}
+
+/**
+ * Citation keys for a set of references, stable and unique: the same paper listed twice is written
+ * once; different papers that share a key are told apart by a letter suffix assigned in the order of
+ * their identity (DOI, arXiv id, title), not in the order of the list, so a re-export keeps the keys.
+ */
+export function assignCitationKeys(refs: BibReference[]): { ref: BibReference; key: string }[] {
+  const byIdentity = new Map<string, BibReference>();
+  for (const r of refs) if (!byIdentity.has(identity(r))) byIdentity.set(identity(r), r);
+  const groups = new Map<string, string[]>();
+  for (const [id, r] of byIdentity) {
+    const base = r.key ?? suggestKey(r);
+    groups.set(base, [...(groups.get(base) ?? []), id]);
+  }
+  const keyOf = new Map<string, string>();
+  const taken = new Set(groups.keys());
+  for (const [base, ids] of groups) {
+    ids.sort();
+    ids.forEach((id, n) => {
+      if (n === 0) {
+        keyOf.set(id, base);
+        return;
+      }
+      let suffix = n;
+      let key = `${base}${String.fromCharCode(97 + suffix)}`;
+      while (taken.has(key)) key = `${base}${String.fromCharCode(97 + ++suffix)}`;
+      taken.add(key);
+      keyOf.set(id, key);
+    });
+  }
+  return [...byIdentity].map(([id, ref]) => ({ ref, key: keyOf.get(id) ?? ref.key ?? suggestKey(ref) }));
+}
+
+/** Writes several references with stable, unique citation keys (see assignCitationKeys). */
 export function formatBibtexFile(refs: BibReference[]): string {
-  const used = new Set<string>();
-  return refs
-    .map((r) => {
-      const base = r.key ?? suggestKey(r);
-      let key = base;
-      for (let n = 1; used.has(key); n++) key = `${base}${String.fromCharCode(97 + n)}`;
-      used.add(key);
-      return formatBibtexReference(r, key);
-    })
+  return assignCitationKeys(refs)
+    .map(({ ref, key }) => formatBibtexReference(ref, key))
     .join("\n");
 }

@@ -58,7 +58,7 @@ export const EXPORT_FORMATS = ["csv", "json", "latex", "bibtex"] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 export const exportQuerySchema = z.object({
   format: z.enum(EXPORT_FORMATS, { error: `format must be one of ${EXPORT_FORMATS.join(", ")}` }),
-  digits: z.coerce.number().int().min(1, "digits must be 1 to 6").max(6, "digits must be 1 to 6").default(3),
+  digits: z.coerce.number().int().min(1, "digits must be 1 to 6").max(6, "digits must be 1 to 6").default(2),
 });
 
 export const sheetRecordSchema = z.object({

@@ -116,10 +116,40 @@ const referenceKey = z.string().regex(REFERENCE_KEY_PATTERN, "must be a citation
 // ---------------------------------------------------------------------------------------------
 // References
 
-/** Authors as a list; a BibTeX-style "A and B" string is accepted and split. */
+const NAME_SUFFIX = /^(?:jr\.?|sr\.?|ii|iii|iv)$/i;
+
+/**
+ * True when one author field holds several people separated by commas ("K. Yagi, L. C. Stein"), which
+ * would otherwise be stored as one author. "Yagi, Kent" (last, first) and "Yagi, Jr., Kent" are one person.
+ */
+export function looksLikeSeveralAuthors(name: string): boolean {
+  const parts = name.split(",").map((p) => p.trim()).filter(Boolean);
+  const significant = parts.filter((p) => !NAME_SUFFIX.test(p));
+  if (significant.length >= 3) return true;
+  if (significant.length < 2) return false;
+  // "Last, First": the part before the comma is a surname, perhaps with lower-case particles (van der Berg).
+  // "First Last, First Last": the part before the comma is itself a full name.
+  const before = (significant[0] as string).split(/\s+/).filter((w) => !/^\p{Ll}/u.test(w));
+  const after = (significant[1] as string).split(/\s+/);
+  const startsWithInitial = /^\p{Lu}\.(?:\p{Lu}\.)*$/u.test(before[0] ?? "");
+  return before.length >= 2 && (startsWithInitial || after.length >= 2);
+}
+
+/** Authors as a list; a BibTeX-style "A and B" string is accepted and split; comma-separated lists are refused. */
 const authorsSchema = z
   .union([z.array(text(200)).min(1, "needs at least one author"), text(4000)])
-  .transform((v) => (Array.isArray(v) ? v : v.split(/\s+and\s+/).map((s) => s.trim()).filter(Boolean)));
+  .transform((v) => (Array.isArray(v) ? v : v.split(/\s+and\s+/).map((s) => s.trim()).filter(Boolean)))
+  .superRefine((names, ctx) => {
+    names.forEach((name) => {
+      if (looksLikeSeveralAuthors(name)) {
+        // Reported on the authors field itself, where the form shows it.
+        ctx.addIssue({
+          code: "custom",
+          message: `"${name}" looks like several authors separated by commas: give one author per line, or separate them with " and "`,
+        });
+      }
+    });
+  });
 
 export const referenceInputSchema = z.object({
   /** Key other parts of the entry cite this reference by (mappings, conventions, bounds). */

@@ -4,6 +4,9 @@
 #   PGPORT       TCP port on 127.0.0.1 (default 54329; never 5432, which belongs to the system cluster)
 #   PGDATA_DIR   cluster folder, absolute or relative to the checkout (default .data/pg)
 #   PG_DATABASES space-separated databases to create when missing (default "dragoman")
+#   PG_THROWAWAY 1 = a cluster whose data may be lost (the test cluster only): fsync, synchronous_commit
+#                and full_page_writes off for speed. Unset (npm start, db:backup, ...): PostgreSQL's durable
+#                defaults, so a write that was answered 2xx survives a crash of PostgreSQL or of the machine.
 # Idempotent: starting a running cluster is a no-op; a start after kill -9 recovers.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -11,6 +14,8 @@ PORT="${PGPORT:-54329}"
 if [ "$PORT" = 5432 ]; then echo "pg.sh: port 5432 is reserved for the system cluster; choose another PGPORT." >&2; exit 1; fi
 case "${PGDATA_DIR:-.data/pg}" in /*) ROOT="${PGDATA_DIR}" ;; *) ROOT="$(pwd)/${PGDATA_DIR:-.data/pg}" ;; esac
 DBS="${PG_DATABASES:-dragoman}"
+DURABILITY=""
+if [ "${PG_THROWAWAY:-0}" = 1 ]; then DURABILITY="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"; fi
 
 pgbin() { local d; for d in /usr/lib/postgresql/*/bin; do [ -x "$d/initdb" ] && { echo "$d"; return 0; }; done; return 1; }
 
@@ -71,7 +76,7 @@ start() {
         echo "pg.sh: port $PORT on 127.0.0.1 is used by another program; set PGPORT to a free port." >&2; exit 1
       fi
       as_pg "$BIN/pg_ctl" -D "$DATA" -l "$LOG" -w -t 60 \
-        -o "-c listen_addresses=127.0.0.1 -p $PORT -k $SOCK -c unix_socket_permissions=0777 -c fsync=off -c synchronous_commit=off -c full_page_writes=off -c max_connections=200" \
+        -o "-c listen_addresses=127.0.0.1 -p $PORT -k $SOCK -c unix_socket_permissions=0777 $DURABILITY -c max_connections=200" \
         start >/dev/null 2>&1 || { tail -20 "$LOG" >&2; echo "pg.sh: PostgreSQL did not start (log above, $LOG)." >&2; exit 1; }
     fi
     sleep 0.5

@@ -14,8 +14,17 @@ if [ ! -x /usr/bin/chromium ] && [ ! -x /usr/lib/chromium/chromium ]; then
   fi
 fi
 
+if ! command -v pdflatex >/dev/null 2>&1 || ! command -v bibtex >/dev/null 2>&1 || ! kpsewhich booktabs.sty >/dev/null 2>&1; then
+  echo "Installing Debian's texlive for the LaTeX export test (one time)..."
+  if ! { apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends texlive-latex-base texlive-latex-recommended >/dev/null; }; then
+    echo "test.sh: could not install texlive with apt-get; install Debian's 'texlive-latex-base' and 'texlive-latex-recommended' and run again." >&2
+    echo "0 passed, 1 failed"; exit 1
+  fi
+fi
+
 export TEST_PGPORT="${TEST_PGPORT:-54339}" TEST_PGDATA_DIR="${TEST_PGDATA_DIR:-.data/pg-test}"
-pg() { PGPORT="$TEST_PGPORT" PGDATA_DIR="$TEST_PGDATA_DIR" PG_DATABASES="dragoman_test_template" bash scripts/pg.sh "$@"; }
+# The test cluster is throw-away: PG_THROWAWAY=1 trades durability for speed (scripts/pg.sh).
+pg() { PGPORT="$TEST_PGPORT" PGDATA_DIR="$TEST_PGDATA_DIR" PG_DATABASES="dragoman_test_template" PG_THROWAWAY=1 bash scripts/pg.sh "$@"; }
 # Stop the cluster at the end only if this run started it (another run may be using it).
 was_running=0; pg status >/dev/null 2>&1 && was_running=1
 pg start >/dev/null || { echo "0 passed, 1 failed"; exit 1; }

@@ -26,12 +26,27 @@ function authorList(authors: string): string[] {
   return authors.split(/,\s+/).map((a) => a.trim()).filter(Boolean);
 }
 
+/**
+ * Seed references write the journal as cited in running text ("Phys. Rev. D 80, 122003"); the
+ * catalogue stores journal, volume and pages apart so that BibTeX gets its own fields.
+ */
+export function splitJournal(text: string): { journal: string; volume?: string; pages?: string; note?: string } {
+  const [main = text, ...rest] = text.split(/;\s*/);
+  const note = rest.length ? rest.join("; ").replace(/^erratum/i, "Erratum:") : undefined;
+  const withNote = <T extends object>(v: T) => (note ? { ...v, note } : v);
+  const comma = /^(.+?)\s+(\d+),\s*([A-Za-z]?\d+(?:-\d+)?)(?:\(R\))?$/.exec(main.trim());
+  if (comma) return withNote({ journal: comma[1] as string, volume: comma[2] as string, pages: comma[3] as string });
+  const yearStyle = /^(.+?)\s+(\d+)\s+\(\d{4}\)\s+(\d+)$/.exec(main.trim());
+  if (yearStyle) return withNote({ journal: yearStyle[1] as string, volume: yearStyle[2] as string, pages: yearStyle[3] as string });
+  return withNote({ journal: main.trim() });
+}
+
 /** The seed data's shape is the submission shape, except for families as labels and authors as one string. */
 export function toSubmissionEntry(e: SeedEntry): TheoryEntry {
   const input = {
     ...e,
     family: familyOf(e.family, e.slug),
-    references: e.references.map((r) => ({ ...r, authors: authorList(r.authors) })),
+    references: e.references.map((r) => ({ ...r, ...(r.journal ? splitJournal(r.journal) : {}), authors: authorList(r.authors) })),
   };
   const parsed = theoryEntrySchema.safeParse(input);
   if (!parsed.success) {

@@ -27,7 +27,8 @@ export const configSchema = z
     PUBLIC_URL: z.url().optional(),
     SESSION_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
     CLIENT_DIST: z.string().default("dist"),
-    GITHUB_CLIENT_ID: z.string().default("dragoman-local"),
+    // Unset outside production: the local fake's id ("dragoman-local"); production refuses to start without it.
+    GITHUB_CLIENT_ID: z.string().min(1).optional(),
     GITHUB_CLIENT_SECRET: z.string().optional(),
     GITHUB_AUTHORIZE_URL: z.url().default("https://github.com/login/oauth/authorize"),
     GITHUB_TOKEN_URL: z.url().default("https://github.com/login/oauth/access_token"),
@@ -52,18 +53,30 @@ export const configSchema = z
     // Largest body (JSON columns or CSV upload) accepted by POST /api/v1/convert/samples (bytes); 32 MiB holds 200 000 samples of six columns.
     CONVERT_SAMPLES_MAX_BYTES: z.coerce.number().int().positive().default(33_554_432),
     SESSION_TTL_HOURS: z.coerce.number().positive().max(24 * 90).default(336),
+    // Lifetime of the session that only holds an unfinished sign-in (OAuth state, return path).
+    SIGNIN_SESSION_MINUTES: z.coerce.number().positive().max(24 * 60).default(10),
+    // HTTP server: the whole request (headers and body) must arrive within REQUEST_TIMEOUT_MS, the headers
+    // within HEADERS_TIMEOUT_MS; a slower client gets 408 and its connection is closed.
+    REQUEST_TIMEOUT_MS: z.coerce.number().int().min(1000).default(60_000),
+    HEADERS_TIMEOUT_MS: z.coerce.number().int().min(1000).default(15_000),
+    KEEP_ALIVE_TIMEOUT_MS: z.coerce.number().int().min(1000).default(5_000),
     // Unset: 30 a minute, 10 000 under NODE_ENV=test (server/auth/rate-limits.ts).
     AUTH_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().optional(),
   })
   .superRefine((c, ctx) => {
+    if (c.HEADERS_TIMEOUT_MS > c.REQUEST_TIMEOUT_MS) {
+      ctx.addIssue({ code: "custom", path: ["HEADERS_TIMEOUT_MS"], message: `must not exceed REQUEST_TIMEOUT_MS (${c.REQUEST_TIMEOUT_MS})` });
+    }
     if (c.NODE_ENV === "production") {
       if (!c.SESSION_SECRET) ctx.addIssue({ code: "custom", path: ["SESSION_SECRET"], message: "is required in production" });
       if (c.DEV_OUTBOX) ctx.addIssue({ code: "custom", path: ["DEV_OUTBOX"], message: "must be false in production" });
+      if (!c.GITHUB_CLIENT_ID) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_ID"], message: "is required in production" });
       if (!c.GITHUB_CLIENT_SECRET) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_SECRET"], message: "is required in production" });
       // The OAuth callback URL is built from it; the Host header must not decide where GitHub sends people.
       if (!c.PUBLIC_URL) ctx.addIssue({ code: "custom", path: ["PUBLIC_URL"], message: "is required in production" });
     }
-  });
+  })
+  .transform((c) => ({ ...c, GITHUB_CLIENT_ID: c.GITHUB_CLIENT_ID ?? "dragoman-local" }));
 
 export type Config = z.output<typeof configSchema>;
 

@@ -1,4 +1,4 @@
-import type { Server } from "node:http";
+import { createServer, type RequestListener, type Server } from "node:http";
 import { createApp, type AppDeps } from "./app.ts";
 import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
@@ -11,13 +11,33 @@ export interface RunningServer {
   close: () => Promise<void>;
 }
 
+/**
+ * The HTTP server with its timeouts: a client must send its headers within HEADERS_TIMEOUT_MS and the
+ * whole request (body included) within REQUEST_TIMEOUT_MS, or it gets 408 and the connection is
+ * closed; an idle keep-alive connection closes after KEEP_ALIVE_TIMEOUT_MS. Node checks the first two
+ * every connectionsCheckingInterval, so that interval is kept short.
+ */
+export function createHttpServer(app: RequestListener, config: Pick<Config, "REQUEST_TIMEOUT_MS" | "HEADERS_TIMEOUT_MS" | "KEEP_ALIVE_TIMEOUT_MS">): Server {
+  const server = createServer(
+    {
+      requestTimeout: config.REQUEST_TIMEOUT_MS,
+      headersTimeout: config.HEADERS_TIMEOUT_MS,
+      keepAliveTimeout: config.KEEP_ALIVE_TIMEOUT_MS,
+      connectionsCheckingInterval: Math.min(1000, config.HEADERS_TIMEOUT_MS),
+    },
+    app,
+  );
+  return server;
+}
+
 /** Starts the HTTP server. Used by scripts/stack.ts (npm start) and by production (node --import tsx server/index.ts). */
 export async function startServer(config: Config, extra: Partial<AppDeps> = {}): Promise<RunningServer> {
   const logger = extra.logger ?? createLogger(config);
   const db = extra.db ?? createDb(config.DATABASE_URL);
   const app = createApp({ db, config, logger, ...extra });
   const server = await new Promise<Server>((resolve, reject) => {
-    const s = app.listen(config.PORT, config.HOST);
+    const s = createHttpServer(app, config);
+    s.listen(config.PORT, config.HOST);
     s.once("listening", () => resolve(s));
     s.once("error", (err: NodeJS.ErrnoException) => {
       if (err.code === "EADDRINUSE") reject(new ConfigError(`Port ${config.PORT} on ${config.HOST} is already in use: stop the other program or start with PORT=<free port>.`));

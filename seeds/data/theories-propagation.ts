@@ -54,7 +54,12 @@ export const massiveGraviton: TheoryEntry = {
       expression: "-pi^2*D_0*Mc/lambda_g^2",
       latex: "\\beta = -\\frac{\\pi^2 D_0\\,\\mathcal{M}}{\\lambda_g^2}",
       frame_note: FRAME_NOTE,
-      derivation: { kind: "propagation", order: 1, note: "arrival-time delay D_0 / (2 lambda_g^2 f^2) in the stationary-phase approximation" },
+      derivation: {
+        kind: "propagation",
+        order: 1,
+        A: "1/lambda_g^2",
+        note: "E^2 = p^2 + m_g^2, i.e. A = m_g^2 = (h/lambda_g)^2 at alpha = 0: arrival-time delay D_0 / (2 lambda_g^2 f^2) in the stationary-phase approximation; the engine re-derives beta from the dispersion relation",
+      },
       validity: [
         {
           // m_g c^2 / (h f) = lambda_GW / lambda_g is largest at the lowest frequency of the band.
@@ -143,7 +148,12 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
         expression,
         latex: `\\beta = \\frac{\\pi^{${power}}\\,D_{${alphaMd}}\\,\\mathcal{M}^{${1 - alphaMd}}}{(${alphaMd - 1})\\,\\lambda_A^{${power}}}`,
         frame_note: FRAME_NOTE,
-        derivation: { kind: "propagation", order: (b + 5) / 2 },
+        derivation: {
+          kind: "propagation",
+          order: (b + 5) / 2,
+          A: `${lambda}^(${alphaMd - 2})`,
+          note: "A / h^(2 - alpha) = lambda_A^(alpha - 2) for A > 0; the engine re-derives beta from the dispersion relation (particle speed p/E, as Mirshekari, Yunes & Will 2012)",
+        },
         validity: [
           alphaMd < 2
             ? {

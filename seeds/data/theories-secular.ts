@@ -36,6 +36,12 @@ export const varyingG: TheoryEntry = {
       pn_order: -4,
       b: -13,
       expression: "-(275/851968)*Gdot*Mc",
+      derivation: {
+        kind: "frequency_drift",
+        order: -4,
+        gamma: "(55/768)*Gdot*Mc",
+        note: "conservative: the orbital angular momentum is an adiabatic invariant, so G M a is constant and the orbital frequency grows as G^2 (df/dt adds 2 (Gdot/G) f); dissipative: the GR drift goes as (G Mc)^(5/3) with G(t) = G_c [1 - (Gdot/G)(t_c - t)] and t_c - t = (5/256) Mc u^-8. gamma = 5/48 - 25/768 = 55/768 (derived)",
+      },
       latex: "\\beta = -\\frac{275}{851968}\\,\\frac{\\dot G}{G}\\,\\mathcal{M}",
       frame_note:
         "Gdot/G is the rate at the source and Mc the source-frame chirp mass; the observed rate (1+z)^-1 Gdot/G times Mc_z gives the same product.",
@@ -122,6 +128,12 @@ export const extraDimension: TheoryEntry = {
       b: -13,
       coupling: "Mdot_loss",
       expression: `-(25/851968)*Mdot_loss*${massLossShape}`,
+      derivation: {
+        kind: "frequency_drift",
+        order: -4,
+        gamma: `(5/768)*Mdot_loss*${massLossShape}`,
+        note: "per-hole law mdot_i = -C/m_i^2 with Mdot = mdot_1 + mdot_2 = -Mdot_loss. Conservative: isotropic mass loss keeps the specific angular momentum, so a M is constant and df/dt adds 2 (Mdot/M) f; dissipative: the GR drift goes as Mc^(5/3), with d ln Mc/dt = (Mdot/M)(3 - 10 eta + 2 eta^2)/(5 eta (1 - 2 eta)) over t_c - t = (5/256) Mc u^-8 (derived)",
+      },
       latex: "\\beta = \\frac{25}{851968}\\,\\dot M\\,\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad \\dot M = -|\\dot M|",
       body_rules: [BLACK_HOLES_ONLY],
       validity: massLossValidity("abs(Mdot_loss)"),

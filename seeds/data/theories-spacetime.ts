@@ -107,6 +107,13 @@ export const johannsen: TheoryEntry = {
     held_fixed: c === "alpha13" ? { eps3: 0 } : { alpha13: 0 },
     expression: johannsenShape,
     latex: "\\beta = \\frac{75}{64}\\,(\\epsilon_3 - 2\\alpha_{13})\\,\\eta^{-4/5}",
+    derivation: {
+      kind: "energy_flux" as const,
+      order: 2,
+      A: "eps3 - 2*alpha13",
+      B: "-2*(eps3 - 2*alpha13)",
+      note: "static limit -g_tt = (1 - 2x)(1 + (eps3 - 2 alpha13) x^3) to first order, x = M/r: test-body binding energy E = E_GR [1 + (eps3 - 2 alpha13) v^4] and quadrupole flux with the modified Kepler law F = F_GR [1 - 2 (eps3 - 2 alpha13) v^4] (derived)",
+    },
     body_rules: [{ kind: "derived_for" as const, description: "a deformed black-hole metric", bodies: ["bh" as const] }],
     validity: [
       {

@@ -21,7 +21,12 @@ const LOGIN_HINT = /^[A-Za-z0-9](?:[A-Za-z0-9-]{0,38})$/;
 
 const toSignIn = (res: Response, code: SignInFailure) => res.redirect(302, `/sign-in?error=${code}`);
 
-export function authRoutes(passport: PassportInstance, logger: Logger): RouteSpec[] {
+/**
+ * `pendingSessionMs`: the lifetime of the session that only carries an unfinished sign-in (the OAuth
+ * state and return_to). A completed sign-in regenerates the session with the full SESSION_TTL_HOURS;
+ * an abandoned one leaves a row that expires (and is pruned) within minutes, not weeks.
+ */
+export function authRoutes(passport: PassportInstance, logger: Logger, pendingSessionMs: number): RouteSpec[] {
   return [
     {
       method: "get",
@@ -33,6 +38,7 @@ export function authRoutes(passport: PassportInstance, logger: Logger): RouteSpe
       handler: (req: Request, res: Response, next: NextFunction) => {
         const hint = typeof req.query.login_hint === "string" ? req.query.login_hint : undefined;
         if (hint !== undefined && !LOGIN_HINT.test(hint)) return toSignIn(res, "bad_login_hint");
+        if (!req.user) req.session.cookie.maxAge = pendingSessionMs;
         req.session.returnTo = safeReturnPath(req.query.return_to);
         passport.authenticate("github", { login_hint: hint } as object)(req, res, next);
       },

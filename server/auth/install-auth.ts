@@ -46,7 +46,7 @@ export function installAuth(app: Express, table: RouteTable, deps: { db: Knex; c
   app.use(AUTHENTICATED_PREFIXES, csrf.doubleCsrfProtection);
 
   const auth = express.Router();
-  table.mount(auth, "/auth", authRoutes(passport, logger));
+  table.mount(auth, "/auth", authRoutes(passport, logger, config.SIGNIN_SESSION_MINUTES * 60_000));
   app.use("/auth", auth);
   return { accounts, tokens, csrf };
 }

@@ -39,13 +39,31 @@ export async function migrateLatest(db: Knex): Promise<string[]> {
   return applied;
 }
 
-/** True when a trivial query answers within timeoutMs. Never throws. */
+/**
+ * True when a trivial query answers within timeoutMs of event-loop time. Never throws.
+ *
+ * A stalled event loop (seconds of synchronous work elsewhere) must not read as "database down": the
+ * timer and the database's answer both wait for the loop, and timers run first. So when the timer fires
+ * late (the loop was busy), the ping gets a fresh timeoutMs of free loop; only a timer that fired on
+ * time while no answer had arrived means the database did not answer.
+ */
 export async function pingDb(db: Knex, timeoutMs = 1500): Promise<boolean> {
   let timer: NodeJS.Timeout | undefined;
   try {
-    const ping = db.raw("select 1").then(() => true);
+    const ping = db.raw("select 1").then(
+      () => true,
+      () => false,
+    );
     const timeout = new Promise<boolean>((resolve) => {
-      timer = setTimeout(() => resolve(false), timeoutMs);
+      const arm = () => {
+        const armedAt = performance.now();
+        timer = setTimeout(() => {
+          const late = performance.now() - armedAt - timeoutMs;
+          // Let the poll phase deliver an answer that arrived while the loop was blocked, then decide.
+          setImmediate(() => (late > Math.max(50, timeoutMs / 4) ? arm() : resolve(false)));
+        }, timeoutMs);
+      };
+      arm();
     });
     return await Promise.race([ping, timeout]);
   } catch {

@@ -1,6 +1,8 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
 import { AppError, NotFoundError } from "../errors.ts";
 import type { Logger } from "../logger.ts";
+import { DB_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from "./db-unavailable.ts";
+import { redactUrl } from "./redact-url.ts";
 
 interface ErrorBody {
   error: { code: string; message: string; fields?: Record<string, string>; details?: Record<string, unknown>; stack?: string };
@@ -35,6 +37,16 @@ function fromLibraryError(err: unknown): AppError | undefined {
 
 export function errorMiddleware(logger: Logger, exposeStack: boolean): ErrorRequestHandler {
   return (err, req, res, _next) => {
+    if (!(err instanceof AppError) && isDatabaseUnavailable(err)) {
+      // Not our bug and not the caller's: the database is down or restarting. One warning line, no stack.
+      logger.warn({ method: req.method, url: redactUrl(req.originalUrl), reason: err instanceof Error ? err.message : String(err) }, "database unavailable");
+      if (res.headersSent) return;
+      res
+        .status(503)
+        .set("Retry-After", String(DB_RETRY_AFTER_SECONDS))
+        .json({ error: { code: "database_unavailable", message: `The database cannot be reached right now; try again in ${DB_RETRY_AFTER_SECONDS} seconds.` } });
+      return;
+    }
     const known = err instanceof AppError ? err : fromLibraryError(err);
     const status = known?.status ?? 500;
     const body: ErrorBody = {
@@ -46,7 +58,7 @@ export function errorMiddleware(logger: Logger, exposeStack: boolean): ErrorRequ
     if (known?.fields) body.error.fields = known.fields;
     if (known?.details) body.error.details = known.details;
     if (status >= 500) {
-      logger.error({ err, method: req.method, url: req.originalUrl }, "request failed");
+      logger.error({ err, method: req.method, url: redactUrl(req.originalUrl) }, "request failed");
       if (exposeStack && err instanceof Error && err.stack) body.error.stack = err.stack;
     }
     if (res.headersSent) return;

@@ -1,9 +1,11 @@
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { formatBibtexFile, formatBibtexReference, latexToText, parseBibtexEntries, parseBibtexReference, splitAuthors } from "../../common/bibtex.ts";
+import { formatBibtexFile, formatBibtexReference, isCorporateAuthor } from "../../common/bibtex.ts";
 import { arxivIdSchema, doiSchema } from "../../common/catalogue.ts";
 import type { DragomanApp } from "../../server/app.ts";
+import { readBibtexReference } from "../../server/features/references/bibtex-read.ts";
 import { upsertLiterature } from "../../server/features/references/repository.ts";
+import { readBibtexFile } from "../helpers/bibtex.ts";
 import { buildTestApp } from "../helpers/app.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 import { seedCatalogue } from "./catalogue-fixtures.ts";
@@ -25,11 +27,11 @@ const INSPIRE_STYLE = `
     month = mar
 }`;
 
-describe("common/bibtex.ts", () => {
+describe("reading BibTeX (server/features/references/bibtex-read.ts, @retorquere/bibtex-parser)", () => {
   it("when given a journal-style record with a macro and quotes, then every field lands in the reference", () => {
-    expect(parseBibtexReference(INSPIRE_STYLE)).toEqual({
+    expect(readBibtexReference(INSPIRE_STYLE)).toEqual({
       key: "Berti:2005ys",
-      authors: ["Berti, Emanuele", "Cardoso, Vitor", "Will, Clifford M."],
+      authors: ["Emanuele Berti", "Vitor Cardoso", "Clifford M. Will"],
       title: "On gravitational-wave spectroscopy of massive black holes with the space interferometer LISA",
       year: 2006,
       arxiv: "gr-qc/0512160",
@@ -41,44 +43,81 @@ describe("common/bibtex.ts", () => {
   });
 
   it("when accents, escapes, braces and # concatenation appear, then plain Unicode text comes out", () => {
-    expect(latexToText(`Sch{\\"o}n, J{\\'e}r{\\^o}me \\& {\\o}ster -- \\c{c}a`)).toBe("Schön, Jérôme & øster -- ça");
-    expect(latexToText("Mass of $\\alpha^2$ {GW}")).toBe("Mass of $\\alpha^2$ GW");
-    const [e] = parseBibtexEntries(`@misc{k, title = "Part one, " # {part two}, author={A}, year=2020}`);
-    expect(e?.fields.title).toBe("Part one, part two");
-    expect(splitAuthors("{LIGO Scientific and Virgo Collaborations} and Doe, J.")).toEqual(["LIGO Scientific and Virgo Collaborations", "Doe, J."]);
+    const r = readBibtexReference(
+      `@article{k, author = {Sch{\\"o}n, J{\\'e}r{\\^o}me and {\\O}ster, Fran{\\c{c}}ois and {LIGO Scientific and Virgo Collaborations}}, title = "Part one, " # {part \\emph{two} \\& 50\\%}, year = 2020}`,
+    );
+    expect(r.authors).toEqual(["Jérôme Schön", "François Øster", "LIGO Scientific and Virgo Collaborations"]);
+    expect(r.title).toBe("Part one, part two & 50%");
   });
 
-  it("when a reference is written and read back, then it is unchanged (print -> parse round trip)", () => {
-    const refs = [
-      parseBibtexReference(INSPIRE_STYLE),
-      { key: "odd_key:1", authors: ["Ünal, Ç.", "{Braced} Name", "Corp and Sons"], title: "50% of {x} & y_z with $\\beta_{ppE}$", year: 1999, note: "a # note" },
-      { authors: ["K. Yagi"], title: "A preprint", year: 2012, arxiv: "1204.4524v2" },
-    ];
-    for (const r of refs) {
-      const again = parseBibtexReference(formatBibtexReference(r));
-      expect(again).toEqual({ ...r, key: r.key ?? again.key });
-    }
-  });
-
-  it("when a set shares a citation key, then the file keeps keys unique", () => {
-    const file = formatBibtexFile([
-      { key: "yagi2012", authors: ["K. Yagi"], title: "One", year: 2012 },
-      { key: "yagi2012", authors: ["K. Yagi"], title: "Two", year: 2012 },
-    ]);
-    expect(parseBibtexEntries(file).map((e) => e.key)).toEqual(["yagi2012", "yagi2012b"]);
-  });
-
-  it("when 'et al.' ends an author list, then BibTeX gets 'and others'", () => {
-    expect(formatBibtexReference({ authors: ["E. M. Sänger et al."], title: "T", year: 2024 })).toContain("author = {E. M. Sänger and others}");
+  it("when an author list ends in 'and others', then it reads as 'et al.'", () => {
+    expect(readBibtexReference("@article{k, author = {Yagi, Kent and others}, title = {T}, year = 2012}").authors).toEqual(["Kent Yagi et al."]);
   });
 
   it("when the text is broken, then the error names the field", () => {
-    expect(() => parseBibtexReference("@article{k, title = {Open")).toThrow(/not closed/);
-    expect(() => parseBibtexReference("@article{k, title = {T}, year = 2020}")).toThrow(expect.objectContaining({ field: "author" }));
-    expect(() => parseBibtexReference("@article{k, author = {A}, title = {T}, year = {next year}}")).toThrow(expect.objectContaining({ field: "year" }));
-    expect(() => parseBibtexReference("no entry here")).toThrow(expect.objectContaining({ field: "bibtex" }));
+    expect(() => readBibtexReference("@article{k, title = {Open")).toThrow(expect.objectContaining({ field: "bibtex" }));
+    expect(() => readBibtexReference("@article{k, title = {T}, year = 2020}")).toThrow(expect.objectContaining({ field: "author" }));
+    expect(() => readBibtexReference("@article{k, author = {A}, title = {T}, year = {next year}}")).toThrow(expect.objectContaining({ field: "year" }));
+    expect(() => readBibtexReference("no entry here")).toThrow(expect.objectContaining({ field: "bibtex" }));
+    expect(() => readBibtexReference("@article{a, author={A}, title={T}, year=2020}\n@article{b, author={B}, title={U}, year=2021}")).toThrow(/one at a time/);
+  });
+});
+
+describe("writing BibTeX (common/bibtex.ts)", () => {
+  it("when a reference is written and read back, then it is unchanged (print -> parse round trip)", () => {
+    const refs = [
+      readBibtexReference(INSPIRE_STYLE),
+      { key: "odd_key:1", authors: ["Çağrı Ünal", "Jérôme Schön", "Corp and Sons"], title: "50% of x & y_z", year: 1999, journal: "Phys. Rev. D", volume: "9", pages: "1-12", note: "a # note" },
+      { key: "y12", authors: ["K. Yagi"], title: "A preprint", year: 2012, arxiv: "1204.4524v2" },
+    ];
+    for (const r of refs) {
+      const again = readBibtexReference(formatBibtexReference(r));
+      expect(again).toEqual(r);
+    }
   });
 
+  it("when exported, then every entry is an @article with journal, volume, pages or eid, doi, eprint and archivePrefix", () => {
+    const [entry] = readBibtexFile(formatBibtexReference(readBibtexReference(INSPIRE_STYLE)));
+    expect(entry?.type).toBe("article");
+    expect(entry?.fields).toMatchObject({ journal: "Phys. Rev. D", volume: "73", pages: "064030", eid: "064030", doi: "10.1103/PhysRevD.73.064030", eprint: "gr-qc/0512160", archiveprefix: "arXiv" });
+    // An e-print without a journal: journal "arXiv e-prints" and the id as eid (the form astrophysics data services export; common practice).
+    const [preprint] = readBibtexFile(formatBibtexReference({ key: "p", authors: ["K. Yagi"], title: "A preprint", year: 2012, arxiv: "1204.4524" }));
+    expect(preprint?.type).toBe("article");
+    expect(preprint?.fields).toMatchObject({ journal: "arXiv e-prints", eid: "arXiv:1204.4524", eprint: "1204.4524", archiveprefix: "arXiv" });
+    // Page ranges stay pages, with BibTeX's en dash.
+    expect(formatBibtexReference({ key: "r", authors: ["A. B"], title: "T", year: 2000, journal: "Nature", volume: "425", pages: "374-376" })).toContain("pages = {374--376}");
+  });
+
+  it("when a collaboration is an author, then it is one brace-protected author", () => {
+    const text = formatBibtexReference({ key: "c", authors: ["LIGO Scientific Collaboration", "Virgo Collaboration", "B. P. Abbott"], title: "T", year: 2016 });
+    expect(text).toContain("author = {{LIGO Scientific Collaboration} and {Virgo Collaboration} and B. P. Abbott}");
+    const [entry] = readBibtexFile(text);
+    expect(entry?.fields.author).toEqual([{ name: "LIGO Scientific Collaboration" }, { name: "Virgo Collaboration" }, { firstName: "B. P.", lastName: "Abbott" }]);
+    expect(isCorporateAuthor("K. Yagi")).toBe(false);
+  });
+
+  it("when non-ASCII letters appear, then they are written as LaTeX accents that read back to the same letters", () => {
+    const text = formatBibtexReference({ key: "u", authors: ["E. M. Sänger", "Łukasz Øster"], title: "α and β in ∼ 2 cases", year: 2024 });
+    expect(text).toMatch(/S\{\\"a\}nger/);
+    expect([...text].filter((ch) => ch.charCodeAt(0) > 127)).toEqual([]);
+    expect(readBibtexReference(text).authors).toEqual(["E. M. Sänger", "Łukasz Øster"]);
+  });
+
+  it("when a set holds the same paper twice or two papers share a key, then keys are unique and do not depend on the order", () => {
+    const one = { key: "yagi2012", authors: ["K. Yagi"], title: "One", year: 2012, doi: "10.1/a" };
+    const two = { key: "yagi2012", authors: ["K. Yagi"], title: "Two", year: 2012, doi: "10.1/b" };
+    const keysOf = (refs: typeof one[]) => Object.fromEntries(readBibtexFile(formatBibtexFile(refs)).map((e) => [e.fields.title, e.key]));
+    expect(keysOf([one, two])).toEqual({ One: "yagi2012", Two: "yagi2012b" });
+    expect(keysOf([two, one, two])).toEqual({ One: "yagi2012", Two: "yagi2012b" });
+    expect(readBibtexFile(formatBibtexFile([one, one]))).toHaveLength(1);
+  });
+
+  it("when 'et al.' ends an author list, then BibTeX gets 'and others'", () => {
+    expect(formatBibtexReference({ authors: ["E. M. Sanger et al."], title: "T", year: 2024 })).toContain("author = {E. M. Sanger and others}");
+  });
+});
+
+describe("reference input (common/theory-entry.ts)", () => {
   it("when identifiers are checked, then new- and old-style arXiv ids and DOIs pass and malformed ones fail", () => {
     // Formats per arXiv's identifier scheme (YYMM.NNNNN since 2015, archive/YYMMNNN before 2007) and the DOI handbook (10.<registrant>/<suffix>).
     for (const ok of ["2104.11189", "0909.3328", "2104.11189v3", "gr-qc/0512160", "hep-th/0212132", "math.DG/0211159"]) expect(arxivIdSchema.safeParse(ok).success, ok).toBe(true);
@@ -103,7 +142,7 @@ describe("POST /api/v1/references/parse-bibtex", () => {
   it("when the entry is well formed, then 200 with the reference in the submission's shape", async () => {
     const res = await request(app).post("/api/v1/references/parse-bibtex").send({ bibtex: INSPIRE_STYLE });
     expect(res.status).toBe(200);
-    expect(res.body).toEqual(parseBibtexReference(INSPIRE_STYLE));
+    expect(res.body).toEqual(readBibtexReference(INSPIRE_STYLE));
   });
 
   it("when the arXiv id or DOI is malformed, then 400 naming that field", async () => {
@@ -139,7 +178,7 @@ describe("GET /api/v1/references/bibtex", () => {
     const entries = res.text.split(/\n(?=@)/);
     expect(entries).toHaveLength(chosen.length);
     entries.forEach((text, i) => {
-      const back = parseBibtexReference(text);
+      const back = readBibtexReference(text);
       const r = chosen[i];
       expect(back.title).toBe(r?.title);
       expect(back.year).toBe(r?.year);

@@ -37,6 +37,43 @@ describe("POST /api/v1/expressions/check", () => {
     expect(res.body.latex).toMatch(/\\frac|\\zeta/);
   });
 
+  it("when a coupling declared with GR at 0 is upside down, then 200 with gr_limit failing as an error", async () => {
+    const res = await request(app)
+      .post("/api/v1/expressions/check")
+      .send({ ...EDGB, couplings: [{ symbol: "alpha", dimension: 2, gr_value: "zero" }], definitions: [{ symbol: "zeta", expression: "16*pi*M^4/alpha^2" }], expression: "-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^12*eta^(18/5))" });
+    expect(res.status).toBe(200);
+    expect(res.body.ok).toBe(false);
+    expect(res.body.checks.find((c: { name: string }) => c.name === "gr_limit")).toMatchObject({ ok: false, severity: "error", message: expect.stringMatching(/upside down/) });
+  });
+
+  it("when a dipole survives identical bodies, then the symmetry check fails", async () => {
+    const res = await request(app).post("/api/v1/expressions/check").send({ ...EDGB, expression: EDGB_BETA.replace("m1^2*s2 - m2^2*s1", "m1^2*s2 + m2^2*s1") });
+    expect(res.status).toBe(200);
+    expect(res.body.checks.find((c: { name: string }) => c.name === "symmetry")).toMatchObject({ ok: false, severity: "error" });
+  });
+
+  it("when a massive-graviton beta has pi for pi^2, then the propagation check names it (Will 1998: -pi^2 D_0 Mc / lambda_g^2)", async () => {
+    const body = {
+      target: "ppe_phase",
+      b: -3,
+      pn_order: 1,
+      couplings: [{ symbol: "lambda_g", dimension: 1, gr_value: "infinity" }],
+      derivation: { propagation: { alpha_md: 0, coefficient: "1/lambda_g^2" } },
+    };
+    const right = await request(app).post("/api/v1/expressions/check").send({ ...body, expression: "-pi^2*D_0*Mc/lambda_g^2" });
+    expect(right.status).toBe(200);
+    expect(right.body.ok).toBe(true);
+    expect(right.body.checks.find((c: { name: string }) => c.name === "propagation")).toMatchObject({ ok: true });
+    const wrong = await request(app).post("/api/v1/expressions/check").send({ ...body, expression: "-pi*D_0*Mc/lambda_g^2" });
+    expect(wrong.body.checks.find((c: { name: string }) => c.name === "propagation")).toMatchObject({ ok: false, message: expect.stringMatching(/one power of pi missing/) });
+  });
+
+  it("when a coupling's gr_value is not zero or infinity, then 400 naming the field", async () => {
+    const res = await request(app).post("/api/v1/expressions/check").send({ ...EDGB, couplings: [{ symbol: "alpha", dimension: 2, gr_value: "one" }], expression: EDGB_BETA });
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toEqual(["couplings.0.gr_value"]);
+  });
+
   it("when zeta lacks its M^4, then the dimension check fails and says which dimension it found", async () => {
     const res = await request(app)
       .post("/api/v1/expressions/check")
@@ -74,6 +111,23 @@ describe("POST /api/v1/expressions/check", () => {
 });
 
 describe("POST /api/v1/expressions/derive", () => {
+  it("when a dispersion relation is given, then the propagation term comes back at b = 3 (alpha - 1), evaluated at a point", async () => {
+    // Mirshekari, Yunes & Will 2012 (re-derived): beta = pi^(2 - a) D_a Acal Mc^(1 - a) / (a - 1); a = 0, Acal = 1/lambda_g^2.
+    const res = await request(app)
+      .post("/api/v1/expressions/derive")
+      .send({ propagation: { alpha_md: 0, coefficient: "1/lambda_g^2" }, couplings: [{ symbol: "lambda_g", dimension: 1 }], evaluate_at: { m1: 30, m2: 20, D_0: 1e22, lambda_g: 1e13 } });
+    expect(res.status).toBe(200);
+    const Mc = (30 * 20) ** 0.6 / 50 ** 0.2;
+    expect(res.body.terms).toEqual([expect.objectContaining({ b: -3, pn_order: 1, source: "propagation" })]);
+    expect(res.body.terms[0].value / ((-(Math.PI ** 2) * 1e22 * Mc) / 1e26) - 1).toBeLessThan(1e-12);
+  });
+
+  it("when alpha = 1 is asked for, then 400 naming propagation (a logarithm has no single b)", async () => {
+    const res = await request(app).post("/api/v1/expressions/derive").send({ propagation: { alpha_md: 1, coefficient: "1/lam" }, couplings: [{ symbol: "lam", dimension: 1 }] });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.propagation).toMatch(/logarithm/);
+  });
+
   it("when the EdGB dipole flux change is given, then b = -7 and beta equals the EdGB term at a point", async () => {
     // B = (5/96) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^4): physics.md section 2.3 (derived).
     const res = await request(app)

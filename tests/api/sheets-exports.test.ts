@@ -1,23 +1,37 @@
 import Papa from "papaparse";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseBibtexEntries, parseBibtexReference } from "../../common/bibtex.ts";
+import { readBibtexReference } from "../../server/features/references/bibtex-read.ts";
+import { readBibtexFile } from "../helpers/bibtex.ts";
 import { sheetSchema, type Sheet } from "../../common/sheets.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { CSV_COLUMNS, escapeCsvCell } from "../../server/features/sheets/export-csv.ts";
-import { fileStem } from "../../server/features/sheets/export-files.ts";
-import { escapeLatex, sciLatex } from "../../server/features/sheets/export-latex.ts";
+import { escapeLatex, numberLatex, shortTheoryName } from "../../server/features/sheets/export-latex.ts";
+import { fileStem } from "../../server/features/sheets/export-stem.ts";
 import { buildTestApp } from "../helpers/app.ts";
 import { bearerFor, ensureUser } from "../helpers/auth.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
 describe("export formatting (pure)", () => {
-  it("when numbers are written for LaTeX, then they are plain scientific notation with the requested figures", () => {
-    expect(sciLatex(1.7, 2)).toBe("1.7\\times10^{0}");
-    expect(sciLatex(4.0721, 3)).toBe("4.07\\times10^{0}");
-    expect(sciLatex(1.2e-22, 2)).toBe("1.2\\times10^{-22}");
-    expect(sciLatex(-2.5e13, 3)).toBe("-2.50\\times10^{13}");
-    expect(sciLatex(0)).toBe("0");
+  it("when numbers are written for LaTeX, then they read as a physicist writes them, with the requested figures", () => {
+    // Common practice: plain between 1 and 1000, otherwise a mantissa times a power of ten.
+    expect(numberLatex(5.51, 2)).toBe("5.5");
+    expect(numberLatex(0.2793, 2)).toBe("2.8 \\times 10^{-1}");
+    expect(numberLatex(4.0721, 3)).toBe("4.07");
+    expect(numberLatex(123.4, 2)).toBe("120");
+    expect(numberLatex(1e-3, 2)).toBe("1.0 \\times 10^{-3}");
+    expect(numberLatex(1.2e-22, 2)).toBe("1.2 \\times 10^{-22}");
+    expect(numberLatex(-2.5e13, 3)).toBe("-2.50 \\times 10^{13}");
+    expect(numberLatex(7, 1)).toBe("7");
+    expect(numberLatex(0)).toBe("0");
+  });
+
+  it("when a theory has a long name, then the table uses its abbreviation or drops the qualifier", () => {
+    expect(shortTheoryName("Einstein-dilaton-Gauss-Bonnet gravity (linear, shift-symmetric coupling)", "edgb")).toBe("EdGB");
+    expect(shortTheoryName("Dynamical Chern-Simons gravity", "dcs")).toBe("dCS");
+    expect(shortTheoryName("Massive graviton (propagation)", "massive-graviton")).toBe("Massive graviton");
+    expect(shortTheoryName("Randall-Sundrum II braneworld: black-hole mass loss", "extra-dimension")).toBe("Randall-Sundrum II braneworld");
+    expect(shortTheoryName("Time-varying Newton constant", "varying-g")).toBe("Time-varying Newton constant");
   });
 
   it("when text holds LaTeX specials, then each is escaped for text mode", () => {
@@ -76,28 +90,38 @@ describe("GET /api/v1/sheets/:id/export", () => {
 
   const exportOf = (format: string) => request(app).get(`/api/v1/sheets/${sheet.id}/export?format=${format}`).set("Authorization", token);
 
-  it("when the LaTeX table is exported, then it has booktabs rules, scientific numbers, escaped text and the credibility in the caption", async () => {
+  it("when the LaTeX table is exported, then it is a column-wide tabularx with one group per bound, marks with a legend, citations and a label", async () => {
     const res = await exportOf("latex");
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/application\/x-tex/);
     expect(res.headers["content-disposition"]).toBe('attachment; filename="egret-crane-90-bounds.tex"');
     const tex = res.text;
-    const order = ["\\begin{table}", "\\caption{", "\\begin{tabular}", "\\toprule", "\\midrule", "\\bottomrule", "\\end{tabular}", "\\end{table}"].map((s) => tex.indexOf(s));
+    const order = ["\\begin{table}", "\\caption{", "\\label{tab:egret-crane-90-bounds}", "\\begin{tabularx}{\\linewidth}", "\\toprule", "\\midrule", "\\bottomrule", "\\end{tabularx}", "\\end{table}"].map((s) => tex.indexOf(s));
     expect(order.every((i) => i >= 0)).toBe(true);
     expect([...order].sort((a, b) => a - b)).toEqual(order);
+    // Every record has the same credibility: stated once, in the caption.
     expect(tex).toMatch(/\\caption\{[^}]*at 90\\% credibility/);
     expect(tex).toContain("EC-01\\_a");
     expect(tex).toContain("Egret \\& Crane");
+    // The bound is stated once per group, in a row spanning the table.
+    expect(tex.match(/\\multicolumn\{5\}/g)).toHaveLength(2);
+    expect(tex).toContain("$|\\beta| \\le 1.0 \\times 10^{-3}$ at $b = -7$");
     const edgb = sheet.records[0]!.translation.results.find((r) => r.theory === "edgb")!;
-    expect(tex).toContain(`$\\sqrt{\\alpha} \\le ${sciLatex(edgb.coupling.value, 3)}\\,\\mathrm{km}$`);
-    // EdGB fails its small-coupling condition here: the limit carries a dagger and the caption explains it.
-    expect(tex).toMatch(/\\mathrm\{km\}\$\\textsuperscript\{\$\\dagger\$\}/);
-    expect(tex).not.toContain("$$");
-    expect(tex).toMatch(/validity condition/);
+    // EdGB fails its small-coupling condition at this limit (16 pi alpha^2/m^4 > 1/6): marked not valid.
+    expect(edgb.valid).toBe(false);
+    const edgbRow = tex.split("\n").find((l) => l.trim().startsWith("EdGB &"))!;
+    const cells = edgbRow.replace(/\\\\\s*$/, "").split(" & ").map((c) => c.trim());
+    expect(cells[1]).toBe("$\\sqrt{\\alpha}$ [$\\mathrm{km}$]");
+    expect(cells[2]).toBe(`$\\le ${numberLatex(edgb.coupling.value, 2)}$`);
+    expect(cells[3]).toBe("$\\dagger$");
+    expect(cells[4]).toBe(`\\cite{${edgb.references.map((r) => r.key).join(",")}}`);
+    // The legend explains each mark that appears, and no code names or "dimensionless" units leak in.
+    expect(tex).toMatch(/\$\\dagger\$~a validity condition fails/);
+    for (const leak of ["sqrt_alpha", "B_dip", "dimensionless", "$$"]) expect(tex).not.toContain(leak);
+    expect(tex).not.toMatch(/(?<!\\)lambda_g/);
     // Data rows: one per limit, each with the same number of cells as the header.
-    const rows = tex.split("\n").filter((l) => l.trim().endsWith("\\\\"));
-    const cells = rows.map((l) => l.split(" & ").length);
-    expect(new Set(cells).size).toBe(1);
+    const rows = tex.split("\n").filter((l) => l.trim().endsWith("\\\\") && !l.includes("\\multicolumn"));
+    expect(new Set(rows.map((l) => l.split(" & ").length))).toEqual(new Set([5]));
     expect(rows.length - 1).toBe(sheet.records.reduce((n, r) => n + r.translation.results.length, 0));
   });
 
@@ -105,12 +129,12 @@ describe("GET /api/v1/sheets/:id/export", () => {
     const res = await exportOf("bibtex");
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/application\/x-bibtex/);
-    const entries = parseBibtexEntries(res.text);
+    const entries = readBibtexFile(res.text);
     const cited = new Set(sheet.records.flatMap((r) => r.translation.results.flatMap((x) => [...x.references.map((c) => c.key), ...x.reference_bounds.map((c) => c.reference.key)])));
     expect(new Set(entries.map((e) => e.key))).toEqual(cited);
     expect(cited.has("lyu-jiang-yagi-2022")).toBe(true);
     const lyuText = res.text.slice(res.text.indexOf("{lyu-jiang-yagi-2022,") - 9);
-    const lyu = parseBibtexReference(lyuText.slice(0, lyuText.indexOf("\n}\n") + 3));
+    const lyu = readBibtexReference(lyuText.slice(0, lyuText.indexOf("\n}\n") + 3));
     expect(lyu).toMatchObject({ key: "lyu-jiang-yagi-2022", year: 2022, arxiv: "2201.02543" });
     expect(lyu.authors.length).toBeGreaterThan(1);
   });
@@ -151,10 +175,10 @@ describe("GET /api/v1/sheets/:id/export", () => {
 
   it("when the sheet is shared, then anyone can export it through the token; without the token or role, no export", async () => {
     const share = await request(app).post(`/api/v1/sheets/${sheet.id}/share`).set("Authorization", token);
-    const res = await request(app).get(`/api/v1/shared/${share.body.token}/export?format=latex&digits=2`);
+    const res = await request(app).get(`/api/v1/shared/${share.body.token}/export?format=latex&digits=4`);
     expect(res.status).toBe(200);
     expect(res.text).toContain("\\toprule");
-    expect(res.text).toMatch(/\\le \d\.\d\\times10\^\{/);
+    expect(res.text).toMatch(/\$\\le \d\.\d{3}( \\times 10\^\{-?\d+\})?\$/);
     expect((await request(app).get(`/api/v1/sheets/${sheet.id}/export?format=csv`)).status).toBe(401);
   });
 });

@@ -86,6 +86,10 @@ describe("POST /api/v1/submissions", () => {
     const badDoi = await create("t-theorist", { theory: toyEntry({ references: [{ doi: "https://doi.org/10.1/x", authors: ["A"], title: "T", year: 2009 }] }) });
     expect(badDoi.status).toBe(400);
     expect(badDoi.body.error.fields).toHaveProperty(["theory.references.0.doi"]);
+    // Several people typed into one author field with commas would be stored as one author: refused, naming the field.
+    const commaAuthors = await create("t-theorist", { theory: toyEntry({ references: [{ arxiv: "0909.3328", authors: "N. Yunes, F. Pretorius", title: "T", year: 2009 }] }) });
+    expect(commaAuthors.status).toBe(400);
+    expect(commaAuthors.body.error.fields["theory.references.0.authors"]).toMatch(/several authors separated by commas/);
     const dangling = await create("t-theorist", { theory: toyEntry({ mappings: [{ ...(toyEntry().mappings[0] as object), references: ["nobody-2020"] } as TheoryEntryInput["mappings"][number]] }) });
     expect(dangling.status).toBe(400);
     expect(dangling.body.error.fields).toHaveProperty(["theory.mappings.0.references.0"]);

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseBibtexEntries } from "../../common/bibtex.ts";
+import { readBibtexFile } from "../helpers/bibtex.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
 import { clientIsBuilt, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
@@ -137,7 +137,7 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     expect(tex.text).toMatch(/90\\% credibility/);
     const bib = await downloaded(page, () => page.getByTestId("export-bibtex").click());
     expect(bib.name).toBe("harrier-wren-test-sheet.bib");
-    expect(parseBibtexEntries(bib.text).map((e) => e.key)).toContain("lyu-jiang-yagi-2022");
+    expect(readBibtexFile(bib.text).map((e) => e.key)).toContain("lyu-jiang-yagi-2022");
 
     await page.getByTestId("share-create").click();
     const link = await page.getByTestId("share-link").inputValue();

@@ -62,3 +62,45 @@ export function hostileCorpus(size: number, seed = 7): string[] {
   }
   return out;
 }
+
+/** A mapping request body for POST /api/v1/expressions/check. */
+export interface CraftedCheck {
+  readonly label: string;
+  readonly body: {
+    expression: string;
+    target: "ppe_phase" | "validity";
+    b?: number;
+    couplings: Array<{ symbol: string; dimension: number }>;
+    definitions: Array<{ symbol: string; expression: string }>;
+    derivation?: { flux: { order: number; coefficient: string } };
+  };
+}
+
+/**
+ * Definitions that each stay under the 20 000-node expansion cap (u expands to 19 863 nodes), and
+ * expressions that use u hundreds of times: small bodies whose substituted trees have millions of
+ * nodes. Every one of them is over the evaluation budget.
+ */
+export function craftedDefinitionChecks(): CraftedCheck[] {
+  const sum = "m1+m2+chi1+chi2+s1+s2+sigma1+sigma2+z+alpha"; // 11 nodes
+  const definitions = [
+    { symbol: "w1", expression: sum },
+    { symbol: "w2", expression: Array.from({ length: 30 }, () => "w1").join("*") }, // 1 + 30*11 = 331
+    { symbol: "w3", expression: Array.from({ length: 30 }, () => "w2").join("*") }, // 1 + 30*331 = 9931
+    { symbol: "u", expression: "w3+w3" }, // 1 + 2*9931 = 19863
+  ];
+  const couplings = [{ symbol: "alpha", dimension: 0 }];
+  const times = (n: number, op: string) => Array.from({ length: n }, () => "u").join(op);
+  const base = { target: "ppe_phase" as const, b: -7, couplings, definitions };
+  return [
+    { label: "u multiplied 600 times", body: { ...base, expression: times(600, "*") } },
+    { label: "u added 600 times", body: { ...base, expression: times(600, "+") } },
+    { label: "u divided 400 times inside sqrt", body: { ...base, expression: `sqrt(${times(400, "/")})` } },
+    { label: "u to the power of u, 200 times", body: { ...base, expression: times(200, "^") } },
+    { label: "validity using u 600 times", body: { ...base, target: "validity", expression: times(600, "*") } },
+    {
+      label: "derivation coefficient using u 600 times",
+      body: { ...base, expression: "alpha", derivation: { flux: { order: -1, coefficient: times(600, "*") } } },
+    },
+  ];
+}

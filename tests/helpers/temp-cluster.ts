@@ -1,5 +1,5 @@
-import { execFile } from "node:child_process";
-import { mkdtempSync, rmSync } from "node:fs";
+import { execFile, execFileSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
@@ -19,7 +19,10 @@ export async function freePort(): Promise<number> {
   });
 }
 
-/** A throw-away PostgreSQL cluster driven through scripts/pg.sh, for tests that stop and kill it. */
+/**
+ * A throw-away PostgreSQL cluster driven through scripts/pg.sh, for tests that stop and kill it. It runs
+ * with PostgreSQL's durable defaults (pg.sh without PG_THROWAWAY), as the cluster of npm start does.
+ */
 export class TempCluster {
   readonly dir: string;
   readonly port: number;
@@ -31,7 +34,28 @@ export class TempCluster {
     return new TempCluster(await freePort());
   }
   private env(): NodeJS.ProcessEnv {
-    return { ...process.env, PGPORT: String(this.port), PGDATA_DIR: this.dir, PG_DATABASES: "probe" };
+    const env: NodeJS.ProcessEnv = { ...process.env, PGPORT: String(this.port), PGDATA_DIR: this.dir, PG_DATABASES: "probe" };
+    delete env.PG_THROWAWAY;
+    return env;
+  }
+  /** Runs one of scripts/*.sh against this cluster (PGPORT and PGDATA_DIR set), never throwing. */
+  async script(name: string, args: string[] = [], extraEnv: Record<string, string> = {}): Promise<{ stdout: string; stderr: string; code: number }> {
+    try {
+      const { stdout, stderr } = await run("bash", [`scripts/${name}`, ...args], { env: { ...this.env(), ...extraEnv }, timeout: 120_000 });
+      return { stdout, stderr, code: 0 };
+    } catch (err) {
+      const e = err as { stdout?: string; stderr?: string; code?: number };
+      return { stdout: e.stdout ?? "", stderr: e.stderr ?? "", code: typeof e.code === "number" ? e.code : 1 };
+    }
+  }
+  /** The pids of the postmaster and of every process it started (backends, writers), postmaster first. */
+  postgresPids(): number[] {
+    const pid = Number(readFileSync(path.join(this.dir, "data", "postmaster.pid"), "utf8").split("\n")[0]);
+    const children = execFileSync("ps", ["-o", "pid=", "--ppid", String(pid)], { encoding: "utf8" })
+      .split("\n")
+      .map((l) => Number(l.trim()))
+      .filter((n) => n > 0);
+    return [pid, ...children];
   }
   async pg(cmd: "start" | "stop" | "status"): Promise<{ stdout: string; stderr: string; code: number }> {
     try {

@@ -39,6 +39,7 @@ describe("checkMapping", () => {
       ["dimension", true],
       ["gr_limit", true],
       ["pn_order", true],
+      ["symmetry", true],
       ["derivation", true],
     ]);
     expect(r.ok).toBe(true);

@@ -230,6 +230,27 @@ describe("the seeded catalogue (seeds/data/theories.ts, published through the ac
     expect(mappings).toBeGreaterThanOrEqual(THEORIES.length);
   });
 
+  it("when a seeded mapping states a derivation, then the engine re-derived beta from it and it agreed", () => {
+    // Mappings whose formula follows from stated inputs: the energy/flux or frequency-drift change
+    // (energy balance and the SPA, Yunes & Pretorius 2009) or the dispersion relation (Mirshekari,
+    // Yunes & Will 2012). dcs (spin-dependent energy and flux not stated), noncommutative (its energy
+    // and flux are not known to us) and the RS-II length ell (a rate law from memory) carry none.
+    const verified: string[] = [];
+    for (const [slug, t] of details) {
+      for (const m of t.mappings) {
+        const derived = m.checks.filter((c) => c.name === "derivation" || c.name === "propagation");
+        if (m.derivation === null) continue;
+        expect(derived, `${slug}:${m.coupling} has a derivation block but no derivation check`).toHaveLength(1);
+        expect(derived[0], `${slug}:${m.coupling}`).toMatchObject({ ok: true });
+        expect(derived[0]?.message, `${slug}:${m.coupling}`).toMatch(/equals/);
+        verified.push(`${slug}:${m.coupling}`);
+      }
+    }
+    const expected = ["edgb:alpha", "brans-dicke:omega_BD", "scalar-dipole:B_dip", "massive-graviton:lambda_g", "varying-g:Gdot", "extra-dimension:Mdot_loss", "johannsen:alpha13", "johannsen:eps3"];
+    expect(verified).toEqual(expect.arrayContaining(expected));
+    expect(verified.filter((v) => v.startsWith("dispersion-")).length).toBe([...details.keys()].filter((k) => k.startsWith("dispersion-")).length);
+  });
+
   it("when each stored mapping is evaluated at the stated point, then it equals the formula typed from its source", () => {
     const uncovered: string[] = [];
     for (const [slug, t] of details) {

@@ -13,7 +13,8 @@ export const TEMPLATE_DB = "dragoman_test_template";
 
 export default async function setup(project: TestProject): Promise<void> {
   const base = execFileSync("bash", ["scripts/pg.sh", "start"], {
-    env: { ...process.env, PGPORT: TEST_PG_PORT, PGDATA_DIR: TEST_PGDATA_DIR, PG_DATABASES: TEMPLATE_DB },
+    // The test cluster is throw-away: it may run without fsync (scripts/pg.sh, PG_THROWAWAY).
+    env: { ...process.env, PGPORT: TEST_PG_PORT, PGDATA_DIR: TEST_PGDATA_DIR, PG_DATABASES: TEMPLATE_DB, PG_THROWAWAY: "1" },
     encoding: "utf8",
     stdio: ["ignore", "pipe", "inherit"],
   }).trim();

@@ -3,6 +3,7 @@ import { ValidationError, type FieldErrors } from "../../errors.ts";
 import type { DerivationInput, MappingInput, MappingReport, MappingTarget } from "../../physics/checks/types.ts";
 import { isExpressionError } from "../../physics/expr/errors.ts";
 import { guardExpression } from "../../physics/expr/guard.ts";
+import { budgetMessage, ExpressionBudgetError } from "../../physics/expr/symbols.ts";
 
 /** The physics engine's check of one expression; injected so the catalogue does not pick the engine's internals. */
 export type MappingChecker = (input: MappingInput) => Promise<MappingReport>;
@@ -60,7 +61,12 @@ export function derivationInput(m: Mapping): DerivationInput | undefined {
     return out.energy || out.flux ? out : undefined;
   }
   if (d.kind === "frequency_drift" && d.gamma !== undefined) return { frequency_drift: { order: d.order, coefficient: d.gamma } };
-  // Propagation effects are not an energy-balance derivation; nothing for the engine to re-derive.
+  // Propagation: A is the dispersion coefficient (E^2 = p^2 + A p^alpha_md, as a power of length);
+  // alpha_md is the mapping's, or follows from the order (n = (3 alpha_md + 2) / 2).
+  if (d.kind === "propagation" && d.A !== undefined) {
+    const alpha = m.alpha_md ?? (2 * d.order - 2) / 3;
+    return { propagation: { alpha_md: alpha, coefficient: d.A, order: d.order } };
+  }
   return undefined;
 }
 
@@ -68,11 +74,30 @@ function toResult(path: string, r: MappingReport["checks"][number]): CheckResult
   return { path, name: r.name, ok: r.ok, severity: r.severity ?? (r.ok ? "info" : "error"), message: r.message };
 }
 
+/** The engine's field names inside a mapping, as paths in the entry. */
+const ENTRY_FIELDS: Record<string, string> = {
+  expression: "expression",
+  "derivation.energy.coefficient": "derivation.A",
+  "derivation.flux.coefficient": "derivation.B",
+  "derivation.frequency_drift.coefficient": "derivation.gamma",
+  "derivation.propagation.coefficient": "derivation.A",
+};
+
+/** An expression over the evaluation budget: nothing is saved, the 400 names it. */
+interface OverBudget {
+  readonly field: string;
+  readonly message: string;
+}
+
 /** One engine call; declarations it cannot use at all (a bad coupling or definition) become a failed check. */
-async function run(check: MappingChecker, input: MappingInput, path: string): Promise<CheckResult[]> {
+async function run(check: MappingChecker, input: MappingInput, path: string): Promise<CheckResult[] | OverBudget> {
   try {
     return (await check(input)).checks.map((c) => toResult(path, c));
   } catch (err) {
+    if (err instanceof ExpressionBudgetError) {
+      const field = `${path}.${ENTRY_FIELDS[err.field] ?? err.field}`;
+      return { field, message: budgetMessage(field, err.size, err.cap) };
+    }
     if (!isExpressionError(err)) throw err;
     return [{ path, name: "declarations", ok: false, severity: "error", message: err.message }];
   }
@@ -82,10 +107,16 @@ async function run(check: MappingChecker, input: MappingInput, path: string): Pr
  * Runs the engine on every mapping and every validity condition of the entry. The report is stored
  * with the submission (and, once accepted, with the revision and on each mapping row).
  */
-export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now: Date): Promise<ChecksReport> {
-  const couplings = entry.couplings.map((c) => ({ symbol: c.symbol, dimension: c.dimension, ...(c.description ? { description: c.description } : {}) }));
+export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now: Date, prefix = "theory."): Promise<ChecksReport> {
+  const couplings = entry.couplings.map((c) => ({
+    symbol: c.symbol,
+    dimension: c.dimension,
+    ...(c.description ? { description: c.description } : {}),
+    ...(c.gr_value ? { gr_value: c.gr_value } : {}),
+    ...(c.range ? { range: c.range } : {}),
+  }));
   const definitions = entry.definitions.map((d) => ({ symbol: d.symbol, expression: d.expression }));
-  const jobs: Promise<CheckResult[]>[] = [];
+  const jobs: Promise<CheckResult[] | OverBudget>[] = [];
   entry.mappings.forEach((m, i) => {
     const input: MappingInput = {
       expression: m.expression,
@@ -100,7 +131,15 @@ export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now:
     jobs.push(run(check, derivation ? { ...input, derivation } : input, `mappings.${i}`));
     m.validity.forEach((v, j) => jobs.push(run(check, { expression: v.expression, target: "validity", couplings, definitions }, `mappings.${i}.validity.${j}`)));
   });
-  const results = (await Promise.all(jobs)).flat();
+  const settled = await Promise.all(jobs);
+  const fields: FieldErrors = {};
+  const results: CheckResult[] = [];
+  for (const r of settled) {
+    if (Array.isArray(r)) results.push(...r);
+    else fields[`${prefix}${r.field}`] = `${prefix}${r.message}`;
+  }
+  const first = Object.entries(fields)[0];
+  if (first) throw new ValidationError(`Invalid request body: ${first[1]}`, fields);
   const failures = results.filter((r) => !r.ok && r.severity === "error").length;
   const warnings = results.filter((r) => r.severity === "warning").length;
   return { ok: failures === 0, failures, warnings, results, checked_at: now.toISOString() };

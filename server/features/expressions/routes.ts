@@ -74,7 +74,7 @@ export function expressionRoutes(config: Config): RouteSpec[] {
         } catch (err) {
           if (err instanceof DerivationError) throw new ValidationError(err.message, { [err.field]: err.message });
           if (isExpressionError(err)) {
-            const field = (["energy", "flux", "frequency_drift"] as const).find((f) => err.message.startsWith(f)) ?? "derivation";
+            const field = (["energy", "flux", "frequency_drift", "propagation"] as const).find((f) => err.message.startsWith(f)) ?? "derivation";
             throw toAppError(err, `${field}.coefficient`);
           }
           throw err;

@@ -6,6 +6,16 @@ const symbolName = z.string().regex(/^[A-Za-z][A-Za-z0-9_]*$/, "must be a name l
 export const couplingDeclaration = z.object({
   symbol: symbolName,
   dimension: z.number().finite(),
+  /** Where GR lies for this coupling; the GR-limit check sends it there (an upside-down coupling fails). */
+  gr_value: z.enum(["zero", "infinity"]).optional(),
+  range: z.enum(["positive", "non_negative", "any_sign"]).optional(),
+});
+
+/** E^2 = p^2 + A p^alpha_md: the coefficient is A / h^(2 - alpha_md), a power of length with its sign. */
+const propagationInput = z.object({
+  alpha_md: z.number().finite(),
+  coefficient: z.string().min(1).max(2000),
+  order: z.number().finite().optional(),
 });
 
 export const definitionDeclaration = z.object({
@@ -28,6 +38,7 @@ export const checkRequest = z.object({
       energy: z.object({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
       flux: z.object({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
       frequency_drift: z.object({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
+      propagation: propagationInput.optional(),
     })
     .optional(),
 });
@@ -36,7 +47,7 @@ export const checkResponse = z.object({
   ok: z.boolean(),
   checks: z.array(
     z.object({
-      name: z.enum(["parse", "symbols", "dimension", "gr_limit", "pn_order", "derivation"]),
+      name: z.enum(["parse", "symbols", "dimension", "gr_limit", "pn_order", "symmetry", "derivation", "propagation"]),
       ok: z.boolean(),
       severity: z.enum(["error", "warning"]).optional(),
       message: z.string(),
@@ -51,6 +62,7 @@ export const deriveRequest = z.object({
   energy: term.optional(),
   flux: term.optional(),
   frequency_drift: term.optional(),
+  propagation: propagationInput.optional(),
   couplings: z.array(couplingDeclaration).max(50),
   definitions: z.array(definitionDeclaration).max(50).optional(),
   evaluate_at: z.record(symbolName, z.number().finite()).optional(),
@@ -58,7 +70,7 @@ export const deriveRequest = z.object({
 
 export const deriveResponse = z.object({
   terms: z.array(
-    z.object({ b: z.number(), pn_order: z.number(), beta: z.string(), beta_latex: z.string(), value: z.number().optional(), source: z.enum(["energy_flux", "frequency_drift"]) }),
+    z.object({ b: z.number(), pn_order: z.number(), beta: z.string(), beta_latex: z.string(), value: z.number().optional(), source: z.enum(["energy_flux", "frequency_drift", "propagation"]) }),
   ),
   amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string(), value: z.number().optional() })).optional(),
   steps: z.array(z.string()),

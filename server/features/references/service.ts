@@ -1,7 +1,8 @@
-import { BibtexError, formatBibtexFile, parseBibtexReference, type BibReference } from "../../../common/bibtex.ts";
+import { BibtexError, formatBibtexFile, type BibReference } from "../../../common/bibtex.ts";
 import { parsedReferenceSchema, referenceInputSchema, type ParsedReference, type StoredReference } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
 import { NotFoundError, ValidationError, type FieldErrors } from "../../errors.ts";
+import { readBibtexReference } from "./bibtex-read.ts";
 import { findLiteratureByIds, listLiterature, listTheoryReferences } from "./repository.ts";
 
 function toBib(r: StoredReference): BibReference {
@@ -26,7 +27,7 @@ export function referencesService(db: Knex) {
     parseBibtex(text: string): ParsedReference {
       let parsed: BibReference;
       try {
-        parsed = parseBibtexReference(text);
+        parsed = readBibtexReference(text);
       } catch (err) {
         if (err instanceof BibtexError) throw new ValidationError(`Invalid BibTeX: ${err.field}: ${err.message}`, { [err.field]: err.message });
         throw err;

@@ -3,6 +3,7 @@ import type { BibliographyEntry } from "../../../common/convert.ts";
 import type { ExportFormat, Sheet } from "../../../common/sheets.ts";
 import { sheetToCsv } from "./export-csv.ts";
 import { sheetToLatex } from "./export-latex.ts";
+import { fileStem } from "./export-stem.ts";
 
 /** A sheet as a downloadable file in one of the export formats. */
 export interface ExportFile {
@@ -48,18 +49,6 @@ export function sheetToBibtex(sheet: Sheet): string {
 export function sheetToJson(sheet: Sheet, exportedAt: Date): string {
   const { share_token: _token, ...rest } = sheet;
   return `${JSON.stringify({ format: "dragoman-sheet", format_version: 1, exported_at: exportedAt.toISOString(), sheet: rest }, null, 2)}\n`;
-}
-
-/** "Demo: KV-231107a bounds" -> "demo-kv-231107a-bounds". */
-export function fileStem(name: string): string {
-  const stem = name
-    .normalize("NFD")
-    .replace(/[\u0300-\u036f]/g, "")
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, "-")
-    .replace(/^-+|-+$/g, "")
-    .slice(0, 60);
-  return stem || "sheet";
 }
 
 export function exportSheet(sheet: Sheet, format: ExportFormat, options: { digits: number; now: Date }): ExportFile {

@@ -29,8 +29,3 @@ export function boundIndex(record: SheetRecord): { b: number | null; k: number |
 export function failedConditions(result: ConvertResult): string[] {
   return result.validity.filter((v) => !v.ok).map((v) => `${v.label}: ${v.value === null ? "not a number" : v.value.toPrecision(3)} > ${v.max}`);
 }
-
-/** The distinct credibilities of the sheet's records (the LaTeX caption states them). */
-export function credibilities(sheet: Sheet): number[] {
-  return [...new Set(sheet.records.map((r) => r.bound.credibility))].sort((a, b) => a - b);
-}

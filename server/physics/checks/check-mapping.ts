@@ -3,13 +3,16 @@ import { ExpressionError, isExpressionError } from "../expr/errors.ts";
 import { guardExpression } from "../expr/guard.ts";
 import { toLatex } from "../expr/latex.ts";
 import { getSymbolicPool, type SymbolicPool } from "../expr/pool.ts";
-import { createSymbolTable, type SymbolTable } from "../expr/symbols.ts";
+import { assertWithinBudget, createSymbolTable, type SymbolTable } from "../expr/symbols.ts";
 import { compareBeta, type BetaComparison } from "./compare.ts";
 import { DerivationError, deriveBeta } from "./derive.ts";
 import { dimensionCheck } from "./dimension-check.ts";
 import { prepare } from "./evaluate.ts";
-import { grLimitCheck } from "./gr-limit-check.ts";
+import { diagnoseRatio } from "./diagnose.ts";
+import { grLimitCheck, type GrValues } from "./gr-limit-check.ts";
 import { phaseExponent, pnOrderCheck } from "./pn-order-check.ts";
+import { propagationCheck } from "./propagation-check.ts";
+import { isDipoleMapping, symmetryCheck } from "./symmetry-check.ts";
 import { MAPPING_TARGETS, type CheckResult, type MappingInput, type MappingReport } from "./types.ts";
 
 export interface CheckMappingOptions {
@@ -51,6 +54,10 @@ export async function checkMapping(input: MappingInput, options: CheckMappingOpt
     return report(latex);
   }
 
+  // The evaluation budget, before any work: throws (a 400 naming the field) when an expression
+  // is over it once its definitions are substituted.
+  assertBudget(input, ast, table);
+
   const pool = options.pool ?? getSymbolicPool();
   let prepared;
   try {
@@ -61,10 +68,15 @@ export async function checkMapping(input: MappingInput, options: CheckMappingOpt
     return report(latex);
   }
   checks.push(dimensionCheck(ast, prepared, table, input.target));
-  checks.push(await grLimitCheck(prepared, table, input.target, pool));
+  checks.push(await grLimitCheck(prepared, table, input.target, pool, grValuesOf(input)));
   const pn = pnOrderCheck(input);
   if (pn !== undefined) checks.push(pn);
-  if (input.derivation !== undefined) checks.push(await derivationCheck(input, ast, table, pool));
+  if (isDipoleMapping(input)) checks.push(symmetryCheck(prepared, table));
+  const { propagation, ...balance } = input.derivation ?? {};
+  if (balance.energy !== undefined || balance.flux !== undefined || balance.frequency_drift !== undefined || (input.derivation !== undefined && propagation === undefined)) {
+    checks.push(await derivationCheck({ ...input, derivation: balance }, ast, table, pool));
+  }
+  if (propagation !== undefined) checks.push(await propagationCheck(input, propagation, ast, table, pool));
   return report(latex);
 }
 
@@ -106,7 +118,8 @@ async function derivationCheck(input: MappingInput, ast: Node, table: SymbolTabl
   const bad = verdicts.find((v) => !v.r.equal);
   const quantity = phase ? "beta" : "alpha";
   if (bad !== undefined) {
-    return fail("derivation", `the stated ${quantity} differs from the derived ${bad.c.expression} at ${letter} = ${bad.c.exponent}: ${bad.r.message} [method: ${bad.r.method}]${notes}`);
+    const why = diagnoseRatio(ast, bad.c.expression, table);
+    return fail("derivation", `the stated ${quantity} differs from the derived ${bad.c.expression} at ${letter} = ${bad.c.exponent}: ${why !== undefined ? `${why}; ` : ""}${bad.r.message} [method: ${bad.r.method}]${notes}`);
   }
   const method = (r: BetaComparison): string =>
     r.method === "numeric" && r.symbolic === "timeout" ? "numeric (the CAS timed out)" : r.method;
@@ -117,6 +130,41 @@ async function derivationCheck(input: MappingInput, ast: Node, table: SymbolTabl
     ok: true,
     message: `the stated ${quantity} equals the derived ${first?.c.expression} at ${letter} = ${first?.c.exponent} [method: ${methods}]${notes}`,
   };
+}
+
+/** The declared GR value of each coupling, by symbol (only well-formed declarations). */
+function grValuesOf(input: MappingInput): GrValues {
+  const out: Record<string, "zero" | "infinity"> = {};
+  for (const c of input.couplings) {
+    if (c !== null && typeof c === "object" && typeof c.symbol === "string" && (c.gr_value === "zero" || c.gr_value === "infinity")) out[c.symbol] = c.gr_value;
+  }
+  return out;
+}
+
+const DERIVATION_FIELDS = ["energy", "flux", "frequency_drift"] as const;
+
+function assertBudget(input: MappingInput, ast: Node, table: SymbolTable): void {
+  assertWithinBudget(ast, table, "expression");
+  for (const key of DERIVATION_FIELDS) {
+    const coefficient = input.derivation?.[key]?.coefficient;
+    if (typeof coefficient !== "string") continue;
+    let parsed: Node;
+    try {
+      parsed = guardExpression(coefficient, { symbols: table.names }).ast;
+    } catch (err) {
+      if (isExpressionError(err)) continue; // the derivation check reports it
+      throw err;
+    }
+    assertWithinBudget(parsed, table, `derivation.${key}.coefficient`);
+  }
+  const dispersion = input.derivation?.propagation?.coefficient;
+  if (typeof dispersion === "string") {
+    try {
+      assertWithinBudget(guardExpression(dispersion, { symbols: table.names }).ast, table, "derivation.propagation.coefficient");
+    } catch (err) {
+      if (!isExpressionError(err)) throw err; // the propagation check reports it
+    }
+  }
 }
 
 function validateShape(input: MappingInput): void {

@@ -5,6 +5,8 @@ import { guardExpression } from "../expr/guard.ts";
 import { toLatex } from "../expr/latex.ts";
 import { printExpression } from "../expr/print.ts";
 import { expandAst, type SymbolTable } from "../expr/symbols.ts";
+import { DerivationError } from "./derive-error.ts";
+import { derivePropagation } from "./propagation.ts";
 import { Rational } from "./rational.ts";
 import type { DerivationInput, DerivationTerm } from "./types.ts";
 
@@ -12,19 +14,7 @@ import type { DerivationInput, DerivationTerm } from "./types.ts";
 // (PRD 80 122003, arXiv:0909.3328): energy balance dt/dv = -E'(v)/F(v) and the SPA
 // d^2 Psi/df^2 = 2 pi dt/df, to first order in the corrections.
 
-export type DerivationErrorCode = "degenerate_order" | "bad_order" | "no_input" | "missing_value";
-
-export class DerivationError extends Error {
-  override readonly name = "DerivationError";
-  constructor(
-    readonly code: DerivationErrorCode,
-    message: string,
-    /** Which input the error is about: "energy", "flux", "frequency_drift" or "evaluate_at". */
-    readonly field: string,
-  ) {
-    super(message);
-  }
-}
+export { DerivationError, type DerivationErrorCode } from "./derive-error.ts";
 
 export interface DerivedPhaseTerm {
   readonly b: number;
@@ -33,7 +23,7 @@ export interface DerivedPhaseTerm {
   readonly beta: string;
   readonly beta_latex: string;
   readonly value?: number;
-  readonly source: "energy_flux" | "frequency_drift";
+  readonly source: "energy_flux" | "frequency_drift" | "propagation";
 }
 
 export interface DerivedAmplitudeTerm {
@@ -103,8 +93,8 @@ function build(coef: Rational, etaExp: Rational, body: string, table: SymbolTabl
  * Exact rational prefactors; degenerate orders (b = 0, 3) are explained, not divided by zero.
  */
 export function deriveBeta(input: DerivationInput, table: SymbolTable, options: DeriveOptions = {}): Derivation {
-  if (input === null || typeof input !== "object" || (!input.energy && !input.flux && !input.frequency_drift)) {
-    throw new DerivationError("no_input", "give an energy, a flux or a frequency-drift correction", "derivation");
+  if (input === null || typeof input !== "object" || (!input.energy && !input.flux && !input.frequency_drift && !input.propagation)) {
+    throw new DerivationError("no_input", "give an energy, a flux, a frequency-drift or a propagation (dispersion) correction", "derivation");
   }
   const notes: string[] = [];
   const steps: string[] = [];
@@ -174,6 +164,15 @@ export function deriveBeta(input: DerivationInput, table: SymbolTable, options: 
       ast,
     });
     amplitude.push({ term: { a: a.toNumber(), alpha: printExpression(alphaAst), alpha_latex: toLatex(alphaAst) }, ast: alphaAst });
+  }
+  if (input.propagation) {
+    const p = derivePropagation(input.propagation, table);
+    steps.push(...p.steps);
+    notes.push(...p.notes);
+    terms.push({
+      term: { b: p.b, pn_order: p.pn_order, beta: printExpression(p.beta), beta_latex: toLatex(p.beta), source: "propagation" },
+      ast: p.beta,
+    });
   }
   if (input.frequency_drift && (input.energy || input.flux)) {
     notes.push("both a frequency drift and an energy/flux change were given; they are derived separately and should agree");

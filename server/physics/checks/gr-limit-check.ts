@@ -29,16 +29,43 @@ function tendsToZero(values: readonly number[]): boolean {
 
 const fmt = (x: number): string => (Number.isFinite(x) ? Number(x.toPrecision(6)).toString() : String(x));
 
+/** Where each coupling reaches GR, by name; couplings not listed are taken to reach it at zero. */
+export type GrValues = Readonly<Record<string, "zero" | "infinity">>;
+
 /**
- * A correction must vanish when the theory's couplings vanish. Evaluated at couplings = 0 and,
- * where that is undefined (0/0, log 0), along couplings -> 0; a coupling whose GR value is
- * infinite (a graviton Compton wavelength) passes with a warning.
+ * Moves the couplings towards their GR values: those at zero are multiplied by `scale`, those at
+ * infinity divided by it (scale -> 0 is the GR limit). `flip` sends every coupling the other way.
+ */
+function towardsGr(point: Float64Array, indices: readonly number[], atInfinity: readonly boolean[], scale: number, flip = false): Float64Array {
+  const out = Float64Array.from(point);
+  indices.forEach((k, j) => {
+    const inverse = (atInfinity[j] === true) !== flip;
+    out[k] = (out[k] as number) * (inverse ? 1 / scale : scale);
+  });
+  return out;
+}
+
+/** |f| grows along the sequence and ends well above where it started. */
+function grows(values: readonly number[]): boolean {
+  const abs = values.map(Math.abs);
+  if (abs.some((v) => !Number.isFinite(v))) return true;
+  for (let k = 1; k < abs.length; k += 1) if ((abs[k] as number) < (abs[k - 1] as number)) return false;
+  return (abs[abs.length - 1] as number) >= 10 * (abs[0] as number);
+}
+
+/**
+ * A correction must vanish when the theory's couplings take their GR values. Couplings declared
+ * with `gr_value` are sent there (zero, or infinity for a graviton Compton wavelength or omega_BD);
+ * an expression that vanishes only the other way round has its coupling upside down, an error.
+ * Without any declaration the old reading holds: GR at zero, and an expression that vanishes
+ * only at infinity passes with a warning asking for the declaration.
  */
 export async function grLimitCheck(
   p: Prepared,
   table: SymbolTable,
   target: MappingTarget,
   pool: SymbolicPool | undefined,
+  grValues: GrValues = {},
 ): Promise<CheckResult> {
   const failSeverity = target === "validity" ? "warning" : "error";
   if (p.couplingIndices.length === 0) {
@@ -52,52 +79,82 @@ export async function grLimitCheck(
   }
   const rng = createRandom(7321);
   const points = Array.from({ length: POINTS }, () => samplePoint(p.args, table, rng));
-  const atZero = points.map((pt) => p.f(withCouplings(pt, p.couplingIndices, 0)));
-  const names = p.couplingIndices.map((k) => p.args[k]).join(", ");
+  const couplingNames = p.couplingIndices.map((k) => p.args[k] as string);
+  const atInfinity = couplingNames.map((n) => grValues[n] === "infinity");
+  const declared = couplingNames.some((n) => grValues[n] !== undefined);
+  const names = couplingNames.join(", ");
+  const limitText = couplingNames.map((n, j) => `${n} -> ${atInfinity[j] ? "infinity" : "0"}`).join(", ");
+  const oppositeText = couplingNames.map((n, j) => `${n} -> ${atInfinity[j] ? "0" : "infinity"}`).join(", ");
+  const along = (pt: Float64Array, flip = false): number[] => SMALL.map((s) => p.f(towardsGr(pt, p.couplingIndices, atInfinity, s, flip)));
 
-  const finiteAtZero = atZero.every(Number.isFinite);
-  const worst = atZero.reduce((w, v, k) => (Math.abs(v) > Math.abs(atZero[w] as number) ? k : w), 0);
-  const value = atZero[worst] as number;
-  if (finiteAtZero) {
-    if (value === 0) return { name: "gr_limit", ok: true, message: `the expression vanishes when ${names} = 0` };
-    if (Math.abs(value) < RESIDUE && pool !== undefined && (await vanishesSymbolically(p.expanded, table, pool))) {
-      return { name: "gr_limit", ok: true, message: `the expression vanishes when ${names} = 0 (confirmed symbolically)` };
+  if (!atInfinity.some(Boolean)) {
+    // Every coupling reaches GR at zero: evaluate there exactly first.
+    const atZero = points.map((pt) => p.f(withCouplings(pt, p.couplingIndices, 0)));
+    const worst = atZero.reduce((w, v, k) => (Math.abs(v) > Math.abs(atZero[w] as number) ? k : w), 0);
+    const value = atZero[worst] as number;
+    if (atZero.every(Number.isFinite)) {
+      if (value === 0) return { name: "gr_limit", ok: true, message: `the expression vanishes when ${names} = 0` };
+      if (Math.abs(value) < RESIDUE && pool !== undefined && (await vanishesSymbolically(p.expanded, table, pool))) {
+        return { name: "gr_limit", ok: true, message: `the expression vanishes when ${names} = 0 (confirmed symbolically)` };
+      }
+    } else if (points.every((pt) => tendsToZero(along(pt)))) {
+      return { name: "gr_limit", ok: true, message: `the expression is undefined at ${names} = 0 but tends to 0 as ${names} -> 0` };
     }
-  } else {
-    const small = points.map((pt) => SMALL.map((s) => p.f(withCouplings(pt, p.couplingIndices, s))));
-    if (small.every(tendsToZero)) {
+    const upsideDown = points.every((pt) => tendsToZero(LARGE.map((s) => p.f(withCouplings(pt, p.couplingIndices, s)))));
+    if (upsideDown && !declared) {
       return {
         name: "gr_limit",
         ok: true,
-        message: `the expression is undefined at ${names} = 0 but tends to 0 as ${names} -> 0`,
+        severity: "warning",
+        message: `the expression vanishes as ${names} -> infinity, not as ${names} -> 0: GR is recovered at infinite ${names} (like a graviton Compton wavelength, or omega_BD in Brans-Dicke); declare the coupling's GR value as infinity if that is intended, or check whether it is written upside down`,
       };
     }
-  }
-  // Some couplings reach GR at infinity: a graviton Compton wavelength, omega_BD.
-  const large = points.map((pt) => LARGE.map((s) => p.f(withCouplings(pt, p.couplingIndices, s))));
-  if (large.every(tendsToZero)) {
-    return {
-      name: "gr_limit",
-      ok: true,
-      severity: "warning",
-      message: `the expression vanishes as ${names} -> infinity, not as ${names} -> 0: GR is recovered at infinite ${names} (like a graviton Compton wavelength, or omega_BD in Brans-Dicke); check that this is the intended parameterization`,
-    };
-  }
-  if (finiteAtZero) {
-    const at = describePoint(p.args, withCouplings(points[worst] as Float64Array, p.couplingIndices, 0));
+    if (upsideDown) {
+      const blowsUp = points.some((pt) => grows(along(pt)));
+      return {
+        name: "gr_limit",
+        ok: false,
+        severity: failSeverity,
+        message: `${names} ${couplingNames.length > 1 ? "are" : "is"} declared to reach GR at 0, but the expression vanishes only as ${oppositeText}${blowsUp ? ` and diverges as ${limitText}` : ""}: the coupling is written upside down (1/x where x is meant), or its GR value is infinity`,
+      };
+    }
+    if (atZero.every(Number.isFinite)) {
+      const at = describePoint(p.args, withCouplings(points[worst] as Float64Array, p.couplingIndices, 0));
+      return {
+        name: "gr_limit",
+        ok: false,
+        severity: failSeverity,
+        message: `with ${names} = 0 the expression equals ${fmt(value)} (at ${at}); a correction to GR must vanish there (is there a constant term?)`,
+      };
+    }
+    const tiny = p.f(withCouplings(points[0] as Float64Array, p.couplingIndices, 1e-12));
     return {
       name: "gr_limit",
       ok: false,
       severity: failSeverity,
-      message: `with ${names} = 0 the expression equals ${fmt(value)} (at ${at}); a correction to GR must vanish there (is there a constant term?)`,
+      message: `the expression does not vanish as ${names} -> 0 (with ${names} scaled by 1e-12 it is ${fmt(tiny)}; at ${names} = 0 it is ${fmt(atZero.find((v) => !Number.isFinite(v)) ?? Number.NaN)}), nor as ${names} -> infinity`,
     };
   }
-  const tiny = p.f(withCouplings(points[0] as Float64Array, p.couplingIndices, 1e-12));
+
+  // At least one coupling reaches GR at infinity: approach the limit along a sequence.
+  if (points.every((pt) => tendsToZero(along(pt)))) {
+    return { name: "gr_limit", ok: true, message: `the expression vanishes in the GR limit ${limitText}` };
+  }
+  if (points.every((pt) => tendsToZero(along(pt, true)))) {
+    const blowsUp = points.some((pt) => grows(along(pt)));
+    return {
+      name: "gr_limit",
+      ok: false,
+      severity: failSeverity,
+      message: `GR is declared at ${limitText}, but the expression vanishes only as ${oppositeText}${blowsUp ? ` and diverges as ${limitText}` : ""}: the coupling is written upside down (x where 1/x is meant), or its GR value is zero`,
+    };
+  }
+  const last = p.f(towardsGr(points[0] as Float64Array, p.couplingIndices, atInfinity, SMALL[SMALL.length - 1] as number));
   return {
     name: "gr_limit",
     ok: false,
     severity: failSeverity,
-    message: `the expression does not vanish as ${names} -> 0 (with ${names} scaled by 1e-12 it is ${fmt(tiny)}; at ${names} = 0 it is ${fmt(atZero.find((v) => !Number.isFinite(v)) ?? Number.NaN)}), nor as ${names} -> infinity`,
+    message: `the expression does not vanish in the GR limit ${limitText} (with the couplings moved by a factor 1e12 towards it, it is ${fmt(last)})`,
   };
 }
 

@@ -1,6 +1,6 @@
 import type { CouplingDeclaration, DefinitionDeclaration } from "../expr/symbols.ts";
 
-export type CheckName = "parse" | "symbols" | "dimension" | "gr_limit" | "pn_order" | "derivation";
+export type CheckName = "parse" | "symbols" | "dimension" | "gr_limit" | "pn_order" | "symmetry" | "derivation" | "propagation";
 export type Severity = "error" | "warning";
 
 export interface CheckResult {
@@ -34,6 +34,19 @@ export interface DerivationInput {
   readonly flux?: DerivationTerm;
   /** df/dt = (df/dt)_GR [1 + gamma u^(2n)]: order n, coefficient gamma. */
   readonly frequency_drift?: DerivationTerm;
+  /** A modified dispersion relation the signal propagates with (see PropagationInput). */
+  readonly propagation?: PropagationInput;
+}
+
+/**
+ * E^2 = p^2 + A p^alpha_md (c = 1) for the graviton: the coefficient is A / h^(2 - alpha_md), a power
+ * of length L^(alpha_md - 2) with its sign (1/lambda_g^2 for a graviton mass, alpha_md = 0).
+ */
+export interface PropagationInput {
+  readonly alpha_md: number;
+  readonly coefficient: string;
+  /** Relative PN order the contributor states; must be (3 alpha_md + 2) / 2 when given. */
+  readonly order?: number;
 }
 
 export interface MappingInput {

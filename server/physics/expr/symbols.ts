@@ -27,6 +27,10 @@ export interface CouplingDeclaration {
   readonly symbol: string;
   readonly dimension: number;
   readonly description?: string;
+  /** Where GR lies: the coupling's value at which every deviation must vanish (checked by gr_limit). */
+  readonly gr_value?: "zero" | "infinity";
+  /** Physical range of the coupling (informational for the checks; the translator uses it). */
+  readonly range?: "positive" | "non_negative" | "any_sign";
 }
 
 export interface DefinitionDeclaration {
@@ -49,6 +53,11 @@ export interface SymbolTable {
   /** User definitions, each after the ones it uses. */
   readonly definitions: readonly string[];
   get(name: string): SymbolInfo | undefined;
+  /**
+   * Node count of each derived symbol and definition once every definition in it is substituted
+   * (computed arithmetically from the definitions, never by expanding them).
+   */
+  readonly expandedSizes: ReadonlyMap<string, number>;
 }
 
 const PRIMITIVES: ReadonlyArray<readonly [string, number, string]> = [
@@ -84,8 +93,11 @@ export const BUILTIN_SYMBOL_NAMES: ReadonlySet<string> = new Set([
 ]);
 
 const MAX_DECLARATIONS = 50;
-/** Bound on a fully expanded tree, so that nested definitions cannot grow exponentially. */
-const MAX_EXPANDED_NODES = 20_000;
+/**
+ * Bound on a fully expanded tree (a definition, or an expression with its definitions substituted):
+ * every walker, the compiler and the checks are linear in it, so it is the evaluation budget.
+ */
+export const MAX_EXPANDED_NODES = 20_000;
 const MAX_DIMENSION = 24;
 
 /** Builds the symbols of one request: built-ins plus the theory's couplings and definitions. */
@@ -181,6 +193,7 @@ export function createSymbolTable(input: SymbolTableInput = {}): SymbolTable {
     couplings: couplingNames,
     definitions: userDefinitions,
     get: (name) => symbols.get(name),
+    expandedSizes: sizes,
   };
 }
 
@@ -252,7 +265,7 @@ function topologicalOrder(defs: ReadonlyMap<string, { ast: Node }>): string[] {
   return order;
 }
 
-function treeSize(ast: Node, sizes: ReadonlyMap<string, number>): number {
+function treeSize(ast: Node, sizes: ReadonlyMap<string, number>, stopAbove = MAX_EXPANDED_NODES): number {
   let total = 0;
   const stack: Node[] = [ast];
   while (stack.length > 0) {
@@ -263,9 +276,39 @@ function treeSize(ast: Node, sizes: ReadonlyMap<string, number>): number {
     else if (n.kind === "add") for (const t of n.terms) stack.push(t.node);
     else if (n.kind === "mul") for (const f of n.factors) stack.push(f.node);
     else if (n.kind === "pow") stack.push(n.base, n.exp);
-    if (total > MAX_EXPANDED_NODES) return total;
+    if (total > stopAbove) return total;
   }
   return total;
+}
+
+/**
+ * How many nodes `ast` has once every definition (and built-in derived symbol) is substituted:
+ * the size of the tree the checks and the compiler will walk. Linear in `ast`, whatever the
+ * definitions expand to, because each definition's size is known from the table.
+ */
+export function substitutedSize(ast: Node, table: SymbolTable): number {
+  return treeSize(ast, table.expandedSizes, Number.POSITIVE_INFINITY);
+}
+
+/** An expression over the evaluation budget; `field` is where it sits in the request ("expression", "derivation.flux.coefficient"). */
+export class ExpressionBudgetError extends ExpressionError {
+  constructor(
+    readonly field: string,
+    readonly size: number,
+    readonly cap: number,
+  ) {
+    super("too_large", budgetMessage(field, size, cap), "", 0);
+  }
+}
+
+export function budgetMessage(field: string, size: number, cap: number): string {
+  return `${field} is too large to evaluate: with its definitions substituted it has ${size} nodes, over the limit of ${cap}`;
+}
+
+/** Refuses, before any work, an expression whose substituted tree is over MAX_EXPANDED_NODES. */
+export function assertWithinBudget(ast: Node, table: SymbolTable, field = "expression"): void {
+  const size = substitutedSize(ast, table);
+  if (size > MAX_EXPANDED_NODES) throw new ExpressionBudgetError(field, size, MAX_EXPANDED_NODES);
 }
 
 export interface ExpandOptions {
@@ -277,6 +320,8 @@ export interface ExpandOptions {
 
 /** Replaces defined symbols by their definitions, recursively. */
 export function expandAst(ast: Node, table: SymbolTable, options: ExpandOptions = {}): Node {
+  // The expansion itself shares sub-trees, but everything after it walks the tree: refuse first.
+  assertWithinBudget(ast, table);
   const expandBuiltins = options.builtins ?? true;
   const expandUser = options.definitions ?? true;
   const memo = new Map<string, Node>();

@@ -10,7 +10,7 @@ export const expressionCheckRequestSchema = z.object({
   b: z.number().optional(),
   a: z.number().optional(),
   pn_order: z.number().optional(),
-  couplings: z.array(z.object({ symbol: z.string(), dimension: z.number() })),
+  couplings: z.array(z.object({ symbol: z.string(), dimension: z.number(), gr_value: z.enum(["zero", "infinity"]).optional() })),
   definitions: z.array(z.object({ symbol: z.string(), expression: z.string() })),
   /** The mapping's stated change of energy/flux/drift, so the engine re-derives beta and compares. */
   derivation: z
@@ -18,6 +18,8 @@ export const expressionCheckRequestSchema = z.object({
       energy: z.object({ order: z.number(), coefficient: z.string() }).optional(),
       flux: z.object({ order: z.number(), coefficient: z.string() }).optional(),
       frequency_drift: z.object({ order: z.number(), coefficient: z.string() }).optional(),
+      /** A dispersion E^2 = p^2 + A p^alpha_md the signal propagates with (A as a power of length). */
+      propagation: z.object({ alpha_md: z.number(), coefficient: z.string(), order: z.number().optional() }).optional(),
     })
     .optional(),
 });

@@ -17,8 +17,8 @@ const targetOf: Record<MappingInput["kind"], string> = {
 
 const finite = (v: unknown): number | undefined => (typeof v === "number" && Number.isFinite(v) ? v : undefined);
 
-/** The form's derivation (A, B at one order, or gamma) in the engine's term-by-term shape. */
-function derivationOf(d: MappingInput["derivation"]): ExpressionCheckRequest["derivation"] {
+/** The form's derivation (A, B at one order, gamma, or a dispersion coefficient A) in the engine's term-by-term shape. */
+function derivationOf(d: MappingInput["derivation"], alphaMd: number | undefined): ExpressionCheckRequest["derivation"] {
   if (!d || !Number.isFinite(d.order)) return undefined;
   const term = (c: string | undefined) => (c && c.trim() ? { order: d.order, coefficient: c.trim() } : undefined);
   if (d.kind === "energy_flux") {
@@ -29,6 +29,10 @@ function derivationOf(d: MappingInput["derivation"]): ExpressionCheckRequest["de
   if (d.kind === "frequency_drift") {
     const drift = term(d.gamma);
     return drift ? { frequency_drift: drift } : undefined;
+  }
+  if (d.kind === "propagation" && d.A && d.A.trim()) {
+    // The dispersion exponent is the mapping's, or follows from the order: n = (3 alpha + 2) / 2.
+    return { propagation: { alpha_md: alphaMd ?? (2 * d.order - 2) / 3, coefficient: d.A.trim(), order: d.order } };
   }
   return undefined;
 }
@@ -46,7 +50,7 @@ export function useCheckRequest(index: number): ExpressionCheckRequest | undefin
       target: targetOf[mapping?.kind ?? "inspiral_phase"],
       couplings: (couplings ?? []).flatMap((c) => {
         const d = finite(c.dimension);
-        return c.symbol && d !== undefined ? [{ symbol: c.symbol, dimension: d }] : [];
+        return c.symbol && d !== undefined ? [{ symbol: c.symbol, dimension: d, ...(c.gr_value ? { gr_value: c.gr_value } : {}) }] : [];
       }),
       definitions: (definitions ?? []).flatMap((d) => (d.symbol && d.expression?.trim() ? [{ symbol: d.symbol, expression: d.expression.trim() }] : [])),
     };
@@ -56,7 +60,7 @@ export function useCheckRequest(index: number): ExpressionCheckRequest | undefin
     if (b !== undefined) req.b = b;
     if (a !== undefined) req.a = a;
     if (n !== undefined) req.pn_order = n;
-    const derivation = derivationOf(mapping?.derivation);
+    const derivation = derivationOf(mapping?.derivation, finite(mapping?.alpha_md));
     if (derivation) req.derivation = derivation;
     return req;
   }, [mapping, couplings, definitions]);
