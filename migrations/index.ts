@@ -5,6 +5,7 @@ import * as catalogue from "./20261201000200_catalogue.ts";
 import * as mail from "./20261201000210_mail.ts";
 import * as sheets from "./20261201000300_sheets.ts";
 import * as couplingRange from "./20261202000100_coupling_range.ts";
+import * as forecastCurves from "./20261202001200_forecast_curves.ts";
 
 /**
  * Every migration, in order. Listed explicitly (not read from the folder) so that the same code runs
@@ -17,4 +18,5 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261201000210_mail": mail,
   "20261201000300_sheets": sheets,
   "20261202000100_coupling_range": couplingRange,
+  "20261202001200_forecast_curves": forecastCurves,
 };

@@ -3,6 +3,7 @@ import { createApp, type AppDeps } from "./app.ts";
 import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
 import { createLogger } from "./logger.ts";
+import { closeForecastPool } from "./features/forecasts/pool.ts";
 import { closeSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
 
 export interface RunningServer {
@@ -60,6 +61,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       await closeSymbolicPool();
+      await closeForecastPool();
       if (!extra.db) await db.destroy();
     })());
   return { server, url, close };

@@ -29,6 +29,8 @@ function qs(params: Record<string, string | number | boolean | undefined>): stri
 
 export const apiPaths = {
   health: () => "/api/health",
+  /** The machine-readable API document, generated from the route table. */
+  openapi: () => "/api/v1/openapi.json",
   me: () => "/api/v1/me",
   session: () => "/api/v1/session",
   csrf: () => "/api/v1/csrf",

@@ -122,8 +122,8 @@ function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemo
           </div>
         </details>
         <div className="sm:col-span-4 flex justify-end">
-          <Button kind="danger" onClick={onRemove} disabled={!canRemove} aria-label={`Remove mapping ${index + 1}`}>
-            Remove this mapping
+          <Button kind="danger" onClick={onRemove} disabled={!canRemove}>
+            Remove mapping {index + 1}
           </Button>
         </div>
       </div>
