@@ -8,6 +8,7 @@ import * as revisionAuthors from "./20261202000100_revision_authors.ts";
 import * as retirement from "./20261202000500_retirement.ts";
 import * as forecastCurves from "./20261202001200_forecast_curves.ts";
 import * as couplingRange from "./20261202001300_coupling_range.ts";
+import * as analysisJobs from "./20261202003000_analysis_jobs.ts";
 
 /**
  * Every migration, in order. Listed explicitly (not read from the folder) so that the same code runs
@@ -23,4 +24,5 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261202000500_retirement": retirement,
   "20261202001200_forecast_curves": forecastCurves,
   "20261202001300_coupling_range": couplingRange,
+  "20261202003000_analysis_jobs": analysisJobs,
 };

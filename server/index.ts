@@ -60,6 +60,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      await app.locals.jobQueue.stop();
       await closeSymbolicPool();
       await closeForecastPool();
       if (!extra.db) await db.destroy();
