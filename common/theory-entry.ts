@@ -431,16 +431,22 @@ export const checkResultSchema = z.object({
   /** Short machine name: parse, symbols, dimension, ppe_order, derivation, validity ... */
   name: z.string(),
   ok: z.boolean(),
-  severity: z.enum(["error", "warning", "info"]),
+  /**
+   * "inconclusive": the check could not finish in its time limit. Not a failure (it says nothing
+   * about the expression); it runs again on the next save, and an entry with one cannot be accepted.
+   */
+  severity: z.enum(["error", "warning", "info", "inconclusive"]),
   message: z.string(),
 });
 export type CheckResult = z.infer<typeof checkResultSchema>;
 
 export const checksReportSchema = z.object({
-  /** True when no check failed with severity "error". */
+  /** True when no check failed with severity "error" and none is inconclusive. */
   ok: z.boolean(),
   failures: z.number().int(),
   warnings: z.number().int(),
+  /** Checks stopped by a time limit (reports stored before this count existed have none). */
+  inconclusive: z.number().int().optional(),
   results: z.array(checkResultSchema),
   checked_at: z.string(),
 });
