@@ -330,6 +330,9 @@ export const mappingSchema = mappingObject.superRefine((m, ctx) => {
     }
     if (m.kind === "inspiral_phase" && m.b === undefined) ctx.addIssue({ code: "custom", path: ["b"], message: "is required for an inspiral_phase mapping" });
     if (m.kind === "inspiral_amplitude" && m.a === undefined) ctx.addIssue({ code: "custom", path: ["a"], message: "is required for an inspiral_amplitude mapping" });
+    if ((m.kind === "ringdown_frequency" || m.kind === "ringdown_damping") && m.mode === undefined) {
+      ctx.addIssue({ code: "custom", path: ["mode"], message: "is required for a ringdown mapping: the quasinormal mode (l, m, n), e.g. (2, 2, 0)" });
+    }
   });
 
 export const referenceBoundSchema = z.object({

@@ -30,6 +30,7 @@ export function createAppRouter(queryClient: QueryClient) {
         { path: "dev/outbox", lazy: () => import("./routes/outbox.tsx") },
         { path: "translate", lazy: () => import("./routes/translate.tsx") },
         { path: "forecast", lazy: () => import("./routes/forecast.tsx") },
+        { path: "consistency", lazy: () => import("./routes/consistency.tsx") },
         { path: "sheets", lazy: () => import("./routes/sheets.tsx") },
         { path: "sheets/:id", lazy: () => import("./routes/sheet.tsx") },
         { path: "shared/:token", lazy: () => import("./routes/shared-sheet.tsx") },

@@ -7,6 +7,7 @@ export const paths = {
   apiTokens: () => "/account/tokens",
   translate: () => "/translate",
   forecast: () => "/forecast",
+  consistency: () => "/consistency",
   sheets: () => "/sheets",
   sheet: (id: number) => `/sheets/${id}`,
   sharedSheet: (token: string) => `/shared/${encodeURIComponent(token)}`,
@@ -32,6 +33,9 @@ export const apiPaths = {
   health: () => "/api/health",
   /** The machine-readable API document, generated from the route table. */
   openapi: () => "/api/v1/openapi.json",
+  consistency: () => "/api/v1/consistency",
+  consistencyCoupling: () => "/api/v1/consistency/coupling",
+  convertRingdown: () => "/api/v1/convert/ringdown",
   me: () => "/api/v1/me",
   session: () => "/api/v1/session",
   csrf: () => "/api/v1/csrf",
