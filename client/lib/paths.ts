@@ -6,6 +6,7 @@ export const paths = {
   adminUsers: () => "/admin/people",
   apiTokens: () => "/account/tokens",
   translate: () => "/translate",
+  consistency: () => "/consistency",
   sheets: () => "/sheets",
   sheet: (id: number) => `/sheets/${id}`,
   sharedSheet: (token: string) => `/shared/${encodeURIComponent(token)}`,
@@ -31,6 +32,9 @@ export const apiPaths = {
   health: () => "/api/health",
   /** The machine-readable API document, generated from the route table. */
   openapi: () => "/api/v1/openapi.json",
+  consistency: () => "/api/v1/consistency",
+  consistencyCoupling: () => "/api/v1/consistency/coupling",
+  convertRingdown: () => "/api/v1/convert/ringdown",
   me: () => "/api/v1/me",
   session: () => "/api/v1/session",
   csrf: () => "/api/v1/csrf",
