@@ -2,6 +2,7 @@ import type { Knex } from "knex";
 import { accountsSeed } from "./accounts.ts";
 import { catalogueSeed } from "./catalogue.ts";
 import { demoScenarioSeed } from "./demo-scenario.ts";
+import { ringdownCatalogueSeed } from "./ringdown-catalogue.ts";
 import { sheetsSeed } from "./sheets.ts";
 
 export interface SeedStep {
@@ -11,7 +12,7 @@ export interface SeedStep {
 
 /** Seed steps in order. Later features append theirs (accounts, catalogue, demo scenario). */
 // sheetsSeed stays after accounts and catalogue: it translates the demo analyst's sheet against the seeded catalogue.
-export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, sheetsSeed];
+export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, sheetsSeed, ringdownCatalogueSeed];
 
 /**
  * Seeds the demo data inside ONE transaction: an interrupted seed leaves nothing behind. Each step is

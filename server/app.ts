@@ -1,5 +1,6 @@
 import { existsSync } from "node:fs";
 import path from "node:path";
+import compression from "compression";
 import express, { type Express } from "express";
 import { pinoHttp } from "pino-http";
 import type { Config } from "./config.ts";
@@ -10,6 +11,9 @@ import { adminRoutes } from "./features/admin/routes.ts";
 import { catalogueApiRoutes } from "./features/catalogue/api.ts";
 import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
 import { consistencyRoutes } from "./features/consistency/routes.ts";
+import { ringdownCatalogue } from "./features/ringdown/catalogue.ts";
+import { ringdownRoutes } from "./features/ringdown/routes.ts";
+import { ringdownService } from "./features/ringdown/service.ts";
 import { convertRoutes } from "./features/convert/routes.ts";
 import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
@@ -71,6 +75,8 @@ export function createApp(deps: AppDeps): DragomanApp {
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? "error" : res.statusCode >= 400 ? "warn" : "info"),
     }),
   );
+  // gzip or brotli (as the client accepts) for API answers and client files over 1 kB.
+  app.use(compression());
   // Posterior samples arrive as long JSON columns (up to 200 000 rows): that one route gets its own, larger limit.
   app.use("/api/v1/convert/samples", express.json({ limit: config.CONVERT_SAMPLES_MAX_BYTES }));
   app.use(express.json({ limit: "2mb" }));
@@ -89,6 +95,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", consistencyRoutes(config));
+  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdownCatalogue(db)), config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));
@@ -100,17 +107,36 @@ export function createApp(deps: AppDeps): DragomanApp {
   return app;
 }
 
-/** Serves the built client and falls back to index.html for client routes. */
+/**
+ * Serves the built client and falls back to index.html for client routes.
+ * Caching: files under /assets/ carry a content hash in their names (Vite), so they are cached for a
+ * year and never revalidated; a missing one is a 404 (an old page asking for a chunk of a previous
+ * build), never index.html. index.html is revalidated on every load (no-cache), so a new build is seen
+ * at once. Other files of public/ (the icon) are cached for an hour.
+ */
 function mountClient(app: Express, config: Config): void {
   const dist = path.resolve(config.CLIENT_DIST);
   const index = path.join(dist, "index.html");
-  app.use(express.static(dist, { index: false, maxAge: "1h" }));
+  app.use("/assets", express.static(path.join(dist, "assets"), { index: false, maxAge: "1y", immutable: true, fallthrough: true }));
+  app.use("/assets", (req, res) => {
+    res.status(404).type("text/plain").set("Cache-Control", "no-store").send(`No such client file: /assets${req.path}. Reload the page to get the current build.`);
+  });
+  app.use(
+    express.static(dist, {
+      index: false,
+      maxAge: "1h",
+      setHeaders: (res, file) => {
+        if (file.endsWith(".html")) res.setHeader("Cache-Control", "no-cache");
+      },
+    }),
+  );
   app.get("/{*splat}", (req, res, next) => {
     if (req.path.startsWith("/auth/")) return next();
     if (!existsSync(index)) {
       res.status(503).type("text/plain").send("The client has not been built yet: run `npm run build` (npm start does it for you).");
       return;
     }
-    res.sendFile(index, { maxAge: 0 });
+    res.setHeader("Cache-Control", "no-cache");
+    res.sendFile(index, { cacheControl: false });
   });
 }

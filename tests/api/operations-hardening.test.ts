@@ -1,5 +1,8 @@
+import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
 import type { AddressInfo } from "node:net";
 import { connect } from "node:net";
+import { tmpdir } from "node:os";
+import path from "node:path";
 import { Writable } from "node:stream";
 import { pino } from "pino";
 import request from "supertest";
@@ -11,6 +14,7 @@ import { createLogger } from "../../server/logger.ts";
 import { buildTestApp, testConfig } from "../helpers/app.ts";
 import { signInAgent, startSignInStack } from "../helpers/auth.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+import { seedCatalogue } from "./catalogue-fixtures.ts";
 
 let tdb: TestDatabase;
 beforeAll(async () => {
@@ -146,5 +150,79 @@ describe("HTTP server timeouts", () => {
     expect(() => parseConfig({ DATABASE_URL: "postgres://x@127.0.0.1/db", REQUEST_TIMEOUT_MS: "5000", HEADERS_TIMEOUT_MS: "9000" })).toThrow(
       /HEADERS_TIMEOUT_MS must not exceed REQUEST_TIMEOUT_MS \(5000\)/,
     );
+  });
+});
+
+describe("compression and client caching", () => {
+  let dist: string;
+  const bigScript = `export const words = ${JSON.stringify(Array.from({ length: 400 }, (_, i) => `word-${i}`))};\n`;
+  beforeAll(() => {
+    dist = mkdtempSync(path.join(tmpdir(), "dragoman-dist-"));
+    mkdirSync(path.join(dist, "assets"));
+    writeFileSync(path.join(dist, "index.html"), `<!doctype html><title>Dragoman test shell</title><script type="module" src="/assets/index-Ab12Cd34.js"></script>`);
+    writeFileSync(path.join(dist, "assets", "index-Ab12Cd34.js"), bigScript);
+    writeFileSync(path.join(dist, "favicon.svg"), "<svg xmlns='http://www.w3.org/2000/svg'/>");
+  });
+
+  it("when a client accepts brotli or only gzip, then API answers and assets come compressed that way", async () => {
+    const app = buildTestApp(tdb, { CLIENT_DIST: dist });
+    for (const [accept, expected] of [
+      ["br, gzip, deflate", "br"],
+      ["gzip", "gzip"],
+    ] as const) {
+      const api = await request(app).get("/api/v1/openapi.json").set("Accept-Encoding", accept);
+      expect(api.status).toBe(200);
+      expect(api.headers["content-encoding"], `API with ${accept}`).toBe(expected);
+      const asset = await request(app).get("/assets/index-Ab12Cd34.js").set("Accept-Encoding", accept);
+      expect(asset.status).toBe(200);
+      expect(asset.headers["content-encoding"], `asset with ${accept}`).toBe(expected);
+    }
+    const plain = await request(app).get("/api/v1/openapi.json").set("Accept-Encoding", "identity");
+    expect(plain.headers["content-encoding"]).toBeUndefined();
+  });
+
+  it("when hashed assets are served, then they are immutable for a year; index.html is revalidated; a missing asset is a 404", async () => {
+    const app = buildTestApp(tdb, { CLIENT_DIST: dist });
+    const asset = await request(app).get("/assets/index-Ab12Cd34.js");
+    expect(asset.headers["cache-control"]).toBe("public, max-age=31536000, immutable");
+    for (const page of ["/", "/catalogue", "/index.html"]) {
+      const res = await request(app).get(page);
+      expect(res.status, page).toBe(200);
+      expect(res.headers["cache-control"], page).toBe("no-cache");
+    }
+    expect((await request(app).get("/favicon.svg")).headers["cache-control"]).toBe("public, max-age=3600");
+    const missing = await request(app).get("/assets/index-OldBuild.js");
+    expect(missing.status).toBe(404);
+    expect(missing.text).toMatch(/No such client file: \/assets\/index-OldBuild\.js/);
+  });
+});
+
+describe("catalogue reads cached by catalogue revision", () => {
+  it("when the list and a detail are read again, then one query (the revision token) answers; a publication is seen at once", async () => {
+    await seedCatalogue(tdb.db);
+    const app = buildTestApp(tdb);
+    const first = await request(app).get("/api/v1/theories");
+    expect(first.status).toBe(200);
+    expect((await request(app).get("/api/v1/theories/edgb")).status).toBe(200);
+
+    const queries: string[] = [];
+    const count = (q: { sql: string }) => queries.push(q.sql);
+    tdb.db.on("query", count);
+    try {
+      const again = await request(app).get("/api/v1/theories");
+      expect(again.body).toEqual(first.body);
+      const listQueries = queries.length;
+      await request(app).get("/api/v1/theories/edgb");
+      expect([listQueries, queries.length - listQueries]).toEqual([1, 1]);
+    } finally {
+      tdb.db.removeListener("query", count);
+    }
+
+    // What a publication does to the theories row: next revision number, new updated_at, new content.
+    await tdb.db("theories").where({ slug: "edgb" }).update({ name: "EdGB (renamed by a test)", current_revision: tdb.db.raw("current_revision + 1"), updated_at: tdb.db.fn.now() });
+    const list = await request(app).get("/api/v1/theories");
+    expect(list.body.theories.find((t: { slug: string }) => t.slug === "edgb").name).toBe("EdGB (renamed by a test)");
+    const detail = await request(app).get("/api/v1/theories/edgb");
+    expect(detail.body.name).toBe("EdGB (renamed by a test)");
   });
 });

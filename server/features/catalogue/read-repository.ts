@@ -139,6 +139,20 @@ function escapeLike(s: string): string {
   return s.replace(/[\\%_]/g, (m) => `\\${m}`);
 }
 
+/**
+ * A cheap token (one aggregate query) that changes whenever the accepted catalogue changes: every
+ * publication bumps a theory's current_revision and updated_at, and adds or keeps the row count.
+ * The catalogue reads and the translator cache what they build under it.
+ */
+export async function catalogueRevision(db: Knex): Promise<string> {
+  const row = await db("theories").first<{ n: number; s: number; u: Date | null }>(
+    db.raw("count(*)::int as n"),
+    db.raw("coalesce(sum(current_revision), 0)::int as s"),
+    db.raw("max(updated_at) as u"),
+  );
+  return `${row.n}.${row.s}.${row.u ? row.u.getTime().toString(36) : "0"}`;
+}
+
 export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySummary[]> {
   const q = db<TheoryRow>("theories as t").select("t.*").orderBy("t.name");
   if (f.family) q.where("t.family", f.family);

@@ -2,7 +2,7 @@ import type { ChecksReport, EntryDiff, RevisionDetail, TheoryDetail, TheorySumma
 import type { Knex } from "../../db/knex.ts";
 import { NotFoundError } from "../../errors.ts";
 import { diffSize } from "./entry-diff.ts";
-import { findTheoryId, getTheoryDetail, listTheories, type ListFilters } from "./read-repository.ts";
+import { catalogueRevision, findTheoryId, getTheoryDetail, listTheories, type ListFilters } from "./read-repository.ts";
 import { getRevision, listRevisions, type RevisionRow } from "./revision-repository.ts";
 
 function person(id: number | null, login: string | null, name: string | null) {
@@ -21,8 +21,43 @@ function revisionSummary(r: RevisionRow) {
   };
 }
 
-/** Reading the accepted catalogue: lists, entries, and every published revision with its diff. */
+/** Most distinct list queries (filters) kept per catalogue revision; beyond it the oldest is dropped. */
+const LIST_CACHE_LIMIT = 256;
+
+/**
+ * Reading the accepted catalogue: lists, entries, and every published revision with its diff.
+ *
+ * The list and the detail are the most read routes and cost 4 and 10 queries to build; they are kept
+ * in process under the catalogue revision token (catalogueRevision, one aggregate query), exactly as
+ * the translator keeps its compiled catalogue: a publication changes the token and the next request
+ * rebuilds. A cache miss for the same key while a build is under way shares that build.
+ */
 export function catalogueService(db: Knex) {
+  let token = "";
+  let lists = new Map<string, Promise<TheorySummary[]>>();
+  let details = new Map<string, Promise<TheoryDetail | undefined>>();
+
+  async function cached<T>(pick: () => Map<string, Promise<T>>, key: string, build: () => Promise<T>): Promise<T> {
+    const now = await catalogueRevision(db);
+    if (now !== token) {
+      token = now;
+      lists = new Map();
+      details = new Map();
+    }
+    const map = pick();
+    let hit = map.get(key);
+    if (!hit) {
+      hit = build();
+      map.set(key, hit);
+      if (map.size > LIST_CACHE_LIMIT) map.delete(map.keys().next().value as string);
+      // A failed build (database gone mid-way) is not remembered.
+      hit.catch(() => {
+        if (map.get(key) === hit) map.delete(key);
+      });
+    }
+    return hit;
+  }
+
   async function theoryIdOf(slug: string): Promise<number> {
     const id = await findTheoryId(db, slug);
     if (id === undefined) throw new NotFoundError(`No theory "${slug}" in the catalogue.`);
@@ -30,10 +65,10 @@ export function catalogueService(db: Knex) {
   }
 
   return {
-    list: (filters: ListFilters): Promise<TheorySummary[]> => listTheories(db, filters),
+    list: (filters: ListFilters): Promise<TheorySummary[]> => cached(() => lists, JSON.stringify(filters), () => listTheories(db, filters)),
 
     async detail(slug: string): Promise<TheoryDetail> {
-      const t = await getTheoryDetail(db, slug);
+      const t = await cached(() => details, slug, () => getTheoryDetail(db, slug));
       if (!t) throw new NotFoundError(`No theory "${slug}" in the catalogue.`);
       return t;
     },

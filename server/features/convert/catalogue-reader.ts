@@ -2,7 +2,7 @@ import type { BibliographyEntry } from "../../../common/convert.ts";
 import type { StoredReference, TheoryDetail } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
 import type { CatalogueTheory } from "../../physics/catalogue-mapping.ts";
-import { getTheoryDetail } from "../catalogue/read-repository.ts";
+import { catalogueRevision, getTheoryDetail } from "../catalogue/read-repository.ts";
 import type { AcceptedTheory, CatalogueReader } from "./catalogue-snapshot.ts";
 
 /**
@@ -107,11 +107,7 @@ export function acceptedTheoryOf(detail: TheoryDetail): AcceptedTheory {
 }
 
 export function dbCatalogueReader(db: Knex): CatalogueReader {
-  const revision = async (): Promise<string> => {
-    const row = await db("theories")
-      .first<{ n: number; s: number; u: Date | null }>(db.raw("count(*)::int as n"), db.raw("coalesce(sum(current_revision), 0)::int as s"), db.raw("max(updated_at) as u"));
-    return `${row.n}.${row.s}.${row.u ? row.u.getTime().toString(36) : "0"}`;
-  };
+  const revision = (): Promise<string> => catalogueRevision(db);
   return {
     revision,
     async load() {

@@ -54,6 +54,12 @@ export function samplePoint(args: readonly string[], table: SymbolTable, rng: ()
       case "z":
         v = uniform(rng, 0.01, 2);
         break;
+      case "M_f":
+        v = 0.95 * (m1 + m2);
+        break;
+      case "chi_f":
+        v = uniform(rng, 0.3, 0.9);
+        break;
       case "D":
       case "D_0":
       case "D_alpha":

@@ -73,6 +73,9 @@ const PRIMITIVES: ReadonlyArray<readonly [string, number, string]> = [
   ["D", 1, "distance"],
   ["D_0", 1, "distance measure D_0 (massive graviton)"],
   ["D_alpha", 1, "distance measure D_alpha (modified dispersion)"],
+  // Ringdown and remnant mappings: the final black hole (source frame).
+  ["M_f", 1, "mass of the remnant black hole"],
+  ["chi_f", 0, "dimensionless spin of the remnant black hole"],
 ];
 
 const DERIVED: ReadonlyArray<readonly [string, string, string]> = [

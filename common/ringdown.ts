@@ -1,0 +1,121 @@
+import { z } from "zod";
+
+/**
+ * Ringdown-only bounds (POST /api/v1/convert/ringdown): a bound on the fractional shift of one
+ * quasinormal mode's frequency or damping time, with the remnant it was measured on (or the binary,
+ * pushed through the remnant fits), translated through the catalogue's ringdown mappings.
+ */
+
+const num = (what: string) => z.number({ error: (i) => (i.input === undefined ? `${what} is required` : `${what} must be a number`) });
+
+export const QNM_MODE_KEYS = ["220", "221", "330", "210", "440"] as const;
+export const RINGDOWN_PARAMETERS = ["qnm_dfreq", "qnm_dtau"] as const;
+export type RingdownParameter = (typeof RINGDOWN_PARAMETERS)[number];
+
+export const qnmBoundSchema = z
+  .strictObject({
+    parameter: z.enum(RINGDOWN_PARAMETERS, { error: 'parameter must be "qnm_dfreq" or "qnm_dtau"' }),
+    mode: z.enum(QNM_MODE_KEYS, { error: `mode must be one of ${QNM_MODE_KEYS.join(", ")}` }).default("220"),
+    /** Bound on |shift|. */
+    upper: num("upper").positive("upper must be positive: it bounds |shift|").optional(),
+    /** Credible interval [lo, hi] on the signed shift. */
+    interval: z.tuple([num("interval.0"), num("interval.1")]).optional(),
+    credibility: num("credibility").gt(0, "credibility must lie strictly between 0 and 1").lt(1, "credibility must lie strictly between 0 and 1"),
+  })
+  .superRefine((b, ctx) => {
+    if ((b.upper === undefined) === (b.interval === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["upper"], message: "give exactly one of upper (a bound on |shift|) or interval ([lo, hi])" });
+    }
+    if (b.interval && !(b.interval[0] < b.interval[1])) ctx.addIssue({ code: "custom", path: ["interval"], message: "interval must be [lo, hi] with lo < hi" });
+    if (b.interval && (b.interval[0] > 0 || b.interval[1] < 0)) {
+      ctx.addIssue({ code: "custom", path: ["interval"], message: "interval excludes 0 (general relativity): that is a claimed deviation, not a bound" });
+    }
+  });
+
+const frame = z.enum(["detector", "source"], { error: 'frame must be "detector" or "source"' });
+const z_ = num("z").min(0, "z must be >= 0").optional();
+
+export const remnantInputSchema = z.strictObject({
+  M_f: num("M_f").positive("M_f must be positive (solar masses)"),
+  chi_f: num("chi_f").min(0, "chi_f must be >= 0 (the fits describe modes co-rotating with the remnant)").lt(1, "chi_f must be below 1 (a Kerr black hole)"),
+  frame,
+  z: z_,
+});
+
+export const ringdownBinarySchema = z.strictObject({
+  m1: num("m1").positive("m1 must be positive (solar masses)"),
+  m2: num("m2").positive("m2 must be positive (solar masses)"),
+  chi1: num("chi1").gt(-1, "|chi1| must be below 1").lt(1, "|chi1| must be below 1").default(0),
+  chi2: num("chi2").gt(-1, "|chi2| must be below 1").lt(1, "|chi2| must be below 1").default(0),
+  frame,
+  z: z_,
+});
+
+export const ringdownConvertRequestSchema = z
+  .strictObject({
+    bound: qnmBoundSchema,
+    remnant: remnantInputSchema.optional(),
+    binary: ringdownBinarySchema.optional(),
+    /** Slugs to translate for; default: every entry with a ringdown mapping of this kind and mode. */
+    theories: z.array(z.string().max(64)).max(50).optional(),
+  })
+  .superRefine((r, ctx) => {
+    if ((r.remnant === undefined) === (r.binary === undefined)) {
+      ctx.addIssue({ code: "custom", path: ["remnant"], message: "give exactly one of remnant (M_f, chi_f) or binary (pushed through the remnant fits)" });
+    }
+    for (const [k, v] of [["remnant", r.remnant], ["binary", r.binary]] as const) {
+      if (v && v.frame === "detector" && v.z === undefined) ctx.addIssue({ code: "custom", path: [k, "z"], message: "detector-frame masses need the redshift z" });
+    }
+  });
+export type RingdownConvertRequest = z.output<typeof ringdownConvertRequestSchema>;
+export type RingdownConvertRequestInput = z.input<typeof ringdownConvertRequestSchema>;
+
+export const VERDICTS = ["valid", "outside_validity", "not_assessed"] as const;
+
+const conditionSchema = z.object({
+  label: z.string(),
+  condition: z.string(),
+  value: z.number().nullable(),
+  max: z.number(),
+  kind: z.enum(["hard", "rule_of_thumb"]),
+  factor: z.number().nullable(),
+  ok: z.boolean().nullable(),
+  reason: z.string().optional(),
+});
+
+const sideLimitSchema = z.object({ value: z.number(), shift: z.number(), verdict: z.enum(VERDICTS), conditions: z.array(conditionSchema) });
+
+export const ringdownResultSchema = z.object({
+  slug: z.string(),
+  name: z.string(),
+  revision: z.number().int(),
+  status: z.enum(["bounded", "no_constraint", "not_applicable"]),
+  reason: z.string().optional(),
+  coupling: z.object({ symbol: z.string(), latex: z.string(), unit: z.string() }).optional(),
+  mapping: z.object({ kind: z.string(), mode: z.string(), expression: z.string(), latex: z.string().optional(), source_status: z.string() }).optional(),
+  /** Limit on the negative side (x >= lower) and on the positive side (x <= upper). */
+  lower: sideLimitSchema.nullable(),
+  upper: sideLimitSchema.nullable(),
+  unconstrained: z.array(z.object({ side: z.enum(["negative", "positive"]), reason: z.string() })),
+  verdict: z.enum(VERDICTS),
+  cautions: z.array(z.string()),
+});
+export type RingdownResult = z.infer<typeof ringdownResultSchema>;
+
+export const ringdownConvertResponseSchema = z.object({
+  remnant: z.object({
+    /** Source-frame remnant mass (solar masses) and spin used for the mappings. */
+    M_f_source: z.number(),
+    chi_f: z.number(),
+    from: z.enum(["given", "fit"]),
+    z: z.number().optional(),
+    /** With a binary: the second spin fit and the spread between the two. */
+    chi_f_alternative: z.number().optional(),
+    chi_f_fit_spread: z.number().optional(),
+  }),
+  /** The Kerr mode at that remnant (detector frame when z is known, else source frame). */
+  qnm: z.object({ mode: z.string(), frequency_hz: z.number(), damping_time_s: z.number(), frame: z.enum(["detector", "source"]) }),
+  results: z.array(ringdownResultSchema),
+  cautions: z.array(z.string()),
+});
+export type RingdownConvertResponse = z.infer<typeof ringdownConvertResponseSchema>;

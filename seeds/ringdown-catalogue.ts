@@ -1,0 +1,60 @@
+import { theoryEntrySchema, type TheoryEntryInput } from "../common/catalogue.ts";
+import type { Knex } from "../server/db/knex.ts";
+import { ConflictError } from "../server/errors.ts";
+import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
+import { publishEntry } from "../server/features/catalogue/publish.ts";
+import { latestRevisionEntryOf } from "../server/features/catalogue/revision-repository.ts";
+import { checkMapping } from "../server/physics/checks/index.ts";
+import { johannsenPsaltis, johannsenRingdownMappings, RINGDOWN_REFS, ringdownDeviation } from "./data/theories-ringdown.ts";
+import type { SeedStep } from "./index.ts";
+
+/**
+ * Ringdown content, published through the same code as an accepted submission: two new entries, and a
+ * new revision of the Johannsen 2013 entry that adds its ringdown mappings (and the reference they cite).
+ */
+async function publish(trx: Knex.Transaction, input: TheoryEntryInput, targetSlug: string | null, acceptedBy: number | null, now: Date) {
+  const entry = theoryEntrySchema.parse(input);
+  guardEntryExpressions(entry, `${entry.slug}.`);
+  const checks = await checkEntry(entry, (m) => checkMapping(m), now);
+  return publishEntry(trx, entry, checks, { targetSlug, submissionId: null, authorId: null, acceptedBy, now });
+}
+
+/** The current Johannsen 2013 entry with the ringdown mappings added, or null when it is absent or already has them. */
+export async function johannsenWithRingdown(trx: Knex.Transaction): Promise<TheoryEntryInput | null> {
+  const theory = await trx("theories").where({ slug: "johannsen" }).first<{ id: number } | undefined>("id");
+  if (!theory) return null;
+  const latest = await latestRevisionEntryOf(trx, theory.id);
+  const parsed = theoryEntrySchema.safeParse(latest?.entry);
+  if (!parsed.success) return null;
+  const entry = parsed.data;
+  if (entry.mappings.some((m) => m.kind === "ringdown_frequency" || m.kind === "ringdown_damping")) return null;
+  const haveKey = entry.references.some((r) => r.key === RINGDOWN_REFS.cardoso2009.key);
+  return {
+    ...entry,
+    mappings: [...entry.mappings, ...johannsenRingdownMappings],
+    references: haveKey ? entry.references : [...entry.references, RINGDOWN_REFS.cardoso2009],
+  };
+}
+
+export const ringdownCatalogueSeed: SeedStep = {
+  name: "ringdown-catalogue",
+  run: async (trx) => {
+    const editor = await trx("users").where({ login: "demo-editor" }).first<{ id: number } | undefined>("id");
+    const now = new Date();
+    const steps: [TheoryEntryInput | null, string | null][] = [
+      [ringdownDeviation, null],
+      [johannsenPsaltis, null],
+      [await johannsenWithRingdown(trx), "johannsen"],
+    ];
+    for (const [entry, target] of steps) {
+      if (!entry) continue;
+      try {
+        await publish(trx, entry, target, editor?.id ?? null, now);
+      } catch (err) {
+        // Same policy as the first catalogue step: a refused entry is reported, and a test fails on it.
+        if (!(err instanceof ConflictError)) throw err;
+        process.stderr.write(`ringdown catalogue seed: left out "${entry.slug}": ${err.message}\n`);
+      }
+    }
+  },
+};

@@ -1,0 +1,64 @@
+import { theoryEntrySchema, type TheoryEntry } from "../../../common/catalogue.ts";
+import type { Knex } from "../../db/knex.ts";
+import { compileRingdownMapping, type CompiledRingdownMapping } from "../../physics/ringdown/ringdown-mapping.ts";
+
+/**
+ * The accepted catalogue as the ringdown translator sees it: each theory's current revision document
+ * (which carries QNM modes and coupling ranges) with its ringdown mappings compiled, cached per
+ * catalogue state. A mapping that does not compile is kept with its reason.
+ */
+export interface RingdownTheory {
+  slug: string;
+  name: string;
+  revision: number;
+  entry: TheoryEntry;
+  mappings: CompiledRingdownMapping[];
+  broken: { index: number; reason: string }[];
+}
+
+export interface RingdownCatalogue {
+  load(): Promise<RingdownTheory[]>;
+}
+
+export function ringdownCatalogue(db: Knex): RingdownCatalogue {
+  let cached: { token: string; theories: RingdownTheory[] } | undefined;
+  const token = async (): Promise<string> => {
+    const row = await db("theories").first<{ n: number; s: number; u: Date | null }>(
+      db.raw("count(*)::int as n"),
+      db.raw("coalesce(sum(current_revision), 0)::int as s"),
+      db.raw("max(updated_at) as u"),
+    );
+    return `${row.n}.${row.s}.${row.u ? row.u.getTime().toString(36) : "0"}`;
+  };
+  return {
+    async load() {
+      const now = await token();
+      if (cached?.token === now) return cached.theories;
+      const rows = await db("theories as t")
+        .join("theory_revisions as r", function join() {
+          this.on("r.theory_id", "t.id").andOn("r.number", "t.current_revision");
+        })
+        .orderBy("t.name")
+        .select<{ slug: string; name: string; number: number; entry: unknown }[]>("t.slug", "t.name", "r.number", "r.entry");
+      const theories: RingdownTheory[] = [];
+      for (const row of rows) {
+        const parsed = theoryEntrySchema.safeParse(row.entry);
+        if (!parsed.success) continue;
+        const entry = parsed.data;
+        const mappings: CompiledRingdownMapping[] = [];
+        const broken: { index: number; reason: string }[] = [];
+        entry.mappings.forEach((m, i) => {
+          if (m.kind !== "ringdown_frequency" && m.kind !== "ringdown_damping") return;
+          try {
+            mappings.push(compileRingdownMapping(entry, i));
+          } catch (err) {
+            broken.push({ index: i, reason: err instanceof Error ? err.message : String(err) });
+          }
+        });
+        theories.push({ slug: row.slug, name: row.name, revision: row.number, entry, mappings, broken });
+      }
+      cached = { token: now, theories };
+      return theories;
+    },
+  };
+}

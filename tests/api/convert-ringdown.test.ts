@@ -1,0 +1,163 @@
+import request from "supertest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { ringdownConvertResponseSchema, type RingdownConvertResponse } from "../../common/ringdown.ts";
+import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
+import { buildTestApp } from "../helpers/app.ts";
+import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+
+/**
+ * POST /api/v1/convert/ringdown against the seeded catalogue. The spacetime entries' ringdown
+ * mappings are checked against the light-ring correspondence computed here numerically from the
+ * metric functions (Cardoso et al. 2009: omega = Omega_c l - i (n + 1/2) |lambda|), independently of
+ * the catalogue's closed forms.
+ */
+
+/** Light-ring frequency and Lyapunov exponent of ds^2 = -A dt^2 + B dr^2 + C dOmega^2 (M = 1), by finite differences. */
+function lightRing(A: (r: number) => number, B: (r: number) => number, C: (r: number) => number) {
+  const g = (r: number) => A(r) / C(r);
+  const dg = (r: number, h = 1e-5) => (g(r + h) - g(r - h)) / (2 * h);
+  let lo = 2.5;
+  let hi = 3.5;
+  // g rises then falls: the light ring is where dg changes sign.
+  for (let k = 0; k < 200; k += 1) {
+    const mid = (lo + hi) / 2;
+    if (dg(mid) > 0) lo = mid;
+    else hi = mid;
+  }
+  const rc = (lo + hi) / 2;
+  const h = 1e-4;
+  const d2 = (g(rc + h) - 2 * g(rc) + g(rc - h)) / (h * h);
+  return { rc, Omega: Math.sqrt(g(rc)), lambda: Math.sqrt((-C(rc) * d2) / (2 * B(rc))) };
+}
+
+const schwarzschild = lightRing(
+  (r) => 1 - 2 / r,
+  (r) => 1 / (1 - 2 / r),
+  (r) => r * r,
+);
+
+describe("POST /api/v1/convert/ringdown", () => {
+  let tdb: TestDatabase;
+  let app: ReturnType<typeof buildTestApp>;
+
+  beforeAll(async () => {
+    tdb = await createTestDatabase();
+    await tdb.db.transaction(async (trx) => {
+      await catalogueSeed.run(trx);
+      await ringdownCatalogueSeed.run(trx);
+    });
+    app = buildTestApp(tdb, { RATE_LIMIT_PER_MINUTE: "1000" });
+  });
+  afterAll(async () => {
+    await tdb?.drop();
+  });
+
+  async function convert(body: object): Promise<RingdownConvertResponse> {
+    const res = await request(app).post("/api/v1/convert/ringdown").send(body);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    return ringdownConvertResponseSchema.parse(res.body);
+  }
+
+  it("when the metric is Schwarzschild, then the light ring sits at 3M with M Omega_c = M lambda = 1/(3 sqrt 3)", () => {
+    // Standard result (Cardoso et al. 2009): 0.19245.
+    expect(schwarzschild.rc).toBeCloseTo(3, 6);
+    expect(schwarzschild.Omega).toBeCloseTo(1 / (3 * Math.sqrt(3)), 6);
+    expect(schwarzschild.lambda).toBeCloseTo(1 / (3 * Math.sqrt(3)), 4);
+  });
+
+  it("when the spacetime entries' ringdown mappings are compared with the light ring of their metrics, then the first-order shifts agree", () => {
+    const a = 1e-4;
+    // Johannsen 2013, static, eps3 = alpha52 = 0: -g_tt = (1 - 2x)/(1 + alpha13 x^3)^2, g_rr = 1/(1 - 2x), x = M/r.
+    const j = lightRing(
+      (r) => (1 - 2 / r) / (1 + a / r ** 3) ** 2,
+      (r) => 1 / (1 - 2 / r),
+      (r) => r * r,
+    );
+    expect((j.Omega / schwarzschild.Omega - 1) / a).toBeCloseTo(-1 / 27, 3);
+    // tau ~ 1/lambda: d tau / tau = -d lambda / lambda.
+    expect(-(j.lambda / schwarzschild.lambda - 1) / a).toBeCloseTo(1 / 27, 2);
+    // Johannsen & Psaltis 2011, static: -g_tt = (1 - 2x)(1 + eps3 x^3), g_rr = (1 + eps3 x^3)/(1 - 2x).
+    const jp = lightRing(
+      (r) => (1 - 2 / r) * (1 + a / r ** 3),
+      (r) => (1 + a / r ** 3) / (1 - 2 / r),
+      (r) => r * r,
+    );
+    expect((jp.Omega / schwarzschild.Omega - 1) / a).toBeCloseTo(1 / 54, 3);
+    expect(Math.abs(jp.lambda / schwarzschild.lambda - 1) / a).toBeLessThan(2e-3);
+    // Johannsen 2013 eps3 alone: it multiplies A and C alike and cancels from A/C (the naming trap).
+    const e = lightRing(
+      (r) => (1 + a / r ** 3) * (1 - 2 / r),
+      (r) => (1 + a / r ** 3) / (1 - 2 / r),
+      (r) => r * r * (1 + a / r ** 3),
+    );
+    expect(Math.abs(e.Omega / schwarzschild.Omega - 1)).toBeLessThan(1e-9);
+  });
+
+  it("when a bound on |df_220| is given with a remnant, then alpha13 and eps3 are limited at 27 U and 54 U with verdicts", async () => {
+    const U = 0.02;
+    const body = await convert({ bound: { parameter: "qnm_dfreq", mode: "220", upper: U, credibility: 0.9 }, remnant: { M_f: 67.5, chi_f: 0.68, frame: "detector", z: 0.09 } });
+    const johannsen = body.results.find((r) => r.slug === "johannsen");
+    // df = -alpha13/27 (light ring above): |alpha13| <= 27 U = 0.54, inside |alpha13| < 1.
+    expect(johannsen?.status).toBe("bounded");
+    expect(johannsen?.upper?.value).toBeCloseTo(27 * U, 8);
+    expect(johannsen?.lower?.value).toBeCloseTo(-27 * U, 8);
+    expect(johannsen?.verdict).toBe("valid");
+    // df = +eps3/54: |eps3| <= 54 U = 1.08, outside |eps3| < 1 by a factor 1.08.
+    const jp = body.results.find((r) => r.slug === "johannsen-psaltis");
+    expect(jp?.upper?.value).toBeCloseTo(54 * U, 8);
+    expect(jp?.verdict).toBe("outside_validity");
+    expect(jp?.upper?.conditions[0]?.factor).toBeCloseTo(1.08, 6);
+    // The theory-agnostic entry returns the bound itself.
+    const generic = body.results.find((r) => r.slug === "ringdown-deviation");
+    expect(generic?.upper?.value).toBeCloseTo(U, 10);
+    // The Kerr mode at the remnant: detector-frame 67.5 M_sun, chi 0.68 (Berti, Cardoso & Will 2006 fit, F = 1.5251 - 1.1568 (0.32)^0.1292).
+    const F = 1.5251 - 1.1568 * 0.32 ** 0.1292;
+    expect(body.qnm.frequency_hz).toBeCloseTo(F / (2 * Math.PI * 67.5 * 4.925490947641267e-6), 6);
+    expect(body.remnant.M_f_source).toBeCloseTo(67.5 / 1.09, 10);
+  });
+
+  it("when an interval on df is given, then a signed coupling gets a signed interval", async () => {
+    // df = -alpha13/27 in [-0.01, 0.03] => alpha13 in [-0.81, 0.27] (derived).
+    const body = await convert({ bound: { parameter: "qnm_dfreq", interval: [-0.01, 0.03], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.68, frame: "source" }, theories: ["johannsen"] });
+    const j = body.results[0]!;
+    expect(j.lower?.value).toBeCloseTo(-0.81, 8);
+    expect(j.upper?.value).toBeCloseTo(0.27, 8);
+    expect(body.qnm.frame).toBe("source");
+  });
+
+  it("when a bound on the damping time is given with a binary, then the remnant comes from the fits and the mapping dtau = alpha13/27 applies", async () => {
+    const body = await convert({ bound: { parameter: "qnm_dtau", upper: 0.03, credibility: 0.9 }, binary: { m1: 36, m2: 29, frame: "source" } });
+    // Husa et al. 2016: chi_f = 0.6800 for 36 + 29 non-spinning (our own computation).
+    expect(body.remnant.from).toBe("fit");
+    expect(body.remnant.chi_f).toBeCloseTo(0.68, 4);
+    expect(body.remnant.chi_f_fit_spread).toBeLessThan(2e-4);
+    const j = body.results.find((r) => r.slug === "johannsen");
+    expect(j?.upper?.value).toBeCloseTo(27 * 0.03, 8);
+    // The Johannsen-Psaltis entry has no damping mapping (lambda unchanged at first order): not listed.
+    expect(body.results.find((r) => r.slug === "johannsen-psaltis")).toBeUndefined();
+  });
+
+  it("when a theory without a ringdown mapping is asked for, then it is not applicable with the reason", async () => {
+    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.68, frame: "source" }, theories: ["edgb"] });
+    expect(body.results[0]?.status).toBe("not_applicable");
+    expect(body.results[0]?.reason).toMatch(/no ringdown mapping/);
+  });
+
+  it("when the input is bad, then 400 names the field", async () => {
+    const cases: [object, string][] = [
+      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 1, frame: "source" } }, "remnant.chi_f"],
+      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "detector" } }, "remnant.z"],
+      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, interval: [-1, 1], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.upper"],
+      [{ bound: { parameter: "qnm_dfreq", interval: [0.1, 0.2], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.interval"],
+      [{ bound: { parameter: "qnm_dfreq", mode: "550", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.mode"],
+      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 } }, "remnant"],
+      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" }, theories: ["nope"] }, "theories"],
+    ];
+    for (const [body, field] of cases) {
+      const res = await request(app).post("/api/v1/convert/ringdown").send(body);
+      expect(res.status, JSON.stringify(body)).toBe(400);
+      expect(Object.keys(res.body.error.fields ?? {}), JSON.stringify(res.body)).toContain(field);
+    }
+  });
+});
