@@ -187,6 +187,14 @@ describe("the second batch of catalogue entries (seed step catalogue-wave2)", ()
     expect(derived).toBe(THEORIES_WAVE2.reduce((n, e) => n + e.mappings.length, 0) - 2);
   });
 
+  it("when the ringdown step published the Johannsen-Psaltis inspiral, then its energy and flux derivation was re-derived", () => {
+    // E = E_GR [1 + eps3 v^4], F = F_GR [1 - 2 eps3 v^4] (test body in the static metric, derived): beta = (75/64) eps3 eta^(-4/5).
+    const t = details.get("johannsen-psaltis") as TheoryDetail;
+    const inspiral = t.mappings.find((m) => m.kind === "inspiral_phase") as TheoryMapping;
+    expect(inspiral.checks.find((c) => c.name === "derivation")).toMatchObject({ ok: true });
+    expect(evaluate(t, inspiral, { eps3: 0.3 }) / energyBalance(2, 0.3, -0.6) - 1).toBeLessThan(1e-12);
+  });
+
   it("when a dipole term depends on no property of the bodies, then the symmetry check says so as a warning", () => {
     const t = details.get("vector-charges") as TheoryDetail;
     expect(t.mappings[0]?.checks.find((c) => c.name === "symmetry")).toMatchObject({ ok: true, severity: "warning" });
