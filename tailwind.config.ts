@@ -10,9 +10,9 @@ export default {
     extend: {
       colors: {
         paper: { DEFAULT: "#f7f4ec", deep: "#efe9dc", edge: "#ddd4c2" },
-        ink: { DEFAULT: "#1d2528", soft: "#4a5558", faint: "#7b8588" },
+        ink: { DEFAULT: "#1d2528", soft: "#4a5558", faint: "#5a6467" },
         sea: { DEFAULT: "#24484a", light: "#3c6b6c", wash: "#dde8e4" },
-        amber: { DEFAULT: "#9a6412", wash: "#f6ead0" },
+        amber: { DEFAULT: "#7f520f", wash: "#f6ead0" },
         brick: { DEFAULT: "#8f3a2c", wash: "#f4dfd8" },
         moss: { DEFAULT: "#4d6b2f", wash: "#e4ecd6" },
       },

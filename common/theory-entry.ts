@@ -57,7 +57,8 @@ export type SourceStatus = (typeof SOURCE_STATUSES)[number];
 
 export const VALIDITY_KINDS = ["hard", "rule_of_thumb"] as const;
 export const DERIVATION_KINDS = ["energy_flux", "frequency_drift", "propagation"] as const;
-export const BODY_RULE_KINDS = ["charge", "derived_for"] as const;
+/** charge: which bodies carry the charge; derived_for: a caution for other bodies; only_for: other bodies are not covered at all. */
+export const BODY_RULE_KINDS = ["charge", "derived_for", "only_for"] as const;
 export const BODY_TYPES = ["bh", "ns"] as const;
 export const BOUND_SIDES = ["upper", "lower"] as const;
 /** Where a coupling may lie physically: x > 0, x >= 0, or either sign. */
@@ -204,6 +205,20 @@ export const quotedFormSchema = z.object({
   alpha_md: z.number().finite().optional(),
 });
 
+/**
+ * An editor's retirement of an entry, a coupling or a mapping: it leaves translations and forecasts but
+ * stays readable with its history. Set only through the retire and restore actions (a submission's own
+ * value is replaced by the catalogue's when it is published).
+ */
+export const retirementSchema = z.object({
+  reason: text(1000),
+  /** ISO 8601 time of the retirement. */
+  at: z.string().max(40),
+  /** Login of the editor who retired it. */
+  by: z.string().max(80).optional(),
+});
+export type Retirement = z.infer<typeof retirementSchema>;
+
 export const couplingSchema = z.object({
   symbol: symbol,
   latex: text(200),
@@ -221,6 +236,7 @@ export const couplingSchema = z.object({
   range: z.enum(COUPLING_RANGES).optional(),
   /** Value of the coupling in general relativity (zero for most; infinity for omega_BD, lambda_g). */
   gr_value: z.enum(GR_VALUES).optional(),
+  retired: retirementSchema.optional(),
 });
 
 export const definitionSchema = z.object({
@@ -262,7 +278,7 @@ export const derivationSchema = z.object({
 });
 
 export const bodyRuleSchema = z.object({
-  /** "charge": which bodies carry the charge; "derived_for": which bodies the formula was derived for. */
+  /** "charge": which bodies carry the charge; "derived_for": which bodies the formula was derived for (others get a caution); "only_for": the mapping does not apply to other bodies. */
   kind: z.enum(BODY_RULE_KINDS),
   description: text(1000),
   bodies: z.array(z.enum(BODY_TYPES)).max(2).optional(),
@@ -300,12 +316,15 @@ export const mappingObject = z.object({
     gimr_equivalent: z.object({ k: z.number().finite(), expression: expression, source_status: z.enum(SOURCE_STATUSES) }).optional(),
     body_rules: z.array(bodyRuleSchema).max(20).default([]),
     validity: z.array(validityConditionSchema).max(20).default([]),
+    /** Shown beside every translation with this mapping, where the number can mislead. */
+    caution: optionalText(1000),
     source_status: z.enum(SOURCE_STATUSES).default("confirmed"),
     /** Keys of the references this formula comes from. */
     references: z.array(referenceKey).max(20).default([]),
     /** Equation or table of the first reference. */
     locator: optionalText(200),
     notes: optionalText(2000),
+    retired: retirementSchema.optional(),
 });
 
 export const mappingSchema = mappingObject.superRefine((m, ctx) => {
@@ -314,6 +333,9 @@ export const mappingSchema = mappingObject.superRefine((m, ctx) => {
     }
     if (m.kind === "inspiral_phase" && m.b === undefined) ctx.addIssue({ code: "custom", path: ["b"], message: "is required for an inspiral_phase mapping" });
     if (m.kind === "inspiral_amplitude" && m.a === undefined) ctx.addIssue({ code: "custom", path: ["a"], message: "is required for an inspiral_amplitude mapping" });
+    if ((m.kind === "ringdown_frequency" || m.kind === "ringdown_damping") && m.mode === undefined) {
+      ctx.addIssue({ code: "custom", path: ["mode"], message: "is required for a ringdown mapping: the quasinormal mode (l, m, n), e.g. (2, 2, 0)" });
+    }
   });
 
 export const referenceBoundSchema = z.object({
@@ -352,6 +374,7 @@ export const theoryEntryObject = z.object({
   mappings: z.array(mappingSchema).min(1, "needs at least one mapping").max(40),
   references: z.array(referenceInputSchema).min(1, "needs at least one reference").max(100),
   reference_bounds: z.array(referenceBoundSchema).max(50).default([]),
+  retired: retirementSchema.optional(),
 });
 
 /** Keys and symbols that parts of an entry point at must exist, and names must be unique. */
@@ -377,10 +400,15 @@ export const theoryEntrySchema = theoryEntryObject.superRefine((e, ctx) => {
   });
   e.definitions.forEach((d, i) => claim(d.symbol, `definition ${i}`, ["definitions", i, "symbol"]));
   const couplingSymbols = new Set(e.couplings.map((c) => c.symbol));
+  const retiredCouplings = new Set(e.couplings.filter((c) => c.retired).map((c) => c.symbol));
   e.mappings.forEach((m, i) => {
     m.references.forEach((k, j) => cite(k, ["mappings", i, "references", j]));
     if (m.coupling !== undefined && !couplingSymbols.has(m.coupling)) {
       ctx.addIssue({ code: "custom", path: ["mappings", i, "coupling"], message: `"${m.coupling}" is not a coupling of this entry` });
+    }
+    const constrained = m.coupling ?? e.couplings[0]?.symbol;
+    if (!m.retired && constrained !== undefined && retiredCouplings.has(constrained)) {
+      ctx.addIssue({ code: "custom", path: ["mappings", i, "coupling"], message: `constrains the retired coupling "${constrained}": retire this mapping too, or restore the coupling` });
     }
     for (const held of Object.keys(m.held_fixed ?? {})) {
       if (!couplingSymbols.has(held)) ctx.addIssue({ code: "custom", path: ["mappings", i, "held_fixed", held], message: `"${held}" is not a coupling of this entry` });
@@ -406,16 +434,22 @@ export const checkResultSchema = z.object({
   /** Short machine name: parse, symbols, dimension, ppe_order, derivation, validity ... */
   name: z.string(),
   ok: z.boolean(),
-  severity: z.enum(["error", "warning", "info"]),
+  /**
+   * "inconclusive": the check could not finish in its time limit. Not a failure (it says nothing
+   * about the expression); it runs again on the next save, and an entry with one cannot be accepted.
+   */
+  severity: z.enum(["error", "warning", "info", "inconclusive"]),
   message: z.string(),
 });
 export type CheckResult = z.infer<typeof checkResultSchema>;
 
 export const checksReportSchema = z.object({
-  /** True when no check failed with severity "error". */
+  /** True when no check failed with severity "error" and none is inconclusive. */
   ok: z.boolean(),
   failures: z.number().int(),
   warnings: z.number().int(),
+  /** Checks stopped by a time limit (reports stored before this count existed have none). */
+  inconclusive: z.number().int().optional(),
   results: z.array(checkResultSchema),
   checked_at: z.string(),
 });

@@ -3,6 +3,7 @@ import { createApp, type AppDeps } from "./app.ts";
 import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
 import { createLogger } from "./logger.ts";
+import { closeForecastPool } from "./features/forecasts/pool.ts";
 import { closeSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
 
 export interface RunningServer {
@@ -48,6 +49,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
   getSymbolicPool()
     .warm()
     .catch((err: unknown) => logger.warn({ err }, "symbolic workers did not warm up"));
+  app.locals.checkPool.warm().catch((err: unknown) => logger.warn({ err }, "check workers did not warm up"));
   const addr = server.address();
   const port = typeof addr === "object" && addr ? addr.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
@@ -59,7 +61,10 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      await app.locals.checkPool.close();
+      await app.locals.jobQueue.stop();
       await closeSymbolicPool();
+      await closeForecastPool();
       if (!extra.db) await db.destroy();
     })());
   return { server, url, close };

@@ -6,6 +6,7 @@ export const paths = {
   adminUsers: () => "/admin/people",
   apiTokens: () => "/account/tokens",
   translate: () => "/translate",
+  consistency: () => "/consistency",
   sheets: () => "/sheets",
   sheet: (id: number) => `/sheets/${id}`,
   sharedSheet: (token: string) => `/shared/${encodeURIComponent(token)}`,
@@ -29,6 +30,11 @@ function qs(params: Record<string, string | number | boolean | undefined>): stri
 
 export const apiPaths = {
   health: () => "/api/health",
+  /** The machine-readable API document, generated from the route table. */
+  openapi: () => "/api/v1/openapi.json",
+  consistency: () => "/api/v1/consistency",
+  consistencyCoupling: () => "/api/v1/consistency/coupling",
+  convertRingdown: () => "/api/v1/convert/ringdown",
   me: () => "/api/v1/me",
   session: () => "/api/v1/session",
   csrf: () => "/api/v1/csrf",
@@ -53,6 +59,7 @@ export const apiPaths = {
   theories: (filters: Record<string, string | number | undefined> = {}) => `/api/v1/theories${qs(filters)}`,
   theory: (slug: string) => `/api/v1/theories/${encodeURIComponent(slug)}`,
   theoryRevisions: (slug: string) => `/api/v1/theories/${encodeURIComponent(slug)}/revisions`,
+  theoryRetirement: (slug: string, action: "retire" | "restore") => `/api/v1/theories/${encodeURIComponent(slug)}/${action}`,
   theoryRevision: (slug: string, n: number) => `/api/v1/theories/${encodeURIComponent(slug)}/revisions/${n}`,
   submissions: (filters: { mine?: boolean; status?: string } = {}) => `/api/v1/submissions${qs({ mine: filters.mine ? 1 : undefined, status: filters.status })}`,
   submission: (id: number) => `/api/v1/submissions/${id}`,

@@ -133,7 +133,8 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     expect(tex.text).toContain("\\toprule");
     expect(tex.text).toContain("\\midrule");
     expect(tex.text).toContain("\\bottomrule");
-    expect(tex.text).toMatch(/\\sqrt\{\\alpha\} \\le 4\.07\\times10\^\{0\}/);
+    // sqrt(alpha) = 4.07 km, written to two figures in the EdGB row (symbol with its unit, then the limit).
+    expect(tex.text).toMatch(/EdGB & \$\\sqrt\{\\alpha\}\$ \[\$\\mathrm\{km\}\$\] & \$\\le 4\.1\$/);
     expect(tex.text).toMatch(/90\\% credibility/);
     const bib = await downloaded(page, () => page.getByTestId("export-bibtex").click());
     expect(bib.name).toBe("harrier-wren-test-sheet.bib");

@@ -9,6 +9,7 @@ import { Badge } from "../../components/ui/badge.tsx";
 import { CheckBadge } from "../../components/ui/check-list.tsx";
 import { changesFromDiff, DiffView } from "../../components/ui/diff-view.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
+import { ScrollBox } from "../../components/ui/scroll-box.tsx";
 import { paths } from "../../lib/paths.ts";
 
 function Review({ id }: { id: number }) {
@@ -22,7 +23,9 @@ function Review({ id }: { id: number }) {
       <nav aria-label="Breadcrumb" className="text-sm mb-2">
         <Link to={paths.reviewQueue()}>Review queue</Link> <span className="text-ink-faint">/</span> <span className="text-ink-soft">#{s.id}</span>
       </nav>
-      <h1 className="text-3xl leading-tight">{s.name}</h1>
+      <h1 className="text-3xl leading-tight" data-page-title={`Review of submission ${s.id}: ${s.name}`}>
+        {s.name}
+      </h1>
       <p className="mt-1 flex flex-wrap items-center gap-3 text-sm text-ink-soft tabular-nums">
         <span>by {s.author.name}</span>
         <Badge tone="info">{s.status.replace("_", " ")}</Badge>
@@ -38,9 +41,9 @@ function Review({ id }: { id: number }) {
           {s.diff && (
             <section>
               <h2 className="text-xl mb-2">Changes against revision {s.target_revision}</h2>
-              <div className="overflow-x-auto rounded border border-paper-edge bg-white/40 p-3">
+              <ScrollBox label={`Changes against revision ${s.target_revision}`} className="rounded border border-paper-edge bg-white/40 p-3">
                 <DiffView changes={changesFromDiff(s.diff)} testId="review-diff" />
-              </div>
+              </ScrollBox>
             </section>
           )}
           <section>

@@ -16,7 +16,9 @@ export function Component() {
     <article className="flex flex-col gap-6" data-testid="shared-sheet">
       <header className="flex flex-col gap-1">
         <p className="text-sm uppercase tracking-wide text-ink-faint">Shared sheet · read-only</p>
-        <h1 className="text-3xl">{sheet.name}</h1>
+        <h1 className="text-3xl" data-page-title={`Shared sheet: ${sheet.name}`}>
+          {sheet.name}
+        </h1>
         <p className="text-sm text-ink-faint">
           by {sheet.owner.name} · version {sheet.version} · updated {new Date(sheet.updated_at).toLocaleString()}
         </p>

@@ -53,7 +53,9 @@ function EditSubmission({ id }: { id: number }) {
   const editable = (isAuthor && AUTHOR_EDITABLE.has(s.status)) || (hasRole("editor") && EDITOR_EDITABLE.has(s.status));
   return (
     <>
-      <h1 className="text-3xl mb-1">{s.name}</h1>
+      <h1 className="text-3xl mb-1" data-page-title={`Submission ${s.id}: ${s.name}`}>
+        {s.name}
+      </h1>
       <p className="mb-4 text-sm text-ink-soft tabular-nums">
         Submission {s.id} by {s.author.name} · {s.status.replace("_", " ")} · version {s.version}
         {s.target_slug ? ` · changes “${s.target_slug}”` : " · a new entry"}

@@ -1,13 +1,17 @@
 import { flexRender, type Table } from "@tanstack/react-table";
 import type { ReactNode } from "react";
+import { ScrollBox } from "./scroll-box.tsx";
 
 interface Props<Row> {
   table: Table<Row>;
-  caption: ReactNode;
+  caption: string;
   /** Shown in place of the body when there are no rows. */
   empty?: ReactNode;
   rowTestId?: (row: Row) => string;
 }
+
+// The first column (the theory, the event) stays in view while a wide table scrolls sideways.
+const STICKY = "sticky left-0 z-[1] shadow-[1px_0_0_var(--color-paper-edge)]";
 
 const sortLabel = { asc: "ascending", desc: "descending" } as const;
 
@@ -19,7 +23,7 @@ export function DataTable<Row>({ table, caption, empty, rowTestId }: Props<Row>)
   const rows = table.getRowModel().rows;
   const columns = table.getVisibleLeafColumns().length;
   return (
-    <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+    <ScrollBox label={caption} className="rounded border border-paper-edge bg-white/40">
       <table className="w-full border-collapse text-[0.95rem]">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-paper-deep text-left text-sm">
@@ -34,7 +38,7 @@ export function DataTable<Row>({ table, caption, empty, rowTestId }: Props<Row>)
                     key={header.id}
                     scope="col"
                     aria-sort={sorted ? sortLabel[sorted] : canSort ? "none" : undefined}
-                    className="border-b border-paper-edge px-3 py-2 font-semibold text-ink whitespace-nowrap"
+                    className={`border-b border-paper-edge px-3 py-2 font-semibold text-ink whitespace-nowrap ${header.index === 0 ? STICKY : ""} ${header.index === 0 ? "bg-paper-deep" : ""}`}
                   >
                     {canSort ? (
                       <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 hover:text-sea">
@@ -62,8 +66,8 @@ export function DataTable<Row>({ table, caption, empty, rowTestId }: Props<Row>)
           ) : (
             rows.map((row) => (
               <tr key={row.id} data-testid={rowTestId?.(row.original)} className="border-b border-paper-edge/70 last:border-b-0 align-top hover:bg-paper-deep/40">
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2">
+                {row.getVisibleCells().map((cell, i) => (
+                  <td key={cell.id} className={`px-3 py-2 ${i === 0 ? `${STICKY} bg-paper` : ""}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}
@@ -72,6 +76,6 @@ export function DataTable<Row>({ table, caption, empty, rowTestId }: Props<Row>)
           )}
         </tbody>
       </table>
-    </div>
+    </ScrollBox>
   );
 }

@@ -1,5 +1,6 @@
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { katexIfLoaded, loadKatex, renderTex } from "../../lib/katex.ts";
+import { useOverflowing } from "./scroll-box.tsx";
 
 interface Props {
   tex: string;
@@ -12,6 +13,9 @@ interface Props {
 /** One formula rendered by KaTeX (loaded lazily). Invalid TeX shows the source and KaTeX's reason. */
 export function MathTex({ tex, display = false, label, className = "" }: Props) {
   const [katex, setKatex] = useState(katexIfLoaded);
+  const box = useRef<HTMLDivElement & HTMLSpanElement>(null);
+  // A formula wider than its box scrolls; it then takes a tab stop so the keyboard can scroll it.
+  const overflowing = useOverflowing(box);
   useEffect(() => {
     if (katex) return;
     let live = true;
@@ -24,10 +28,11 @@ export function MathTex({ tex, display = false, label, className = "" }: Props) 
   }, [katex]);
 
   const Tag = display ? "div" : "span";
+  const scrollProps = overflowing ? { tabIndex: 0, role: "group", "aria-label": label ?? "formula" } : {};
   const base = display ? "block overflow-x-auto py-1" : "inline-block max-w-full overflow-x-auto align-middle";
   if (!katex) {
     return (
-      <Tag className={`${base} font-mono text-sm text-ink-soft ${className}`} aria-busy="true">
+      <Tag ref={box} className={`${base} font-mono text-sm text-ink-soft ${className}`} aria-busy="true">
         {label ?? tex}
       </Tag>
     );
@@ -35,6 +40,8 @@ export function MathTex({ tex, display = false, label, className = "" }: Props) 
   const rendered = renderTex(katex, tex, display);
   return (
     <Tag
+      ref={box}
+      {...scrollProps}
       className={`${base} ${className}`}
       data-tex={tex}
       title={rendered.error ? `Not valid TeX: ${rendered.error}` : undefined}

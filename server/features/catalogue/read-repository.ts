@@ -1,7 +1,10 @@
 import type {
   CheckResult,
+  COUPLING_RANGES,
+  GR_VALUES,
   QUOTED_FORMS,
   StoredReference,
+  StoredRetirement,
   TheoryDetail,
   TheoryMapping,
   TheorySummary,
@@ -11,7 +14,18 @@ import { listReferencesOfTheories, listTheoryReferences } from "../references/re
 
 /** Reads of the accepted catalogue, from the normalised tables. Plain objects out. */
 
-interface TheoryRow {
+interface RetiredColumns {
+  retired_at: Date | null;
+  retired_reason: string | null;
+  retired_by: string | null;
+}
+
+/** The retirement as the API shows it, or null for a live row. */
+function retirementOf(r: RetiredColumns): StoredRetirement {
+  return r.retired_at ? { reason: r.retired_reason ?? "", at: r.retired_at.toISOString(), by: r.retired_by } : null;
+}
+
+interface TheoryRow extends RetiredColumns {
   id: number;
   slug: string;
   name: string;
@@ -28,7 +42,7 @@ interface TheoryRow {
 
 // Row shapes of the normalised tables (written by write-repository.ts).
 type Source = TheoryMapping["source_status"];
-interface CouplingRow {
+interface CouplingRow extends RetiredColumns {
   id: number;
   theory_id: number;
   symbol: string;
@@ -42,6 +56,8 @@ interface CouplingRow {
   quoted_alpha_md: number | null;
   description: string | null;
   convention: string | null;
+  range: (typeof COUPLING_RANGES)[number] | null;
+  gr_value: (typeof GR_VALUES)[number] | null;
 }
 interface ConventionRow {
   coupling_id: number;
@@ -59,7 +75,7 @@ interface DefinitionRow {
   latex: string;
   description: string | null;
 }
-interface MappingRow {
+interface MappingRow extends RetiredColumns {
   id: number;
   theory_id: number;
   kind: TheoryMapping["kind"];
@@ -79,6 +95,7 @@ interface MappingRow {
   source_status: Source;
   locator: string | null;
   notes: string | null;
+  caution: string | null;
   checks: CheckResult[];
   checks_ok: boolean;
 }
@@ -171,10 +188,10 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
   const theories = await q;
   if (!theories.length) return [];
   const ids = theories.map((t) => t.id);
-  type MappingBrief = Pick<MappingRow, "theory_id" | "kind" | "b" | "a" | "pn_order">;
+  type MappingBrief = Pick<MappingRow, "theory_id" | "kind" | "b" | "a" | "pn_order" | "retired_at">;
   type CouplingBrief = Pick<CouplingRow, "theory_id" | "symbol" | "latex" | "unit">;
   const [mappings, couplings, refs] = await reads<[MappingBrief[], CouplingBrief[], Map<number, StoredReference[]>]>(db, [
-    () => db("mappings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<MappingBrief[]>("theory_id", "kind", "b", "a", "pn_order"),
+    () => db("mappings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<MappingBrief[]>("theory_id", "kind", "b", "a", "pn_order", "retired_at"),
     () => db("couplings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<CouplingBrief[]>("theory_id", "symbol", "latex", "unit"),
     () => listReferencesOfTheories(db, ids),
   ]);
@@ -190,8 +207,9 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
       updated_at: t.updated_at.toISOString(),
       source_to_be_confirmed: t.needs_source_confirmation,
       couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, unit })),
-      mappings: own.map(({ kind, b, a, pn_order }) => ({ kind, b, a, pn_order })),
+      mappings: own.map(({ kind, b, a, pn_order, retired_at }) => ({ kind, b, a, pn_order, retired: retired_at !== null })),
       references: refs.get(t.id) ?? [],
+      retired: retirementOf(t),
     };
   });
 }
@@ -267,8 +285,10 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
       references: mappingRefs.filter((r) => r.mapping_id === m.id).flatMap((r) => ref(r.literature_id) ?? []),
       locator: m.locator,
       notes: m.notes,
+      caution: m.caution ?? null,
       checks,
       checks_ok: m.checks_ok,
+      retired: retirementOf(m),
     };
   });
 
@@ -292,6 +312,8 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
         : null,
       description: c.description,
       convention: c.convention,
+      range: c.range,
+      gr_value: c.gr_value,
       conventions: conventions
         .filter((cv) => cv.coupling_id === c.id)
         .map((cv) => ({
@@ -303,6 +325,7 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
           source_status: cv.source_status,
           note: cv.note,
         })),
+      retired: retirementOf(c),
     })),
     definitions: definitions.map((d) => ({ symbol: d.symbol, expression: d.expression, latex: d.latex, description: d.description })),
     mappings: mappingViews,
@@ -321,5 +344,6 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
       note: b.note,
     })),
     source_to_be_confirmed: t.needs_source_confirmation || mappingViews.some((m) => m.source_to_be_confirmed),
+    retired: retirementOf(t),
   };
 }

@@ -1,6 +1,7 @@
 import type { TheoryDetail } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { sciText } from "../../../components/ui/text-format.ts";
+import { ScrollBox } from "../../../components/ui/scroll-box.tsx";
 import { authorList, unitLabel } from "./format.ts";
 
 type Bound = TheoryDetail["reference_bounds"][number];
@@ -8,7 +9,7 @@ type Bound = TheoryDetail["reference_bounds"][number];
 /** Published limits on the couplings, as their papers quote them. */
 export function ReferenceBounds({ bounds }: { bounds: Bound[] }) {
   return (
-    <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+    <ScrollBox label="Published bounds" className="rounded border border-paper-edge bg-white/40">
       <table className="w-full border-collapse text-[0.95rem] tabular-nums">
         <caption className="sr-only">Published bounds</caption>
         <thead className="bg-paper-deep text-left text-sm">
@@ -47,6 +48,6 @@ export function ReferenceBounds({ bounds }: { bounds: Bound[] }) {
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollBox>
   );
 }

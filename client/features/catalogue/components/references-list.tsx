@@ -48,7 +48,7 @@ function ReferenceItem({ r }: { r: StoredReference }) {
           </a>
         )}
         {r.doi && (
-          <a className="ml-2 text-sm" href={`https://doi.org/${r.doi}`} rel="noreferrer noopener" target="_blank">
+          <a className="ml-2 text-sm break-all" href={`https://doi.org/${r.doi}`} rel="noreferrer noopener" target="_blank">
             doi:{r.doi}
           </a>
         )}

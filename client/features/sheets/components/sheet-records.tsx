@@ -2,17 +2,22 @@ import type { ConvertResult } from "../../../../common/convert.ts";
 import type { Sheet, SheetRecord } from "../../../../common/sheets.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
+import { MathTex } from "../../../components/ui/math-tex.tsx";
+import { ScrollBox } from "../../../components/ui/scroll-box.tsx";
+import { sciText, unitLabel } from "../../../components/ui/text-format.ts";
 
 /** A sheet's records and their stored translations, read-only (owner and shared readers alike). */
 
-function num(x: number): string {
-  const a = Math.abs(x);
-  return a !== 0 && (a < 1e-3 || a >= 1e4) ? x.toExponential(2).replace("e", "×10^").replace("+", "") : Number(x.toPrecision(3)).toString();
-}
+const num = (x: number) => sciText(x, 3);
+const unit = (u: string) => (u.trim() === "1" || u.trim() === "" ? "" : unitLabel(u));
 
 function boundText(r: SheetRecord): string {
   const b = r.bound;
-  const what = b.parameter === "ppe_beta" ? `|β| ≤ ${num(b.upper)} at b = ${b.b}${b.sign_convention === "minus" ? " (exp(−iΨ))" : ""}` : `|δφ_${b.k}| ≤ ${num(b.upper)}`;
+  const symbol = b.parameter === "ppe_beta" ? "β" : `δφ_${b.k}`;
+  const [lo, hi] = b.interval ?? [null, null];
+  const value =
+    b.upper !== undefined ? `|${symbol}| ≤ ${num(b.upper)}` : lo !== null && hi !== null ? `${symbol} ∈ [${num(lo)}, ${num(hi)}]` : lo !== null ? `${symbol} ≥ ${num(lo)}` : `${symbol} ≤ ${num(hi ?? Number.NaN)}`;
+  const what = b.parameter === "ppe_beta" ? `${value} at b = ${b.b}${b.sign_convention === "minus" ? " (exp(−iΨ))" : ""}` : value;
   return `${what}, ${Math.round(b.credibility * 1000) / 10}% credibility`;
 }
 
@@ -78,10 +83,11 @@ export function SheetRecords({ sheet, onRemove, busy = false }: Props) {
             </p>
           )}
           {r.notes && <p className="mt-1 text-sm italic text-ink-soft">{r.notes}</p>}
-          <table className="mt-3 w-full border-collapse text-sm">
+          <ScrollBox label={`Limits from ${r.label}`} className="mt-3">
+          <table className="w-full border-collapse text-sm">
             <thead className="text-left text-ink-soft">
               <tr>
-                <th scope="col" className="py-1 pr-3 font-semibold">Theory</th>
+                <th scope="col" className="sticky left-0 bg-paper py-1 pr-3 font-semibold">Theory</th>
                 <th scope="col" className="py-1 pr-3 font-semibold">Limit</th>
                 <th scope="col" className="py-1 pr-3 font-semibold">Validity</th>
                 <th scope="col" className="py-1 font-semibold">Against published bounds · cautions</th>
@@ -90,12 +96,12 @@ export function SheetRecords({ sheet, onRemove, busy = false }: Props) {
             <tbody>
               {r.translation.results.map((x) => (
                 <tr key={x.theory} className="border-t border-paper-edge align-top">
-                  <td className="py-1 pr-3">{x.theory_name}</td>
+                  <td className="sticky left-0 bg-paper py-1 pr-3 min-w-[7rem]">{x.theory_name}</td>
                   <td className="py-1 pr-3 whitespace-nowrap tabular-nums">
-                    {x.coupling.symbol} {x.coupling.side === "upper" ? "≤" : "≥"} {num(x.coupling.value)} {x.coupling.unit === "1" ? "" : x.coupling.unit}
+                    <MathTex tex={x.coupling.latex} label={x.coupling.symbol} /> {x.coupling.side === "upper" ? "≤" : "≥"} {num(x.coupling.value)} {unit(x.coupling.unit)}
                     {x.also.map((a) => (
                       <span key={a.symbol} className="block text-ink-soft">
-                        {a.symbol} {a.side === "upper" ? "≤" : "≥"} {num(a.value)} {a.unit}
+                        <MathTex tex={a.latex} label={a.symbol} /> {a.side === "upper" ? "≤" : "≥"} {num(a.value)} {unit(a.unit)}
                       </span>
                     ))}
                   </td>
@@ -123,6 +129,7 @@ export function SheetRecords({ sheet, onRemove, busy = false }: Props) {
               )}
             </tbody>
           </table>
+          </ScrollBox>
           {r.translation.not_applicable.length > 0 && (
             <details className="mt-2 text-sm text-ink-soft">
               <summary>{r.translation.not_applicable.length} theories not constrained, and why</summary>

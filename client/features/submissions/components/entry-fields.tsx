@@ -37,7 +37,7 @@ export function EntryFields({ lockSlug }: { lockSlug: boolean }) {
       <div className="md:col-span-2">
         <FormField name="theory.action_latex" label="Action (TeX)" as="textarea" rows={2} options={{ setValueAs: optionalString }} hint="Optional. Rendered below as you type." />
         {action && action.trim() !== "" && (
-          <div className="mt-2 overflow-x-auto rounded border border-paper-edge bg-paper px-3 py-2" aria-label="Action as rendered">
+          <div className="mt-2 overflow-x-auto rounded border border-paper-edge bg-paper px-3 py-2">
             <MathTex display tex={action} />
           </div>
         )}

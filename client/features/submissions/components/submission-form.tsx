@@ -149,7 +149,7 @@ export function SubmissionForm(props: SubmissionFormProps) {
             <SavedChecks checks={checks} />
           </Section>
         )}
-        <div className="sticky bottom-0 z-10 -mx-6 mt-10 border-t border-paper-edge bg-paper-deep/95 backdrop-blur-sm">
+        <div className="sticky bottom-0 z-10 -mx-4 sm:-mx-6 mt-10 border-t border-paper-edge bg-paper-deep/95 backdrop-blur-sm">
           <div className="flex flex-wrap items-center gap-3 px-6 py-3">
             <Button type="submit" kind="secondary" busy={save.isPending && !submit.isPending}>
               Save draft
