@@ -3,7 +3,7 @@ import type { Knex } from "../server/db/knex.ts";
 import { ConflictError } from "../server/errors.ts";
 import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
 import { publishEntry } from "../server/features/catalogue/publish.ts";
-import { checkMapping } from "../server/physics/checks/index.ts";
+import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
 import { THEORIES_WAVE2 } from "./data/theories-wave2.ts";
 import type { SeedStep } from "./index.ts";
 
@@ -15,8 +15,9 @@ import type { SeedStep } from "./index.ts";
  */
 export async function publishWave2Entry(trx: Knex.Transaction, input: TheoryEntryInput, acceptedBy: number | null, now: Date) {
   const entry = theoryEntrySchema.parse(input);
-  guardEntryExpressions(entry, `${entry.slug}.`);
-  const checks = await checkEntry(entry, (m) => checkMapping(m), now);
+  const runner = inProcessCheckRunner();
+  await guardEntryExpressions(entry, runner, "seed", `${entry.slug}.`);
+  const checks = await checkEntry(entry, runner, "seed", now);
   return publishEntry(trx, entry, checks, { targetSlug: null, submissionId: null, authorId: null, acceptedBy, now });
 }
 
