@@ -11,6 +11,8 @@ import {
   VALIDITY_KINDS,
   BODY_RULE_KINDS,
   BODY_TYPES,
+  COUPLING_RANGES,
+  GR_VALUES,
   checkResultSchema,
   checksReportSchema,
   derivationSchema,
@@ -141,6 +143,7 @@ export const theoryMappingSchema = z.object({
   references: z.array(storedReferenceSchema),
   locator: z.string().nullable(),
   notes: z.string().nullable(),
+  caution: z.string().nullable().default(null),
   checks: z.array(checkResultSchema),
   /** No engine check of this mapping (or its validity conditions) failed. */
   checks_ok: z.boolean(),
@@ -158,6 +161,9 @@ export const storedCouplingSchema = z.object({
   convention: z.string().nullable(),
   conventions: z.array(storedConventionSchema),
   retired: storedRetirementSchema,
+  /** Physical range and GR value; null for entries stored before they were declared. */
+  range: z.enum(COUPLING_RANGES).nullable().default(null),
+  gr_value: z.enum(GR_VALUES).nullable().default(null),
 });
 
 export const storedReferenceBoundSchema = z.object({

@@ -1,5 +1,7 @@
 import type {
   CheckResult,
+  COUPLING_RANGES,
+  GR_VALUES,
   QUOTED_FORMS,
   StoredReference,
   StoredRetirement,
@@ -54,6 +56,8 @@ interface CouplingRow extends RetiredColumns {
   quoted_alpha_md: number | null;
   description: string | null;
   convention: string | null;
+  range: (typeof COUPLING_RANGES)[number] | null;
+  gr_value: (typeof GR_VALUES)[number] | null;
 }
 interface ConventionRow {
   coupling_id: number;
@@ -91,6 +95,7 @@ interface MappingRow extends RetiredColumns {
   source_status: Source;
   locator: string | null;
   notes: string | null;
+  caution: string | null;
   checks: CheckResult[];
   checks_ok: boolean;
 }
@@ -280,6 +285,7 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
       references: mappingRefs.filter((r) => r.mapping_id === m.id).flatMap((r) => ref(r.literature_id) ?? []),
       locator: m.locator,
       notes: m.notes,
+      caution: m.caution ?? null,
       checks,
       checks_ok: m.checks_ok,
       retired: retirementOf(m),
@@ -306,6 +312,8 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
         : null,
       description: c.description,
       convention: c.convention,
+      range: c.range,
+      gr_value: c.gr_value,
       conventions: conventions
         .filter((cv) => cv.coupling_id === c.id)
         .map((cv) => ({
