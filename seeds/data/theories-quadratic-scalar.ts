@@ -6,7 +6,7 @@
 import { REFS } from "./references.ts";
 import type { TheoryEntry, ValidityEntry } from "./theory-entry.ts";
 
-/** Horizon regularity / small coupling on each black hole with its own mass (physics.md 2, 5). */
+/** Horizon regularity / small coupling on each black hole with its own mass (the small-coupling conditions quoted with each mapping). */
 function perBlackHoleCoupling(theory: string): ValidityEntry[] {
   return ([1, 2] as const).map((i) => ({
     expression: `16*pi*alpha^2/m${i}^4`,
@@ -84,7 +84,7 @@ export const edgb: TheoryEntry = {
         order: -1,
         A: "0",
         B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
-        note: "dipole flux F = F_GR [1 + B v^-2]; physics.md 2.3 checks this B against beta",
+        note: "dipole flux F = F_GR [1 + B v^-2]; the derivation check compares this B with beta",
       },
       gimr_equivalent: { k: -2, expression: "-(10*pi/21)*alpha^2*(s1/m1^2 - s2/m2^2)^2", source_status: "derived" },
       body_rules: [
@@ -310,7 +310,7 @@ export const scalarDipole: TheoryEntry = {
       ],
       source_status: "derived",
       references: [REFS.yunesPretorius2009.key],
-      notes: "Energy balance and the stationary-phase approximation (physics.md 1.1).",
+      notes: "Energy balance and the stationary-phase approximation (derived).",
     },
   ],
   references: [REFS.yunesPretorius2009, REFS.yunesYagiPretorius2016],

@@ -88,7 +88,7 @@ export interface ValidityEntry {
   readonly applies_to?: readonly BodyKind[];
 }
 
-/** How beta follows from a modified binding energy and flux (physics.md 1.1), for the derive check. */
+/** How beta follows from a modified binding energy and flux (energy balance and stationary phase, derived), for the derive check. */
 export interface DerivationInput {
   readonly kind: "energy_flux" | "frequency_drift" | "propagation";
   /** Relative PN order of the modification. */
@@ -124,7 +124,7 @@ export interface MappingEntry {
   readonly alpha_md?: number;
   readonly frame_note?: string;
   readonly derivation?: DerivationInput;
-  /** The same correction as a gIMR deviation dphi_k (physics.md 1.2), when it has one. */
+  /** The same correction as a gIMR deviation dphi_k (beta = (3/128) phi_k eta^(-k/5) dphi_k at b = k - 5), when it has one. */
   readonly gimr_equivalent?: { readonly k: number; readonly expression: string; readonly source_status: SourceStatus };
   readonly body_rules?: readonly BodyRule[];
   readonly validity?: readonly ValidityEntry[];

@@ -4,6 +4,7 @@ import type { ConvertResult, ReferenceComparison } from "../../../../common/conv
 import { Badge } from "../../../components/ui/badge.tsx";
 import { DataTable } from "../../../components/ui/data-table.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
+import { thresholdText } from "../../../components/ui/text-format.ts";
 import { CautionList } from "./caution-list.tsx";
 import { SciNumber, unitText } from "./sci-number.tsx";
 
@@ -43,7 +44,7 @@ function Validity({ r }: { r: ConvertResult }) {
       {!r.valid ? <Badge tone="fail">not valid</Badge> : failed.length > 0 ? <Badge tone="caution">valid, with caution</Badge> : <Badge tone="ok">valid</Badge>}
       {failed.map((v) => (
         <span key={v.label} className={v.kind === "hard" ? "text-brick" : "text-amber"}>
-          {v.label}: <SciNumber value={v.value ?? NaN} /> &gt; {Number(v.max.toPrecision(3))}
+          {v.label}: <SciNumber value={v.value ?? NaN} /> &gt; {thresholdText(v.max)}
         </span>
       ))}
       {r.validity.length === 0 && <span className="text-ink-faint">no condition stated</span>}

@@ -11,6 +11,7 @@ import { comparableQuantity, CouplingPlot } from "./coupling-plot.tsx";
 import { NotApplicableList } from "./not-applicable-list.tsx";
 import { ResultsTable } from "./results-table.tsx";
 import { TableOverB } from "./table-over-b.tsx";
+import { catalogueVersionText } from "../../../../common/catalogue-version.ts";
 
 /** Every theory the catalogue knows, at the b values it enters at, from whichever answer is at hand. */
 export function theoryMarks(response: ConvertResponse | undefined, table: ConvertTableResponse | undefined): TheoryMark[] {
@@ -68,7 +69,11 @@ export function TranslatePanel({ footer }: Props) {
           </h2>
           <p className="text-sm text-ink-soft">
             {response.bound.b === null ? "This bound has no single ppE exponent." : `At b = ${response.bound.b}, |β| ≤ ${response.bound.beta_max?.toPrecision(3)} in the exp(+iΨ) convention`}
-            {`, ${Math.round(response.bound.credibility * 1000) / 10}% credibility; cosmology H₀ = ${response.cosmology.H0}, Ωₘ = ${response.cosmology.Omega_m}; catalogue revision ${response.catalogue_revision}.`}
+            {`, ${Math.round(response.bound.credibility * 1000) / 10}% credibility; cosmology H₀ = ${response.cosmology.H0}, Ωₘ = ${response.cosmology.Omega_m}; catalogue of `}
+            <span title={`catalogue version ${response.catalogue_revision}`} className="underline decoration-dotted">
+              {catalogueVersionText(response.catalogue_revision)}
+            </span>
+            .
           </p>
           <CautionList cautions={response.cautions} testId="bound-cautions" />
           <ResultsTable results={response.results} onConvention={onConvention} />
