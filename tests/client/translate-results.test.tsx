@@ -43,7 +43,8 @@ describe("<ResultsTable>", () => {
     expect(within(row).getByTestId("limit-edgb").textContent).toMatch(/≤\s*4\.07\s*km/);
     const validity = within(row).getByTestId("validity-edgb").textContent ?? "";
     expect(validity).toMatch(/not valid/);
-    expect(validity).toMatch(/body 2.*4\.65 > 0\.167/);
+    // The EdGB condition 16 pi alpha^2 / m^4 < 1/6 (common practice) is written as the fraction.
+    expect(validity).toMatch(/body 2.*4\.65 > 1\/6/);
     expect(within(row).getByTestId("comparison-edgb").textContent).toMatch(/times weaker than Lyu et al\. 2022/);
     const cautions = within(row).getByTestId("cautions-edgb");
     expect([...cautions.querySelectorAll("li")].map((li) => li.getAttribute("data-caution"))).toEqual(["validity", "validity", "leading_pn", "prior", "one_signed"]);
