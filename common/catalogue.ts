@@ -49,11 +49,16 @@ export const storedReferenceSchema = z.object({
 });
 export type StoredReference = z.infer<typeof storedReferenceSchema>;
 
+/** Set when an editor retired the entry, coupling or mapping: out of translations, still readable. */
+export const storedRetirementSchema = z.object({ reason: z.string(), at: z.string(), by: z.string().nullable() }).nullable();
+export type StoredRetirement = z.infer<typeof storedRetirementSchema>;
+
 export const mappingSummarySchema = z.object({
   kind: z.enum(MAPPING_KINDS),
   b: z.number().nullable(),
   a: z.number().nullable(),
   pn_order: z.number().nullable(),
+  retired: z.boolean(),
 });
 
 export const theorySummarySchema = z.object({
@@ -69,6 +74,7 @@ export const theorySummarySchema = z.object({
   couplings: z.array(z.object({ symbol: z.string(), latex: z.string(), unit: z.string() })),
   mappings: z.array(mappingSummarySchema),
   references: z.array(storedReferenceSchema),
+  retired: storedRetirementSchema,
 });
 export const theoryListResponseSchema = z.object({ theories: z.array(theorySummarySchema) });
 export type TheorySummary = z.infer<typeof theorySummarySchema>;
@@ -138,6 +144,7 @@ export const theoryMappingSchema = z.object({
   checks: z.array(checkResultSchema),
   /** No engine check of this mapping (or its validity conditions) failed. */
   checks_ok: z.boolean(),
+  retired: storedRetirementSchema,
 });
 export type TheoryMapping = z.infer<typeof theoryMappingSchema>;
 
@@ -150,6 +157,7 @@ export const storedCouplingSchema = z.object({
   description: z.string().nullable(),
   convention: z.string().nullable(),
   conventions: z.array(storedConventionSchema),
+  retired: storedRetirementSchema,
 });
 
 export const storedReferenceBoundSchema = z.object({
@@ -183,6 +191,7 @@ export const theoryDetailSchema = z.object({
   reference_bounds: z.array(storedReferenceBoundSchema),
   /** True when any mapping's formula still awaits an editor's check against its source. */
   source_to_be_confirmed: z.boolean(),
+  retired: storedRetirementSchema,
 });
 export type TheoryDetail = z.infer<typeof theoryDetailSchema>;
 
@@ -208,7 +217,10 @@ export const revisionSummarySchema = z.object({
   number: z.number().int(),
   published_at: z.string(),
   submission_id: z.number().int().nullable(),
+  /** Who opened the submission (null for seeded revisions). */
   author: personSchema.nullable(),
+  /** Everyone who wrote a version of the accepted submission (editors' edits included), first contribution first. */
+  authors: z.array(personSchema),
   accepted_by: personSchema.nullable(),
   /** Added + removed + changed paths against the previous revision. */
   change_count: z.number().int(),
@@ -283,6 +295,8 @@ export const submissionDetailSchema = submissionSummarySchema.extend({
   target_revision: z.number().int().nullable(),
   /** Against the target's current accepted revision (null for a new entry). */
   diff: entryDiffSchema.nullable(),
+  /** Everyone who wrote a version so far (the author, and editors who saved a change), first contribution first. */
+  authors: z.array(personSchema),
 });
 export type SubmissionDetail = z.infer<typeof submissionDetailSchema>;
 
@@ -352,3 +366,27 @@ export const bibtexExportQuerySchema = z.object({
 
 export const outboxMessageSchema = z.object({ to: z.string(), subject: z.string(), text: z.string(), date: z.string() });
 export const outboxResponseSchema = z.object({ messages: z.array(outboxMessageSchema) });
+
+// ---------------------------------------------------------------------------------------------
+// Retiring and restoring (editors)
+
+const retireTarget = {
+  /** Retire one coupling (and every mapping that constrains it) instead of the whole entry. */
+  coupling: z.string().regex(/^[A-Za-z][A-Za-z0-9_]*$/, "must be a coupling symbol").max(40).optional(),
+  /** Retire one mapping, by its position in the entry (from 0), instead of the whole entry. */
+  mapping: z.number().int().min(0, "must be a mapping position, from 0").max(1000).optional(),
+};
+export const retirementRequestSchema = z.strictObject({
+  reason: text(1000),
+  ...retireTarget,
+});
+export type RetirementRequest = z.infer<typeof retirementRequestSchema>;
+export const restoreRequestSchema = z.strictObject({ ...retireTarget });
+export type RestoreRequest = z.infer<typeof restoreRequestSchema>;
+export const retirementResponseSchema = z.object({
+  slug: z.string(),
+  revision: z.number().int(),
+  /** What was retired or restored, in words. */
+  target: z.string(),
+  retired: storedRetirementSchema,
+});

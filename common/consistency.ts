@@ -61,3 +61,72 @@ export const consistencyResultSchema = z.object({
   cautions: z.array(z.string()),
 });
 export type ConsistencyResult = z.infer<typeof consistencyResultSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// What coupling would this test exclude (POST /api/v1/consistency/coupling)
+
+const width = z.strictObject({
+  sigma_M_f: num("sigma_M_f").positive("sigma_M_f must be positive"),
+  sigma_chi_f: num("sigma_chi_f").positive("sigma_chi_f must be positive"),
+  rho: num("rho").gt(-1, "|rho| must be below 1, or the covariance matrix is not positive definite").lt(1, "|rho| must be below 1, or the covariance matrix is not positive definite").default(0),
+});
+
+export const couplingExclusionRequestSchema = z
+  .strictObject({
+    theory: z.string().min(1, "theory is required").max(64),
+    binary: z.strictObject({
+      m1: num("m1").positive("m1 must be positive (solar masses)"),
+      m2: num("m2").positive("m2 must be positive (solar masses)"),
+      chi1: num("chi1").gt(-1, "|chi1| must be below 1").lt(1, "|chi1| must be below 1").default(0),
+      chi2: num("chi2").gt(-1, "|chi2| must be below 1").lt(1, "|chi2| must be below 1").default(0),
+      frame: massFrameSchema,
+      z: num("z").min(0, "z must be >= 0").optional(),
+    }),
+    /** Widths of the two remnant estimates (masses in the binary's frame), e.g. from a past analysis or a forecast. */
+    test: z.strictObject({ inspiral: width, merger_ringdown: width }),
+    credibility: num("credibility").gt(0, "credibility must lie strictly between 0 and 1").lt(1, "credibility must lie strictly between 0 and 1").default(0.9),
+    mode: z.enum(["220", "221", "330", "210", "440"], { error: "mode must be one of 220, 221, 330, 210, 440" }).default("220"),
+  })
+  .superRefine((r, ctx) => {
+    if (r.binary.frame === "detector" && r.binary.z === undefined) ctx.addIssue({ code: "custom", path: ["binary", "z"], message: "detector-frame masses need the redshift z" });
+  });
+export type CouplingExclusionRequest = z.output<typeof couplingExclusionRequestSchema>;
+export type CouplingExclusionRequestInput = z.input<typeof couplingExclusionRequestSchema>;
+
+const outcome = z.object({
+  label: z.string(),
+  condition: z.string(),
+  value: z.number().nullable(),
+  max: z.number(),
+  kind: z.enum(["hard", "rule_of_thumb"]),
+  factor: z.number().nullable(),
+  ok: z.boolean().nullable(),
+  reason: z.string().optional(),
+});
+
+export const couplingExclusionResponseSchema = z.object({
+  theory: z.object({ slug: z.string(), name: z.string(), revision: z.number() }),
+  coupling: z.object({ symbol: z.string(), latex: z.string(), unit: z.string() }),
+  remnant: z.object({ M_f: z.number(), chi_f: z.number(), frame: massFrameSchema, chi_f_alternative: z.number() }),
+  credibility: z.number(),
+  /** Covariance of (dM_f/M_f, dchi_f/chi_f) of the test at the GR point. */
+  covariance: z.tuple([point, point]),
+  sides: z.array(
+    z.object({
+      side: z.enum(["negative", "positive"]),
+      /** Smallest |coupling| at which GR is excluded (exact inversion of the Kerr fit), or null. */
+      x: z.number().nullable(),
+      /** The same with the linear (Jacobian) reading of the shifted mode. */
+      x_linear: z.number().nullable(),
+      reason: z.string().optional(),
+      /** Where the linear and exact readings part by more than 10 %. */
+      linear_breaks_at: z.number().nullable(),
+      verdict: z.enum(["valid", "outside_validity", "not_assessed"]),
+      conditions: z.array(outcome),
+    }),
+  ),
+  /** The expected deviation against the coupling, for drawing over the contours. */
+  track: z.array(z.object({ x: z.number(), mean: point, linear_mean: point, gr_quantile: z.number() })),
+  cautions: z.array(z.string()),
+});
+export type CouplingExclusionResponse = z.infer<typeof couplingExclusionResponseSchema>;

@@ -204,6 +204,20 @@ export const quotedFormSchema = z.object({
   alpha_md: z.number().finite().optional(),
 });
 
+/**
+ * An editor's retirement of an entry, a coupling or a mapping: it leaves translations and forecasts but
+ * stays readable with its history. Set only through the retire and restore actions (a submission's own
+ * value is replaced by the catalogue's when it is published).
+ */
+export const retirementSchema = z.object({
+  reason: text(1000),
+  /** ISO 8601 time of the retirement. */
+  at: z.string().max(40),
+  /** Login of the editor who retired it. */
+  by: z.string().max(80).optional(),
+});
+export type Retirement = z.infer<typeof retirementSchema>;
+
 export const couplingSchema = z.object({
   symbol: symbol,
   latex: text(200),
@@ -221,6 +235,7 @@ export const couplingSchema = z.object({
   range: z.enum(COUPLING_RANGES).optional(),
   /** Value of the coupling in general relativity (zero for most; infinity for omega_BD, lambda_g). */
   gr_value: z.enum(GR_VALUES).optional(),
+  retired: retirementSchema.optional(),
 });
 
 export const definitionSchema = z.object({
@@ -306,6 +321,7 @@ export const mappingObject = z.object({
     /** Equation or table of the first reference. */
     locator: optionalText(200),
     notes: optionalText(2000),
+    retired: retirementSchema.optional(),
 });
 
 export const mappingSchema = mappingObject.superRefine((m, ctx) => {
@@ -352,6 +368,7 @@ export const theoryEntryObject = z.object({
   mappings: z.array(mappingSchema).min(1, "needs at least one mapping").max(40),
   references: z.array(referenceInputSchema).min(1, "needs at least one reference").max(100),
   reference_bounds: z.array(referenceBoundSchema).max(50).default([]),
+  retired: retirementSchema.optional(),
 });
 
 /** Keys and symbols that parts of an entry point at must exist, and names must be unique. */
@@ -377,10 +394,15 @@ export const theoryEntrySchema = theoryEntryObject.superRefine((e, ctx) => {
   });
   e.definitions.forEach((d, i) => claim(d.symbol, `definition ${i}`, ["definitions", i, "symbol"]));
   const couplingSymbols = new Set(e.couplings.map((c) => c.symbol));
+  const retiredCouplings = new Set(e.couplings.filter((c) => c.retired).map((c) => c.symbol));
   e.mappings.forEach((m, i) => {
     m.references.forEach((k, j) => cite(k, ["mappings", i, "references", j]));
     if (m.coupling !== undefined && !couplingSymbols.has(m.coupling)) {
       ctx.addIssue({ code: "custom", path: ["mappings", i, "coupling"], message: `"${m.coupling}" is not a coupling of this entry` });
+    }
+    const constrained = m.coupling ?? e.couplings[0]?.symbol;
+    if (!m.retired && constrained !== undefined && retiredCouplings.has(constrained)) {
+      ctx.addIssue({ code: "custom", path: ["mappings", i, "coupling"], message: `constrains the retired coupling "${constrained}": retire this mapping too, or restore the coupling` });
     }
     for (const held of Object.keys(m.held_fixed ?? {})) {
       if (!couplingSymbols.has(held)) ctx.addIssue({ code: "custom", path: ["mappings", i, "held_fixed", held], message: `"${held}" is not a coupling of this entry` });

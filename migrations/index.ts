@@ -4,6 +4,10 @@ import * as accounts from "./20261201000100_accounts.ts";
 import * as catalogue from "./20261201000200_catalogue.ts";
 import * as mail from "./20261201000210_mail.ts";
 import * as sheets from "./20261201000300_sheets.ts";
+import * as revisionAuthors from "./20261202000100_revision_authors.ts";
+import * as retirement from "./20261202000500_retirement.ts";
+import * as forecastCurves from "./20261202001200_forecast_curves.ts";
+import * as analysisJobs from "./20261202003000_analysis_jobs.ts";
 
 /**
  * Every migration, in order. Listed explicitly (not read from the folder) so that the same code runs
@@ -15,4 +19,8 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261201000200_catalogue": catalogue,
   "20261201000210_mail": mail,
   "20261201000300_sheets": sheets,
+  "20261202000100_revision_authors": revisionAuthors,
+  "20261202000500_retirement": retirement,
+  "20261202001200_forecast_curves": forecastCurves,
+  "20261202003000_analysis_jobs": analysisJobs,
 };

@@ -2,6 +2,7 @@
  * npm start, after scripts/start.sh has installed dependencies, started PostgreSQL and built the
  * client: starts the local fakes of hosted services, migrates, seeds the demo data once, serves.
  */
+import { spawn } from "node:child_process";
 import { parseConfig } from "../server/config.ts";
 import { createDb, migrateLatest } from "../server/db/knex.ts";
 import { exitOnFatal, startServer } from "../server/index.ts";
@@ -20,6 +21,8 @@ async function main(): Promise<void> {
   const seeded = await seedSteps(db);
   process.stdout.write(seeded.length ? `Seeded demo data: ${seeded.join(", ")}.\n` : "Demo data already present: kept as is.\n");
   const running = await startServer(config, { db, logger });
+  // One job worker in its own process next to the server (docs/samples-jobs.md); `npm run worker` adds more.
+  const worker = spawn(process.execPath, ["--import", "tsx", "server/jobs/worker-main.ts"], { stdio: "inherit", env: { ...process.env, ...fakes.env } });
   process.stdout.write(`\nDragoman is running at ${running.url}\n${fakes.describe()}Press Ctrl-C to stop.\n`);
 
   let stopping = false;
@@ -27,6 +30,7 @@ async function main(): Promise<void> {
     if (stopping) return;
     stopping = true;
     process.stdout.write("\nStopping Dragoman...\n");
+    worker.kill("SIGTERM");
     await running.close();
     await db.destroy();
     await fakes.close();

@@ -18,7 +18,14 @@ import { convertRoutes } from "./features/convert/routes.ts";
 import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
+import { getForecastPool } from "./features/forecasts/pool.ts";
+import { curvesRepository } from "./features/forecasts/repository.ts";
+import { forecastsRoutes } from "./features/forecasts/routes.ts";
+import { forecastsService } from "./features/forecasts/service.ts";
 import { healthRoutes } from "./features/health/routes.ts";
+import { createJobQueue, type JobQueue } from "./features/jobs/queue.ts";
+import { jobsRoutes } from "./features/jobs/routes.ts";
+import { jobsService } from "./features/jobs/service.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
 import { redactUrl } from "./http/redact-url.ts";
 import { RouteTable } from "./http/route.ts";
@@ -38,10 +45,12 @@ export interface AppDeps {
   clock?: () => Date;
   /** Sends mail from the outbox; default: SMTP as configured (the local sink in development and tests). */
   mailer?: Mailer;
+  /** The background-job queue (pg-boss); default: one on DATABASE_URL, started on first use. */
+  jobQueue?: JobQueue;
 }
 
 export interface DragomanApp extends Express {
-  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher };
+  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue };
 }
 
 /** Builds the Express application. No listen here: server/index.ts and the tests do that. */
@@ -54,6 +63,8 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.devRoutesEnabled = config.DEV_OUTBOX;
   const mailOutbox = createMailOutbox({ db, config, logger, mailer: deps.mailer });
   app.locals.mailOutbox = mailOutbox;
+  const jobQueue = deps.jobQueue ?? createJobQueue(config, { supervise: false });
+  app.locals.jobQueue = jobQueue;
   app.disable("x-powered-by");
   app.set("trust proxy", "loopback");
 
@@ -94,9 +105,12 @@ export function createApp(deps: AppDeps): DragomanApp {
   const translator = convertService(dbCatalogueReader(db));
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
-  table.mount(api, "/api", consistencyRoutes(config));
-  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdownCatalogue(db)), config));
+  table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
+  const ringdown = ringdownCatalogue(db);
+  table.mount(api, "/api", consistencyRoutes(config, ringdown));
+  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
+  table.mount(api, "/api", forecastsRoutes(forecastsService(curvesRepository(db), getForecastPool(), translator), config));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));
   app.use("/api", api);

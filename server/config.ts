@@ -52,6 +52,22 @@ export const configSchema = z
     CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),
     // Largest body (JSON columns or CSV upload) accepted by POST /api/v1/convert/samples (bytes); 32 MiB holds 200 000 samples of six columns.
     CONVERT_SAMPLES_MAX_BYTES: z.coerce.number().int().positive().default(33_554_432),
+    // Background jobs (docs/samples-jobs.md). Signed-in callers get the large limits, anonymous ones the small.
+    JOBS_MAX_BYTES: z.coerce.number().int().positive().default(536_870_912),
+    JOBS_MAX_SAMPLES: z.coerce.number().int().positive().default(10_000_000),
+    JOBS_ANON_MAX_BYTES: z.coerce.number().int().positive().default(33_554_432),
+    JOBS_ANON_MAX_SAMPLES: z.coerce.number().int().positive().default(200_000),
+    JOBS_ANON_PER_HOUR: z.coerce.number().int().positive().default(20),
+    JOBS_RETENTION_HOURS: z.coerce.number().positive().default(72),
+    // A claimed job whose worker has not finished within this time is retried (the worker died or hung).
+    JOBS_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(900),
+    JOBS_RETRY_LIMIT: z.coerce.number().int().min(0).max(10).default(2),
+    // How often workers expire stale claims, reconcile records and delete expired jobs.
+    JOBS_SWEEP_SECONDS: z.coerce.number().int().min(1).default(60),
+    // Above this fraction of rows with a non-finite value in a mapped column, the job fails instead of skipping them.
+    JOBS_MAX_NONFINITE_FRACTION: z.coerce.number().min(0).max(1).default(0.01),
+    // Test-only fault injection: the worker waits this long (ms) after half the samples, so tests can cancel or kill it mid-job.
+    JOBS_TEST_PAUSE_MS: z.coerce.number().int().min(0).default(0),
     SESSION_TTL_HOURS: z.coerce.number().positive().max(24 * 90).default(336),
     // Lifetime of the session that only holds an unfinished sign-in (OAuth state, return path).
     SIGNIN_SESSION_MINUTES: z.coerce.number().positive().max(24 * 60).default(10),
@@ -73,6 +89,7 @@ export const configSchema = z
       if (!c.GITHUB_CLIENT_ID) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_ID"], message: "is required in production" });
       if (!c.GITHUB_CLIENT_SECRET) ctx.addIssue({ code: "custom", path: ["GITHUB_CLIENT_SECRET"], message: "is required in production" });
       // The OAuth callback URL is built from it; the Host header must not decide where GitHub sends people.
+      if (c.JOBS_TEST_PAUSE_MS > 0) ctx.addIssue({ code: "custom", path: ["JOBS_TEST_PAUSE_MS"], message: "is for tests only and must be 0 in production" });
       if (!c.PUBLIC_URL) ctx.addIssue({ code: "custom", path: ["PUBLIC_URL"], message: "is required in production" });
     }
   })

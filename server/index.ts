@@ -3,6 +3,7 @@ import { createApp, type AppDeps } from "./app.ts";
 import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
 import { createLogger } from "./logger.ts";
+import { closeForecastPool } from "./features/forecasts/pool.ts";
 import { closeSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
 
 export interface RunningServer {
@@ -59,7 +60,9 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      await app.locals.jobQueue.stop();
       await closeSymbolicPool();
+      await closeForecastPool();
       if (!extra.db) await db.destroy();
     })());
   return { server, url, close };

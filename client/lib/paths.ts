@@ -55,6 +55,7 @@ export const apiPaths = {
   theories: (filters: Record<string, string | number | undefined> = {}) => `/api/v1/theories${qs(filters)}`,
   theory: (slug: string) => `/api/v1/theories/${encodeURIComponent(slug)}`,
   theoryRevisions: (slug: string) => `/api/v1/theories/${encodeURIComponent(slug)}/revisions`,
+  theoryRetirement: (slug: string, action: "retire" | "restore") => `/api/v1/theories/${encodeURIComponent(slug)}/${action}`,
   theoryRevision: (slug: string, n: number) => `/api/v1/theories/${encodeURIComponent(slug)}/revisions/${n}`,
   submissions: (filters: { mine?: boolean; status?: string } = {}) => `/api/v1/submissions${qs({ mine: filters.mine ? 1 : undefined, status: filters.status })}`,
   submission: (id: number) => `/api/v1/submissions/${id}`,

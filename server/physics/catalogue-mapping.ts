@@ -89,7 +89,7 @@ export function lengthPower(dimension: string): number {
   return m[1] === undefined ? 1 : Number(m[1]);
 }
 
-function symbolTableFor(entry: CatalogueTheory): SymbolTable {
+export function symbolTableFor(entry: CatalogueTheory): SymbolTable {
   const couplings = entry.couplings.map((c) => ({ symbol: c.symbol, dimension: lengthPower(c.dimension) }));
   const declared = new Set(couplings.map((c) => c.symbol));
   const extras = EXTRA_INPUTS.filter((x) => !declared.has(x.symbol));

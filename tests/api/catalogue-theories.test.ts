@@ -33,7 +33,7 @@ describe("GET /api/v1/theories", () => {
     }
     const edgb = body.theories.find((t) => t.slug === "edgb");
     expect(edgb).toMatchObject({ name: expect.stringContaining("Gauss-Bonnet"), family: "quadratic-gravity", revision: 1 });
-    expect(edgb?.mappings).toEqual([{ kind: "inspiral_phase", b: -7, a: null, pn_order: -1 }]);
+    expect(edgb?.mappings).toEqual([{ kind: "inspiral_phase", b: -7, a: null, pn_order: -1, retired: false }]);
     expect(edgb?.references.map((r) => r.arxiv)).toContain("2104.11189");
   });
 

@@ -160,4 +160,54 @@ describe("POST /api/v1/convert/ringdown", () => {
       expect(Object.keys(res.body.error.fields ?? {}), JSON.stringify(res.body)).toContain(field);
     }
   });
+
+  it("POST /api/v1/consistency/coupling: when the Johannsen entry's light-ring shifts meet a test's widths, then the excluded alpha13 follows the same closed form", async () => {
+    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 } };
+    const res = await request(app).post("/api/v1/consistency/coupling").send({ theory: "johannsen", binary: { m1: 39, m2: 32, frame: "detector", z: 0.09 }, test });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const body = res.body;
+    expect(body.coupling.symbol).toBe("alpha13");
+    // df = -a/27, dtau = +a/27 (light ring); the remnant from Husa et al. 2016 in the detector frame.
+    const Mf = body.remnant.M_f;
+    const chi = body.remnant.chi_f;
+    const F = (j: number) => 1.5251 - 1.1568 * (1 - j) ** 0.1292;
+    const Q = (j: number) => 0.7 + 1.4187 * (1 - j) ** -0.499;
+    // Exact inversion written out here (derived): Q(chi') = Q(chi)(1 + df)(1 + dtau), M' = M F(chi')/(F(chi)(1 + df)).
+    const inferred = (a: number) => {
+      const df = -a / 27;
+      const dt = a / 27;
+      const target = Q(chi) * (1 + df) * (1 + dt);
+      let lo = 0;
+      let hi = 0.99;
+      for (let k = 0; k < 80; k += 1) {
+        const mid = (lo + hi) / 2;
+        if (Q(mid) < target) lo = mid;
+        else hi = mid;
+      }
+      return { M: (Mf * F(lo)) / (F(chi) * (1 + df)), chi: lo };
+    };
+    const cov = body.covariance;
+    const det = cov[0][0] * cov[1][1] - cov[0][1] ** 2;
+    const quantile = (a: number) => {
+      const r = inferred(a);
+      const x = (2 * (Mf - r.M)) / (Mf + r.M);
+      const y = (2 * (chi - r.chi)) / (chi + r.chi);
+      return 1 - Math.exp(-((cov[1][1] * x * x - 2 * cov[0][1] * x * y + cov[0][0] * y * y) / det) / 2);
+    };
+    for (const side of body.sides) {
+      expect(side.x).not.toBeNull();
+      expect(quantile(side.x)).toBeCloseTo(0.9, 3);
+      expect(side.verdict).toBe(Math.abs(side.x) <= 1 ? "valid" : "outside_validity");
+    }
+    expect(body.track.length).toBeGreaterThan(50);
+    expect(body.cautions.join(" ")).toMatch(/inspiral bias/);
+    const bad = await request(app).post("/api/v1/consistency/coupling").send({ theory: "edgb", binary: { m1: 39, m2: 32, frame: "source" }, test });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.theory).toMatch(/no ringdown mapping/);
+    const badRho = await request(app)
+      .post("/api/v1/consistency/coupling")
+      .send({ theory: "johannsen", binary: { m1: 39, m2: 32, frame: "source" }, test: { ...test, inspiral: { ...test.inspiral, rho: -1 } } });
+    expect(badRho.status).toBe(400);
+    expect(Object.keys(badRho.body.error.fields)).toContain("test.inspiral.rho");
+  });
 });

@@ -39,6 +39,7 @@ function inReview(results: SubmissionDetail["checks"]["results"]): SubmissionDet
     checks: { ok: failures === 0, failures, warnings: 0, results, checked_at: "2026-12-01T10:00:00.000Z" },
     target_revision: null,
     diff: null,
+  authors: [],
   };
 }
 

@@ -2,6 +2,7 @@ import type { QueryClient } from "@tanstack/react-query";
 import { Link, useParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { theoryQuery, useTheory } from "../../features/catalogue/api/get-theory.ts";
+import { RetirementPanel } from "../../features/catalogue/components/retirement.tsx";
 import { TheoryView } from "../../features/catalogue/components/theory-view.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { ApiError } from "../../lib/api-client.ts";
@@ -34,6 +35,7 @@ export function Component() {
   return (
     <TheoryView
       theory={theory.data}
+      editorTools={hasRole(["editor"]) ? <RetirementPanel theory={theory.data} /> : undefined}
       proposeChange={
         hasRole(["contributor", "editor"]) ? (
           <Link to={paths.submit({ target: theory.data.slug })} className="rounded border border-sea/50 px-3 py-1.5 text-sm font-semibold no-underline hover:bg-sea-wash">

@@ -8,6 +8,8 @@ import { referencesRoutes } from "../references/routes.ts";
 import { referencesService } from "../references/service.ts";
 import { submissionsRoutes } from "../submissions/routes.ts";
 import { submissionsService } from "../submissions/service.ts";
+import { retirementService } from "./retire.ts";
+import { retirementRoutes } from "./retire-routes.ts";
 import { catalogueRoutes } from "./routes.ts";
 import { catalogueService } from "./service.ts";
 
@@ -16,5 +18,5 @@ export function catalogueApiRoutes(deps: { db: Knex; config: Config; clock: () =
   const { db } = deps;
   const references = referencesService(db);
   const submissions = submissionsService({ ...deps, siteUrl: siteUrl(deps.config), checkMapping: (input) => checkMapping(input) });
-  return [...catalogueRoutes(catalogueService(db), references), ...referencesRoutes(references), ...submissionsRoutes(submissions), ...outboxRoutes(db)];
+  return [...catalogueRoutes(catalogueService(db), references), ...referencesRoutes(references), ...submissionsRoutes(submissions), ...retirementRoutes(retirementService(db, deps.clock)), ...outboxRoutes(db)];
 }

@@ -10,8 +10,12 @@ export interface PublishMeta {
   targetSlug: string | null;
   submissionId: number | null;
   authorId: number | null;
+  /** Every author of the accepted version (default: authorId alone). */
+  authorIds?: number[];
   acceptedBy: number | null;
   now: Date;
+  /** An editor's retire or restore: the entry's retirement marks are the change itself. */
+  statusChange?: boolean;
 }
 
 export interface Published {
@@ -37,6 +41,37 @@ export function describeFailedChecks(entry: TheoryEntry, checks: ChecksReport): 
  * revision document (with its checks and a diff against the previous revision) and the normalised
  * theory tables. Accepting a submission and seeding the catalogue both come through here.
  */
+/**
+ * Retirement is an editor's act, not part of a proposed change: the published entry keeps the
+ * retirement marks of the current revision (couplings by symbol, mappings by kind, exponent, mode and
+ * coupling) and drops any a submission carried on its own.
+ */
+export function carryRetirement(previous: unknown, entry: TheoryEntry): TheoryEntry {
+  const prev = (previous ?? {}) as Partial<TheoryEntry>;
+  const mappingKey = (m: Pick<TheoryEntry["mappings"][number], "kind" | "b" | "a" | "mode" | "coupling">, first: string | undefined) =>
+    JSON.stringify([m.kind, m.b ?? null, m.a ?? null, m.mode ?? null, m.coupling ?? first ?? null]);
+  const retiredCouplings = new Map((prev.couplings ?? []).flatMap((c) => (c.retired ? [[c.symbol, c.retired] as const] : [])));
+  const retiredMappings = new Map((prev.mappings ?? []).flatMap((m) => (m.retired ? [[mappingKey(m, prev.couplings?.[0]?.symbol), m.retired] as const] : [])));
+  const first = entry.couplings[0]?.symbol;
+  const out: TheoryEntry = {
+    ...entry,
+    couplings: entry.couplings.map(({ retired: _r, ...c }) => {
+      const kept = retiredCouplings.get(c.symbol);
+      return kept ? { ...c, retired: kept } : c;
+    }),
+    mappings: entry.mappings.map(({ retired: _r, ...m }) => {
+      const kept = retiredMappings.get(mappingKey(m, first));
+      return kept ? { ...m, retired: kept } : m;
+    }),
+  };
+  const { retired: _entryMark, ...rest } = out;
+  const live = rest.mappings.findIndex((m) => !m.retired && retiredCouplings.has(m.coupling ?? first ?? ""));
+  if (live >= 0) {
+    throw new ConflictError(`Mapping ${live} constrains the retired coupling ${rest.mappings[live]?.coupling ?? first}: an editor restores the coupling before this change can be published.`);
+  }
+  return rest;
+}
+
 export async function publishEntry(trx: Knex.Transaction, entry: TheoryEntry, checks: ChecksReport, meta: PublishMeta): Promise<Published> {
   if (!checks.ok) {
     const { message, failed } = describeFailedChecks(entry, checks);
@@ -50,6 +85,10 @@ export async function publishEntry(trx: Knex.Transaction, entry: TheoryEntry, ch
     if (!current) throw new ConflictError(`The theory "${meta.targetSlug}" this submission changes is no longer in the catalogue.`);
     if (entry.slug !== current.slug) throw new ConflictError(`A change to "${current.slug}" must keep its slug; the entry says "${entry.slug}".`);
     previous = (await latestRevisionEntryOf(trx, current.id))?.entry;
+    if (!meta.statusChange) {
+      if (current.retired_at) throw new ConflictError(`The theory "${current.slug}" is retired; an editor restores it before a change can be published.`);
+      entry = carryRetirement(previous, entry);
+    }
     number = current.current_revision + 1;
     theoryId = current.id;
     await updateTheory(trx, theoryId, entry, number);
@@ -71,6 +110,7 @@ export async function publishEntry(trx: Knex.Transaction, entry: TheoryEntry, ch
     diff: diffEntries(previous ?? {}, entry),
     submissionId: meta.submissionId,
     authorId: meta.authorId,
+    authorIds: meta.authorIds ?? (meta.authorId === null ? [] : [meta.authorId]),
     acceptedBy: meta.acceptedBy,
     publishedAt: meta.now,
   });

@@ -2,6 +2,7 @@ import type {
   CheckResult,
   QUOTED_FORMS,
   StoredReference,
+  StoredRetirement,
   TheoryDetail,
   TheoryMapping,
   TheorySummary,
@@ -11,7 +12,18 @@ import { listReferencesOfTheories, listTheoryReferences } from "../references/re
 
 /** Reads of the accepted catalogue, from the normalised tables. Plain objects out. */
 
-interface TheoryRow {
+interface RetiredColumns {
+  retired_at: Date | null;
+  retired_reason: string | null;
+  retired_by: string | null;
+}
+
+/** The retirement as the API shows it, or null for a live row. */
+function retirementOf(r: RetiredColumns): StoredRetirement {
+  return r.retired_at ? { reason: r.retired_reason ?? "", at: r.retired_at.toISOString(), by: r.retired_by } : null;
+}
+
+interface TheoryRow extends RetiredColumns {
   id: number;
   slug: string;
   name: string;
@@ -28,7 +40,7 @@ interface TheoryRow {
 
 // Row shapes of the normalised tables (written by write-repository.ts).
 type Source = TheoryMapping["source_status"];
-interface CouplingRow {
+interface CouplingRow extends RetiredColumns {
   id: number;
   theory_id: number;
   symbol: string;
@@ -59,7 +71,7 @@ interface DefinitionRow {
   latex: string;
   description: string | null;
 }
-interface MappingRow {
+interface MappingRow extends RetiredColumns {
   id: number;
   theory_id: number;
   kind: TheoryMapping["kind"];
@@ -171,10 +183,10 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
   const theories = await q;
   if (!theories.length) return [];
   const ids = theories.map((t) => t.id);
-  type MappingBrief = Pick<MappingRow, "theory_id" | "kind" | "b" | "a" | "pn_order">;
+  type MappingBrief = Pick<MappingRow, "theory_id" | "kind" | "b" | "a" | "pn_order" | "retired_at">;
   type CouplingBrief = Pick<CouplingRow, "theory_id" | "symbol" | "latex" | "unit">;
   const [mappings, couplings, refs] = await reads<[MappingBrief[], CouplingBrief[], Map<number, StoredReference[]>]>(db, [
-    () => db("mappings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<MappingBrief[]>("theory_id", "kind", "b", "a", "pn_order"),
+    () => db("mappings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<MappingBrief[]>("theory_id", "kind", "b", "a", "pn_order", "retired_at"),
     () => db("couplings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<CouplingBrief[]>("theory_id", "symbol", "latex", "unit"),
     () => listReferencesOfTheories(db, ids),
   ]);
@@ -190,8 +202,9 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
       updated_at: t.updated_at.toISOString(),
       source_to_be_confirmed: t.needs_source_confirmation,
       couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, unit })),
-      mappings: own.map(({ kind, b, a, pn_order }) => ({ kind, b, a, pn_order })),
+      mappings: own.map(({ kind, b, a, pn_order, retired_at }) => ({ kind, b, a, pn_order, retired: retired_at !== null })),
       references: refs.get(t.id) ?? [],
+      retired: retirementOf(t),
     };
   });
 }
@@ -269,6 +282,7 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
       notes: m.notes,
       checks,
       checks_ok: m.checks_ok,
+      retired: retirementOf(m),
     };
   });
 
@@ -303,6 +317,7 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
           source_status: cv.source_status,
           note: cv.note,
         })),
+      retired: retirementOf(c),
     })),
     definitions: definitions.map((d) => ({ symbol: d.symbol, expression: d.expression, latex: d.latex, description: d.description })),
     mappings: mappingViews,
@@ -321,5 +336,6 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
       note: b.note,
     })),
     source_to_be_confirmed: t.needs_source_confirmation || mappingViews.some((m) => m.source_to_be_confirmed),
+    retired: retirementOf(t),
   };
 }

@@ -12,6 +12,8 @@ export interface RevisionRow {
   author_id: number | null;
   author_login: string | null;
   author_name: string | null;
+  /** Every author of the revision, first contribution first. */
+  authors: { id: number; login: string; name: string }[];
   accepted_by: number | null;
   accepted_login: string | null;
   accepted_name: string | null;
@@ -32,6 +34,10 @@ function revisionQuery(db: Knex, theoryId: number) {
       "r.author_id",
       "a.login as author_login",
       "a.name as author_name",
+      db.raw(
+        `coalesce((select json_agg(json_build_object('id', u.id, 'login', u.login, 'name', u.name) order by array_position(r.author_ids, u.id))
+                     from users u where u.id = any(r.author_ids)), '[]'::json) as authors`,
+      ),
       "r.accepted_by",
       "e.login as accepted_login",
       "e.name as accepted_name",

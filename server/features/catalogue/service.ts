@@ -16,6 +16,7 @@ function revisionSummary(r: RevisionRow) {
     published_at: r.published_at.toISOString(),
     submission_id: r.submission_id,
     author: person(r.author_id, r.author_login, r.author_name),
+    authors: r.authors,
     accepted_by: person(r.accepted_by, r.accepted_login, r.accepted_name),
     change_count: diffSize(diff),
   };

@@ -13,10 +13,11 @@ export interface TheoryRowRef {
   id: number;
   slug: string;
   current_revision: number;
+  retired_at?: Date | null;
 }
 
 export async function findTheoryForUpdate(trx: Knex.Transaction, slug: string): Promise<TheoryRowRef | undefined> {
-  return trx<TheoryRowRef>("theories").where({ slug }).forUpdate().first("id", "slug", "current_revision");
+  return trx<TheoryRowRef>("theories").where({ slug }).forUpdate().first("id", "slug", "current_revision", "retired_at");
 }
 
 function theoryColumns(entry: TheoryEntry) {
@@ -29,7 +30,12 @@ function theoryColumns(entry: TheoryEntry) {
     metric_latex: entry.metric_latex ?? null,
     assumptions: JSON.stringify(entry.assumptions),
     needs_source_confirmation: needsConfirmation(entry),
+    ...retiredColumns(entry.retired),
   };
+}
+
+function retiredColumns(r: { reason: string; at: string; by?: string | undefined } | undefined) {
+  return { retired_at: r ? new Date(r.at) : null, retired_reason: r?.reason ?? null, retired_by: r?.by ?? null };
 }
 
 /** Any formula recalled from memory, or an explicit flag, puts the entry on an editor's list. */
@@ -59,6 +65,8 @@ export interface RevisionInsert {
   diff: EntryDiff;
   submissionId: number | null;
   authorId: number | null;
+  /** Everyone who wrote a version of the accepted submission, first contribution first. */
+  authorIds: number[];
   acceptedBy: number | null;
   publishedAt: Date;
 }
@@ -72,6 +80,7 @@ export async function insertRevision(trx: Knex.Transaction, r: RevisionInsert): 
     diff: JSON.stringify(r.diff),
     submission_id: r.submissionId,
     author_id: r.authorId,
+    author_ids: r.authorIds,
     accepted_by: r.acceptedBy,
     published_at: r.publishedAt,
   });
@@ -120,6 +129,7 @@ export async function replaceTheoryContent(trx: Knex.Transaction, theoryId: numb
         quoted_alpha_md: c.quoted?.alpha_md ?? null,
         description: c.description ?? null,
         convention: c.convention ?? null,
+        ...retiredColumns(c.retired),
       })
       .returning<{ id: number }[]>("id");
     if (!row) throw new Error("coupling insert returned no row");
@@ -181,6 +191,7 @@ export async function replaceTheoryContent(trx: Knex.Transaction, theoryId: numb
         notes: m.notes ?? null,
         checks: JSON.stringify(own),
         checks_ok: !failed(all),
+        ...retiredColumns(m.retired),
       })
       .returning<{ id: number }[]>("id");
     if (!row) throw new Error("mapping insert returned no row");

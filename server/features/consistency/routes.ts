@@ -1,9 +1,16 @@
-import { consistencyRequestSchema, consistencyResultSchema } from "../../../common/consistency.ts";
+import {
+  consistencyRequestSchema,
+  consistencyResultSchema,
+  couplingExclusionRequestSchema,
+  couplingExclusionResponseSchema,
+} from "../../../common/consistency.ts";
 import type { Config } from "../../config.ts";
 import { ValidationError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
 import { convertRateLimit } from "../convert/rate-limit.ts";
+import type { RingdownCatalogue } from "../ringdown/catalogue.ts";
+import { couplingExclusionFor } from "./coupling.ts";
 import { gaussianConsistency } from "./gaussian.ts";
 
 /** A physics refusal becomes a 400 naming the field. */
@@ -17,7 +24,7 @@ export function asValidation<T>(fn: () => T): T {
 }
 
 /** POST /api/v1/consistency: the IMR consistency test from two Gaussian remnant estimates; open to anyone, rate-limited. */
-export function consistencyRoutes(config: Config): RouteSpec[] {
+export function consistencyRoutes(config: Config, catalogue: RingdownCatalogue): RouteSpec[] {
   const limit = convertRateLimit(config);
   return [
     {
@@ -33,6 +40,27 @@ export function consistencyRoutes(config: Config): RouteSpec[] {
       handler: (req, res) => {
         const request = parseWith(consistencyRequestSchema, req.body);
         res.json(asValidation(() => gaussianConsistency(request)));
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/consistency/coupling",
+      access: access.public,
+      summary: "Smallest coupling of a theory at which its ringdown shifts make the IMR consistency test exclude GR, with the expected deviation track",
+      tags: ["consistency"],
+      body: couplingExclusionRequestSchema,
+      response: couplingExclusionResponseSchema,
+      errors: [400, 429],
+      before: [limit],
+      handler: async (req, res) => {
+        const request = parseWith(couplingExclusionRequestSchema, req.body);
+        try {
+          res.json(await couplingExclusionFor(catalogue, request));
+        } catch (err) {
+          asValidation(() => {
+            throw err;
+          });
+        }
       },
     },
   ];

@@ -117,7 +117,9 @@ export function dbCatalogueReader(db: Knex): CatalogueReader {
       // One theory at a time: a cache miss should not take every pooled connection.
       for (const slug of slugs) {
         const d = await getTheoryDetail(db, slug);
-        if (d) details.push(d);
+        // Retired entries and mappings leave translations (and everything built on them); they stay readable in the catalogue.
+        const live = d && !d.retired ? { ...d, mappings: d.mappings.filter((m) => !m.retired) } : undefined;
+        if (live?.mappings.length) details.push(live);
       }
       return { revision: token, theories: details.map(acceptedTheoryOf) };
     },

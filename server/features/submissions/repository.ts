@@ -182,6 +182,26 @@ export async function listComments(db: Knex, submissionId: number): Promise<Subm
   }));
 }
 
+/**
+ * The authors of a submission up to `version`: everyone who created or saved a version, with the
+ * versions each wrote, first contribution first. An editor's typo fix makes the editor an author too.
+ */
+export async function listVersionAuthors(
+  db: Knex | Knex.Transaction,
+  submissionId: number,
+  version: number,
+): Promise<{ id: number; login: string; name: string; versions: number[] }[]> {
+  const rows = await db("submission_events as e")
+    .join("users as u", "u.id", "e.actor_id")
+    .where("e.submission_id", submissionId)
+    .whereIn("e.action", ["create", "save"])
+    .where("e.version", "<=", version)
+    .groupBy("u.id", "u.login", "u.name")
+    .orderByRaw("min(e.at), u.id")
+    .select<{ id: number; login: string; name: string; versions: number[] }[]>("u.id", "u.login", "u.name", db.raw("array_agg(distinct e.version order by e.version) as versions"));
+  return rows;
+}
+
 /** Editors with an address, for the "waiting for review" message. */
 export async function listEditors(db: Knex | Knex.Transaction): Promise<{ id: number; login: string; name: string; email: string | null }[]> {
   return db("users").whereRaw("'editor' = any(roles)").orderBy("id").select("id", "login", "name", "email");

@@ -141,12 +141,14 @@ export function submissionsService(deps: SubmissionsDeps) {
     async get(id: number, who: Identity): Promise<SubmissionDetail> {
       const s = await load(id, who);
       const current = s.target_theory_id === null ? undefined : await latestRevisionEntryOf(db, s.target_theory_id);
+      const authors = await repo.listVersionAuthors(db, id, s.version);
       return {
         ...summary(s),
         theory: s.entry,
         checks: s.checks,
         target_revision: current?.number ?? null,
         diff: current ? diffEntries(current.entry, s.entry) : null,
+        authors: authors.map(({ id: personId, login, name }) => ({ id: personId, login, name })),
       };
     },
 
@@ -202,10 +204,21 @@ export function submissionsService(deps: SubmissionsDeps) {
         const status = nextStatus(body.decision, s.status);
         let revision: number | null = null;
         if (body.decision === "accept") {
+          // Whoever wrote any version (an editor's fix included) is an author: acceptance needs an editor who wrote none.
+          const authors = await repo.listVersionAuthors(trx, id, s.version);
+          const mine = authors.find((a) => a.id === who.id);
+          if (mine) {
+            const which = mine.versions.length === 1 ? `version ${mine.versions[0]}` : `versions ${mine.versions.join(", ")}`;
+            throw new ForbiddenError(
+              `You edited submission #${id} (you wrote ${which}), so you are one of its authors; an editor who wrote no version of it must accept it.`,
+              { reason: "edited_by_you", versions: mine.versions },
+            );
+          }
           const published = await publishEntry(trx, s.entry, s.checks, {
             targetSlug: s.target_slug,
             submissionId: s.id,
             authorId: s.author.id,
+            authorIds: authors.map((a) => a.id),
             acceptedBy: who.id,
             now,
           });

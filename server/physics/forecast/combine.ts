@@ -11,41 +11,41 @@ import type { PriorWidths } from "./forecast.ts";
 import { boundMultiplier } from "./stats.ts";
 
 export interface UploadedFisher {
-  readonly label: string;
-  readonly parameters: readonly string[];
-  readonly matrix: readonly (readonly number[])[];
+  label: string;
+  parameters: string[];
+  matrix: (number[])[];
 }
 
 export interface CombineInput {
-  readonly matrices: readonly UploadedFisher[];
-  readonly networks: readonly (readonly number[])[];
+  matrices: UploadedFisher[];
+  networks: (number[])[];
   /** Name of the parameter whose bound is wanted (default "beta"). */
-  readonly target: string;
-  readonly priors: PriorWidths;
-  readonly credibility: number;
-  readonly sides: "one" | "two";
+  target: string;
+  priors: PriorWidths;
+  credibility: number;
+  sides: "one" | "two";
 }
 
 export interface CombinedNetwork {
-  readonly detectors: readonly number[];
-  readonly labels: readonly string[];
-  readonly sigma: number | null;
-  readonly bound: number | null;
-  readonly condition_number: number | null;
-  readonly status: InversionStatus;
-  readonly note?: string;
+  detectors: number[];
+  labels: string[];
+  sigma: number | null;
+  bound: number | null;
+  condition_number: number | null;
+  status: InversionStatus;
+  note?: string;
   /** The summed matrix with priors, in the order of `parameters`. */
-  readonly fisher: readonly (readonly number[])[];
+  fisher: (number[])[];
 }
 
 export interface CombineResult {
-  readonly parameters: readonly string[];
-  readonly target: string;
-  readonly priors_applied: Readonly<Record<string, number>>;
-  readonly credibility: number;
-  readonly sides: "one" | "two";
-  readonly multiplier: number;
-  readonly networks: readonly CombinedNetwork[];
+  parameters: string[];
+  target: string;
+  priors_applied: Readonly<Record<string, number>>;
+  credibility: number;
+  sides: "one" | "two";
+  multiplier: number;
+  networks: CombinedNetwork[];
 }
 
 /** Relative asymmetry allowed, |G_ij - G_ji| <= tol sqrt(G_ii G_jj): rounding in a text export. */

@@ -26,29 +26,29 @@ import { BETA_INDEX, N_PARAMS, PARAMETER_NAMES, phaseDerivatives, phaseModel, ty
 import { boundMultiplier } from "./stats.ts";
 
 export interface ForecastSourceInput {
-  readonly m1: number;
-  readonly m2: number;
-  readonly chi1?: number;
-  readonly chi2?: number;
-  readonly frame: "source" | "detector";
-  readonly distance_mpc?: number;
-  readonly z?: number;
+  m1: number;
+  m2: number;
+  chi1?: number;
+  chi2?: number;
+  frame: "source" | "detector";
+  distance_mpc?: number;
+  z?: number;
 }
 
 export interface ForecastDetectorInput {
-  readonly curve: string;
-  readonly label?: string;
-  readonly f_low?: number;
-  readonly f_high?: number;
-  readonly years_observed?: number;
-  readonly years_before_merger?: number;
-  readonly orientation?: Orientation;
+  curve: string;
+  label?: string;
+  f_low?: number;
+  f_high?: number;
+  years_observed?: number;
+  years_before_merger?: number;
+  orientation?: Orientation;
 }
 
 export interface PriorWidths {
-  readonly phi_c: number | null;
-  readonly chi_s: number | null;
-  readonly chi_a: number | null;
+  phi_c: number | null;
+  chi_s: number | null;
+  chi_a: number | null;
 }
 
 export const DEFAULT_PRIORS: PriorWidths = Object.freeze({ phi_c: Math.PI, chi_s: 1, chi_a: 1 });
@@ -56,94 +56,94 @@ export const DEFAULT_PRIORS: PriorWidths = Object.freeze({ phi_c: Math.PI, chi_s
 export type UpperCut = "isco" | "merger_extrapolated";
 
 export interface ForecastInput {
-  readonly source: ForecastSourceInput;
-  readonly cosmology?: Cosmology;
-  readonly detectors: readonly ForecastDetectorInput[];
-  readonly networks: readonly (readonly number[])[];
-  readonly b: readonly number[];
-  readonly priors?: Partial<PriorWidths>;
-  readonly credibility?: number;
-  readonly sides?: "one" | "two";
-  readonly upper_cut?: UpperCut;
-  readonly include_matrices?: boolean;
-  readonly grid_points?: number;
+  source: ForecastSourceInput;
+  cosmology?: Cosmology;
+  detectors: ForecastDetectorInput[];
+  networks: (number[])[];
+  b: number[];
+  priors?: Partial<PriorWidths>;
+  credibility?: number;
+  sides?: "one" | "two";
+  upper_cut?: UpperCut;
+  include_matrices?: boolean;
+  grid_points?: number;
 }
 
 /** A user's tabulated curve as the engine needs it (serialisable, so it can cross to a worker). */
 export interface CustomCurveData {
-  readonly id: string;
-  readonly name: string;
-  readonly convention: CurveConvention;
-  readonly space: boolean;
-  readonly frequencies: readonly number[];
-  readonly psd: readonly number[];
+  id: string;
+  name: string;
+  convention: CurveConvention;
+  space: boolean;
+  frequencies: number[];
+  psd: number[];
 }
 
 export interface DetectorBand {
-  readonly index: number;
-  readonly curve: string;
-  readonly label: string;
-  readonly convention: CurveConvention;
-  readonly orientation: Orientation;
-  readonly f_low: number;
-  readonly f_high: number;
-  readonly low_cut: string;
-  readonly high_cut: string;
-  readonly extrapolated: boolean;
-  readonly years_observed: number | null;
-  readonly years_before_merger: number | null;
-  readonly snr: number;
+  index: number;
+  curve: string;
+  label: string;
+  convention: CurveConvention;
+  orientation: Orientation;
+  f_low: number;
+  f_high: number;
+  low_cut: string;
+  high_cut: string;
+  extrapolated: boolean;
+  years_observed: number | null;
+  years_before_merger: number | null;
+  snr: number;
 }
 
 export interface ForecastRow {
-  readonly b: number;
-  readonly sigma_beta: number | null;
-  readonly bound: number | null;
-  readonly condition_number: number | null;
-  readonly status: InversionStatus;
-  readonly note?: string;
+  b: number;
+  sigma_beta: number | null;
+  bound: number | null;
+  condition_number: number | null;
+  status: InversionStatus;
+  note?: string;
 }
 
 export interface NetworkResult {
-  readonly detectors: readonly number[];
-  readonly labels: readonly string[];
-  readonly snr: { readonly total: number; readonly per_detector: readonly number[] };
-  readonly cautions: readonly string[];
-  readonly rows: readonly ForecastRow[];
+  detectors: number[];
+  labels: string[];
+  snr: { total: number; per_detector: number[] };
+  cautions: string[];
+  rows: ForecastRow[];
 }
 
 export interface ForecastResult {
-  readonly source: {
-    readonly m1: number;
-    readonly m2: number;
-    readonly chi1: number;
-    readonly chi2: number;
-    readonly z: number;
-    readonly distance_mpc: number;
-    readonly distance_from: "given" | "z" | "both_given";
-    readonly mc_z_msun: number;
-    readonly m_z_msun: number;
-    readonly eta: number;
-    readonly f_isco_hz: number;
+  source: {
+    m1: number;
+    m2: number;
+    chi1: number;
+    chi2: number;
+    z: number;
+    distance_mpc: number;
+    distance_from: "given" | "z" | "both_given";
+    mc_z_msun: number;
+    m_z_msun: number;
+    eta: number;
+    f_isco_hz: number;
   };
-  readonly cosmology: Cosmology;
-  readonly parameters: readonly string[];
-  readonly priors: PriorWidths;
-  readonly credibility: number;
-  readonly sides: "one" | "two";
-  readonly multiplier: number;
-  readonly upper_cut: UpperCut;
-  readonly detectors: readonly DetectorBand[];
-  readonly networks: readonly NetworkResult[];
-  readonly cautions: readonly string[];
+  cosmology: Cosmology;
+  parameters: string[];
+  priors: PriorWidths;
+  credibility: number;
+  sides: "one" | "two";
+  multiplier: number;
+  upper_cut: UpperCut;
+  detectors: DetectorBand[];
+  networks: NetworkResult[];
+  cautions: string[];
   /** Per-detector Fisher matrices (without priors) by b, when asked for. */
-  readonly matrices?: readonly { readonly b: number; readonly per_detector: readonly (readonly (readonly number[])[])[] }[];
+  matrices?: { b: number; per_detector: ((number[])[])[] }[];
 }
 
 export const LOW_SNR = 10;
 export const DEFAULT_GRID_POINTS = 10_000;
 
-function resolveCurve(id: string, custom: readonly CustomCurveData[], field: string): NoiseCurve {
+function resolveCurve(id: string, custom: CustomCurveData[], field: string): NoiseCurve {
   const builtIn = builtInCurve(id);
   if (builtIn) return builtIn;
   const c = custom.find((x) => x.id === id);
@@ -178,20 +178,20 @@ function spin(field: string, value: number | undefined): number {
 }
 
 interface DetectorPlan {
-  readonly band: Omit<DetectorBand, "snr">;
-  readonly curve: NoiseCurve;
-  readonly years: number;
+  band: Omit<DetectorBand, "snr">;
+  curve: NoiseCurve;
+  years: number;
 }
 
 interface DetectorIntegrals {
   /** SNR^2 = Gamma_{lnA,lnA}. */
-  readonly snr2: number;
+  snr2: number;
   /** 6 x 6 block of phi_c, t_c, ln Mc, mass ratio, chi_s, chi_a (row-major). */
-  readonly base: Float64Array;
-  readonly weights: Float64Array;
-  readonly lnu: Float64Array;
+  base: Float64Array;
+  weights: Float64Array;
+  lnu: Float64Array;
   /** Derivative columns, 6 x N. */
-  readonly columns: readonly Float64Array[];
+  columns: Float64Array[];
 }
 
 /** Integrals of one detector on its log-spaced grid (trapezoid rule in ln f). */
@@ -278,7 +278,7 @@ function formatHz(f: number): string {
   return `${Number(f.toPrecision(4))} Hz`;
 }
 
-export function runForecast(input: ForecastInput, customCurves: readonly CustomCurveData[] = []): ForecastResult {
+export function runForecast(input: ForecastInput, customCurves: CustomCurveData[] = []): ForecastResult {
   const src = input.source;
   let m1 = positive("source.m1", requireFinite("source.m1", src.m1), "solar masses")!;
   let m2 = positive("source.m2", requireFinite("source.m2", src.m2), "solar masses")!;
@@ -418,13 +418,13 @@ export function runForecast(input: ForecastInput, customCurves: readonly CustomC
 }
 
 interface SourceScales {
-  readonly mcZs: number;
-  readonly fTop: number;
-  readonly fIsco: number;
-  readonly upperCut: UpperCut;
+  mcZs: number;
+  fTop: number;
+  fIsco: number;
+  upperCut: UpperCut;
 }
 
-function planDetector(det: ForecastDetectorInput, i: number, custom: readonly CustomCurveData[], s: SourceScales): DetectorPlan {
+function planDetector(det: ForecastDetectorInput, i: number, custom: CustomCurveData[], s: SourceScales): DetectorPlan {
   const field = `detectors.${i}`;
   const curve = resolveCurve(det.curve, custom, `${field}.curve`);
   const orientation: Orientation = det.orientation ?? "sky_averaged";

@@ -3,6 +3,7 @@ import type { TheoryDetail } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { authorList, factorTex, unitLabel } from "./format.ts";
+import { RetiredNote } from "./retirement.tsx";
 
 type StoredCoupling = TheoryDetail["couplings"][number];
 
@@ -32,6 +33,7 @@ function CouplingCard({ coupling }: { coupling: StoredCoupling }) {
           </span>
         )}
       </header>
+      {coupling.retired && <RetiredNote retired={coupling.retired} what="This coupling" />}
       {coupling.description && <p className="mt-1 text-[0.95rem]">{coupling.description}</p>}
       {coupling.conventions.length > 0 && (
         <div className="mt-3 border-t border-paper-edge pt-3">

@@ -3,6 +3,7 @@ import { Badge } from "../../../components/ui/badge.tsx";
 import { CheckBadge, CheckList, worstOutcome } from "../../../components/ui/check-list.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { thresholdText } from "../../../components/ui/text-format.ts";
+import { RetiredBadge, RetiredNote } from "./retirement.tsx";
 import { authorList, equationTex, pnLabel, signed } from "./format.ts";
 
 type StoredMapping = TheoryDetail["mappings"][number];
@@ -51,10 +52,12 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
         {exponent && <MathTex tex={exponent} />}
         {m.pn_order !== null && <span className="text-sm text-ink-soft tabular-nums">{pnLabel(m.pn_order)}</span>}
         <span className="ml-auto flex gap-2">
+          {m.retired && <RetiredBadge retired={m.retired} />}
           <SourceBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
           <CheckBadge outcome={outcome} title={`${all.length} engine checks`} />
         </span>
       </header>
+      {m.retired && <RetiredNote retired={m.retired} what="This mapping" />}
       <div className="my-3 overflow-x-auto rounded bg-paper px-3 py-2">
         <MathTex display tex={equationTex(lhsTex[m.kind], m.latex)} />
       </div>

@@ -32,7 +32,7 @@ export function RevisionHistory({ slug, current }: { slug: string; current: numb
             {r.number === current && <span className="text-xs uppercase tracking-wide text-moss">current</span>}
             <span className="tabular-nums text-ink-soft">{shortDate(r.published_at)}</span>
             <span className="text-ink-soft">
-              {r.author ? `proposed by ${r.author.name}` : "seeded"}
+              {r.authors.length > 0 ? `written by ${joinNames(r.authors.map((a) => a.name))}` : r.author ? `proposed by ${r.author.name}` : "seeded"}
               {r.accepted_by ? `, accepted by ${r.accepted_by.name}` : ""}
             </span>
             <span className="tabular-nums text-ink-faint text-sm">
@@ -47,4 +47,9 @@ export function RevisionHistory({ slug, current }: { slug: string; current: numb
       ))}
     </ol>
   );
+}
+
+/** "A", "A and B", "A, B and C". */
+function joinNames(names: string[]): string {
+  return names.length <= 1 ? (names[0] ?? "") : `${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
 }

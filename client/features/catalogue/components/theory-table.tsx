@@ -3,6 +3,7 @@ import { useMemo, useState } from "react";
 import { Link } from "react-router-dom";
 import { FAMILY_LABELS, type TheorySummary } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
+import { RetiredBadge } from "./retirement.tsx";
 import { DataTable } from "../../../components/ui/data-table.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { paths } from "../../../lib/paths.ts";
@@ -27,6 +28,7 @@ const columns = [
             {t.name}
           </Link>
           <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{t.summary}</p>
+          {t.retired && <RetiredBadge retired={t.retired} className="mt-1 mr-1" />}
           {t.source_to_be_confirmed && (
             <Badge tone="caution" className="mt-1" title="At least one formula was recalled rather than read in its paper; an editor still has to confirm it.">
               source to be confirmed

@@ -9,6 +9,7 @@ import { CouplingsPanel } from "./couplings-panel.tsx";
 import { MappingsList } from "./mappings-list.tsx";
 import { ReferenceBounds } from "./reference-bounds.tsx";
 import { ReferencesList } from "./references-list.tsx";
+import { RetiredBadge, RetiredNote } from "./retirement.tsx";
 import { RevisionHistory } from "./revision-history.tsx";
 import { equationTex, shortDate, symbolTex } from "./format.ts";
 
@@ -25,12 +26,14 @@ function Section({ id, title, children }: { id: string; title: string; children:
 
 interface Props {
   theory: TheoryDetail;
+  /** Editors' tools shown at the end of the entry (retire and restore). */
+  editorTools?: ReactNode;
   /** Shown beside the title when the reader may propose a change (a link to the form). */
   proposeChange?: ReactNode;
 }
 
 /** The published entry, top to bottom in the order a reader checks it: what, how it maps, from where. */
-export function TheoryView({ theory, proposeChange }: Props) {
+export function TheoryView({ theory, proposeChange, editorTools }: Props) {
   const t = theory;
   return (
     <article>
@@ -47,10 +50,16 @@ export function TheoryView({ theory, proposeChange }: Props) {
               revision {t.revision.number}, published {shortDate(t.revision.published_at)}
             </span>
             {t.source_to_be_confirmed && <Badge tone="caution">source to be confirmed</Badge>}
+            {t.retired && <RetiredBadge retired={t.retired} />}
           </p>
         </div>
         {proposeChange}
       </header>
+      {t.retired && (
+        <div className="mt-4 max-w-prose rounded border border-brick/40 bg-brick-wash px-4 py-3">
+          <RetiredNote retired={t.retired} what="This entry" />
+        </div>
+      )}
       <p className="mt-4 max-w-prose text-lg leading-relaxed">{t.summary}</p>
       {t.source_to_be_confirmed && (
         <div className="mt-4 max-w-prose">
@@ -110,6 +119,7 @@ export function TheoryView({ theory, proposeChange }: Props) {
       <Section id="history" title="Revision history">
         <RevisionHistory slug={t.slug} current={t.revision.number} />
       </Section>
+      {editorTools}
     </article>
   );
 }

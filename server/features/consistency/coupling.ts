@@ -1,0 +1,68 @@
+import type { CouplingExclusionRequest, CouplingExclusionResponse } from "../../../common/consistency.ts";
+import { PhysicsInputError } from "../../physics/input-error.ts";
+import { couplingExclusion, testCovarianceAtGr } from "../../physics/ringdown/coupling-exclusion.ts";
+import { summaryCovariance } from "../../physics/ringdown/gaussian-consistency.ts";
+import { remnantFromBinary } from "../../physics/ringdown/remnant.ts";
+import { assessValidity } from "../../physics/ringdown/ringdown-bound.ts";
+import type { RingdownCatalogue } from "../ringdown/catalogue.ts";
+import { resolveRemnant } from "../ringdown/remnant-input.ts";
+
+/** What coupling would the IMR consistency test exclude, for a theory's ringdown shifts and a test's widths. */
+export async function couplingExclusionFor(catalogue: RingdownCatalogue, request: CouplingExclusionRequest): Promise<CouplingExclusionResponse> {
+  const theory = (await catalogue.load()).find((t) => t.slug === request.theory);
+  if (!theory) throw new PhysicsInputError("theory", `unknown theory "${request.theory}"`);
+  const forMode = theory.mappings.filter((m) => m.mode === request.mode);
+  const first = forMode[0];
+  if (!first) throw new PhysicsInputError("theory", `"${request.theory}" has no ringdown mapping for mode ${request.mode}`);
+  const coupling = first.coupling;
+  const freq = forMode.find((m) => m.kind === "ringdown_frequency" && m.coupling.symbol === coupling.symbol);
+  const damp = forMode.find((m) => m.kind === "ringdown_damping" && m.coupling.symbol === coupling.symbol);
+
+  const remnant = resolveRemnant({ binary: request.binary });
+  const b = request.binary;
+  // Husa's fit is scale-free: the remnant mass in the binary's own frame, to match the widths.
+  const inFrame = remnantFromBinary({ m1: b.m1, m2: b.m2, chi1: b.chi1, chi2: b.chi2 }, "binary.");
+  if (inFrame.chi_f <= 0) throw new PhysicsInputError("binary", `the remnant fit gives chi_f = ${inFrame.chi_f.toFixed(3)}: the QNM fits need a remnant spinning with the orbit`);
+  const covI = summaryCovariance({ M_f: 1, chi_f: 0, ...request.test.inspiral });
+  const covR = summaryCovariance({ M_f: 1, chi_f: 0, ...request.test.merger_ringdown });
+  const covariance = testCovarianceAtGr(inFrame.M_f, inFrame.chi_f, covI, covR);
+  const env = remnant.env;
+  const shifts = { df: (x: number) => (freq ? freq.evaluate(x, env) : 0), dtau: (x: number) => (damp ? damp.evaluate(x, env) : 0) };
+  const sides: (1 | -1)[] = coupling.range === "any_sign" ? [-1, 1] : [1];
+  const common = { mode: request.mode, M: inFrame.M_f, chi: inFrame.chi_f, shifts, covariance, credibility: request.credibility, sides };
+  const exact = couplingExclusion(common);
+  const linear = couplingExclusion({ ...common, reading: "linear" });
+  const validity = [...(freq?.validity ?? []), ...(damp?.validity ?? [])];
+
+  const cautions = [
+    "Only the theory's ringdown shifts enter: the inspiral estimate is taken as the GR remnant (the inspiral bias from the theory's ppE term and any shift of the true remnant are not modelled here).",
+    "The test's covariance is evaluated at the GR point and held fixed; a real analysis's widths change as the estimates move.",
+    "The deviation at the bound is about two standard deviations of the test: a linear-bias picture of a template mismatch is only trustworthy to about one.",
+  ];
+  if (!freq) cautions.push("The theory has no frequency mapping for this mode: its frequency shift is taken as 0.");
+  if (!damp) cautions.push("The theory has no damping-time mapping for this mode: its damping-time shift is taken as 0.");
+  if ([freq, damp].some((m) => m?.sourceStatus !== "confirmed" && m !== undefined)) cautions.push("The theory's ringdown mapping is derived or recalled, not read in a paper: see the entry.");
+  if (inFrame.chi_f_fit_spread > 0.005) cautions.push(`The two final-spin fits differ by ${inFrame.chi_f_fit_spread.toFixed(3)} for this binary: a systematic of the remnant.`);
+
+  return {
+    theory: { slug: theory.slug, name: theory.name, revision: theory.revision },
+    coupling: { symbol: coupling.symbol, latex: coupling.latex, unit: coupling.unit },
+    remnant: { M_f: inFrame.M_f, chi_f: inFrame.chi_f, frame: b.frame, chi_f_alternative: inFrame.chi_f_alternative },
+    credibility: request.credibility,
+    covariance,
+    sides: exact.sides.map((s, i) => {
+      const v = s.x === null ? null : assessValidity(validity, s.x, env);
+      return {
+        side: s.side === 1 ? ("positive" as const) : ("negative" as const),
+        x: s.x,
+        x_linear: linear.sides[i]?.x ?? null,
+        ...(s.reason ? { reason: s.reason } : {}),
+        linear_breaks_at: s.linear_breaks_at,
+        verdict: v?.verdict ?? "not_assessed",
+        conditions: v?.outcomes ?? [],
+      };
+    }),
+    track: exact.track,
+    cautions,
+  };
+}

@@ -1,0 +1,152 @@
+import { Worker } from "node:worker_threads";
+import { ServiceUnavailableError, ValidationError } from "../../errors.ts";
+import type { CustomCurveData, ForecastInput, ForecastResult } from "../../physics/forecast/forecast.ts";
+
+/**
+ * One warm worker thread runs the forecasts, one at a time, so the event loop never does the
+ * arithmetic. A job that overruns its deadline has the worker terminated and replaced; a queue that
+ * grows too long is refused with 503 rather than letting requests pile up.
+ */
+export interface ForecastPoolOptions {
+  readonly timeoutMs?: number;
+  readonly maxQueue?: number;
+}
+
+interface Job {
+  readonly id: number;
+  readonly input: ForecastInput;
+  readonly curves: readonly CustomCurveData[];
+  readonly resolve: (r: ForecastResult) => void;
+  readonly reject: (e: Error) => void;
+}
+
+type WorkerMessage =
+  | { ready: true }
+  | { id: number; ok: true; result: ForecastResult }
+  | { id: number; ok: false; name: string; field: string | null; message: string };
+
+const WORKER_URL = new URL("./forecast-worker.mjs", import.meta.url);
+
+export class ForecastPool {
+  private worker: Worker | undefined;
+  private ready: Promise<void> | undefined;
+  private readonly queue: Job[] = [];
+  private running: { job: Job; timer: NodeJS.Timeout } | undefined;
+  private nextId = 1;
+  private closed = false;
+  private readonly timeoutMs: number;
+  private readonly maxQueue: number;
+
+  constructor(options: ForecastPoolOptions = {}) {
+    this.timeoutMs = options.timeoutMs ?? 30_000;
+    this.maxQueue = options.maxQueue ?? 20;
+  }
+
+  run(input: ForecastInput, curves: readonly CustomCurveData[]): Promise<ForecastResult> {
+    if (this.closed) return Promise.reject(new ServiceUnavailableError("the forecast engine is shutting down"));
+    if (this.queue.length >= this.maxQueue) return Promise.reject(new ServiceUnavailableError("too many forecasts are waiting; try again shortly"));
+    return new Promise((resolve, reject) => {
+      this.queue.push({ id: this.nextId++, input, curves, resolve, reject });
+      void this.pump();
+    });
+  }
+
+  async close(): Promise<void> {
+    this.closed = true;
+    for (const job of this.queue.splice(0)) job.reject(new ServiceUnavailableError("the forecast engine is shutting down"));
+    if (this.running) {
+      clearTimeout(this.running.timer);
+      this.running.job.reject(new ServiceUnavailableError("the forecast engine is shutting down"));
+      this.running = undefined;
+    }
+    const w = this.worker;
+    this.worker = undefined;
+    if (w) await w.terminate();
+  }
+
+  private start(): Promise<void> {
+    if (this.ready) return this.ready;
+    const worker = new Worker(WORKER_URL, { resourceLimits: { maxOldGenerationSizeMb: 256 } });
+    this.worker = worker;
+    worker.unref();
+    this.ready = new Promise<void>((resolve, reject) => {
+      worker.on("message", (msg: WorkerMessage) => {
+        if ("ready" in msg) return resolve();
+        this.finish(msg);
+      });
+      worker.on("error", (err) => {
+        reject(err);
+        this.lost(err);
+      });
+      worker.on("exit", (code) => {
+        if (this.worker === worker) this.lost(new Error(`forecast worker exited with code ${code}`));
+      });
+    });
+    return this.ready;
+  }
+
+  private lost(err: Error): void {
+    this.worker = undefined;
+    this.ready = undefined;
+    if (this.running) {
+      clearTimeout(this.running.timer);
+      this.running.job.reject(new ServiceUnavailableError(`the forecast engine failed: ${err.message}`));
+      this.running = undefined;
+    }
+    if (!this.closed) void this.pump();
+  }
+
+  private finish(msg: Exclude<WorkerMessage, { ready: true }>): void {
+    const current = this.running;
+    if (!current || current.job.id !== msg.id) return;
+    clearTimeout(current.timer);
+    this.running = undefined;
+    if (msg.ok) current.job.resolve(msg.result);
+    else if (msg.name === "PhysicsInputError" && msg.field) {
+      const text = msg.message.startsWith(msg.field) ? msg.message : `${msg.field}: ${msg.message}`;
+      current.job.reject(new ValidationError(`Invalid request body: ${text}`, { [msg.field]: msg.message }));
+    }
+    else current.job.reject(new Error(msg.message));
+    void this.pump();
+  }
+
+  private async pump(): Promise<void> {
+    if (this.running || this.queue.length === 0 || this.closed) return;
+    const job = this.queue.shift()!;
+    const timer = setTimeout(() => {
+      const w = this.worker;
+      this.worker = undefined;
+      this.ready = undefined;
+      this.running = undefined;
+      job.reject(new ServiceUnavailableError(`the forecast did not finish within ${this.timeoutMs} ms and was stopped`));
+      void w?.terminate();
+      void this.pump();
+    }, this.timeoutMs);
+    this.running = { job, timer };
+    try {
+      await this.start();
+      this.worker?.postMessage({ id: job.id, input: job.input, curves: job.curves });
+    } catch (err) {
+      if (this.running?.job === job) {
+        clearTimeout(timer);
+        this.running = undefined;
+        job.reject(new ServiceUnavailableError(`the forecast engine could not start: ${err instanceof Error ? err.message : String(err)}`));
+      }
+    }
+  }
+}
+
+let shared: ForecastPool | undefined;
+
+/** The process-wide pool (its thread starts on the first forecast and is unref'd). */
+export function getForecastPool(): ForecastPool {
+  if (shared === undefined) shared = new ForecastPool();
+  return shared;
+}
+
+/** Ends the shared pool (server shutdown, test teardown); a later getForecastPool() starts a new one. */
+export async function closeForecastPool(): Promise<void> {
+  const pool = shared;
+  shared = undefined;
+  if (pool !== undefined) await pool.close();
+}
