@@ -123,5 +123,23 @@ export function ResultsTable({ results, onConvention }: Props) {
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
   });
-  return <DataTable table={table} caption="Limits on every applicable theory" empty="No catalogued theory enters at this b." rowTestId={(r) => `result-${r.theory}`} />;
+  return (
+    <DataTable
+      table={table}
+      caption="Limits on every applicable theory"
+      empty="No catalogued theory enters at this b."
+      rowTestId={(r) => `result-${r.theory}`}
+      pinnedOnSmall={(r) => <VerdictBadge r={r} />}
+    />
+  );
+}
+
+/** The verdict alone, kept beside the theory's name on phones, where the validity column scrolls out of view. */
+function VerdictBadge({ r }: { r: ConvertResult }) {
+  const failed = r.validity.some((v) => !v.ok);
+  return (
+    <span data-testid={`verdict-small-${r.theory}`}>
+      {!r.valid ? <Badge tone="fail">not valid</Badge> : failed ? <Badge tone="caution">valid, with caution</Badge> : <Badge tone="ok">valid</Badge>}
+    </span>
+  );
 }
