@@ -11,6 +11,8 @@ import {
   VALIDITY_KINDS,
   BODY_RULE_KINDS,
   BODY_TYPES,
+  COUPLING_RANGES,
+  GR_VALUES,
   checkResultSchema,
   checksReportSchema,
   derivationSchema,
@@ -71,7 +73,8 @@ export const theorySummarySchema = z.object({
   updated_at: z.string(),
   /** True when any mapping's formula still awaits an editor's check against its source. */
   source_to_be_confirmed: z.boolean(),
-  couplings: z.array(z.object({ symbol: z.string(), latex: z.string(), unit: z.string() })),
+  /** latex_html: the symbol already typeset by KaTeX on the server (null if its TeX does not parse). */
+  couplings: z.array(z.object({ symbol: z.string(), latex: z.string(), latex_html: z.string().nullable(), unit: z.string() })),
   mappings: z.array(mappingSummarySchema),
   references: z.array(storedReferenceSchema),
   retired: storedRetirementSchema,
@@ -141,6 +144,7 @@ export const theoryMappingSchema = z.object({
   references: z.array(storedReferenceSchema),
   locator: z.string().nullable(),
   notes: z.string().nullable(),
+  caution: z.string().nullable().default(null),
   checks: z.array(checkResultSchema),
   /** No engine check of this mapping (or its validity conditions) failed. */
   checks_ok: z.boolean(),
@@ -158,6 +162,9 @@ export const storedCouplingSchema = z.object({
   convention: z.string().nullable(),
   conventions: z.array(storedConventionSchema),
   retired: storedRetirementSchema,
+  /** Physical range and GR value; null for entries stored before they were declared. */
+  range: z.enum(COUPLING_RANGES).nullable().default(null),
+  gr_value: z.enum(GR_VALUES).nullable().default(null),
 });
 
 export const storedReferenceBoundSchema = z.object({

@@ -1,5 +1,18 @@
 import { z } from "zod";
-import { binarySchema, bodyKindSchema, cautionSchema, citedReferenceSchema, cosmologySchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
+import {
+  binarySchema,
+  bodyKindSchema,
+  cautionSchema,
+  checkBoundValue,
+  citedReferenceSchema,
+  cosmologySchema,
+  fLowSchema,
+  gimrKSchema,
+  intervalSchema,
+  signConventionSchema,
+  theorySlugSchema,
+  verdictSchema,
+} from "./convert.ts";
 
 /**
  * Request and response shapes of POST /api/v1/convert/samples (a posterior, sample by sample) and
@@ -22,16 +35,21 @@ export type SampleColumn = (typeof SAMPLE_COLUMNS)[number];
 // a bad cell answers with the column and its first bad row, e.g. fields["columns.m1.1532"].
 const column = z.array(z.unknown()).max(MAX_SAMPLES, `at most ${MAX_SAMPLES} samples`);
 
+/** Which coupling of the entry, when it has several at the bound's b (Johannsen's eps3 and alpha13). */
+const couplingChoice = z.string().regex(/^[A-Za-z][A-Za-z0-9_]*$/, "coupling must be a coupling symbol of the entry").max(40).optional();
+
 export const samplesRequestSchema = z
-  .object({
+  .strictObject({
     theory: theorySlugSchema,
+    coupling: couplingChoice,
     parameter: z.enum(["ppe_beta", "gimr_dphi"], { error: 'parameter must be "ppe_beta" or "gimr_dphi"' }),
     b: finiteNumber("b").optional(),
     k: gimrKSchema.optional(),
     credibility,
     sign_convention: signConventionSchema.default("plus"),
     includes_spin: z.boolean().default(false),
-    columns: z.object({
+    f_low: fLowSchema,
+    columns: z.strictObject({
       beta: column,
       m1: column,
       m2: column,
@@ -87,19 +105,25 @@ export type SamplesResponse = z.infer<typeof samplesResponseSchema>;
 // ---------------------------------------------------------------------------------------------
 // Several events
 
-export const eventSchema = z.object({
-  label: z.string().trim().min(1, "each event needs a label").max(80),
-  binary: binarySchema,
-  upper: finiteNumber("upper").positive("upper must be positive: it is the bound on |beta| or |dphi_k|"),
-});
+export const eventSchema = z
+  .strictObject({
+    label: z.string().trim().min(1, "each event needs a label").max(80),
+    binary: binarySchema,
+    /** |beta| <= upper, or a signed interval [lo, hi] (either end null for a one-sided bound). */
+    upper: finiteNumber("upper").positive("upper must be positive: it is the bound on |beta| or |dphi_k|").optional(),
+    interval: intervalSchema.optional(),
+  })
+  .superRefine((e, ctx) => checkBoundValue(e, ctx));
 
 export const eventsRequestSchema = z
-  .object({
+  .strictObject({
     theory: theorySlugSchema,
+    coupling: couplingChoice,
     parameter: z.enum(["ppe_beta", "gimr_dphi"], { error: 'parameter must be "ppe_beta" or "gimr_dphi"' }),
     b: finiteNumber("b").optional(),
     k: gimrKSchema.optional(),
     credibility,
+    f_low: fLowSchema,
     sign_convention: signConventionSchema.default("plus"),
     includes_spin: z.boolean().default(false),
     events: z.array(eventSchema).min(1, "events must hold at least one event").max(MAX_EVENTS, `at most ${MAX_EVENTS} events`),
@@ -126,12 +150,16 @@ export const eventsResponseSchema = z.object({
       /** Applicable: the event's own limit as /convert gives it; otherwise why not. */
       limit: z.number().nullable(),
       valid: z.boolean().nullable(),
+      verdict: verdictSchema.nullable().default(null),
+      /** Whether this event entered the combined limit. */
+      combined: z.boolean().default(false),
       beta_max: z.number().nullable(),
       /** K_i in beta = K_i x^p for this event's binary (canonical coupling). */
       prefactor: z.number().nullable(),
       reason: z.string().nullable(),
     }),
   ),
+  /** The tightest single event for the side: the smallest upper limit, or the largest lower limit. */
   tightest: z.object({ label: z.string(), limit: z.number() }).nullable(),
   combined: z.object({ limit: z.number(), events_used: z.number().int(), rule: z.string() }).nullable(),
   cautions: z.array(cautionSchema),

@@ -19,6 +19,9 @@ const finite = (what: string) =>
 const credibility = finite("credibility").gt(0, "credibility must lie strictly between 0 and 1").lt(1, "credibility must lie strictly between 0 and 1");
 const upper = finite("upper").positive("upper must be positive: it is the bound on |beta| or |dphi_k|");
 
+/** Lowest frequency of the analysis band when the request does not say: 20 Hz is common practice for ground-based detectors. */
+export const DEFAULT_F_LOW_HZ = 20;
+
 export const signConventionSchema = z.enum(["plus", "minus"], { error: 'sign_convention must be "plus" (exp(+i Psi)) or "minus" (exp(-i Psi))' });
 export type SignConvention = z.infer<typeof signConventionSchema>;
 
@@ -27,27 +30,108 @@ export const gimrKSchema = z.union([finite("k"), z.enum(["5l", "6l"])], { error:
   { message: `k must be one of ${GIMR_KS.join(", ")}` },
 );
 
-export const ppeBoundSchema = z.object({
-  parameter: z.literal("ppe_beta"),
-  b: finite("b"),
-  upper,
-  credibility,
-  sign_convention: signConventionSchema.default("plus"),
-});
+// ---------------------------------------------------------------------------------------------
+// The bound model, shared by every route that takes a bound (and by later features).
+//
+// A bound on the signed deviation x (ppE beta, or gIMR dphi_k) is one of
+//   { upper: U }            |x| <= U (the symmetric case [-U, U]);
+//   { interval: [lo, hi] }  a signed credible interval, lo < hi; either end null for a one-sided bound;
+// plus its credibility, the phase-sign convention it was stated in (ppE only) and the lowest
+// frequency of the analysis band, f_low (Hz), which the validity conditions need.
 
-export const gimrBoundSchema = z.object({
-  parameter: z.literal("gimr_dphi"),
-  k: gimrKSchema,
-  upper,
-  credibility,
-  /** Whether the analysis stretched the spin-including phi_k rather than the non-spinning one. */
-  includes_spin: z.boolean().default(false),
-});
+/** One end of an interval: a number, or null for "unbounded on this side". */
+const intervalEnd = z.number({ error: "each end of interval must be a number or null" }).nullable();
+export const intervalSchema = z.tuple([intervalEnd, intervalEnd], { error: "interval must be [lo, hi], either end null for a one-sided bound" });
+export type BoundInterval = z.infer<typeof intervalSchema>;
 
+export const fLowSchema = finite("f_low").positive("f_low must be positive (Hz)").max(1e5, "f_low must be at most 1e5 Hz").default(DEFAULT_F_LOW_HZ);
+
+/** The number fields of a bound: exactly one of upper and interval, the credibility and f_low. */
+export const boundValueFields = {
+  upper: upper.optional(),
+  interval: intervalSchema.optional(),
+  credibility,
+  f_low: fLowSchema,
+};
+
+/** The message every route gives for an interval that excludes zero: GR itself is outside. */
+export function grOutsideMessage(lo: number | null, hi: number | null): string {
+  return `GR itself is outside the interval [${lo ?? "-inf"}, ${hi ?? "inf"}]: it excludes 0, so it reports a deviation rather than a bound, and nothing was translated`;
+}
+
+/**
+ * The rules of the bound model, as zod issues at `path` (upper or interval). Shared with the
+ * routes that carry a bound's numbers beside other fields (table rows, events).
+ */
+export function checkBoundValue(v: { upper?: number | undefined; interval?: BoundInterval | undefined }, ctx: z.RefinementCtx, path: (string | number)[] = []): void {
+  if (v.upper !== undefined && v.interval !== undefined) {
+    ctx.addIssue({ code: "custom", path: [...path, "interval"], message: "give either upper (|x| <= U) or interval ([lo, hi]), not both" });
+    return;
+  }
+  if (v.upper === undefined && v.interval === undefined) {
+    ctx.addIssue({ code: "custom", path: [...path, "upper"], message: "upper is required (or give interval: [lo, hi], either end null for a one-sided bound)" });
+    return;
+  }
+  if (!v.interval) return;
+  const [lo, hi] = v.interval;
+  if (lo === null && hi === null) {
+    ctx.addIssue({ code: "custom", path: [...path, "interval"], message: "a one-sided bound needs its finite side: give [lo, null] or [null, hi]" });
+    return;
+  }
+  for (const [i, end] of [lo, hi].entries()) {
+    if (end !== null && !Number.isFinite(end)) ctx.addIssue({ code: "custom", path: [...path, "interval", i], message: "each end of interval must be a finite number or null" });
+  }
+  if (lo !== null && hi !== null && !(lo < hi)) {
+    ctx.addIssue({ code: "custom", path: [...path, "interval"], message: `interval must have lo < hi (got [${lo}, ${hi}])` });
+    return;
+  }
+  if ((lo !== null && lo > 0) || (hi !== null && hi < 0)) {
+    ctx.addIssue({ code: "custom", path: [...path, "interval"], message: grOutsideMessage(lo, hi) });
+  }
+}
+
+/** The signed interval [lo, hi] a bound stands for ({ upper: U } is [-U, U]); null ends are unbounded. */
+export function intervalOf(v: { upper?: number | undefined; interval?: BoundInterval | undefined }): BoundInterval {
+  if (v.interval) return v.interval;
+  if (v.upper === undefined) throw new RangeError("a bound needs upper or interval");
+  return [-v.upper, v.upper];
+}
+
+/** "|β| ≤ 1e-3", "β ∈ [-2e-3, 1e-3]", "β ≥ -2e-3": how a bound reads. */
+export function describeBound(v: { upper?: number | undefined; interval?: BoundInterval | undefined }, symbol: string): string {
+  const fmt = (x: number) => Number(x.toPrecision(4)).toString();
+  if (v.upper !== undefined) return `|${symbol}| ≤ ${fmt(v.upper)}`;
+  const [lo, hi] = v.interval ?? [null, null];
+  if (lo !== null && hi !== null) return `${symbol} ∈ [${fmt(lo)}, ${fmt(hi)}]`;
+  if (lo !== null) return `${symbol} ≥ ${fmt(lo)}`;
+  return `${symbol} ≤ ${fmt(hi ?? Number.NaN)}`;
+}
+
+export const ppeBoundSchema = z
+  .strictObject({
+    parameter: z.literal("ppe_beta"),
+    b: finite("b"),
+    ...boundValueFields,
+    sign_convention: signConventionSchema.default("plus"),
+  })
+  .superRefine((v, ctx) => checkBoundValue(v, ctx));
+
+export const gimrBoundSchema = z
+  .strictObject({
+    parameter: z.literal("gimr_dphi"),
+    k: gimrKSchema,
+    ...boundValueFields,
+    /** Whether the analysis stretched the spin-including phi_k rather than the non-spinning one. */
+    includes_spin: z.boolean().default(false),
+  })
+  .superRefine((v, ctx) => checkBoundValue(v, ctx));
+
+/** A bound as every route takes it (exported for reuse: samples jobs, forecasts, ringdown). */
 export const boundSchema = z.discriminatedUnion("parameter", [ppeBoundSchema, gimrBoundSchema], {
   error: 'parameter must be "ppe_beta" or "gimr_dphi"',
 });
 export type BoundRequest = z.output<typeof boundSchema>;
+export type BoundRequestInput = z.input<typeof boundSchema>;
 
 export const bodyKindSchema = z.enum(["bh", "ns"], { error: 'each body must be "bh" or "ns"' });
 
@@ -59,7 +143,7 @@ const mass = (what: string) => finite(what).positive(`${what} must be positive (
 const sensitivity = finite("scalar sensitivity").min(0, "scalar sensitivity must lie in [0, 0.5]").max(0.5, "scalar sensitivity must lie in [0, 0.5] (a black hole has 1/2)");
 
 export const binarySchema = z
-  .object({
+  .strictObject({
     m1: mass("m1"),
     m2: mass("m2"),
     chi1: spin("chi1"),
@@ -79,7 +163,7 @@ export const binarySchema = z
   });
 export type BinaryRequest = z.output<typeof binarySchema>;
 
-export const cosmologySchema = z.object({
+export const cosmologySchema = z.strictObject({
   H0: finite("H0").positive("H0 must be positive (km/s/Mpc)").default(DEFAULT_COSMOLOGY.H0),
   Omega_m: finite("Omega_m").min(0, "Omega_m must lie in [0, 1]").max(1, "Omega_m must lie in [0, 1]").default(DEFAULT_COSMOLOGY.Omega_m),
 });
@@ -87,7 +171,7 @@ export type CosmologyRequest = z.output<typeof cosmologySchema>;
 
 export const theorySlugSchema = z.string().regex(/^[a-z0-9][a-z0-9-]{0,63}$/, "name a catalogue entry by its short name, as in its address: lower-case letters, digits and dashes (edgb, massive-graviton)");
 
-export const convertRequestSchema = z.object({
+export const convertRequestSchema = z.strictObject({
   bound: boundSchema,
   binary: binarySchema,
   cosmology: cosmologySchema.optional(),
@@ -112,6 +196,9 @@ export const quotedValueSchema = z.object({
 });
 export type QuotedValueDto = z.infer<typeof quotedValueSchema>;
 
+/** How one condition fares at the limit: holds, fails by at most the stretch factor (rule of thumb only), or fails. */
+export const validityStatusSchema = z.enum(["ok", "stretched", "fails"]);
+
 export const validityItemSchema = z.object({
   label: z.string(),
   condition: z.string(),
@@ -119,7 +206,31 @@ export const validityItemSchema = z.object({
   max: z.number(),
   ok: z.boolean(),
   kind: z.enum(["hard", "rule_of_thumb"]),
+  /** value / max: how many times the condition's threshold is exceeded (null when not a number). */
+  factor: z.number().nullable().default(null),
+  status: validityStatusSchema.default("ok"),
   reference: z.string().optional(),
+});
+
+/**
+ * valid: every condition holds at the limit (a rule of thumb exceeded by at most the stretch factor
+ * counts as holding, with a caution); outside_validity: a hard condition fails, or a rule of thumb
+ * fails by more than the stretch factor; not_assessed: the entry states no condition for this binary.
+ */
+export const VERDICTS = ["valid", "outside_validity", "not_assessed"] as const;
+export const verdictSchema = z.enum(VERDICTS);
+export type Verdict = z.infer<typeof verdictSchema>;
+
+/** A rule of thumb failing by more than this factor puts the limit outside validity (project choice). */
+export const RULE_OF_THUMB_STRETCH = 10;
+
+export const failingConditionSchema = z.object({
+  label: z.string(),
+  condition: z.string(),
+  value: z.number().nullable(),
+  max: z.number(),
+  factor: z.number().nullable(),
+  kind: z.enum(["hard", "rule_of_thumb"]),
 });
 
 export const cautionCodeSchema = z.enum([
@@ -133,6 +244,9 @@ export const cautionCodeSchema = z.enum([
   "frame",
   "source_status",
   "engine",
+  "couplings",
+  "orders",
+  "bodies",
 ]);
 export type CautionCode = z.infer<typeof cautionCodeSchema>;
 
@@ -166,7 +280,8 @@ export const referenceComparisonSchema = z.object({
   note: z.string().nullable(),
   /** How many times tighter (>1) or weaker (<1) this translation is, when both are in the same symbol and unit. */
   ratio: z.number().nullable(),
-  verdict: z.enum(["tighter", "weaker", "equal", "incomparable"]),
+  /** not_compared: our limit is not valid, so no comparison is made (the published bound is listed for reference). */
+  verdict: z.enum(["tighter", "weaker", "equal", "incomparable", "not_compared"]),
   sentence: z.string(),
 });
 export type ReferenceComparison = z.infer<typeof referenceComparisonSchema>;
@@ -181,9 +296,26 @@ export const convertResultSchema = z.object({
   also: z.array(quotedValueSchema),
   /** The limit on the coupling the mapping takes, in its canonical geometric unit. */
   canonical: z.object({ symbol: z.string(), latex: z.string(), value: z.number(), unit: z.string() }),
+  /** Which coupling of the entry this row bounds (an entry with several couplings gives one row each). */
+  coupling_symbol: z.string().default(""),
   b: z.number(),
   beta_max: z.number(),
+  /** The bound as stated, in the exp(+i Psi) convention: [lo, hi] (null = unbounded side). */
+  beta_interval: z.tuple([z.number().nullable(), z.number().nullable()]).default([null, null]),
+  /** Sign of beta the theory predicts for this binary over the coupling's physical range. */
+  theory_sign: z.enum(["negative", "positive", "either"]).default("either"),
+  /** Which end of the interval bounded the coupling: lower (lo), upper (hi) or both. */
+  side_used: z.enum(["lower", "upper", "both"]).default("both"),
+  /** For a coupling of either sign: the interval on the signed quantity (null end = unbounded). */
+  signed_interval: z
+    .object({ symbol: z.string(), latex: z.string(), unit: z.string(), lower: z.number().nullable(), upper: z.number().nullable() })
+    .nullable()
+    .default(null),
   method: z.enum(["closed_form", "numeric_root"]),
+  verdict: verdictSchema.default("not_assessed"),
+  /** The condition that fails worst at the limit, when the verdict is outside_validity. */
+  failing: failingConditionSchema.nullable().default(null),
+  /** Alias of verdict === "valid". */
   valid: z.boolean(),
   validity: z.array(validityItemSchema),
   closed_form_latex: z.string(),
@@ -205,6 +337,8 @@ export const notApplicableCodeSchema = z.enum([
   "out_of_range",
   "interval_excludes_gr",
   "evaluation_failed",
+  "unreachable_side",
+  "bodies_not_covered",
 ]);
 
 export const notApplicableSchema = z.object({
@@ -219,7 +353,14 @@ export type NotApplicable = z.infer<typeof notApplicableSchema>;
 
 export const convertResponseSchema = z.object({
   /** The bound as translated: b, and |beta| <= beta_max in the exp(+i Psi) convention. */
-  bound: z.object({ b: z.number().nullable(), beta_max: z.number().nullable(), credibility: z.number() }),
+  bound: z.object({
+    b: z.number().nullable(),
+    beta_max: z.number().nullable(),
+    /** The bound in the exp(+i Psi) convention, as [lo, hi] on beta (null = unbounded side). */
+    beta_interval: z.tuple([z.number().nullable(), z.number().nullable()]).default([null, null]),
+    credibility: z.number(),
+    f_low: z.number().default(DEFAULT_F_LOW_HZ),
+  }),
   cosmology: z.object({ H0: z.number(), Omega_m: z.number() }),
   catalogue_revision: z.string(),
   results: z.array(convertResultSchema),
@@ -235,26 +376,29 @@ export type ConvertResponse = z.infer<typeof convertResponseSchema>;
 // Table over b
 
 export const tableRowSchema = z
-  .object({
+  .strictObject({
     b: finite("b").optional(),
     k: gimrKSchema.optional(),
-    upper,
+    upper: upper.optional(),
+    interval: intervalSchema.optional(),
     label: z.string().max(200).optional(),
   })
   .superRefine((r, ctx) => {
     if ((r.b === undefined) === (r.k === undefined)) {
       ctx.addIssue({ code: "custom", path: [r.b === undefined ? "b" : "k"], message: "give exactly one of b and k per row" });
     }
+    checkBoundValue(r, ctx);
   });
 export type TableRow = z.output<typeof tableRowSchema>;
 
 export const MAX_TABLE_ROWS = 200;
 
-export const convertTableRequestSchema = z.object({
+export const convertTableRequestSchema = z.strictObject({
   rows: z.array(tableRowSchema).min(1, "rows must hold at least one row").max(MAX_TABLE_ROWS, `at most ${MAX_TABLE_ROWS} rows`),
   binary: binarySchema,
   cosmology: cosmologySchema.optional(),
   credibility,
+  f_low: fLowSchema,
   sign_convention: signConventionSchema.default("plus"),
   includes_spin: z.boolean().default(false),
   theories: z.array(theorySlugSchema).min(1).max(100).optional(),
@@ -269,7 +413,12 @@ export const convertTableResponseSchema = z.object({
     z.object({
       index: z.number().int(),
       label: z.string().nullable(),
-      input: z.object({ b: z.number().nullable(), k: z.union([z.number(), z.string()]).nullable(), upper: z.number() }),
+      input: z.object({
+        b: z.number().nullable(),
+        k: z.union([z.number(), z.string()]).nullable(),
+        upper: z.number().nullable(),
+        interval: z.tuple([z.number().nullable(), z.number().nullable()]).nullable().default(null),
+      }),
       b: z.number().nullable(),
       beta_max: z.number().nullable(),
       results: z.array(convertResultSchema),

@@ -57,7 +57,8 @@ export type SourceStatus = (typeof SOURCE_STATUSES)[number];
 
 export const VALIDITY_KINDS = ["hard", "rule_of_thumb"] as const;
 export const DERIVATION_KINDS = ["energy_flux", "frequency_drift", "propagation"] as const;
-export const BODY_RULE_KINDS = ["charge", "derived_for"] as const;
+/** charge: which bodies carry the charge; derived_for: a caution for other bodies; only_for: other bodies are not covered at all. */
+export const BODY_RULE_KINDS = ["charge", "derived_for", "only_for"] as const;
 export const BODY_TYPES = ["bh", "ns"] as const;
 export const BOUND_SIDES = ["upper", "lower"] as const;
 /** Where a coupling may lie physically: x > 0, x >= 0, or either sign. */
@@ -277,7 +278,7 @@ export const derivationSchema = z.object({
 });
 
 export const bodyRuleSchema = z.object({
-  /** "charge": which bodies carry the charge; "derived_for": which bodies the formula was derived for. */
+  /** "charge": which bodies carry the charge; "derived_for": which bodies the formula was derived for (others get a caution); "only_for": the mapping does not apply to other bodies. */
   kind: z.enum(BODY_RULE_KINDS),
   description: text(1000),
   bodies: z.array(z.enum(BODY_TYPES)).max(2).optional(),
@@ -315,6 +316,8 @@ export const mappingObject = z.object({
     gimr_equivalent: z.object({ k: z.number().finite(), expression: expression, source_status: z.enum(SOURCE_STATUSES) }).optional(),
     body_rules: z.array(bodyRuleSchema).max(20).default([]),
     validity: z.array(validityConditionSchema).max(20).default([]),
+    /** Shown beside every translation with this mapping, where the number can mislead. */
+    caution: optionalText(1000),
     source_status: z.enum(SOURCE_STATUSES).default("confirmed"),
     /** Keys of the references this formula comes from. */
     references: z.array(referenceKey).max(20).default([]),
@@ -330,6 +333,9 @@ export const mappingSchema = mappingObject.superRefine((m, ctx) => {
     }
     if (m.kind === "inspiral_phase" && m.b === undefined) ctx.addIssue({ code: "custom", path: ["b"], message: "is required for an inspiral_phase mapping" });
     if (m.kind === "inspiral_amplitude" && m.a === undefined) ctx.addIssue({ code: "custom", path: ["a"], message: "is required for an inspiral_amplitude mapping" });
+    if ((m.kind === "ringdown_frequency" || m.kind === "ringdown_damping") && m.mode === undefined) {
+      ctx.addIssue({ code: "custom", path: ["mode"], message: "is required for a ringdown mapping: the quasinormal mode (l, m, n), e.g. (2, 2, 0)" });
+    }
   });
 
 export const referenceBoundSchema = z.object({
@@ -428,16 +434,22 @@ export const checkResultSchema = z.object({
   /** Short machine name: parse, symbols, dimension, ppe_order, derivation, validity ... */
   name: z.string(),
   ok: z.boolean(),
-  severity: z.enum(["error", "warning", "info"]),
+  /**
+   * "inconclusive": the check could not finish in its time limit. Not a failure (it says nothing
+   * about the expression); it runs again on the next save, and an entry with one cannot be accepted.
+   */
+  severity: z.enum(["error", "warning", "info", "inconclusive"]),
   message: z.string(),
 });
 export type CheckResult = z.infer<typeof checkResultSchema>;
 
 export const checksReportSchema = z.object({
-  /** True when no check failed with severity "error". */
+  /** True when no check failed with severity "error" and none is inconclusive. */
   ok: z.boolean(),
   failures: z.number().int(),
   warnings: z.number().int(),
+  /** Checks stopped by a time limit (reports stored before this count existed have none). */
+  inconclusive: z.number().int().optional(),
   results: z.array(checkResultSchema),
   checked_at: z.string(),
 });

@@ -7,6 +7,7 @@ import * as sheets from "./20261201000300_sheets.ts";
 import * as revisionAuthors from "./20261202000100_revision_authors.ts";
 import * as retirement from "./20261202000500_retirement.ts";
 import * as forecastCurves from "./20261202001200_forecast_curves.ts";
+import * as couplingRange from "./20261202001300_coupling_range.ts";
 import * as analysisJobs from "./20261202003000_analysis_jobs.ts";
 
 /**
@@ -22,5 +23,6 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261202000100_revision_authors": revisionAuthors,
   "20261202000500_retirement": retirement,
   "20261202001200_forecast_curves": forecastCurves,
+  "20261202001300_coupling_range": couplingRange,
   "20261202003000_analysis_jobs": analysisJobs,
 };

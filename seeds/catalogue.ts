@@ -3,7 +3,7 @@ import type { Knex } from "../server/db/knex.ts";
 import { ConflictError } from "../server/errors.ts";
 import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
 import { publishEntry } from "../server/features/catalogue/publish.ts";
-import { checkMapping } from "../server/physics/checks/index.ts";
+import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
 import { THEORIES } from "./data/theories.ts";
 import type { TheoryEntry as SeedEntry } from "./data/theory-entry.ts";
 import type { SeedStep } from "./index.ts";
@@ -59,8 +59,9 @@ export function toSubmissionEntry(e: SeedEntry): TheoryEntry {
 /** Publishes one seed entry; an entry whose checks fail is refused (409), exactly as an editor's accept would be. */
 export async function publishSeedEntry(trx: Knex.Transaction, seed: SeedEntry, acceptedBy: number | null, now: Date) {
   const entry = toSubmissionEntry(seed);
-  guardEntryExpressions(entry, `${seed.slug}.`);
-  const checks = await checkEntry(entry, (input) => checkMapping(input), now);
+  const runner = inProcessCheckRunner();
+  await guardEntryExpressions(entry, runner, "seed", `${seed.slug}.`);
+  const checks = await checkEntry(entry, runner, "seed", now);
   return publishEntry(trx, entry, checks, { targetSlug: null, submissionId: null, authorId: null, acceptedBy, now });
 }
 

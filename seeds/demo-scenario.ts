@@ -5,7 +5,7 @@ import type { Identity, Role } from "../server/http/identity.ts";
 import { catalogueService } from "../server/features/catalogue/service.ts";
 import { submissionsService } from "../server/features/submissions/service.ts";
 import { siteUrl } from "../server/mail/templates.ts";
-import { checkMapping } from "../server/physics/checks/index.ts";
+import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
 import type { SeedStep } from "./index.ts";
 
 /**
@@ -54,7 +54,7 @@ export const demoScenarioSeed: SeedStep = {
   run: async (trx) => {
     for (const p of EXTRA_PEOPLE) await trx("users").insert(p);
     const clock = scriptedClock(new Date(Date.now() - 10 * 86_400_000));
-    const service = submissionsService({ db: trx, siteUrl: seedSiteUrl(), clock: clock.now, checkMapping: (i) => checkMapping(i), mailQueued: () => undefined });
+    const service = submissionsService({ db: trx, siteUrl: seedSiteUrl(), clock: clock.now, checks: inProcessCheckRunner(), mailQueued: () => undefined });
     const catalogue = catalogueService(trx);
     const current = async (slug: string) => (await catalogue.revision(slug, 1)).entry as TheoryEntry;
 

@@ -4,7 +4,7 @@ import { ConflictError } from "../server/errors.ts";
 import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
 import { publishEntry } from "../server/features/catalogue/publish.ts";
 import { latestRevisionEntryOf } from "../server/features/catalogue/revision-repository.ts";
-import { checkMapping } from "../server/physics/checks/index.ts";
+import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
 import { johannsenPsaltis, johannsenRingdownMappings, RINGDOWN_REFS, ringdownDeviation } from "./data/theories-ringdown.ts";
 import type { SeedStep } from "./index.ts";
 
@@ -14,8 +14,9 @@ import type { SeedStep } from "./index.ts";
  */
 async function publish(trx: Knex.Transaction, input: TheoryEntryInput, targetSlug: string | null, acceptedBy: number | null, now: Date) {
   const entry = theoryEntrySchema.parse(input);
-  guardEntryExpressions(entry, `${entry.slug}.`);
-  const checks = await checkEntry(entry, (m) => checkMapping(m), now);
+  const runner = inProcessCheckRunner();
+  await guardEntryExpressions(entry, runner, "seed", `${entry.slug}.`);
+  const checks = await checkEntry(entry, runner, "seed", now);
   return publishEntry(trx, entry, checks, { targetSlug, submissionId: null, authorId: null, acceptedBy, now });
 }
 

@@ -17,6 +17,7 @@ import { ringdownService } from "./features/ringdown/service.ts";
 import { convertRoutes } from "./features/convert/routes.ts";
 import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
+import { createCheckRunner } from "./features/expressions/check-runner.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
 import { getForecastPool } from "./features/forecasts/pool.ts";
 import { curvesRepository } from "./features/forecasts/repository.ts";
@@ -35,6 +36,8 @@ import type { MailDispatcher } from "./mail/dispatcher.ts";
 import type { Mailer } from "./mail/mailer.ts";
 import { createMailOutbox } from "./mail/outbox.ts";
 import { openApiRoutes } from "./openapi/routes.ts";
+import { CheckPool } from "./physics/checks/check-pool.ts";
+import type { SymbolicPool } from "./physics/expr/pool.ts";
 import { sheetsRoutes } from "./features/sheets/routes.ts";
 import { sheetsService } from "./features/sheets/service.ts";
 
@@ -45,12 +48,14 @@ export interface AppDeps {
   clock?: () => Date;
   /** Sends mail from the outbox; default: SMTP as configured (the local sink in development and tests). */
   mailer?: Mailer;
+  /** The CAS the check workers' symbolic steps use; default: the shared pool. */
+  symbolicPool?: SymbolicPool;
   /** The background-job queue (pg-boss); default: one on DATABASE_URL, started on first use. */
   jobQueue?: JobQueue;
 }
 
 export interface DragomanApp extends Express {
-  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue };
+  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue; checkPool: CheckPool };
 }
 
 /** Builds the Express application. No listen here: server/index.ts and the tests do that. */
@@ -63,6 +68,17 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.devRoutesEnabled = config.DEV_OUTBOX;
   const mailOutbox = createMailOutbox({ db, config, logger, mailer: deps.mailer });
   app.locals.mailOutbox = mailOutbox;
+  // Expression checks never run on this thread: one pool of check workers per app.
+  const symbolicPool = deps.symbolicPool;
+  const checkPool = new CheckPool({
+    size: config.CHECK_WORKERS,
+    timeoutMs: config.CHECK_TIMEOUT_MS,
+    perClient: config.CHECK_IN_FLIGHT_PER_CLIENT,
+    maxQueue: config.CHECK_QUEUE_MAX,
+    ...(symbolicPool ? { symbolic: () => symbolicPool } : {}),
+  });
+  app.locals.checkPool = checkPool;
+  const checks = createCheckRunner(checkPool);
   const jobQueue = deps.jobQueue ?? createJobQueue(config, { supervise: false });
   app.locals.jobQueue = jobQueue;
   app.disable("x-powered-by");
@@ -99,8 +115,8 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", healthRoutes(db));
   table.mount(api, "/api", accountsRoutes(auth));
   table.mount(api, "/api", adminRoutes(db));
-  table.mount(api, "/api", expressionRoutes(config));
-  table.mount(api, "/api", catalogueApiRoutes({ db, config, clock: deps.clock ?? (() => new Date()), mailQueued: mailOutbox.kick }));
+  table.mount(api, "/api", expressionRoutes(config, checks));
+  table.mount(api, "/api", catalogueApiRoutes({ db, config, clock: deps.clock ?? (() => new Date()), mailQueued: mailOutbox.kick, checks }));
   // One translator per app: its compiled catalogue is shared by the convert and sheets routes.
   const translator = convertService(dbCatalogueReader(db));
   table.mount(api, "/api", convertRoutes(translator, config));

@@ -48,6 +48,13 @@ export const configSchema = z
     MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(10),
     MAIL_SWEEP_MS: z.coerce.number().int().min(100).default(30_000),
     RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(120),
+    // Expression checks run in worker threads (server/physics/checks/check-pool.ts): how many, the hard
+    // time limit of one job, the requests one client (address or account) may have in flight, and how
+    // many jobs may wait. Beyond the last two the answer is 429 / 503 with Retry-After, never a wait.
+    CHECK_WORKERS: z.coerce.number().int().min(1).max(16).default(2),
+    CHECK_TIMEOUT_MS: z.coerce.number().int().min(100).default(8000),
+    CHECK_IN_FLIGHT_PER_CLIENT: z.coerce.number().int().min(1).default(2),
+    CHECK_QUEUE_MAX: z.coerce.number().int().min(1).default(32),
     // Largest CSV accepted by POST /api/v1/convert/table (bytes); 256 kB is some thousand rows.
     CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),
     // Largest body (JSON columns or CSV upload) accepted by POST /api/v1/convert/samples (bytes); 32 MiB holds 200 000 samples of six columns.

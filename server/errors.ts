@@ -53,13 +53,19 @@ export class PayloadTooLargeError extends AppError {
 }
 
 export class TooManyRequestsError extends AppError {
-  constructor(message = "Too many requests; wait a minute and try again.") {
+  /** Sent as the Retry-After header when set. */
+  readonly retryAfterSeconds: number | undefined;
+  constructor(message = "Too many requests; wait a minute and try again.", retryAfterSeconds?: number) {
     super(429, "rate_limited", message);
+    this.retryAfterSeconds = retryAfterSeconds;
   }
 }
 
 export class ServiceUnavailableError extends AppError {
-  constructor(message: string) {
+  /** Sent as the Retry-After header when set. */
+  readonly retryAfterSeconds: number | undefined;
+  constructor(message: string, retryAfterSeconds?: number) {
     super(503, "unavailable", message);
+    this.retryAfterSeconds = retryAfterSeconds;
   }
 }

@@ -49,6 +49,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
   getSymbolicPool()
     .warm()
     .catch((err: unknown) => logger.warn({ err }, "symbolic workers did not warm up"));
+  app.locals.checkPool.warm().catch((err: unknown) => logger.warn({ err }, "check workers did not warm up"));
   const addr = server.address();
   const port = typeof addr === "object" && addr ? addr.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
@@ -60,6 +61,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
         server.closeIdleConnections();
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
+      await app.locals.checkPool.close();
       await app.locals.jobQueue.stop();
       await closeSymbolicPool();
       await closeForecastPool();

@@ -200,6 +200,17 @@ export const REFS = {
     journal: "Phys. Rev. D 94, 064033",
     details_from_memory: true,
   }),
+  jenksYagiAlexander2020: ref({
+    key: "jenks-yagi-alexander-2020",
+    arxiv: "2007.09714",
+    doi: "10.1103/PhysRevD.102.084022",
+    authors: "L. Jenks, K. Yagi, S. Alexander",
+    title: "Probing noncommutative gravity with gravitational wave and binary pulsar observations",
+    year: 2020,
+    journal: "Phys. Rev. D 102, 084022",
+    locator: "abstract: the correction depends on the orientation of the noncommutativity tensor",
+    details_from_memory: true,
+  }),
   johannsen2013: ref({
     key: "johannsen-2013",
     doi: "10.1103/PhysRevD.88.044002",

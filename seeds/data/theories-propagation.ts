@@ -41,6 +41,8 @@ export const massiveGraviton: TheoryEntry = {
       unit: "km",
       description: "graviton Compton wavelength h / (m_g c); m_g c^2 = h c / lambda_g",
       quoted: { form: "graviton_wavelength", symbol: "lambda_g", latex: "\\lambda_g", unit: "km" },
+      range: "positive",
+      gr_value: "infinity",
     },
   ],
   mappings: [
@@ -60,9 +62,10 @@ export const massiveGraviton: TheoryEntry = {
       },
       validity: [
         {
-          expression: `${ISCO_WAVELENGTH}/lambda_g`,
+          // m_g c^2 / (h f) = lambda_GW / lambda_g is largest at the lowest frequency of the band.
+          expression: "1/(f_low*lambda_g)",
           max: 0.01,
-          label: "h f >> m_g c^2: GW wavelength at the ISCO far below lambda_g",
+          label: "h f >> m_g c^2 over the band: m_g c^2 / (h f_low) = (c / f_low) / lambda_g below 0.01",
           kind: "rule_of_thumb",
           reference: "project choice: 0.01 stands for 'much less than 1'",
         },
@@ -110,7 +113,8 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
   const tag = exponentSlug(alphaMd);
   const lambda = `lambda_A${tag.replace("p", "")}`;
   const power = 2 - alphaMd;
-  const expression = `pi^(${power})*D_alpha*Mc^(${1 - alphaMd})/((${alphaMd - 1})*${lambda}^(${power}))`;
+  // lambda_A carries the sign of A (A = sign(lambda_A) (h / |lambda_A|)^(2 - alpha)), so beta is odd in it.
+  const expression = `pi^(${power})*D_alpha*Mc^(${1 - alphaMd})*${lambda}/((${alphaMd - 1})*abs(${lambda})^(${power + 1}))`;
   const side = power > 0 ? "lower" : "upper";
   return {
     slug: `dispersion-a${tag}`,
@@ -119,7 +123,7 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
     summary: `Generic dispersion E^2 = p^2 + A p^${alphaMd} (c = 1) for gravitational waves, a frequency-dependent group velocity that dephases the signal over cosmological distances. ${motivation}`,
     assumptions: [
       "A p^(alpha - 2) << 1 over the band; generation unchanged",
-      "A > 0 written; a bound on |beta| applies to either sign of A",
+      "A may take either sign; lambda_A carries the sign of A, and a signed interval on beta maps to a signed interval on A",
       "flat Lambda-CDM distance D_alpha (cosmology stored with each bound)",
     ],
     couplings: [
@@ -128,8 +132,11 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
         latex: `\\lambda_A^{(${alphaMd})}`,
         dimension: "L",
         unit: "km",
-        description: `length scale lambda_A = h A^(1/(alpha - 2)); |A| = (h c / lambda_A)^(${power}) in eV^(${power}) (h c = ${PLANCK_C_EV_M.toPrecision(10)} eV m)`,
+        description: `length scale lambda_A = h |A|^(1/(alpha - 2)), signed like A; |A| = (h c / |lambda_A|)^(${power}) in eV^(${power}) (h c = ${PLANCK_C_EV_M.toPrecision(10)} eV m)`,
         quoted: { form: "dispersion_length", symbol: lambda, latex: "\\lambda_A", unit: "km", alpha_md: alphaMd },
+        range: "any_sign",
+        // A -> 0 is lambda_A -> infinity for alpha < 2 and lambda_A -> 0 for alpha > 2.
+        gr_value: alphaMd < 2 ? "infinity" : "zero",
       },
     ],
     mappings: [
@@ -148,17 +155,27 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
           note: "A / h^(2 - alpha) = lambda_A^(alpha - 2) for A > 0; the engine re-derives beta from the dispersion relation (particle speed p/E, as Mirshekari, Yunes & Will 2012)",
         },
         validity: [
-          {
-            expression: `(${ISCO_WAVELENGTH}/${lambda})^(${power})`,
-            max: 0.01,
-            label: "A p^(alpha - 2) << 1 at the GW wavelength of the ISCO",
-            kind: "rule_of_thumb",
-            reference: "project choice: 0.01 stands for 'much less than 1'; for alpha < 2 lower frequencies are more demanding",
-          },
+          alphaMd < 2
+            ? {
+                // For alpha < 2 the correction A p^(alpha - 2) grows toward low frequency: evaluate it at f_low.
+                expression: `(1/(f_low*abs(${lambda})))^(${power})`,
+                max: 0.01,
+                label: "A p^(alpha - 2) << 1 over the band, evaluated at f_low where it is largest",
+                kind: "rule_of_thumb" as const,
+                reference: "project choice: 0.01 stands for 'much less than 1'",
+              }
+            : {
+                // For alpha > 2 it grows toward high frequency: the ISCO is the end of the inspiral band.
+                expression: `(${ISCO_WAVELENGTH}/abs(${lambda}))^(${power})`,
+                max: 0.01,
+                label: "A p^(alpha - 2) << 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest",
+                kind: "rule_of_thumb" as const,
+                reference: "project choice: 0.01 stands for 'much less than 1'",
+              },
         ],
         source_status: "derived",
         references: [REFS.mirshekariYunesWill2012.key],
-        notes: `${side === "lower" ? "Lower" : "Upper"} bound on lambda_A; an upper bound on |A| either way.`,
+        notes: `${side === "lower" ? "Lower" : "Upper"} bound on |lambda_A|; an upper bound on |A| either way, and a signed interval on A from a signed interval on beta.`,
       },
     ],
     references: [REFS.mirshekariYunesWill2012, REFS.lvk2021Gwtc3Tgr],

@@ -6,7 +6,7 @@
 import { REFS } from "./references.ts";
 import type { TheoryEntry, ValidityEntry } from "./theory-entry.ts";
 
-/** Horizon regularity / small coupling on each black hole with its own mass (the small-coupling conditions quoted with each mapping). */
+/** Horizon regularity / small coupling on each black hole with its own mass. */
 function perBlackHoleCoupling(theory: string): ValidityEntry[] {
   return ([1, 2] as const).map((i) => ({
     expression: `16*pi*alpha^2/m${i}^4`,
@@ -39,8 +39,10 @@ export const edgb: TheoryEntry = {
       latex: "\\alpha",
       dimension: "L^2",
       unit: "km^2",
-      description: "Gauss-Bonnet coupling in convention A",
+      description: "Gauss-Bonnet coupling in convention A; its sign can be absorbed into the scalar (phi -> -phi), so alpha >= 0",
       quoted: { form: "sqrt", symbol: "sqrt_alpha", latex: "\\sqrt{\\alpha}", unit: "km" },
+      range: "non_negative",
+      gr_value: "zero",
       convention: "A",
       conventions: [
         {
@@ -90,9 +92,10 @@ export const edgb: TheoryEntry = {
       body_rules: [
         {
           kind: "charge",
-          description: "black holes carry the spin-dependent charge factor s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2; neutron stars s = 0",
+          description:
+            "black holes carry the spin-dependent charge factor s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2 (spinning-hole charge: Yagi, Stein & Yunes 2016, value from memory, to be confirmed); neutron stars s = 0 at leading order (Yagi 2012)",
           bodies: ["bh", "ns"],
-          reference: REFS.yagi2012.key,
+          reference: REFS.yagiSteinYunes2016.key,
         },
       ],
       validity: perBlackHoleCoupling("EdGB"),
@@ -134,8 +137,9 @@ export const edgb: TheoryEntry = {
       side: "upper",
       reference: REFS.lyuJiangYagi2022.key,
       source_status: "confirmed",
+      credibility: 0.9,
       convention: "A",
-      note: "neutron-star - black-hole events",
+      note: "neutron-star - black-hole events (90% credible, abstract)",
     },
   ],
   needs_source_confirmation: true,
@@ -161,8 +165,10 @@ export const dcs: TheoryEntry = {
       latex: "\\alpha",
       dimension: "L^2",
       unit: "km^2",
-      description: "Chern-Simons coupling, normalised so that zeta = 16 pi alpha^2 / M^4",
+      description: "Chern-Simons coupling, normalised so that zeta = 16 pi alpha^2 / M^4; its sign can be absorbed into the pseudo-scalar, so alpha >= 0",
       quoted: { form: "sqrt", symbol: "sqrt_alpha", latex: "\\sqrt{\\alpha}", unit: "km" },
+      range: "non_negative",
+      gr_value: "zero",
       convention: "A",
       conventions: [{ name: "A", factor: 1, factor_expression: "1" }],
     },
@@ -182,9 +188,18 @@ export const dcs: TheoryEntry = {
         ...([1, 2] as const).map((i) => ({
           expression: `16*pi*alpha^2/m${i}^4`,
           max: 0.1,
-          label: `small coupling on body ${i}: 16 pi alpha^2 / m${i}^4 well below 1`,
+          label: `small coupling on body ${i}: 16 pi alpha^2 / m${i}^4 well below 1 (at most 0.1)`,
+          kind: "hard" as const,
+          reference: "the mapping is a small-coupling expansion in each hole's own 16 pi alpha^2 / m^4; project choice: 0.1 stands for 'much less than 1'",
+          body: i,
+          applies_to: ["bh"] as const,
+        })),
+        ...([1, 2] as const).map((i) => ({
+          expression: `abs(chi${i})`,
+          max: 0.5,
+          label: `slow rotation of body ${i}: |chi${i}| well below 1 (rule of thumb 0.5)`,
           kind: "rule_of_thumb" as const,
-          reference: "project choice: 0.1 stands for 'much less than 1', at v = 0.1",
+          reference: "the mapping is O(chi^2) (slow-rotation expansion); project choice: 0.5 as the rule of thumb",
           body: i,
           applies_to: ["bh"] as const,
         })),
@@ -208,6 +223,7 @@ export const bransDicke: TheoryEntry = {
   assumptions: [
     "omega_BD >> 1 (leading order in 1/omega_BD)",
     "sensitivities: black hole 1/2; neutron star from its equation of state (an input)",
+    "dipole coefficient stored as 1/(2 + omega_BD); the exact coefficient is 1/(omega_BD + 3/2). Both agree at leading order in 1/omega_BD, but published small-omega_BD numbers differ by up to about 2x depending on which is used",
   ],
   couplings: [
     {
@@ -216,6 +232,8 @@ export const bransDicke: TheoryEntry = {
       dimension: "1",
       unit: "1",
       quoted: { form: "identity", symbol: "omega_BD", latex: "\\omega_{BD}", unit: "1" },
+      range: "positive",
+      gr_value: "infinity",
     },
   ],
   mappings: [
@@ -251,7 +269,10 @@ export const bransDicke: TheoryEntry = {
       ],
       source_status: "memory",
       references: [REFS.will1994.key, REFS.yunesYagiPretorius2016.key],
-      notes: "Recalled form, cross-checked by re-deriving the dipole flux. Not a power law in omega_BD: the limit is a numeric root.",
+      caution:
+        "The dipole coefficient is stored as 1/(2 + omega_BD); the exact one is 1/(omega_BD + 3/2). They agree at leading order in 1/omega_BD, but at small omega_BD published limits differ by up to about 2x depending on the choice.",
+      notes:
+        "Recalled form, cross-checked by re-deriving the dipole flux. Coefficient 1/(2 + omega_BD) (exact: 1/(omega_BD + 3/2), equal at leading order in 1/omega_BD). Not a power law in omega_BD: the limit is a numeric root.",
     },
   ],
   references: [REFS.will1994, REFS.willZaglauer1989, REFS.bertottiIessTortora2003, REFS.yunesYagiPretorius2016],
@@ -284,8 +305,10 @@ export const scalarDipole: TheoryEntry = {
       latex: "B",
       dimension: "1",
       unit: "1",
-      description: "relative dipole flux coefficient",
+      description: "relative dipole flux coefficient (a flux, so B >= 0)",
       quoted: { form: "identity", symbol: "B_dip", latex: "B", unit: "1" },
+      range: "non_negative",
+      gr_value: "zero",
     },
   ],
   mappings: [
@@ -298,19 +321,18 @@ export const scalarDipole: TheoryEntry = {
       derivation: { kind: "energy_flux", order: -1, A: "0", B: "B_dip" },
       validity: [
         {
-          // B v^-2 must stay small down to the lowest frequency analysed. A fixed frequency cannot be
-          // written here (a bare number carries no 1/length), so the rule is stated at v = 0.1, the
-          // velocity of a 15 M_sun binary near 10 Hz: B v^-2 < 0.1 there means |B| < 1e-3.
-          expression: "abs(B_dip)",
-          max: 1e-3,
-          label: "dipole flux small against the quadrupole flux down to v = 0.1 (about 10 Hz for 15 M_sun): |B| v^-2 below 0.1",
+          // The dipole-to-quadrupole flux ratio B v^-2 grows toward low frequency, so it is largest at
+          // the low end of the band, v = (pi M f_low)^(1/3): that is where it must be small.
+          expression: "abs(B_dip)*(pi*M*f_low)^(-2/3)",
+          max: 0.1,
+          label: "dipole flux small against the quadrupole flux over the band: |B| v^-2 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
           kind: "rule_of_thumb",
           reference: "project choice: 0.1 stands for 'much less than 1'",
         },
       ],
       source_status: "derived",
       references: [REFS.yunesPretorius2009.key],
-      notes: "Energy balance and the stationary-phase approximation (derived).",
+      notes: "Energy balance and the stationary-phase approximation (Yunes & Pretorius 2009).",
     },
   ],
   references: [REFS.yunesPretorius2009, REFS.yunesYagiPretorius2016],

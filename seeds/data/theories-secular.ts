@@ -26,6 +26,8 @@ export const varyingG: TheoryEntry = {
       unit: "1/km",
       description: "fractional rate of change of G in geometric units (a rate r in 1/s is r/c in 1/km)",
       quoted: { form: "per_year", symbol: "Gdot_over_G", latex: "|\\dot G/G|", unit: "1/yr" },
+      range: "any_sign",
+      gr_value: "zero",
     },
   ],
   mappings: [
@@ -43,6 +45,15 @@ export const varyingG: TheoryEntry = {
       latex: "\\beta = -\\frac{275}{851968}\\,\\frac{\\dot G}{G}\\,\\mathcal{M}",
       frame_note:
         "Gdot/G is the rate at the source and Mc the source-frame chirp mass; the observed rate (1+z)^-1 Gdot/G times Mc_z gives the same product.",
+      validity: [
+        {
+          expression: "abs(Gdot)*tau",
+          max: 0.1,
+          label: "G changes little while the signal is in band: |Gdot/G| tau below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)",
+          kind: "rule_of_thumb",
+          reference: "in-band time at leading order (common practice); project choice: 0.1 stands for 'much less than 1'",
+        },
+      ],
       source_status: "derived",
       references: [REFS.tahuraYagi2018.key, REFS.yunesPretoriusSpergel2010.key],
       notes: "General form -(25/851968)(14 Gdot_C/G - 3 Gdot_D/G) Mc; here Gdot_C = Gdot_D.",
@@ -52,14 +63,29 @@ export const varyingG: TheoryEntry = {
 };
 
 /**
- * Mass-loss rate of a brane black hole, dM/dt = -2.8e-7 (M_sun/M)^2 (ell/10 um)^2 M_sun/yr
- * (Emparan, Garcia-Bellido & Kaloper 2003, as used in Yunes, Yagi & Pretorius 2016 with the
- * binary's total mass) [memory], as the dimensionless geometric rate.
+ * Mass-loss rate of a brane black hole, mdot_i = -C(ell) / m_i^2 for each hole on its own, with
+ * C = 2.8e-7 M_sun^3/yr (ell / 10 um)^2 (Emparan, Garcia-Bellido & Kaloper 2003) [memory], as the
+ * dimensionless geometric rate. The binary's total rate is Mdot = -C (1/m1^2 + 1/m2^2), the law for
+ * which the Mdot mapping's mass-ratio factor is exact [derived].
  */
 const RSII_RATE_AT_UNIT = (2.8e-7 * SOLAR_MASS_TIME_S) / JULIAN_YEAR_S;
 const TEN_MICROMETRES_KM = 1e-8;
-const mdotOfEll = `${literal(RSII_RATE_AT_UNIT)}*(${literal(SOLAR_MASS_LENGTH_KM)}/M)^2*(ell/${literal(TEN_MICROMETRES_KM)})^2`;
+const mdotOfEll = `${literal(RSII_RATE_AT_UNIT)}*${literal(SOLAR_MASS_LENGTH_KM)}^2*(1/m1^2 + 1/m2^2)*(ell/${literal(TEN_MICROMETRES_KM)})^2`;
 const massLossShape = "(3 - 26*eta + 34*eta^2)/(eta^(2/5)*(1 - 2*eta))";
+const BLACK_HOLES_ONLY = {
+  kind: "only_for" as const,
+  description: "black holes only: a neutron star does not lose mass into the bulk, and the mass-ratio factor assumes the per-hole law mdot_i = -C/m_i^2 on both bodies",
+  bodies: ["bh" as const],
+};
+const massLossValidity = (rate: string) => [
+  {
+    expression: `${rate}*tau/M`,
+    max: 0.1,
+    label: "masses change little while the signal is in band: |Mdot| tau / M below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)",
+    kind: "rule_of_thumb" as const,
+    reference: "in-band time at leading order (common practice); project choice: 0.1 stands for 'much less than 1'",
+  },
+];
 
 export const extraDimension: TheoryEntry = {
   slug: "extra-dimension",
@@ -70,7 +96,8 @@ export const extraDimension: TheoryEntry = {
   assumptions: [
     "|Mdot| T_obs << M: the masses change little during the observation",
     "the mass-loss estimate of Emparan, Garcia-Bellido & Kaloper applies (debated in the literature)",
-    "the ell mapping applies the rate to the total mass of the binary [memory]",
+    "the ell mapping applies the rate to each hole on its own, mdot_i = -C(ell)/m_i^2 (the rate formula is from memory)",
+    "black holes only: neutron stars do not lose mass into the extra dimension",
   ],
   couplings: [
     {
@@ -78,8 +105,10 @@ export const extraDimension: TheoryEntry = {
       latex: "|\\dot M|",
       dimension: "1",
       unit: "1",
-      description: "mass-loss rate -dM/dt in geometric units (dimensionless)",
+      description: "mass-loss rate -dM/dt of the binary (both holes) in geometric units (dimensionless)",
       quoted: { form: "solar_mass_per_year", symbol: "Mdot_loss", latex: "|\\dot M|", unit: "M_sun/yr" },
+      range: "non_negative",
+      gr_value: "zero",
     },
     {
       symbol: "ell",
@@ -88,6 +117,8 @@ export const extraDimension: TheoryEntry = {
       unit: "km",
       description: "AdS curvature length of the extra dimension",
       quoted: { form: "micrometre", symbol: "ell", latex: "\\ell", unit: "um" },
+      range: "positive",
+      gr_value: "zero",
     },
   ],
   mappings: [
@@ -104,6 +135,8 @@ export const extraDimension: TheoryEntry = {
         note: "per-hole law mdot_i = -C/m_i^2 with Mdot = mdot_1 + mdot_2 = -Mdot_loss. Conservative: isotropic mass loss keeps the specific angular momentum, so a M is constant and df/dt adds 2 (Mdot/M) f; dissipative: the GR drift goes as Mc^(5/3), with d ln Mc/dt = (Mdot/M)(3 - 10 eta + 2 eta^2)/(5 eta (1 - 2 eta)) over t_c - t = (5/256) Mc u^-8 (derived)",
       },
       latex: "\\beta = \\frac{25}{851968}\\,\\dot M\\,\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad \\dot M = -|\\dot M|",
+      body_rules: [BLACK_HOLES_ONLY],
+      validity: massLossValidity("abs(Mdot_loss)"),
       source_status: "derived",
       references: [REFS.yunesYagiPretorius2016.key],
       notes:
@@ -115,9 +148,14 @@ export const extraDimension: TheoryEntry = {
       b: -13,
       coupling: "ell",
       expression: `-(25/851968)*(${mdotOfEll})*${massLossShape}`,
+      latex:
+        "\\beta = -\\frac{25}{851968}\\,C(\\ell)\\left(\\frac{1}{m_1^2} + \\frac{1}{m_2^2}\\right)\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad C(\\ell) = 2.8\\times10^{-7}\\,M_\\odot^3/\\mathrm{yr}\\,(\\ell/10\\,\\mu\\mathrm{m})^2",
+      body_rules: [BLACK_HOLES_ONLY],
+      validity: massLossValidity(`(${mdotOfEll})`),
       source_status: "memory",
       references: [REFS.emparanGarciaBellidoKaloper2003.key, REFS.yunesYagiPretorius2016.key],
-      notes: "The rate formula and its application to the total mass are from memory: an editor must confirm both.",
+      notes:
+        "Per-hole law mdot_i = -C(ell)/m_i^2, so Mdot = -C (1/m1^2 + 1/m2^2) [derived]; the rate C(ell) is from memory: an editor must confirm it.",
     },
   ],
   references: [REFS.emparanGarciaBellidoKaloper2003, REFS.yunesYagiPretorius2016],

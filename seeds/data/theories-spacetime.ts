@@ -20,6 +20,8 @@ export const noncommutative: TheoryEntry = {
       unit: "1",
       description: "noncommutativity scale in Planck units",
       quoted: { form: "identity", symbol: "Lambda2", latex: "\\Lambda^2", unit: "1" },
+      range: "non_negative",
+      gr_value: "zero",
     },
   ],
   mappings: [
@@ -38,12 +40,26 @@ export const noncommutative: TheoryEntry = {
           reference: "project choice: 0.1 stands for 'much less than 1'",
         },
       ],
+      caution:
+        "The correction depends on the orientation of the noncommutativity tensor relative to the orbit (Jenks, Yagi & Alexander 2020); this mapping takes the orientation-averaged form, so a limit for a specific orientation can differ.",
       source_status: "memory",
-      references: [REFS.kobakhidzeLaggerManning2016.key],
+      references: [REFS.kobakhidzeLaggerManning2016.key, REFS.jenksYagiAlexander2020.key],
       notes: "2 eta - 1 < 0 for every binary, so beta > 0.",
     },
   ],
-  references: [REFS.kobakhidzeLaggerManning2016],
+  references: [REFS.kobakhidzeLaggerManning2016, REFS.jenksYagiAlexander2020],
+  reference_bounds: [
+    {
+      coupling: "Lambda2",
+      quoted_symbol: "Lambda2",
+      value: 3.5 ** 4,
+      unit: "1",
+      side: "upper",
+      reference: REFS.kobakhidzeLaggerManning2016.key,
+      source_status: "confirmed",
+      note: "GW150914: sqrt(Lambda) < 3.5 (abstract), i.e. Lambda^2 < 3.5^4 = 150",
+    },
+  ],
   needs_source_confirmation: true,
 };
 
@@ -70,6 +86,8 @@ export const johannsen: TheoryEntry = {
       dimension: "1",
       unit: "1",
       quoted: { form: "identity", symbol: "alpha13", latex: "|\\alpha_{13}|", unit: "1" },
+      range: "any_sign",
+      gr_value: "zero",
     },
     {
       symbol: "eps3",
@@ -77,6 +95,8 @@ export const johannsen: TheoryEntry = {
       dimension: "1",
       unit: "1",
       quoted: { form: "identity", symbol: "eps3", latex: "|\\epsilon_3|", unit: "1" },
+      range: "any_sign",
+      gr_value: "zero",
     },
   ],
   mappings: (["alpha13", "eps3"] as const).map((c): MappingEntry => ({

@@ -67,6 +67,10 @@ export interface CouplingEntry {
   /** Name of the convention the mappings use. */
   readonly convention?: string;
   readonly conventions?: readonly CouplingConventionEntry[];
+  /** Physical range: x > 0, x >= 0, or either sign (decides, per binary, whether beta has one sign). */
+  readonly range: "positive" | "non_negative" | "any_sign";
+  /** The coupling's value in general relativity. */
+  readonly gr_value: "zero" | "infinity";
 }
 
 export interface DefinitionEntry {
@@ -88,7 +92,7 @@ export interface ValidityEntry {
   readonly applies_to?: readonly BodyKind[];
 }
 
-/** How beta follows from a modified binding energy and flux (energy balance and stationary phase, derived), for the derive check. */
+/** How beta follows from a modified binding energy and flux (energy balance and the stationary-phase approximation), for the derive check. */
 export interface DerivationInput {
   readonly kind: "energy_flux" | "frequency_drift" | "propagation";
   /** Relative PN order of the modification. */
@@ -103,7 +107,7 @@ export interface DerivationInput {
 }
 
 export interface BodyRule {
-  readonly kind: "charge" | "derived_for";
+  readonly kind: "charge" | "derived_for" | "only_for";
   readonly description: string;
   readonly bodies?: readonly BodyKind[];
   readonly reference?: string;
@@ -124,10 +128,12 @@ export interface MappingEntry {
   readonly alpha_md?: number;
   readonly frame_note?: string;
   readonly derivation?: DerivationInput;
-  /** The same correction as a gIMR deviation dphi_k (beta = (3/128) phi_k eta^(-k/5) dphi_k at b = k - 5), when it has one. */
+  /** The same correction as a gIMR deviation dphi_k, when it has one. */
   readonly gimr_equivalent?: { readonly k: number; readonly expression: string; readonly source_status: SourceStatus };
   readonly body_rules?: readonly BodyRule[];
   readonly validity?: readonly ValidityEntry[];
+  /** Shown beside every translation with this mapping (where the number can mislead). */
+  readonly caution?: string;
   readonly source_status: SourceStatus;
   readonly references?: readonly string[];
   readonly notes?: string;

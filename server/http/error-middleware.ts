@@ -1,5 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
-import { AppError, NotFoundError } from "../errors.ts";
+import { AppError, NotFoundError, ServiceUnavailableError, TooManyRequestsError } from "../errors.ts";
 import type { Logger } from "../logger.ts";
 import { DB_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from "./db-unavailable.ts";
 import { redactUrl } from "./redact-url.ts";
@@ -62,6 +62,9 @@ export function errorMiddleware(logger: Logger, exposeStack: boolean): ErrorRequ
       if (exposeStack && err instanceof Error && err.stack) body.error.stack = err.stack;
     }
     if (res.headersSent) return;
+    if ((known instanceof TooManyRequestsError || known instanceof ServiceUnavailableError) && known.retryAfterSeconds !== undefined) {
+      res.setHeader("Retry-After", String(known.retryAfterSeconds));
+    }
     res.status(status).json(body);
   };
 }

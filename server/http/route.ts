@@ -101,6 +101,14 @@ export function parseWith<S extends z.ZodType>(schema: S, value: unknown, what =
   if (result.success) return result.data;
   const fields: FieldErrors = {};
   for (const issue of result.error.issues) {
+    if (issue.code === "unrecognized_keys") {
+      // Strict schemas: each unknown field is named by its own path, so a typo is never silently dropped.
+      for (const name of issue.keys) {
+        const key = [...issue.path.map(String), name].join(".");
+        fields[key] ??= `unknown field "${name}": this request does not take it`;
+      }
+      continue;
+    }
     const key = issue.path.map(String).join(".") || what;
     fields[key] ??= issue.message;
   }

@@ -7,7 +7,21 @@
  * redshifted masses.
  */
 import { PhysicsInputError, requireFinite } from "./input-error.ts";
-import { solarMassToKm } from "./units.ts";
+import { SPEED_OF_LIGHT_KM_S, solarMassToKm } from "./units.ts";
+
+/** Lowest frequency of the analysis band when none is given: 20 Hz (common practice for ground-based detectors). */
+export const DEFAULT_F_LOW_HZ = 20;
+
+/**
+ * Time the signal spends in band above f_low, at leading (Newtonian) order:
+ * tau = (5/256) Mc (pi Mc f)^(-8/3) (common practice), in km (c = 1). Source frame: Mc is the
+ * source-frame chirp mass and f = (1 + z) f_low the source-frame frequency of the observed f_low
+ * (z = 0 when the redshift is not known, which gives a longer tau and so a stricter condition).
+ */
+export function inBandTimeKm(mcKm: number, fLowHz: number, z = 0): number {
+  const f = ((1 + z) * fLowHz) / SPEED_OF_LIGHT_KM_S;
+  return (5 / 256) * mcKm * (Math.PI * mcKm * f) ** (-8 / 3);
+}
 
 export type BodyKind = "bh" | "ns";
 export type MassFrame = "source" | "detector";
@@ -162,10 +176,12 @@ export function makeBinary(input: BinaryInput): Binary {
 
 /**
  * The symbols a mapping expression may use, lengths in km: m1, m2, M, Mc (source frame), eta,
- * dm, q, chi1, chi2, chi_s, chi_a, s1, s2, sigma1, sigma2 (when known), z (when known).
+ * dm, q, chi1, chi2, chi_s, chi_a, s1, s2, sigma1, sigma2 (when known), z (when known), f_low
+ * (the observed lowest frequency of the band, 1/km) and tau (time in band above f_low, km).
  * Distances (D_0, D_alpha) are added by the converter, which owns the cosmology.
  */
-export function binarySymbols(binary: Binary): Record<string, number> {
+export function binarySymbols(binary: Binary, fLowHz: number = DEFAULT_F_LOW_HZ): Record<string, number> {
+  if (!(Number.isFinite(fLowHz) && fLowHz > 0)) throw new PhysicsInputError("f_low", "f_low must be a positive frequency in Hz");
   const env: Record<string, number> = {
     m1: binary.km.m1,
     m2: binary.km.m2,
@@ -180,6 +196,8 @@ export function binarySymbols(binary: Binary): Record<string, number> {
     chi_a: binary.chi_a,
     s1: binary.s1,
     s2: binary.s2,
+    f_low: fLowHz / SPEED_OF_LIGHT_KM_S,
+    tau: inBandTimeKm(binary.km.Mc, fLowHz, binary.z ?? 0),
   };
   if (binary.sigma1 !== undefined) env.sigma1 = binary.sigma1;
   if (binary.sigma2 !== undefined) env.sigma2 = binary.sigma2;

@@ -28,6 +28,8 @@ export interface CatalogueCoupling {
   };
   readonly convention?: string;
   readonly conventions?: readonly { readonly name: string; readonly factor: number; readonly reference?: string }[];
+  readonly range?: "positive" | "non_negative" | "any_sign";
+  readonly gr_value?: "zero" | "infinity";
 }
 
 export interface CatalogueValidity {
@@ -48,8 +50,10 @@ export interface CatalogueMapping {
   readonly held_fixed?: Readonly<Record<string, number>>;
   readonly alpha_md?: number;
   readonly validity?: readonly CatalogueValidity[];
-  readonly body_rules?: readonly { readonly kind: string; readonly bodies?: readonly BodyKind[] }[];
+  readonly body_rules?: readonly { readonly kind: string; readonly bodies?: readonly BodyKind[]; readonly description?: string }[];
   readonly source_status?: "confirmed" | "derived" | "memory";
+  /** Shown beside every translation with this mapping. */
+  readonly caution?: string;
 }
 
 export interface CatalogueTheory {
@@ -66,6 +70,8 @@ export interface CompiledMapping extends MappingSpec {
   readonly expression: string;
   readonly expanded: string;
   readonly sourceStatus?: "confirmed" | "derived" | "memory";
+  /** Other couplings of the expression and the values they are held at (their GR values). */
+  readonly heldFixed?: Readonly<Record<string, number>>;
 }
 
 /**
@@ -129,6 +135,8 @@ function couplingSpec(c: CatalogueCoupling): CouplingSpec {
         }
       : { form: "identity", symbol: c.symbol, latex: c.latex, unit: c.unit },
     ...(c.convention ? { convention: c.convention } : {}),
+    ...(c.range ? { range: c.range } : {}),
+    ...(c.gr_value ? { grValue: c.gr_value } : {}),
     ...(c.conventions ? { conventions: c.conventions.map((k) => ({ name: k.name, factor: k.factor, ...(k.reference ? { reference: k.reference } : {}) })) } : {}),
   };
 }
@@ -196,11 +204,10 @@ export function compileMapping(entry: CatalogueTheory, index: number): CompiledM
     throw new PhysicsInputError("alpha_md", `${entry.slug}: a mapping using D_alpha must give alpha_md`);
   }
   const derivedFor = mapping.body_rules?.find((r) => r.kind === "derived_for")?.bodies;
+  const onlyForRule = mapping.body_rules?.find((r) => r.kind === "only_for" && r.bodies && r.bodies.length > 0);
   const cautions: string[] = [];
   if (mapping.source_status === "memory") cautions.push("the mapping's formula is recalled from memory: source to be confirmed by an editor");
-  if (fixed.length > 0) {
-    cautions.push(`other couplings held fixed: ${Object.entries(mapping.held_fixed!).map(([k, v]) => `${k} = ${v}`).join(", ")}`);
-  }
+  if (mapping.caution) cautions.push(mapping.caution);
 
   return {
     slug: entry.slug,
@@ -208,6 +215,7 @@ export function compileMapping(entry: CatalogueTheory, index: number): CompiledM
     expression: mapping.expression,
     expanded: main.expanded,
     ...(mapping.source_status ? { sourceStatus: mapping.source_status } : {}),
+    ...(fixed.length > 0 ? { heldFixed: { ...mapping.held_fixed } } : {}),
     b: mapping.b,
     coupling: couplingSpec(coupling),
     evaluate: (x, env) => bind(env)(x),
@@ -216,6 +224,7 @@ export function compileMapping(entry: CatalogueTheory, index: number): CompiledM
     ...(usesDistance ? { distance: { alphaMd: mapping.alpha_md ?? 0 } } : {}),
     validity,
     ...(derivedFor ? { derivedFor } : {}),
+    ...(onlyForRule ? { onlyFor: { bodies: onlyForRule.bodies!, description: onlyForRule.description ?? "the entry's body rule" } } : {}),
     cautions,
   };
 }

@@ -24,6 +24,10 @@ export interface CouplingSpec {
   /** Name of the convention the mapping uses (default "A"). */
   readonly convention?: string;
   readonly conventions?: readonly CouplingConvention[];
+  /** Physical range of the coupling (default "positive": x > 0). */
+  readonly range?: "positive" | "non_negative" | "any_sign";
+  /** Value of the coupling in GR (default: found from the mapping, the end where beta vanishes). */
+  readonly grValue?: "zero" | "infinity";
 }
 
 export type ValidityKind = "hard" | "rule_of_thumb";
@@ -55,6 +59,8 @@ export interface MappingSpec {
   readonly validity?: readonly ValidityCondition[];
   /** Bodies the formula was derived for; other bodies get a caution. */
   readonly derivedFor?: readonly BodyKind[];
+  /** The mapping answers only when every body is one of these; otherwise the binary is not covered. */
+  readonly onlyFor?: { readonly bodies: readonly BodyKind[]; readonly description: string };
   readonly cautions?: readonly string[];
   /** Coupling range searched by the numeric inversion, canonical units. */
   readonly domain?: readonly [number, number];
@@ -66,8 +72,8 @@ export type BoundInput =
       readonly b: number;
       /** Symmetric bound |beta| <= beta_max ... */
       readonly beta_max?: number;
-      /** ... or an interval [low, high] containing 0. */
-      readonly interval?: readonly [number, number];
+      /** ... or an interval [low, high] containing 0 (null = unbounded on that side). */
+      readonly interval?: readonly [number | null, number | null];
       readonly convention?: SignConvention;
       readonly credibility?: number;
     }
@@ -75,7 +81,7 @@ export type BoundInput =
       readonly kind: "gimr";
       readonly k: GimrIndex;
       readonly dphi_max?: number;
-      readonly interval?: readonly [number, number];
+      readonly interval?: readonly [number | null, number | null];
       readonly includes_spin?: boolean;
       readonly credibility?: number;
     };
@@ -87,7 +93,22 @@ export interface ValidityResult {
   readonly max: number;
   readonly ok: boolean;
   readonly kind: ValidityKind;
+  /** value / max (NaN when the value is not a number). */
+  readonly factor: number;
+  /** ok; stretched: a rule of thumb exceeded by at most the stretch factor; fails. */
+  readonly status: "ok" | "stretched" | "fails";
   readonly reference?: string;
+}
+
+export type Verdict = "valid" | "outside_validity" | "not_assessed";
+
+/** The interval on a coupling of either sign, in its signed quoted quantity (null = unbounded). */
+export interface SignedInterval {
+  readonly symbol: string;
+  readonly latex: string;
+  readonly unit: string;
+  readonly lower: number | null;
+  readonly upper: number | null;
 }
 
 export interface BoundedResult {
@@ -105,11 +126,22 @@ export interface BoundedResult {
   readonly b: number;
   /** The |beta| the limit saturates (after sign conventions and one-signed theories). */
   readonly beta_max: number;
-  /** Sign of beta predicted by the theory for this binary (0 when it changes with the coupling). */
+  /** Sign of beta predicted by the theory for this binary over the coupling's range (0: either sign). */
   readonly theory_sign: -1 | 0 | 1;
+  /** The bound on beta in the +Psi convention (null = unbounded side). */
+  readonly beta_interval: readonly [number | null, number | null];
+  /** Which end of the interval bounded the coupling. */
+  readonly side_used: "lower" | "upper" | "both";
+  /** For a coupling of either sign, the signed interval; null otherwise. */
+  readonly signed_interval: SignedInterval | null;
+  /** True when the headline is one end of the signed interval rather than a bound on the magnitude. */
+  readonly signed_headline: boolean;
   readonly beta_at_limit: number;
   readonly validity: readonly ValidityResult[];
-  /** False when a hard validity condition fails at the limit: the limit is then not trustworthy. */
+  readonly verdict: Verdict;
+  /** The worst failing condition when the verdict is outside_validity. */
+  readonly failing: ValidityResult | null;
+  /** verdict === "valid". */
   readonly valid: boolean;
   readonly warnings: readonly string[];
   readonly cautions: readonly string[];
@@ -121,6 +153,8 @@ export type NoConstraintCode =
   | "degenerate_b"
   | "no_ppe_equivalent"
   | "interval_excludes_gr"
+  | "unreachable_side"
+  | "bodies_not_covered"
   | "out_of_range";
 
 export interface NoConstraintResult {
@@ -135,4 +169,6 @@ export type ConversionResult = BoundedResult | NoConstraintResult;
 
 export interface ConvertOptions {
   readonly cosmology?: Cosmology;
+  /** Lowest frequency of the analysis band (Hz, observed); default 20 Hz (common practice). */
+  readonly fLowHz?: number;
 }

@@ -18,8 +18,11 @@ import type {
   MappingSpec,
   NoConstraintCode,
   NoConstraintResult,
+  SignedInterval,
   ValidityResult,
+  Verdict,
 } from "./convert-types.ts";
+import { RULE_OF_THUMB_STRETCH } from "../../common/convert.ts";
 import { distanceAlphaKm, PLANCK_2018, validateCosmology, type Cosmology } from "./cosmology.ts";
 import { PhysicsInputError, requireFinite } from "./input-error.ts";
 import { detectPowerLaw, fractionString, solveMagnitude } from "./invert.ts";
@@ -43,7 +46,7 @@ export interface ConversionContext {
 export function createConversionContext(binary: Binary | BinaryInput, options: ConvertOptions = {}): ConversionContext {
   const b = isBinary(binary) ? binary : makeBinary(binary);
   const cosmology = validateCosmology(options.cosmology ?? PLANCK_2018);
-  const symbols = binarySymbols(b);
+  const symbols = binarySymbols(b, options.fLowHz);
   const distances = new Map<number, number>();
   const distance = (alphaMd: number): number => {
     let d = distances.get(alphaMd);
@@ -89,14 +92,14 @@ function fieldOfSymbol(symbol: string): string {
 
 interface ResolvedBound {
   readonly b: number;
-  /** [low, high] in the +Psi convention; symmetric bounds give [-beta_max, beta_max]. */
+  /** [low, high] in the +Psi convention; symmetric bounds give [-beta_max, beta_max]; infinite = unbounded side. */
   readonly low: number;
   readonly high: number;
   readonly symmetric: boolean;
   readonly cautions: readonly string[];
 }
 
-function resolveInterval(field: string, max: number | undefined, interval: readonly [number, number] | undefined) {
+function resolveInterval(field: string, max: number | undefined, interval: readonly [number | null, number | null] | undefined) {
   if ((max === undefined) === (interval === undefined)) {
     throw new PhysicsInputError(field, `give exactly one of ${field} and interval`);
   }
@@ -105,11 +108,21 @@ function resolveInterval(field: string, max: number | undefined, interval: reado
     if (max <= 0) throw new PhysicsInputError(field, `${field} must be positive`);
     return { low: -max, high: max, symmetric: true };
   }
-  const [low, high] = interval!;
-  requireFinite("interval.0", low);
-  requireFinite("interval.1", high);
+  const [lo, hi] = interval!;
+  if (lo === null && hi === null) throw new PhysicsInputError("interval", "a one-sided bound needs its finite side");
+  const low = lo === null ? -Infinity : requireFinite("interval.0", lo);
+  const high = hi === null ? Infinity : requireFinite("interval.1", hi);
   if (!(low < high)) throw new PhysicsInputError("interval", "interval must satisfy low < high");
+  if (low > 0 || high < 0) throw new PhysicsInputError("interval", "GR itself is outside the interval: it excludes 0");
   return { low, high, symmetric: false };
+}
+
+/** Multiplies [low, high] by a factor, keeping the order (a negative factor swaps the ends). */
+function scaleInterval(low: number, high: number, factor: number): [number, number] {
+  const times = (x: number) => (x === 0 ? 0 : x * factor);
+  const a = times(low);
+  const c = times(high);
+  return [Math.min(a, c), Math.max(a, c)];
 }
 
 function resolveBound(bound: BoundInput, binary: Binary): ResolvedBound | NoConstraintResult {
@@ -119,9 +132,8 @@ function resolveBound(bound: BoundInput, binary: Binary): ResolvedBound | NoCons
     if (degenerate) return noConstraint("degenerate_b", degenerate);
     const r = resolveInterval("beta_max", bound.beta_max, bound.interval);
     const convention = bound.convention ?? "plus";
-    const lo = normaliseSign(r.low, convention);
-    const hi = normaliseSign(r.high, convention);
-    return { b, low: Math.min(lo, hi), high: Math.max(lo, hi), symmetric: r.symmetric, cautions: [] };
+    const [low, high] = scaleInterval(r.low, r.high, normaliseSign(1, convention));
+    return { b, low, high, symmetric: r.symmetric, cautions: [] };
   }
   const f = gimrFactor(bound.k, binary.eta, {
     includesSpin: bound.includes_spin ?? false,
@@ -129,9 +141,8 @@ function resolveBound(bound: BoundInput, binary: Binary): ResolvedBound | NoCons
   });
   if (f.status !== "ok") return noConstraint(f.status === "degenerate" ? "degenerate_b" : "no_ppe_equivalent", f.reason);
   const r = resolveInterval("dphi_max", bound.dphi_max, bound.interval);
-  const a = f.factor * r.low;
-  const c = f.factor * r.high;
-  return { b: f.b, low: Math.min(a, c), high: Math.max(a, c), symmetric: r.symmetric, cautions: f.cautions };
+  const [low, high] = scaleInterval(r.low, r.high, f.factor);
+  return { b: f.b, low, high, symmetric: r.symmetric, cautions: f.cautions };
 }
 
 function noConstraint(code: NoConstraintCode, reason: string, warnings: string[] = [], cautions: readonly string[] = []): NoConstraintResult {
@@ -163,6 +174,7 @@ export function convertMany(
   return mappings.map((m) => convertInContext(bound, context, m));
 }
 
+
 export function convertInContext(bound: BoundInput, context: ConversionContext, mapping: MappingSpec): ConversionResult {
   const { binary } = context;
   const resolved = resolveBound(bound, binary);
@@ -170,27 +182,43 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   if (Math.abs(resolved.b - mapping.b) > 1e-12) {
     throw new PhysicsInputError("b", `the bound is at b = ${resolved.b} but this mapping enters at b = ${mapping.b}`);
   }
+  const warnings: string[] = [];
+  const cautions: string[] = [...resolved.cautions, ...(mapping.cautions ?? [])];
+  if (mapping.onlyFor) {
+    const outside = binary.bodies.filter((k) => !mapping.onlyFor!.bodies.includes(k));
+    if (outside.length > 0) {
+      return noConstraint(
+        "bodies_not_covered",
+        `the mapping holds only for ${mapping.onlyFor.bodies.join("/")} bodies (${mapping.onlyFor.description}); this binary is ${binary.bodies.join("-")}`,
+        warnings,
+        cautions,
+      );
+    }
+  }
   const env = context.envFor(mapping);
   for (const s of mapping.requires ?? []) {
     if (env[s] === undefined) {
       throw new PhysicsInputError(fieldOfSymbol(s), `this mapping needs ${s}, which the binary does not provide`);
     }
   }
-  const warnings: string[] = [];
-  const cautions: string[] = [...resolved.cautions, ...(mapping.cautions ?? [])];
   if (mapping.derivedFor) {
     const others = binary.bodies.filter((k) => !mapping.derivedFor!.includes(k));
     if (others.length > 0) cautions.push(`the mapping was derived for ${mapping.derivedFor.join("/")} bodies; this binary has ${binary.bodies.join("-")}`);
   }
 
   const F = mapping.bind ? mapping.bind(env) : (x: number) => mapping.evaluate(x, env);
+  const range = mapping.coupling.range ?? "positive";
+  const { low, high } = resolved;
+  const betaInterval: [number | null, number | null] = [Number.isFinite(low) ? low : null, Number.isFinite(high) ? high : null];
 
-  // Theory sign over the probes, and the vanishing case (e.g. equal-mass, equal-spin EdGB).
+  // The sign of beta over the coupling's physical range, by evaluation (spins and masses can change it).
   const probeValues = SIGN_PROBES.map(F);
-  if (probeValues.some(Number.isNaN)) {
+  const negativeValues = range === "any_sign" ? SIGN_PROBES.map((p) => F(-p)) : [];
+  const all = [...probeValues, ...negativeValues];
+  if (all.some(Number.isNaN)) {
     throw new PhysicsInputError(mapping.coupling.symbol, "the mapping does not evaluate to a number for this binary");
   }
-  if (probeValues.every((v) => v === 0)) {
+  if (all.every((v) => v === 0)) {
     return noConstraint(
       "vanishing_mapping",
       "beta vanishes for this binary at every coupling (e.g. equal masses and spins emit no scalar dipole): this binary constrains nothing",
@@ -198,26 +226,113 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
       cautions,
     );
   }
-  const positive = probeValues.every((v) => v >= 0);
-  const negative = probeValues.every((v) => v <= 0);
-  const theorySign: -1 | 0 | 1 = positive ? 1 : negative ? -1 : 0;
+  const theorySign: -1 | 0 | 1 = all.every((v) => v >= 0) ? 1 : all.every((v) => v <= 0) ? -1 : 0;
+  const twoSided = theorySign === 0 && range === "any_sign";
 
-  // One-signed theories use the side of the interval they can populate.
+  // Which |beta| bounds the magnitude of the coupling, and which end of the interval that is.
   let betaMax: number;
-  if (resolved.symmetric) {
-    betaMax = resolved.high;
-  } else if (resolved.low > 0 || resolved.high < 0) {
-    return noConstraint("interval_excludes_gr", "the interval excludes beta = 0: it is a deviation, not a bound", warnings, cautions);
+  let sideUsed: "lower" | "upper" | "both";
+  if (theorySign === -1) {
+    betaMax = -low;
+    sideUsed = "lower";
   } else if (theorySign === 1) {
-    betaMax = resolved.high;
-  } else if (theorySign === -1) {
-    betaMax = -resolved.low;
+    betaMax = high;
+    sideUsed = "upper";
   } else {
-    betaMax = Math.max(-resolved.low, resolved.high);
-    warnings.push("beta changes sign with the coupling: the wider side of the interval is used (conservative)");
+    betaMax = Math.max(-low, high);
+    sideUsed = "both";
+    if (!twoSided) warnings.push("beta changes sign with the coupling: the wider side of the interval is used (conservative)");
+  }
+  if (theorySign !== 0 && !Number.isFinite(betaMax)) {
+    const predicted = theorySign < 0 ? "β < 0" : "β > 0";
+    const missing = theorySign < 0 ? "lower end" : "upper end";
+    return noConstraint(
+      "unreachable_side",
+      `this theory gives ${predicted} for this binary, and the bound has no ${missing}: the side the theory can reach is unbounded, so it says nothing about the coupling`,
+      warnings,
+      cautions,
+    );
   }
   if (betaMax === 0) {
-    return noConstraint("interval_excludes_gr", "the interval ends at beta = 0 on the side this theory predicts", warnings, cautions);
+    return noConstraint(
+      "unreachable_side",
+      "the interval ends at β = 0 on the side this theory reaches: taken literally it leaves no room for any non-GR coupling; state the bound with its credible width on that side",
+      warnings,
+      cautions,
+    );
+  }
+  if (!twoSided && !Number.isFinite(betaMax)) {
+    return noConstraint("unreachable_side", "β takes both signs as the coupling varies and the bound is one-sided: no limit follows", warnings, cautions);
+  }
+
+  // Signed interval for a coupling of either sign: each finite end of [low, high] maps to the coupling
+  // value on the side of zero where beta has that end's sign.
+  let signed: SignedInterval | null = null;
+  let signedEnds: { lower: { x: number; beta: number } | null; upper: { x: number; beta: number } | null } | null = null;
+  if (twoSided) {
+    const sideOf = (betaSign: 1 | -1): 1 | -1 => ((probeValues[2]! > 0 ? 1 : -1) === betaSign ? 1 : -1);
+    const solveEnd = (beta: number): { x: number; beta: number } | null => {
+      if (!Number.isFinite(beta)) return null;
+      if (beta === 0) return { x: 0, beta: 0 };
+      const s = sideOf(beta > 0 ? 1 : -1);
+      const [lo, hi] = mapping.domain ?? [1e-60, 1e60];
+      const root = solveMagnitude((t) => F(s * t), Math.abs(beta), lo, hi);
+      if (root.kind === "none") return null;
+      return { x: s * root.x, beta };
+    };
+    const atLow = solveEnd(low);
+    const atHigh = solveEnd(high);
+    // The end of [low, high] whose coupling is negative gives the signed interval's lower end.
+    const lowIsNegative = sideOf(-1) === -1;
+    signedEnds = lowIsNegative ? { lower: atLow, upper: atHigh } : { lower: atHigh, upper: atLow };
+    const q = signedQuantity(mapping.coupling);
+    signed = {
+      symbol: q.symbol,
+      latex: q.latex,
+      unit: q.unit,
+      lower: signedEnds.lower === null ? null : q.value(signedEnds.lower.x),
+      upper: signedEnds.upper === null ? null : q.value(signedEnds.upper.x),
+    };
+  }
+
+  // A coupling of either sign bounded on one side only: the headline is that signed end.
+  if (twoSided && !Number.isFinite(betaMax)) {
+    const end = signedEnds!.lower ?? signedEnds!.upper;
+    if (!end || end.x === 0) {
+      return noConstraint("unreachable_side", "the finite end of this one-sided bound does not constrain the coupling for this binary", warnings, cautions);
+    }
+    const endIsUpper = signedEnds!.lower === null;
+    const q = signedQuantity(mapping.coupling);
+    const validity = evaluateValidity(mapping, end.x, env, binary);
+    const { verdict, failing } = verdictOf(validity);
+    const spec = mapping.coupling;
+    const side: Side = endIsUpper ? "upper" : "lower";
+    const quoted: QuotedValue = { symbol: q.symbol, latex: q.latex, value: q.value(end.x), unit: q.unit, side };
+    const rel = endIsUpper ? "\\le" : "\\ge";
+    return {
+      status: "bounded",
+      side,
+      coupling: { symbol: spec.symbol, latex: spec.latex, value: end.x, unit: spec.unit },
+      quoted,
+      extras: [],
+      conventions: [],
+      method: "numeric_root",
+      latex: `\\beta(${spec.latex}) = ${formatLatexNumber(end.beta)} \\;\\Rightarrow\\; ${q.latex} ${rel} ${formatLatexNumber(quoted.value)}${q.unit && q.unit !== "1" ? `\\,${unitLatex(q.unit)}` : ""}`,
+      b: mapping.b,
+      beta_max: Math.abs(end.beta),
+      theory_sign: 0,
+      beta_interval: betaInterval,
+      side_used: end.beta === low ? "lower" : "upper",
+      signed_interval: signed,
+      signed_headline: true,
+      beta_at_limit: F(end.x),
+      validity,
+      verdict,
+      failing,
+      valid: verdict === "valid",
+      warnings,
+      cautions,
+    };
   }
 
   let x: number;
@@ -254,10 +369,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   }
 
   const validity = evaluateValidity(mapping, x!, env, binary);
-  const valid = validity.every((v) => v.ok || v.kind !== "hard");
-  for (const v of validity) {
-    if (!v.ok && v.kind === "rule_of_thumb") warnings.push(`rule of thumb not met at the limit: ${v.label} (${v.condition}; value ${v.value.toPrecision(3)})`);
-  }
+  const { verdict, failing } = verdictOf(validity);
 
   const presented = presentLimit(x!, side!, mapping.coupling.quoted);
   const conventions = (mapping.coupling.conventions ?? []).map((c) => ({
@@ -279,12 +391,49 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
     b: mapping.b,
     beta_max: betaMax,
     theory_sign: theorySign,
+    beta_interval: betaInterval,
+    side_used: sideUsed,
+    signed_interval: signed,
+    signed_headline: false,
     beta_at_limit: F(x!),
     validity,
-    valid,
+    verdict,
+    failing,
+    valid: verdict === "valid",
     warnings,
     cautions,
   };
+}
+
+/**
+ * The signed quantity a coupling of either sign is reported in: its quoted form carrying the sign
+ * (Gdot/G in 1/yr, eps3), or for a dispersion length, whose sign is the sign of A, the amplitude A
+ * itself (|A| = (h c / lambda_A)^(2 - alpha)), which is linear in beta.
+ */
+export function signedQuantity(spec: CouplingSpec): { symbol: string; latex: string; unit: string; value: (x: number) => number } {
+  const q = spec.quoted;
+  const sign = (x: number) => (x < 0 ? -1 : 1);
+  if (q.form === "dispersion_length") {
+    const extra = presentLimit(1, "upper", q).extras[0]!;
+    return {
+      symbol: "A",
+      latex: "A",
+      unit: extra.unit,
+      value: (x) => (x === 0 ? 0 : sign(x) * presentLimit(Math.abs(x), "upper", q).extras[0]!.value),
+    };
+  }
+  return {
+    symbol: q.symbol,
+    latex: stripAbsoluteBars(q.latex),
+    unit: q.unit,
+    value: (x) => (x === 0 ? 0 : sign(x) * presentLimit(Math.abs(x), "upper", q).primary.value),
+  };
+}
+
+/** "|\\dot G/G|" -> "\\dot G/G": the quoted symbol of a magnitude, as the signed quantity. */
+export function stripAbsoluteBars(latex: string): string {
+  const t = latex.trim();
+  return t.startsWith("|") && t.endsWith("|") && t.length > 2 ? t.slice(1, -1) : t;
 }
 
 function evaluateValidity(mapping: MappingSpec, x: number, env: Env, binary: Binary): ValidityResult[] {
@@ -292,17 +441,35 @@ function evaluateValidity(mapping: MappingSpec, x: number, env: Env, binary: Bin
   for (const c of mapping.validity ?? []) {
     if (c.body && c.appliesTo && !c.appliesTo.includes(binary.bodies[c.body - 1]!)) continue;
     const value = c.evaluate(x, env);
+    const ok = Number.isFinite(value) && value <= c.max;
+    const factor = c.max > 0 && Number.isFinite(value) ? value / c.max : Number.NaN;
+    const status = ok ? "ok" : c.kind === "rule_of_thumb" && factor <= RULE_OF_THUMB_STRETCH ? "stretched" : "fails";
     out.push({
       label: c.label,
       condition: c.condition,
       value,
       max: c.max,
-      ok: Number.isFinite(value) && value <= c.max,
+      ok,
       kind: c.kind,
+      factor,
+      status,
       ...(c.reference ? { reference: c.reference } : {}),
     });
   }
   return out;
+}
+
+/**
+ * valid: every condition holds (a rule of thumb exceeded by at most RULE_OF_THUMB_STRETCH counts as
+ * holding, stretched); outside_validity: a hard condition fails, or a rule of thumb by more than
+ * that factor; not_assessed: no condition applies to this binary. The worst failure is reported.
+ */
+export function verdictOf(validity: readonly ValidityResult[]): { verdict: Verdict; failing: ValidityResult | null } {
+  if (validity.length === 0) return { verdict: "not_assessed", failing: null };
+  const failures = validity.filter((v) => v.status === "fails");
+  if (failures.length === 0) return { verdict: "valid", failing: null };
+  const worst = failures.reduce((a, v) => (!(a.factor >= v.factor) ? v : a));
+  return { verdict: "outside_validity", failing: worst };
 }
 
 function limitLatex(

@@ -1,4 +1,5 @@
 import request from "supertest";
+import { theoryBySlug } from "../../seeds/data/theories.ts";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { accountsSeed } from "../../seeds/accounts.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
@@ -36,7 +37,9 @@ describe("seeds: catalogue and demo scenario", () => {
       ["comment", "demo-phenomenologist"],
     ]);
     const draft = await request(app).get(`/api/v1/submissions/${(rows[3] as { id: number }).id}`).set("Authorization", `Bearer ${await bearerFor(tdb.db, "demo-theorist")}`);
-    expect(draft.body.diff.added.map((d: { path: string }) => d.path)).toEqual(["mappings.0.validity.2"]);
+    // The draft appends one condition to the accepted dCS mapping's list.
+    const accepted = theoryBySlug("dcs")!.mappings[0]!.validity!.length;
+    expect(draft.body.diff.added.map((d: { path: string }) => d.path)).toEqual([`mappings.0.validity.${accepted}`]);
     // Every event happened in the past, in order.
     const events = await tdb.db("submission_events").orderBy("id").pluck("at");
     expect(events.every((at: Date, i: number) => i === 0 || at.getTime() >= (events[i - 1] as Date).getTime())).toBe(true);

@@ -33,7 +33,7 @@ function bisect(F: (t: number) => number, target: number, lo: number, hi: number
   return (lo + hi) / 2;
 }
 
-/** EdGB |beta| per unit alpha^2 (alpha in km^2), non-spinning BHs: physics.md section 2 table (Yagi 2012 form). */
+/** EdGB |beta| per unit alpha^2 (alpha in km^2), non-spinning BHs: Yunes, Yagi & Pretorius 2016 Table I form (normalisation derived). */
 function edgbK(m1Msun: number, m2Msun: number): number {
   const m1 = m1Msun * KM_PER_MSUN;
   const m2 = m2Msun * KM_PER_MSUN;
@@ -70,9 +70,9 @@ describe("POST /api/v1/convert/events", () => {
   const edgbEvent = (label: string, m1: number, m2: number, upper: number) => ({ label, binary: { m1, m2, frame: "source" }, upper });
 
   it("when one event is given, then its limit, the tightest and the combined limit all equal POST /convert", async () => {
-    const r = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: [edgbEvent("KV-231107a", 10, 5, 1e-3)] });
-    const ref = await single("edgb", { bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary: { m1: 10, m2: 5, frame: "source" } });
-    expect(r.events[0]).toMatchObject({ label: "KV-231107a", limit: ref.coupling.value, valid: ref.valid, beta_max: 1e-3 });
+    const r = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: [edgbEvent("KV-231107a", 10, 5, 1e-5)] });
+    const ref = await single("edgb", { bound: { parameter: "ppe_beta", b: -7, upper: 1e-5, credibility: 0.9 }, binary: { m1: 10, m2: 5, frame: "source" } });
+    expect(r.events[0]).toMatchObject({ label: "KV-231107a", limit: ref.coupling.value, valid: ref.valid, beta_max: 1e-5 });
     expect(r.tightest).toEqual({ label: "KV-231107a", limit: ref.coupling.value });
     // Derived (events.ts): for one event y_c = U / K, so x_c = (U / K)^(1/p) is the closed-form /convert limit.
     expect(rel(r.combined!.limit, ref.coupling.value)).toBeLessThan(1e-12);
@@ -81,9 +81,9 @@ describe("POST /api/v1/convert/events", () => {
   });
 
   it("when N identical events are given, then the combined limit scales as N^(-1/(2p)) in the canonical coupling", async () => {
-    const one = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: [edgbEvent("KV-1", 20, 8, 1e-3)] });
+    const one = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: [edgbEvent("KV-1", 20, 8, 1e-5)] });
     const N = 9;
-    const many = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: Array.from({ length: N }, (_, i) => edgbEvent(`KV-${i}`, 20, 8, 1e-3)) });
+    const many = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: Array.from({ length: N }, (_, i) => edgbEvent(`KV-${i}`, 20, 8, 1e-5)) });
     // Derived: 1/sigma_y^2 grows N-fold, so y_c ∝ N^(-1/2) and x = y^(1/p) ∝ N^(-1/(2p)); p = 2 in alpha, and sqrt(alpha) ∝ N^(-1/(4p)) = N^(-1/8).
     expect(many.power).toBe(2);
     expect(rel(many.combined!.limit, one.combined!.limit * N ** (-1 / (4 * 2)))).toBeLessThan(1e-12);
@@ -100,7 +100,7 @@ describe("POST /api/v1/convert/events", () => {
   });
 
   it("when events differ, then the combined limit matches a numeric integration of the product of half-normal likelihoods with a flat prior in alpha^2", async () => {
-    const list = [edgbEvent("KV-231107a", 10, 5, 1e-3), edgbEvent("KV-240322c", 35, 9, 4e-4), edgbEvent("KV-240815b", 18, 12, 2e-3)];
+    const list = [edgbEvent("KV-231107a", 10, 5, 1e-5), edgbEvent("KV-240322c", 35, 9, 4e-6), edgbEvent("KV-240815b", 18, 12, 2e-5)];
     const c = 0.9;
     const r = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: c, events: list });
     // Half-normal quantile q: the integral of the standard normal density over [0, q] is c / 2 (common practice).
@@ -124,7 +124,7 @@ describe("POST /api/v1/convert/events", () => {
   });
 
   it("when an event is equal-mass non-spinning, then it has no limit, its reason is given and it is left out of the combination", async () => {
-    const r = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: [edgbEvent("KV-x", 10, 5, 1e-3), edgbEvent("KV-y", 8, 8, 1e-3)] });
+    const r = await events({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, events: [edgbEvent("KV-x", 10, 5, 1e-5), edgbEvent("KV-y", 8, 8, 1e-5)] });
     expect(r.events[1]).toMatchObject({ label: "KV-y", limit: null, reason: expect.stringMatching(/constrains nothing|vanish/) });
     expect(r.combined!.events_used).toBe(1);
     expect(r.cautions.some((c) => /left out of the combination/.test(c.message))).toBe(true);

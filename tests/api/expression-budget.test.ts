@@ -82,7 +82,9 @@ describe("GET /api/health while crafted expressions are sent", () => {
     attackOver = true;
     await polling;
     expect(statuses).toHaveLength(60);
-    expect(new Set(statuses)).toEqual(new Set([400]));
+    // Four clients from one address: beyond its in-flight limit an address gets 429 at once.
+    expect(statuses.every((s) => s === 400 || s === 429)).toBe(true);
+    expect(statuses.filter((s) => s === 400).length).toBeGreaterThan(0);
     expect(healthDuringAttack.length).toBeGreaterThan(0);
     expect(healthDuringAttack.every((h) => h.status === 200 && h.db === "up")).toBe(true);
   });

@@ -29,12 +29,12 @@ function entry(over: Partial<TheoryDetail> = {}): TheoryDetail {
     source_to_be_confirmed: false,
     references: [],
     locator: null,
-    notes: null,
+    notes: null, caution: null,
     checks: [],
     checks_ok: true,
     retired,
   });
-  const coupling = (symbol: string): TheoryDetail["couplings"][number] => ({ symbol, latex: symbol, dimension: 0, unit: "1", quoted: null, description: null, convention: null, conventions: [], retired: null });
+  const coupling = (symbol: string): TheoryDetail["couplings"][number] => ({ symbol, latex: symbol, dimension: 0, unit: "1", quoted: null, description: null, convention: null, conventions: [], retired: null, range: null, gr_value: null });
   return {
     slug: "toy",
     name: "Toy spacetime",

@@ -19,7 +19,7 @@ describe("<BoundForm>", () => {
     submit();
     await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
     expect(onSubmit.mock.calls[0]![0]).toEqual({
-      bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus" },
+      bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus", f_low: 20 },
       binary: { m1: 10, m2: 5, chi1: 0, chi2: 0, bodies: ["bh", "bh"], frame: "source" },
       cosmology: { H0: 67.66, Omega_m: 0.3111 },
     });
@@ -55,7 +55,41 @@ describe("<BoundForm>", () => {
     fireEvent.change(k, { target: { value: "5l" } });
     submit();
     await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
-    expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "gimr_dphi", k: "5l", upper: 1e-3, credibility: 0.9, includes_spin: false });
+    expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "gimr_dphi", k: "5l", upper: 1e-3, credibility: 0.9, f_low: 20, includes_spin: false });
+  });
+
+  it("when the bound is stated as an interval, then [lo, hi] is sent and upper is not", async () => {
+    const onSubmit = vi.fn<(r: ConvertRequest) => void>();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("bound-shape"), { target: { value: "interval" } });
+    fireEvent.change(await screen.findByLabelText("Lower end lo of β"), { target: { value: "-2e-3" } });
+    fireEvent.change(screen.getByLabelText("Upper end hi of β"), { target: { value: "5e-4" } });
+    submit();
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "ppe_beta", b: -7, interval: [-2e-3, 5e-4], credibility: 0.9, sign_convention: "plus", f_low: 20 });
+  });
+
+  it("when the bound is one-sided, then the open end is sent as null", async () => {
+    const onSubmit = vi.fn<(r: ConvertRequest) => void>();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("bound-shape"), { target: { value: "lower_only" } });
+    expect(screen.queryByLabelText("Upper end hi of β")).toBeNull();
+    fireEvent.change(await screen.findByLabelText("Lower end lo of β"), { target: { value: "-3e-3" } });
+    submit();
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].bound).toMatchObject({ interval: [-3e-3, null] });
+    expect(onSubmit.mock.calls[0]![0].bound).not.toHaveProperty("upper");
+  });
+
+  it("when an interval excludes zero, then the form says GR is outside it and sends nothing", async () => {
+    const onSubmit = vi.fn();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("bound-shape"), { target: { value: "interval" } });
+    fireEvent.change(await screen.findByLabelText("Lower end lo of β"), { target: { value: "1e-3" } });
+    fireEvent.change(screen.getByLabelText("Upper end hi of β"), { target: { value: "2e-3" } });
+    submit();
+    await screen.findByText(/GR itself is outside the interval/);
+    expect(onSubmit).not.toHaveBeenCalled();
   });
 
   it("when the server names fields, then its messages land on those fields and the rest are listed", async () => {

@@ -42,10 +42,12 @@ describe("<ResultsTable>", () => {
     const row = screen.getByTestId("result-edgb");
     expect(within(row).getByTestId("limit-edgb").textContent).toMatch(/≤\s*4\.07\s*km/);
     const validity = within(row).getByTestId("validity-edgb").textContent ?? "";
-    expect(validity).toMatch(/not valid/);
-    // The EdGB condition 16 pi alpha^2 / m^4 < 1/6 (common practice) is written as the fraction.
-    expect(validity).toMatch(/body 2.*4\.65 > 1\/6/);
-    expect(within(row).getByTestId("comparison-edgb").textContent).toMatch(/times weaker than Lyu et al\. 2022/);
+    expect(validity).toMatch(/outside validity/);
+    expect(within(row).getByTestId("validity-edgb").getAttribute("data-verdict")).toBe("outside_validity");
+    // The failing condition with the factor it fails by: 4.65 / (1/6) = 27.9.
+    expect(validity).toMatch(/fails ×27\.9: .*body 2.*4\.65 > 1\/6/);
+    // No comparison for a limit outside validity.
+    expect(within(row).getByTestId("comparison-edgb").textContent).toMatch(/^not compared with/);
     const cautions = within(row).getByTestId("cautions-edgb");
     expect([...cautions.querySelectorAll("li")].map((li) => li.getAttribute("data-caution"))).toEqual(["validity", "validity", "leading_pn", "prior", "one_signed"]);
     // KaTeX arrives lazily; the closed form is then rendered, not shown as source.

@@ -117,14 +117,15 @@ describe("<EventsResult>", () => {
       eventsRequestSchema.parse({
         theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9,
         events: [
-          { label: "KV-231107a", binary: { m1: 10, m2: 5, frame: "source" }, upper: 1e-3 },
-          { label: "KV-240322c", binary: { m1: 35, m2: 9, frame: "source" }, upper: 4e-4 },
-          { label: "KV-x", binary: { m1: 8, m2: 8, frame: "source" }, upper: 1e-3 },
+          { label: "KV-231107a", binary: { m1: 10, m2: 5, frame: "source" }, upper: 1e-5 },
+          { label: "KV-240322c", binary: { m1: 35, m2: 9, frame: "source" }, upper: 4e-6 },
+          { label: "KV-x", binary: { m1: 8, m2: 8, frame: "source" }, upper: 1e-5 },
         ],
       }),
     );
     render(<EventsResult data={data} />);
-    expect(screen.getByTestId("events-row-0").textContent).toMatch(/≤\s*4\.07\s*km/);
+    // 4.07 km at |beta| <= 1e-3 scales as beta^(1/4) (EdGB, p = 2 in alpha): 4.07 x 0.01^(1/4) = 1.29 km (derived).
+    expect(screen.getByTestId("events-row-0").textContent).toMatch(/≤\s*1\.29\s*km/);
     expect(screen.getByTestId("events-row-2").textContent).toMatch(/—/);
     const tightest = data.tightest!.label;
     const index = data.events.findIndex((e) => e.label === tightest);

@@ -158,8 +158,8 @@ describe("EdGB worked numbers (physics.md 2.1, 2.3)", () => {
     expect(r1.coupling.value / r0.coupling.value).toBeCloseTo(1, 14);
     const flipped = bounded(convertToCoupling({ kind: "ppe", b: -7, interval: [-5e-2, 1e-3], convention: "minus" }, bbh, edgb));
     expect(flipped.coupling.value / r0.coupling.value).toBeCloseTo(1, 14);
-    const off = convertToCoupling({ kind: "ppe", b: -7, interval: [1e-3, 2e-3] }, bbh, edgb);
-    expect(off.status === "no_constraint" && off.code).toBe("interval_excludes_gr");
+    // An interval that excludes beta = 0 puts GR itself outside: it is refused, nothing is translated.
+    expect(() => convertToCoupling({ kind: "ppe", b: -7, interval: [1e-3, 2e-3] }, bbh, edgb)).toThrow(/GR itself is outside/);
   });
 });
 

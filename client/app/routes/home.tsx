@@ -4,7 +4,8 @@ export function Component() {
       <h1 className="text-4xl leading-tight mb-6">Bounds on deviations, read as bounds on theories</h1>
       <p className="text-lg leading-relaxed mb-4" data-testid="pitch">
         Dragoman is a reviewed catalogue of how specific theories of gravity map onto the theory-agnostic deviation parameters of
-        gravitational-wave tests: the ppE phase coefficient β at exponent b, generalized-IMR coefficients δφ<sub>k</sub>, ringdown shifts.
+        gravitational-wave tests: the ppE phase coefficient β at exponent b, generalized-IMR coefficients δφ<sub>k</sub>, shifts of the ringdown's
+        quasinormal modes, and the inspiral–merger–ringdown consistency of the remnant's mass and spin.
         Give it a bound you measured, and it translates it into a limit on every catalogued coupling, in the units people quote, with the
         validity of each approximation checked beside the number.
       </p>

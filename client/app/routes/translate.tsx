@@ -2,6 +2,7 @@ import { Link } from "react-router-dom";
 import type { ConvertRequest } from "../../../common/convert.ts";
 import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
+import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel.tsx";
 import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
 import { SamplesPanel } from "../../features/translate/components/samples-panel.tsx";
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
@@ -31,6 +32,7 @@ export function Component() {
       <TranslatePanel footer={(request) => <SaveSlot request={request} />} />
       <SamplesPanel />
       <EventsPanel />
+      <RingdownPanel />
     </article>
   );
 }

@@ -8,32 +8,35 @@ export interface CheckResult {
   message: string;
 }
 
-export type CheckOutcome = "ok" | "warning" | "failed";
+export type CheckOutcome = "ok" | "warning" | "inconclusive" | "failed";
 
 /**
  * A warning is a warning whether or not the check passed (the engine marks passed-but-read-this checks
- * with severity "warning"); otherwise a check that did not pass is a failure.
+ * with severity "warning"); "inconclusive" is a check stopped by its time limit, neither passed nor
+ * failed; otherwise a check that did not pass is a failure.
  */
 export function checkOutcome(check: CheckResult): CheckOutcome {
   const s = check.severity?.toLowerCase();
+  if (s === "inconclusive") return "inconclusive";
   if (s === "warning") return "warning";
   if (check.ok) return "ok";
   return s === "info" ? "warning" : "failed";
 }
+
+const RANK: Record<CheckOutcome, number> = { ok: 0, warning: 1, inconclusive: 2, failed: 3 };
 
 /** The worst outcome of a set: what a single badge beside an expression should say. */
 export function worstOutcome(checks: readonly CheckResult[]): CheckOutcome {
   let worst: CheckOutcome = "ok";
   for (const c of checks) {
     const o = checkOutcome(c);
-    if (o === "failed") return "failed";
-    if (o === "warning") worst = "warning";
+    if (RANK[o] > RANK[worst]) worst = o;
   }
   return worst;
 }
 
-const outcomeTone: Record<CheckOutcome, Tone> = { ok: "ok", warning: "caution", failed: "fail" };
-const outcomeMark: Record<CheckOutcome, string> = { ok: "✓", warning: "!", failed: "✗" };
+const outcomeTone: Record<CheckOutcome, Tone> = { ok: "ok", warning: "caution", inconclusive: "info", failed: "fail" };
+const outcomeMark: Record<CheckOutcome, string> = { ok: "✓", warning: "!", inconclusive: "?", failed: "✗" };
 
 export function CheckBadge({ outcome, title }: { outcome: CheckOutcome; title?: string }) {
   return (

@@ -2,11 +2,13 @@ import type { CheckResult, ChecksReport, Mapping, MappingKind, TheoryEntry } fro
 import { ValidationError, type FieldErrors } from "../../errors.ts";
 import type { DerivationInput, MappingInput, MappingReport, MappingTarget } from "../../physics/checks/types.ts";
 import { isExpressionError } from "../../physics/expr/errors.ts";
-import { guardExpression } from "../../physics/expr/guard.ts";
 import { budgetMessage, ExpressionBudgetError } from "../../physics/expr/symbols.ts";
 
-/** The physics engine's check of one expression; injected so the catalogue does not pick the engine's internals. */
-export type MappingChecker = (input: MappingInput) => Promise<MappingReport>;
+/** The check workers, as the catalogue needs them (injected, so the catalogue does not pick the engine's internals). */
+export interface EntryCheckRunner {
+  guard(client: string, fields: ReadonlyArray<readonly [string, string]>): Promise<Record<string, string>>;
+  mappings(client: string, inputs: readonly MappingInput[]): Promise<Array<MappingReport | Error>>;
+}
 
 const TARGETS: Record<MappingKind, MappingTarget> = {
   inspiral_phase: "ppe_phase",
@@ -36,16 +38,10 @@ function expressionFields(entry: TheoryEntry): [string, string][] {
  * saved at all: 400 naming each field, under `prefix` ("theory." for a submission body). Expressions
  * that parse are saved even when later checks fail, so a theorist can keep a draft.
  */
-export function guardEntryExpressions(entry: TheoryEntry, prefix = "theory."): void {
+export async function guardEntryExpressions(entry: TheoryEntry, runner: EntryCheckRunner, client: string, prefix = "theory."): Promise<void> {
+  const refused = await runner.guard(client, expressionFields(entry));
   const fields: FieldErrors = {};
-  for (const [path, source] of expressionFields(entry)) {
-    try {
-      guardExpression(source);
-    } catch (err) {
-      if (!isExpressionError(err)) throw err;
-      fields[`${prefix}${path}`] = err.message;
-    }
-  }
+  for (const [path, message] of Object.entries(refused)) fields[`${prefix}${path}`] = message;
   const first = Object.entries(fields)[0];
   if (first) throw new ValidationError(`Invalid request body: ${first[0]}: ${first[1]}`, fields);
 }
@@ -89,25 +85,22 @@ interface OverBudget {
   readonly message: string;
 }
 
-/** One engine call; declarations it cannot use at all (a bad coupling or definition) become a failed check. */
-async function run(check: MappingChecker, input: MappingInput, path: string): Promise<CheckResult[] | OverBudget> {
-  try {
-    return (await check(input)).checks.map((c) => toResult(path, c));
-  } catch (err) {
-    if (err instanceof ExpressionBudgetError) {
-      const field = `${path}.${ENTRY_FIELDS[err.field] ?? err.field}`;
-      return { field, message: budgetMessage(field, err.size, err.cap) };
-    }
-    if (!isExpressionError(err)) throw err;
-    return [{ path, name: "declarations", ok: false, severity: "error", message: err.message }];
+/** One engine result; declarations it cannot use at all (a bad coupling or definition) become a failed check. */
+function resultOf(r: MappingReport | Error, path: string): CheckResult[] | OverBudget {
+  if (!(r instanceof Error)) return r.checks.map((c) => toResult(path, c));
+  if (r instanceof ExpressionBudgetError) {
+    const field = `${path}.${ENTRY_FIELDS[r.field] ?? r.field}`;
+    return { field, message: budgetMessage(field, r.size, r.cap) };
   }
+  if (!isExpressionError(r)) throw r;
+  return [{ path, name: "declarations", ok: false, severity: "error", message: r.message }];
 }
 
 /**
  * Runs the engine on every mapping and every validity condition of the entry. The report is stored
  * with the submission (and, once accepted, with the revision and on each mapping row).
  */
-export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now: Date, prefix = "theory."): Promise<ChecksReport> {
+export async function checkEntry(entry: TheoryEntry, runner: EntryCheckRunner, client: string, now: Date, prefix = "theory."): Promise<ChecksReport> {
   const couplings = entry.couplings.map((c) => ({
     symbol: c.symbol,
     dimension: c.dimension,
@@ -116,7 +109,7 @@ export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now:
     ...(c.range ? { range: c.range } : {}),
   }));
   const definitions = entry.definitions.map((d) => ({ symbol: d.symbol, expression: d.expression }));
-  const jobs: Promise<CheckResult[] | OverBudget>[] = [];
+  const jobs: Array<{ input: MappingInput; path: string }> = [];
   entry.mappings.forEach((m, i) => {
     const input: MappingInput = {
       expression: m.expression,
@@ -128,10 +121,14 @@ export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now:
       ...(m.pn_order === undefined ? {} : { pn_order: m.pn_order }),
     };
     const derivation = derivationInput(m);
-    jobs.push(run(check, derivation ? { ...input, derivation } : input, `mappings.${i}`));
-    m.validity.forEach((v, j) => jobs.push(run(check, { expression: v.expression, target: "validity", couplings, definitions }, `mappings.${i}.validity.${j}`)));
+    jobs.push({ input: derivation ? { ...input, derivation } : input, path: `mappings.${i}` });
+    m.validity.forEach((v, j) => jobs.push({ input: { expression: v.expression, target: "validity", couplings, definitions }, path: `mappings.${i}.validity.${j}` }));
   });
-  const settled = await Promise.all(jobs);
+  const reports = await runner.mappings(
+    client,
+    jobs.map((j) => j.input),
+  );
+  const settled = reports.map((r, k) => resultOf(r, jobs[k]?.path ?? ""));
   const fields: FieldErrors = {};
   const results: CheckResult[] = [];
   for (const r of settled) {
@@ -142,5 +139,6 @@ export async function checkEntry(entry: TheoryEntry, check: MappingChecker, now:
   if (first) throw new ValidationError(`Invalid request body: ${first[1]}`, fields);
   const failures = results.filter((r) => !r.ok && r.severity === "error").length;
   const warnings = results.filter((r) => r.severity === "warning").length;
-  return { ok: failures === 0, failures, warnings, results, checked_at: now.toISOString() };
+  const inconclusive = results.filter((r) => r.severity === "inconclusive").length;
+  return { ok: failures === 0 && inconclusive === 0, failures, warnings, inconclusive, results, checked_at: now.toISOString() };
 }

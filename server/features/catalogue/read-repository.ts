@@ -1,5 +1,7 @@
 import type {
   CheckResult,
+  COUPLING_RANGES,
+  GR_VALUES,
   QUOTED_FORMS,
   StoredReference,
   StoredRetirement,
@@ -9,6 +11,7 @@ import type {
 } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
 import { listReferencesOfTheories, listTheoryReferences } from "../references/repository.ts";
+import { texToHtml } from "./tex-html.ts";
 
 /** Reads of the accepted catalogue, from the normalised tables. Plain objects out. */
 
@@ -54,6 +57,8 @@ interface CouplingRow extends RetiredColumns {
   quoted_alpha_md: number | null;
   description: string | null;
   convention: string | null;
+  range: (typeof COUPLING_RANGES)[number] | null;
+  gr_value: (typeof GR_VALUES)[number] | null;
 }
 interface ConventionRow {
   coupling_id: number;
@@ -91,6 +96,7 @@ interface MappingRow extends RetiredColumns {
   source_status: Source;
   locator: string | null;
   notes: string | null;
+  caution: string | null;
   checks: CheckResult[];
   checks_ok: boolean;
 }
@@ -201,7 +207,7 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
       revision: t.current_revision,
       updated_at: t.updated_at.toISOString(),
       source_to_be_confirmed: t.needs_source_confirmation,
-      couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, unit })),
+      couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, latex_html: texToHtml(latex), unit })),
       mappings: own.map(({ kind, b, a, pn_order, retired_at }) => ({ kind, b, a, pn_order, retired: retired_at !== null })),
       references: refs.get(t.id) ?? [],
       retired: retirementOf(t),
@@ -280,6 +286,7 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
       references: mappingRefs.filter((r) => r.mapping_id === m.id).flatMap((r) => ref(r.literature_id) ?? []),
       locator: m.locator,
       notes: m.notes,
+      caution: m.caution ?? null,
       checks,
       checks_ok: m.checks_ok,
       retired: retirementOf(m),
@@ -306,6 +313,8 @@ export async function getTheoryDetail(db: Knex, slug: string): Promise<TheoryDet
         : null,
       description: c.description,
       convention: c.convention,
+      range: c.range,
+      gr_value: c.gr_value,
       conventions: conventions
         .filter((cv) => cv.coupling_id === c.id)
         .map((cv) => ({

@@ -130,6 +130,8 @@ export async function replaceTheoryContent(trx: Knex.Transaction, theoryId: numb
         description: c.description ?? null,
         convention: c.convention ?? null,
         ...retiredColumns(c.retired),
+        range: c.range ?? null,
+        gr_value: c.gr_value ?? null,
       })
       .returning<{ id: number }[]>("id");
     if (!row) throw new Error("coupling insert returned no row");
@@ -189,6 +191,7 @@ export async function replaceTheoryContent(trx: Knex.Transaction, theoryId: numb
         source_status: m.source_status,
         locator: m.locator ?? null,
         notes: m.notes ?? null,
+        caution: m.caution ?? null,
         checks: JSON.stringify(own),
         checks_ok: !failed(all),
         ...retiredColumns(m.retired),

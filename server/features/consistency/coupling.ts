@@ -32,7 +32,8 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
   const common = { mode: request.mode, M: inFrame.M_f, chi: inFrame.chi_f, shifts, covariance, credibility: request.credibility, sides };
   const exact = couplingExclusion(common);
   const linear = couplingExclusion({ ...common, reading: "linear" });
-  const validity = [...(freq?.validity ?? []), ...(damp?.validity ?? [])];
+  // The frequency and damping mappings often share a condition: assess each condition once.
+  const validity = [...(freq?.validity ?? []), ...(damp?.validity ?? [])].filter((v, i, all) => all.findIndex((w) => w.condition === v.condition && w.label === v.label) === i);
 
   const cautions = [
     "Only the theory's ringdown shifts enter: the inspiral estimate is taken as the GR remnant (the inspiral bias from the theory's ppE term and any shift of the true remnant are not modelled here).",

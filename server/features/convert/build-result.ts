@@ -1,7 +1,7 @@
 import type { BoundRequest, Caution, ConvertResult, QuotedValueDto } from "../../../common/convert.ts";
 import type { BoundedResult } from "../../physics/convert.ts";
 import { formatLatexNumber, unitLatex } from "../../physics/latex-format.ts";
-import { engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, validityCautions } from "./cautions.ts";
+import { engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, signedIntervalCaution, validityCautions } from "./cautions.ts";
 import type { AcceptedTheory } from "./catalogue-snapshot.ts";
 import type { ReadyMapping } from "./compiled-catalogue.ts";
 import { compareWithBound, shortCitation } from "./reference-compare.ts";
@@ -42,7 +42,20 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
   const byConvention = new Map<string, QuotedValueDto[]>();
   byConvention.set(defaultName, [plain(result.quoted), ...result.extras.map(plain)]);
   for (const c of conventionList) if (c.name !== defaultName) byConvention.set(c.name, [plain(c.quoted)]);
-  const referenceBounds = theory.referenceBounds.map((kb) => compareWithBound({ byConvention, shown: convention }, kb));
+  const factors = new Map<string, number>(conventionList.map((c) => [c.name, c.factor]));
+  if (!factors.has(defaultName)) factors.set(defaultName, 1);
+  // Published bounds are compared only with a valid limit on the magnitude, in the headline's convention.
+  const withheld =
+    result.signed_headline
+      ? "this limit is one end of a signed interval, not a bound on the magnitude"
+      : result.verdict === "outside_validity"
+        ? "this limit is outside the validity of its mapping"
+        : result.verdict === "not_assessed"
+          ? "the validity of this limit is not assessed (the entry states no condition for this binary)"
+          : null;
+  const referenceBounds = theory.referenceBounds.map((kb) =>
+    compareWithBound({ byConvention, shown: convention, factors, form: spec.quoted.form, primarySymbol: spec.quoted.symbol, withheld }, kb),
+  );
 
   let closedForm = result.latex;
   if (chosen) {
@@ -53,11 +66,13 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
   const cautions: Caution[] = [...validityCautions(result)];
   cautions.push(leadingPnCaution(ready.notes.pnOrder));
   cautions.push(priorCaution(coupling.symbol));
-  const oneSigned = oneSignedCaution(result, "The theory", bound.upper);
+  const oneSigned = oneSignedCaution(result, bound);
   if (oneSigned) {
     cautions.push(oneSigned);
-    if (bound.parameter === "ppe_beta" && bound.sign_convention === "minus") cautions.push(signConventionCaution(true));
+    if (bound.parameter === "ppe_beta" && bound.sign_convention === "minus") cautions.push(signConventionCaution(true, bound.interval !== undefined));
   }
+  const signedCaution = signedIntervalCaution(result);
+  if (signedCaution) cautions.push(signedCaution);
   if (propagation) {
     cautions.push({
       code: "frame",
@@ -81,10 +96,26 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
     coupling,
     also,
     canonical: { symbol: result.coupling.symbol, latex: result.coupling.latex, value: result.coupling.value, unit: result.coupling.unit },
+    coupling_symbol: result.coupling.symbol,
     b: result.b,
     beta_max: result.beta_max,
+    beta_interval: [...result.beta_interval],
+    theory_sign: result.theory_sign < 0 ? "negative" : result.theory_sign > 0 ? "positive" : "either",
+    side_used: result.side_used,
+    signed_interval: result.signed_interval ? { ...result.signed_interval } : null,
     method: result.method,
-    valid: result.valid,
+    verdict: result.verdict,
+    failing: result.failing
+      ? {
+          label: result.failing.label,
+          condition: result.failing.condition,
+          value: Number.isFinite(result.failing.value) ? result.failing.value : null,
+          max: result.failing.max,
+          factor: Number.isFinite(result.failing.factor) ? result.failing.factor : null,
+          kind: result.failing.kind,
+        }
+      : null,
+    valid: result.verdict === "valid",
     validity: result.validity.map((v) => ({
       label: v.label,
       condition: v.condition,
@@ -92,6 +123,8 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
       max: v.max,
       ok: v.ok,
       kind: v.kind,
+      factor: Number.isFinite(v.factor) ? v.factor : null,
+      status: v.status,
       ...(v.reference ? { reference: v.reference } : {}),
     })),
     closed_form_latex: closedForm,

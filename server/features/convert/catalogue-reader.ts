@@ -56,6 +56,8 @@ export function acceptedTheoryOf(detail: TheoryDetail): AcceptedTheory {
           }
         : {}),
       ...(c.convention ? { convention: c.convention } : {}),
+      ...(c.range ? { range: c.range } : {}),
+      ...(c.gr_value ? { gr_value: c.gr_value } : {}),
       conventions: c.conventions.map((cv) => ({ name: cv.name, factor: cv.factor, ...(cv.reference ? { reference: keyOf(cv.reference) } : {}) })),
     })),
     definitions: detail.definitions.map((d) => ({ symbol: d.symbol, expression: d.expression })),
@@ -75,8 +77,9 @@ export function acceptedTheoryOf(detail: TheoryDetail): AcceptedTheory {
         ...(v.body === null ? {} : { body: v.body }),
         ...(v.applies_to === null ? {} : { applies_to: v.applies_to }),
       })),
-      body_rules: m.body_rules.map((r) => ({ kind: r.kind, ...(r.bodies ? { bodies: r.bodies } : {}) })),
+      body_rules: m.body_rules.map((r) => ({ kind: r.kind, description: r.description, ...(r.bodies ? { bodies: r.bodies } : {}) })),
       source_status: m.source_status,
+      ...(m.caution ? { caution: m.caution } : {}),
     })),
   };
   const references = new Map<string, BibliographyEntry>();

@@ -1,4 +1,4 @@
-import type { Caution, CautionCode } from "../../../common/convert.ts";
+import { RULE_OF_THUMB_STRETCH, type BoundRequest, type Caution, type CautionCode } from "../../../common/convert.ts";
 import type { BoundedResult } from "../../physics/convert.ts";
 
 /**
@@ -15,9 +15,11 @@ export function validityCautions(result: BoundedResult): Caution[] {
     .map((v) => ({
       code: "validity" as const,
       message:
-        v.kind === "hard"
-          ? `Not valid at this limit: “${v.label}” fails (${fmt(v.value)} > ${fmt(v.max)}), so the expansion behind the mapping does not hold there.`
-          : `Rule of thumb not met at this limit: “${v.label}” (${fmt(v.value)} > ${fmt(v.max)}).`,
+        v.status === "stretched"
+          ? `Stretched approximation at this limit: the rule of thumb “${v.label}” is exceeded ${fmt(v.factor)} times (${fmt(v.value)} > ${fmt(v.max)}), by no more than ${RULE_OF_THUMB_STRETCH} times, so the limit is kept as valid but the expansion is pushed.`
+          : v.kind === "hard"
+            ? `Outside validity at this limit: “${v.label}” fails ${Number.isFinite(v.factor) ? `by a factor ${fmt(v.factor)} ` : ""}(${fmt(v.value)} > ${fmt(v.max)}), so the expansion behind the mapping does not hold there.`
+            : `Outside validity at this limit: the rule of thumb “${v.label}” fails ${Number.isFinite(v.factor) ? `by a factor ${fmt(v.factor)} ` : ""}(${fmt(v.value)} > ${fmt(v.max)}), more than ${RULE_OF_THUMB_STRETCH} times its threshold.`,
     }));
 }
 
@@ -36,23 +38,47 @@ export function priorCaution(symbol: string): Caution {
   };
 }
 
-/** One-signed theories (EdGB and scalar dipole radiation give beta < 0) constrain only one side. */
-export function oneSignedCaution(result: BoundedResult, theoryName: string, upper: number): Caution | undefined {
+/**
+ * Only where it is true: the theory gives one sign of beta over its coupling's physical range for this
+ * binary, so only that side of the bound constrains it.
+ */
+export function oneSignedCaution(result: BoundedResult, bound: BoundRequest): Caution | undefined {
   if (result.theory_sign === 0) return undefined;
   const sign = result.theory_sign < 0 ? "β < 0" : "β > 0";
-  const side = result.theory_sign < 0 ? "negative" : "positive";
+  const what = bound.parameter === "ppe_beta" ? "β" : `δφ_${String(bound.k)}`;
+  const end = result.side_used === "lower" ? "lower" : "upper";
+  const used =
+    bound.upper !== undefined
+      ? `the symmetric |${what}| ≤ ${fmt(bound.upper)} was used as its ${end} side only (β ${result.theory_sign < 0 ? "≥" : "≤"} ${fmt(result.theory_sign < 0 ? -result.beta_max : result.beta_max)}); a one-sided bound on that side is the better input`
+      : `only the ${end} end of the interval was used (β ${result.theory_sign < 0 ? "≥" : "≤"} ${fmt(result.theory_sign < 0 ? -result.beta_max : result.beta_max)}); the other end says nothing about this theory`;
   return {
     code: "one_signed",
-    message: `${theoryName} predicts ${sign} at every coupling, so only the ${side} side of the bound constrains it: the symmetric |β| ≤ ${fmt(upper)} was used, and a one-sided bound on that side is the better input.`,
+    message: `For this binary the theory gives ${sign} at every value of its coupling, so only that side of the bound constrains it: ${used}.`,
   };
 }
 
-export function signConventionCaution(perTheory: boolean): Caution {
+/** Couplings of either sign: the signed interval is the result; a magnitude alone would hide which side is bounded. */
+export function signedIntervalCaution(result: BoundedResult): Caution | undefined {
+  const s = result.signed_interval;
+  if (!s) return undefined;
+  const end = (x: number | null, inf: string) => (x === null ? inf : fmt(x));
+  const interval = `${s.symbol} ∈ [${end(s.lower, "−∞")}, ${end(s.upper, "+∞")}]${s.unit && s.unit !== "1" ? ` ${s.unit}` : ""}`;
+  return {
+    code: "one_signed",
+    message: result.signed_headline
+      ? `The coupling can take either sign and the bound is one-sided: only ${interval} follows; its magnitude is not bounded.`
+      : `The coupling can take either sign, so the bound maps to the signed interval ${interval}; the magnitude limit beside it is the larger end.`,
+  };
+}
+
+export function signConventionCaution(perTheory: boolean, interval = false): Caution {
   return {
     code: "sign_convention",
     message: perTheory
       ? "The bound was stated for h ∝ exp(−iΨ); it was normalised to exp(+iΨ) (β → −β) before this theory's sign was applied."
-      : "The bound was stated for h ∝ exp(−iΨ); Dragoman normalises to exp(+iΨ), so β changes sign (the magnitude of a symmetric bound does not).",
+      : interval
+        ? "The bound was stated for h ∝ exp(−iΨ); Dragoman normalises to exp(+iΨ), so β changes sign: the interval [lo, hi] became [−hi, −lo]."
+        : "The bound was stated for h ∝ exp(−iΨ); Dragoman normalises to exp(+iΨ), so β changes sign (the magnitude of a symmetric bound does not).",
   };
 }
 
@@ -67,7 +93,7 @@ export function engineCautions(result: { warnings: readonly string[]; cautions: 
   const seen = new Set<string>();
   const out: Caution[] = [];
   for (const text of [...result.cautions, ...result.warnings]) {
-    if (seen.has(text) || /^rule of thumb not met/i.test(text)) continue;
+    if (seen.has(text)) continue;
     seen.add(text);
     out.push({ code: classify(text), message: text.charAt(0).toUpperCase() + text.slice(1) + (text.endsWith(".") ? "" : ".") });
   }

@@ -1,40 +1,49 @@
 import type { EventsRequest, EventsResponse } from "../../../common/convert-samples.ts";
-import type { BoundRequest, Caution } from "../../../common/convert.ts";
+import type { BoundRequest, Caution, ConvertResult } from "../../../common/convert.ts";
 import { ValidationError } from "../../errors.ts";
-import { detectPowerLaw } from "../../physics/invert.ts";
+import { detectPowerLaw, solveMagnitude } from "../../physics/invert.ts";
 import { quotedValueOf } from "../../physics/quoted-forms.ts";
 import type { CompiledCatalogue } from "./compiled-catalogue.ts";
 import { mappingCautions, selectTarget } from "./samples-common.ts";
 import { prepareBinary, translateBound, type Prepared } from "./translate.ts";
 
 /**
- * Several events, one theory: each event's bound is translated at its own binary (exactly as
+ * Several events, one coupling: each event's bound is translated at its own binary (exactly as
  * POST /convert does), and the events are combined at the level of the coupling, never by combining
  * beta (each event maps the same coupling to a different beta).
  *
- * Combined limit, under a Gaussian approximation of each event's bound: event i's |beta| is read as
- * half-normal with zero mean and sigma_i = U_i / q (U_i its bound, q the half-normal quantile of the
- * credibility); with beta_i = K_i x^p and a flat prior in y = x^p >= 0, the product of the likelihoods
- * exp(-(K_i y)^2 / (2 sigma_i^2)) is a half-normal in y with 1/sigma_y^2 = sum K_i^2 / sigma_i^2. Its
- * credibility quantile is y_c = q sigma_y, so q cancels: y_c = (sum (K_i / U_i)^2)^(-1/2), and
- * x_c = y_c^(1/p). One event gives back its own /convert limit; N identical events scale x_c by
- * N^(-1/(2p)).
+ * Combined limit, under a Gaussian approximation of each event's bound: event i's |beta| on the side
+ * the theory reaches is read as half-normal with zero mean and sigma_i = U_i / q (U_i that side's
+ * bound, q the half-normal quantile of the credibility). When every event's mapping has the same shape,
+ * |beta_i| = K_i g(x) (a power law x^p is one case; Brans-Dicke's 1/(2 + omega) another), a flat prior
+ * in y = g(x) >= 0 makes the product of the likelihoods a half-normal in y with
+ * 1/sigma_y^2 = sum K_i^2 / sigma_i^2. Its credibility quantile is y_c = q sigma_y, so q cancels:
+ * y_c = (sum (K_i / U_i)^2)^(-1/2), and the combined limit solves g(x) = y_c. It is an upper limit
+ * when g grows away from GR (alpha, Gdot/G) and a lower limit when GR sits at infinity (lambda_g,
+ * omega_BD): "tightest" and the combination follow the side, never assuming upper bounds.
+ * Events whose limit is outside validity stay out of the combination (and are named).
  */
 
 export const COMBINATION_RULE =
-  "Combined under a Gaussian approximation of each event's bound: each |beta_i| is read as a zero-mean half-normal with sigma_i = U_i / q, " +
-  "the likelihoods exp(-(K_i y)^2 / 2 sigma_i^2) are multiplied with a flat prior in y = x^p, and the limit is the credibility quantile: " +
-  "y_c = (Σ (K_i / U_i)^2)^(-1/2), x_c = y_c^(1/p).";
+  "Combined under a Gaussian approximation of each event's bound: each |beta_i| = K_i g(x) on the side the theory reaches is read as a zero-mean half-normal " +
+  "with sigma_i = U_i / q, the likelihoods are multiplied with a flat prior in y = g(x), and the limit is the credibility quantile: y_c = (Σ (K_i / U_i)^2)^(-1/2), solved for x. " +
+  "For a lower limit (GR at infinity, e.g. lambda_g or omega_BD) the combined limit is the larger value. Events outside validity are left out.";
 
-function eventBound(request: EventsRequest, upper: number): BoundRequest {
+function eventBound(request: EventsRequest, event: EventsRequest["events"][number]): BoundRequest {
+  const value = {
+    ...(event.upper !== undefined ? { upper: event.upper } : {}),
+    ...(event.interval !== undefined ? { interval: event.interval } : {}),
+    credibility: request.credibility,
+    f_low: request.f_low,
+  };
   return request.parameter === "ppe_beta"
-    ? { parameter: "ppe_beta", b: request.b!, upper, credibility: request.credibility, sign_convention: request.sign_convention }
-    : { parameter: "gimr_dphi", k: request.k!, upper, credibility: request.credibility, includes_spin: request.includes_spin };
+    ? { parameter: "ppe_beta", b: request.b!, ...value, sign_convention: request.sign_convention }
+    : { parameter: "gimr_dphi", k: request.k!, ...value, includes_spin: request.includes_spin };
 }
 
-function prepareEvent(index: number, binary: EventsRequest["events"][number]["binary"], cosmology: EventsRequest["cosmology"]): Prepared {
+function prepareEvent(index: number, binary: EventsRequest["events"][number]["binary"], request: EventsRequest): Prepared {
   try {
-    return prepareBinary(binary, cosmology);
+    return prepareBinary(binary, request.cosmology, request.f_low);
   } catch (err) {
     if (err instanceof ValidationError && err.fields) {
       const fields = Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.startsWith("binary.") ? `events.${index}.${k}` : k, v]));
@@ -45,57 +54,102 @@ function prepareEvent(index: number, binary: EventsRequest["events"][number]["bi
   }
 }
 
+/** True when the tighter of two limits on the side is `a`: smaller for an upper limit, larger for a lower one. */
+export function isTighter(side: "upper" | "lower", a: number, b: number): boolean {
+  return side === "upper" ? a < b : a > b;
+}
+
+interface Usable {
+  label: string;
+  F: (x: number) => number;
+  u: number;
+  /** The event's own limit on the canonical coupling. */
+  x: number;
+}
+
 export function convertEvents(catalogue: CompiledCatalogue, request: EventsRequest): EventsResponse {
   const target = selectTarget(catalogue, request);
   const mapping = target.ready.compiled;
+  const symbol = mapping.coupling.symbol;
   const quoted = mapping.coupling.quoted;
   let power: number | null = null;
+  let side: "upper" | "lower" | null = null;
   const rows: EventsResponse["events"] = [];
-  const usable: { label: string; k: number; u: number; limit: number }[] = [];
+  const usable: Usable[] = [];
+  const outside: string[] = [];
+  const oneSided: string[] = [];
 
   request.events.forEach((event, index) => {
-    const prepared = prepareEvent(index, event.binary, request.cosmology);
-    const answer = translateBound(catalogue, prepared, eventBound(request, event.upper), { theories: [target.theory.theory.slug] });
-    const result = answer.results[0];
+    const prepared = prepareEvent(index, event.binary, request);
+    const answer = translateBound(catalogue, prepared, eventBound(request, event), { theories: [target.theory.theory.slug] });
+    const result: ConvertResult | undefined = answer.results.find((r) => r.coupling_symbol === symbol);
     if (!result) {
-      const na = answer.not_applicable[0];
-      rows.push({ label: event.label, limit: null, valid: null, beta_max: answer.bound.beta_max, prefactor: null, reason: na?.reason ?? "no limit for this event" });
+      const na = answer.not_applicable.find((n) => n.reason.startsWith(`${symbol}:`)) ?? answer.not_applicable[0];
+      rows.push({ label: event.label, limit: null, valid: null, verdict: null, combined: false, beta_max: answer.bound.beta_max, prefactor: null, reason: na?.reason ?? "no limit for this event" });
       return;
     }
-    const F = mapping.bind ? mapping.bind(prepared.context.envFor(mapping)) : (x: number) => mapping.evaluate(x, prepared.context.envFor(mapping));
+    const env = prepared.context.envFor(mapping);
+    const F = mapping.bind ? mapping.bind(env) : (x: number) => mapping.evaluate(x, env);
     const law = detectPowerLaw(F);
     const limit = result.coupling.value;
-    rows.push({ label: event.label, limit, valid: result.valid, beta_max: result.beta_max, prefactor: law?.prefactor ?? null, reason: null });
-    if (law) {
-      power = law.power;
-      usable.push({ label: event.label, k: law.prefactor, u: result.beta_max, limit });
+    // A one-sided bound on a coupling of either sign gives one end of a signed interval, not a magnitude limit.
+    const signedEnd = result.signed_interval !== null && (result.signed_interval.lower === null || result.signed_interval.upper === null);
+    if (!signedEnd) side ??= result.coupling.side;
+    let combined = false;
+    if (result.verdict === "outside_validity") outside.push(event.label);
+    else if (signedEnd) oneSided.push(event.label);
+    else {
+      if (law) power = law.power;
+      usable.push({ label: event.label, F, u: result.beta_max, x: result.canonical.value });
+      combined = true;
     }
+    rows.push({ label: event.label, limit, valid: result.valid, verdict: result.verdict, combined, beta_max: result.beta_max, prefactor: law?.prefactor ?? null, reason: null });
   });
 
-  const p = power as number | null;
-  // Without a power law (no usable event) the side cannot be told from p; upper is the common case.
-  const side = p !== null && p < 0 ? "lower" : "upper";
+  const finalSide: "upper" | "lower" = side ?? "upper";
   const limited = rows.flatMap((r) => (r.limit === null ? [] : [{ label: r.label, limit: r.limit }]));
-  const tightest = limited.reduce<{ label: string; limit: number } | null>((best, r) => {
-    if (!best) return r;
-    return (side === "upper" ? r.limit < best.limit : r.limit > best.limit) ? r : best;
-  }, null);
-
-  let combined: EventsResponse["combined"] = null;
-  if (p !== null && usable.length > 0) {
-    const yC = 1 / Math.sqrt(usable.reduce((s, e) => s + (e.k / e.u) ** 2, 0));
-    combined = { limit: quotedValueOf(quoted.form, yC ** (1 / p)), events_used: usable.length, rule: COMBINATION_RULE };
-  }
+  const tightest = limited.reduce<{ label: string; limit: number } | null>((best, r) => (!best || isTighter(finalSide, r.limit, best.limit) ? r : best), null);
 
   const cautions: Caution[] = [
     {
       code: "prior",
       message:
-        "The combined limit reads each event's bound as a Gaussian (half-normal) constraint and assumes a flat prior in x^p; with the events' posterior samples, translate each one sample by sample instead.",
+        "The combined limit reads each event's bound as a Gaussian (half-normal) constraint and assumes a flat prior in the shape g(x) of beta = K g(x); with the events' posterior samples, translate each one sample by sample instead.",
     },
     ...mappingCautions(target),
   ];
-  if (rows.some((r) => r.valid === false)) cautions.push({ code: "validity", message: "Some events' limits fail a hard validity condition: see the per-event rows." });
+
+  let combined: EventsResponse["combined"] = null;
+  const first = usable[0];
+  if (first) {
+    // The same shape for every event: |F_i(x)| / |F_i(x0)| must agree at a few probes around x0.
+    const x0 = first.x;
+    const K = (u: Usable) => Math.abs(u.F(x0));
+    const probes = [x0 / 100, x0 / 10, x0 * 10, x0 * 100];
+    const sameShape = usable.every((u) =>
+      probes.every((x) => {
+        const a = Math.abs(u.F(x)) / K(u);
+        const b = Math.abs(first.F(x)) / K(first);
+        return Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
+      }),
+    );
+    if (sameShape && usable.every((u) => K(u) > 0 && Number.isFinite(K(u)))) {
+      const yC = 1 / Math.sqrt(usable.reduce((s, u) => s + (K(u) / u.u) ** 2, 0));
+      const root = solveMagnitude(first.F, K(first) * yC);
+      if (root.kind === "root") {
+        combined = { limit: quotedValueOf(quoted.form, root.x), events_used: usable.length, rule: COMBINATION_RULE };
+      }
+    } else {
+      cautions.push({ code: "engine", message: "The events' mappings differ in shape (beta is not K_i times one function of the coupling), so no combined limit is given: see each event's own limit." });
+    }
+  }
+
+  if (outside.length > 0) {
+    cautions.push({ code: "validity", message: `Left out of the combination because their limits are outside validity: ${outside.join(", ")}.` });
+  }
+  if (oneSided.length > 0) {
+    cautions.push({ code: "engine", message: `Left out of the combination because their one-sided bounds do not bound the coupling's magnitude: ${oneSided.join(", ")}.` });
+  }
   const skipped = rows.filter((r) => r.limit === null).length;
   if (skipped > 0) cautions.push({ code: "engine", message: `${skipped} event(s) give no limit for this theory and are left out of the combination.` });
 
@@ -104,8 +158,8 @@ export function convertEvents(catalogue: CompiledCatalogue, request: EventsReque
     theory_name: target.theory.theory.name,
     b: target.b,
     credibility: request.credibility,
-    coupling: { symbol: quoted.symbol, latex: quoted.latex, unit: quoted.unit, side },
-    power: p,
+    coupling: { symbol: quoted.symbol, latex: quoted.latex, unit: quoted.unit, side: finalSide },
+    power: power as number | null,
     events: rows,
     tightest,
     combined,

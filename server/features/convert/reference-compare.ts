@@ -1,4 +1,5 @@
 import type { QuotedValueDto, ReferenceComparison } from "../../../common/convert.ts";
+import { convertQuotedConvention, type QuotedFormName } from "../../physics/quoted-forms.ts";
 
 /**
  * Puts a translated limit beside the published bounds on the same quantity: "3.2 times tighter than
@@ -28,8 +29,15 @@ export interface KnownBound {
 export interface TranslatedForms {
   /** Convention name -> quoted values (primary first). */
   byConvention: ReadonlyMap<string, readonly QuotedValueDto[]>;
-  /** The convention the result is shown in. */
+  /** The convention the result is shown in (the headline's). */
   shown: string;
+  /** Convention name -> factor (coupling_ref = factor x coupling_conv), to restate a published bound in the shown convention. */
+  factors?: ReadonlyMap<string, number>;
+  /** Quoted form and symbol of the primary quantity (the one a convention factor applies to). */
+  form?: QuotedFormName;
+  primarySymbol?: string;
+  /** Set when no comparison may be made (our limit is not valid): the reason. */
+  withheld?: string | null;
 }
 
 function surname(author: string): string {
@@ -62,9 +70,6 @@ function fmt(x: number): string {
 
 export function compareWithBound(forms: TranslatedForms, bound: KnownBound): ReferenceComparison {
   const citation = shortCitation(bound.reference);
-  const convention = bound.convention ?? forms.shown;
-  const candidates = forms.byConvention.get(convention) ?? [];
-  const ours = candidates.find((q) => q.symbol === bound.symbol && q.unit === bound.unit && q.side === bound.side);
   const base = {
     symbol: bound.symbol,
     value: bound.value,
@@ -75,17 +80,35 @@ export function compareWithBound(forms: TranslatedForms, bound: KnownBound): Ref
     reference: { key: bound.reference.key, citation },
     note: bound.note,
   };
-  const quotedBound = `${fmt(bound.value)}${bound.unit && bound.unit !== "1" ? ` ${bound.unit}` : ""}`;
-  if (!ours || !(ours.value > 0) || !(bound.value > 0)) {
-    return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${bound.symbol} ${quotedBound})` };
+  const credibilityNote = bound.credibility === null ? ", credibility not stated" : `, ${fmt(bound.credibility * 100)}% credibility`;
+  const quoted = (v: number) => `${fmt(v)}${bound.unit && bound.unit !== "1" ? ` ${bound.unit}` : ""}`;
+  const quotedBound = quoted(bound.value);
+  if (forms.withheld) {
+    return { ...base, ratio: null, verdict: "not_compared", sentence: `not compared with ${citation} (${bound.symbol} ${quotedBound}${credibilityNote}): ${forms.withheld}` };
+  }
+  // The published bound restated in the headline's convention, when it names another one.
+  let value = bound.value;
+  let restated = "";
+  const from = bound.convention ?? forms.shown;
+  if (from !== forms.shown) {
+    const f = forms.factors?.get(from);
+    const t = forms.factors?.get(forms.shown);
+    if (f === undefined || t === undefined || !forms.form || bound.symbol !== forms.primarySymbol) {
+      return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${bound.symbol} ${quotedBound}, convention ${from}${credibilityNote})` };
+    }
+    value = convertQuotedConvention(bound.value, forms.form, f, t);
+    restated = ` in convention ${from}, ${quoted(value)} in ${forms.shown}`;
+  }
+  const candidates = forms.byConvention.get(forms.shown) ?? [];
+  const ours = candidates.find((q) => q.symbol === bound.symbol && q.unit === bound.unit && q.side === bound.side);
+  if (!ours || !(ours.value > 0) || !(value > 0)) {
+    return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${bound.symbol} ${quotedBound}${credibilityNote})` };
   }
   // ratio > 1: ours is tighter. An upper limit is tighter when smaller, a lower limit when larger.
-  const ratio = bound.side === "upper" ? bound.value / ours.value : ours.value / bound.value;
+  const ratio = bound.side === "upper" ? value / ours.value : ours.value / value;
   const rel = Math.abs(ratio - 1);
-  const credibilityNote = bound.credibility === null ? "" : `, ${fmt(bound.credibility * 100)}% credibility`;
-  const against = `${citation} (${quotedBound}${credibilityNote})`;
+  const against = `${citation} (${quotedBound}${restated}${credibilityNote})`;
   if (rel < 0.005) return { ...base, ratio, verdict: "equal", sentence: `the same as ${against}` };
   if (ratio > 1) return { ...base, ratio, verdict: "tighter", sentence: `${fmt(ratio)} times tighter than ${against}` };
   return { ...base, ratio, verdict: "weaker", sentence: `${fmt(1 / ratio)} times weaker than ${against}` };
 }
-

@@ -18,7 +18,7 @@ export interface Target {
   b: number;
 }
 
-type Selecting = { theory: string; parameter: "ppe_beta" | "gimr_dphi"; b?: number | undefined; k?: number | string | undefined };
+type Selecting = { theory: string; coupling?: string | undefined; parameter: "ppe_beta" | "gimr_dphi"; b?: number | undefined; k?: number | string | undefined };
 
 export function selectTarget(catalogue: CompiledCatalogue, request: Selecting): Target {
   const theory = catalogue.bySlug.get(request.theory);
@@ -31,10 +31,23 @@ export function selectTarget(catalogue: CompiledCatalogue, request: Selecting): 
   if (b === null) throw new ValidationError(`Invalid k: δφ_${String(request.k)} multiplies a log term and has no single-b ppE equivalent`, { k: "log terms have no single-b ppE equivalent" });
   const degenerate = degeneracyOfB(b);
   if (degenerate) throw new ValidationError(`Invalid ${field}: ${degenerate}`, { [field]: degenerate });
-  const ready = theory.mappings.find((m) => Math.abs(m.compiled.b - b) < 1e-9);
-  if (!ready) {
+  const atB = theory.mappings.filter((m) => Math.abs(m.compiled.b - b) < 1e-9);
+  if (atB.length === 0) {
     const message = `${theory.theory.name} enters at b = ${theory.bs.join(", ") || "none"}, not at b = ${b}`;
     throw new ValidationError(`Invalid ${field}: ${message}`, { [field]: message });
+  }
+  const symbols = atB.map((m) => m.compiled.coupling.symbol);
+  let ready = atB[0]!;
+  if (request.coupling !== undefined) {
+    const chosen = atB.find((m) => m.compiled.coupling.symbol === request.coupling);
+    if (!chosen) {
+      const message = `${theory.theory.name} has no coupling "${request.coupling}" at b = ${b}; its couplings there are ${symbols.join(", ")}`;
+      throw new ValidationError(`Invalid coupling: ${message}`, { coupling: message });
+    }
+    ready = chosen;
+  } else if (atB.length > 1) {
+    const message = `${theory.theory.name} has ${atB.length} couplings at b = ${b} (${symbols.join(", ")}): name one in coupling`;
+    throw new ValidationError(`Invalid coupling: ${message}`, { coupling: message });
   }
   return { theory, ready, b };
 }
@@ -60,7 +73,11 @@ export function targetReferences(target: Target): { key: string; citation: strin
 
 /** The cautions every sample or event translation with this mapping carries. */
 export function mappingCautions(target: Target): Caution[] {
-  const engine = (target.ready.compiled.cautions ?? []).map((c): Caution => ({ code: "engine", message: `${c.charAt(0).toUpperCase()}${c.slice(1)}.` }));
+  const engine = (target.ready.compiled.cautions ?? []).map((c): Caution => ({ code: "engine", message: `${c.charAt(0).toUpperCase()}${c.slice(1)}${c.endsWith(".") ? "" : "."}` }));
+  const held = target.ready.compiled.heldFixed;
+  if (held && Object.keys(held).length > 0) {
+    engine.push({ code: "couplings", message: `Other couplings held at their GR value: ${Object.entries(held).map(([k, v]) => `${k} = ${v}`).join(", ")}.` });
+  }
   const pn = target.ready.notes.pnOrder;
   return [{ code: "leading_pn", message: `Leading-PN mapping${pn === null ? "" : ` (${pn}PN relative order)`}: the theory's higher-order terms are left out.` }, ...engine];
 }

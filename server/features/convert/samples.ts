@@ -96,7 +96,7 @@ export async function convertSamples(catalogue: CompiledCatalogue, request: Samp
         frame: request.frame,
         ...(zi === undefined ? {} : { z: zi }),
       });
-      env = createConversionContext(binary, { cosmology }).envFor(mapping);
+      env = createConversionContext(binary, { cosmology, fLowHz: request.f_low }).envFor(mapping);
       F = mapping.bind ? mapping.bind(env) : (c: number) => mapping.evaluate(c, env!);
     } catch (err) {
       if (err instanceof PhysicsInputError) {

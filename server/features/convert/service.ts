@@ -1,4 +1,4 @@
-import type { ConvertRequest, ConvertResponse, ConvertTableRequest, ConvertTableResponse } from "../../../common/convert.ts";
+import type { BoundRequest, ConvertRequest, ConvertResponse, ConvertTableRequest, ConvertTableResponse } from "../../../common/convert.ts";
 import { ValidationError } from "../../errors.ts";
 import type { CatalogueReader } from "./catalogue-snapshot.ts";
 import { compileCatalogue, type CompiledCatalogue } from "./compiled-catalogue.ts";
@@ -46,12 +46,18 @@ export function convertService(reader: CatalogueReader): ConvertService {
     async convertTable(request) {
       const compiled = await catalogue();
       checkSelection(compiled, request.theories, undefined);
-      const prepared = prepareBinary(request.binary, request.cosmology);
+      const prepared = prepareBinary(request.binary, request.cosmology, request.f_low);
       const rows = request.rows.map((row, index) => {
-        const bound =
+        const value = {
+          ...(row.upper !== undefined ? { upper: row.upper } : {}),
+          ...(row.interval !== undefined ? { interval: row.interval } : {}),
+          credibility: request.credibility,
+          f_low: request.f_low,
+        };
+        const bound: BoundRequest =
           row.k !== undefined
-            ? { parameter: "gimr_dphi" as const, k: row.k, upper: row.upper, credibility: request.credibility, includes_spin: request.includes_spin }
-            : { parameter: "ppe_beta" as const, b: row.b!, upper: row.upper, credibility: request.credibility, sign_convention: request.sign_convention };
+            ? { parameter: "gimr_dphi" as const, k: row.k, ...value, includes_spin: request.includes_spin }
+            : { parameter: "ppe_beta" as const, b: row.b!, ...value, sign_convention: request.sign_convention };
         let answer: ConvertResponse;
         try {
           answer = translateBound(compiled, prepared, bound, { ...(request.theories ? { theories: request.theories } : {}) });
@@ -65,7 +71,7 @@ export function convertService(reader: CatalogueReader): ConvertService {
         return {
           index,
           label: row.label ?? null,
-          input: { b: row.b ?? null, k: row.k ?? null, upper: row.upper },
+          input: { b: row.b ?? null, k: row.k ?? null, upper: row.upper ?? null, interval: row.interval ?? null },
           b: answer.bound.b,
           beta_max: answer.bound.beta_max,
           results: answer.results,

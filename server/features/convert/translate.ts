@@ -1,5 +1,7 @@
 import {
   DEFAULT_COSMOLOGY,
+  DEFAULT_F_LOW_HZ,
+  intervalOf,
   type BinaryRequest,
   type BoundRequest,
   type Caution,
@@ -27,6 +29,8 @@ import { buildResult } from "./build-result.ts";
 export interface Prepared {
   binary: Binary;
   cosmology: CosmologyRequest;
+  /** Lowest frequency of the analysis band, Hz. */
+  fLowHz: number;
   context: ConversionContext;
   /** Cautions about the binary itself (frame conversion). */
   cautions: Caution[];
@@ -41,7 +45,8 @@ function asValidation(err: unknown, prefix: string): never {
   throw err;
 }
 
-export function prepareBinary(input: BinaryRequest, cosmology: CosmologyRequest | undefined): Prepared {
+/** The binary, the cosmology and the band's lowest frequency f_low (Hz; default 20 Hz, common practice). */
+export function prepareBinary(input: BinaryRequest, cosmology: CosmologyRequest | undefined, fLowHz: number = DEFAULT_F_LOW_HZ): Prepared {
   const cosmo = cosmology ?? { ...DEFAULT_COSMOLOGY };
   try {
     const sens = input.scalar_sensitivities;
@@ -55,7 +60,7 @@ export function prepareBinary(input: BinaryRequest, cosmology: CosmologyRequest 
       ...(input.z === undefined ? {} : { z: input.z }),
       ...(sens ? { scalar_sensitivities: [sens[0] ?? undefined, sens[1] ?? undefined] as const } : {}),
     });
-    const context = createConversionContext(binary, { cosmology: cosmo });
+    const context = createConversionContext(binary, { cosmology: cosmo, fLowHz });
     const cautions: Caution[] = [];
     if (input.frame === "detector" && input.z !== undefined) {
       cautions.push({
@@ -63,7 +68,7 @@ export function prepareBinary(input: BinaryRequest, cosmology: CosmologyRequest 
         message: `Detector-frame masses were divided by 1 + z = ${Number((1 + input.z).toPrecision(6))}: source-frame m₁ = ${binary.m1.toPrecision(4)} M☉, m₂ = ${binary.m2.toPrecision(4)} M☉ set the length scale of generation effects.`,
       });
     }
-    return { binary, cosmology: cosmo, context, cautions };
+    return { binary, cosmology: cosmo, fLowHz, context, cautions };
   } catch (err) {
     return asValidation(err, "binary.");
   }
@@ -90,33 +95,50 @@ export function checkSelection(catalogue: CompiledCatalogue, theories: readonly 
   if (first) throw new ValidationError(`Invalid ${first[0]}: ${first[1]}`, fields);
 }
 
+/** The engine's form of a bound request: { upper } becomes beta_max / dphi_max, { interval } stays an interval. */
 export function boundInputOf(bound: BoundRequest): BoundInput {
+  const value = bound.interval !== undefined ? { interval: bound.interval } : undefined;
   return bound.parameter === "ppe_beta"
-    ? { kind: "ppe", b: bound.b, beta_max: bound.upper, convention: bound.sign_convention, credibility: bound.credibility }
+    ? { kind: "ppe", b: bound.b, ...(value ?? { beta_max: bound.upper! }), convention: bound.sign_convention, credibility: bound.credibility }
     : // The schema admits only the indices of GIMR_KS, which are the engine's GimrIndex values.
-      { kind: "gimr", k: bound.k as GimrIndex, dphi_max: bound.upper, includes_spin: bound.includes_spin, credibility: bound.credibility };
+      { kind: "gimr", k: bound.k as GimrIndex, ...(value ?? { dphi_max: bound.upper! }), includes_spin: bound.includes_spin, credibility: bound.credibility };
 }
 
 interface BoundSummary {
   b: number | null;
+  /** The largest |beta| the bound allows (null when a side is unbounded or no b exists). */
   betaMax: number | null;
+  /** The bound on beta at b in the +Psi convention (null end = unbounded). */
+  betaInterval: [number | null, number | null];
   cautions: Caution[];
   /** Set when no theory can be translated from this bound, with the reason for each. */
   unusable?: { code: NotApplicable["code"]; reason: string };
 }
 
+/** [lo, hi] times a factor, ends kept in order (a negative factor swaps them); null stays unbounded. */
+function scaled([lo, hi]: readonly [number | null, number | null], factor: number): [number | null, number | null] {
+  const t = (x: number | null) => (x === null ? null : x === 0 ? 0 : x * factor);
+  return factor >= 0 ? [t(lo), t(hi)] : [t(hi), t(lo)];
+}
+
+function magnitude([lo, hi]: readonly [number | null, number | null]): number | null {
+  return lo === null || hi === null ? null : Math.max(-lo, hi);
+}
+
 function summarise(bound: BoundRequest, binary: Binary): BoundSummary {
   const cautions: Caution[] = [];
+  const stated = intervalOf(bound);
   if (bound.parameter === "ppe_beta") {
-    if (bound.sign_convention === "minus") cautions.push(signConventionCaution(false));
+    if (bound.sign_convention === "minus") cautions.push(signConventionCaution(false, bound.interval !== undefined));
     const degenerate = degeneracyOfB(bound.b);
     if (degenerate) cautions.push({ code: "engine", message: `${degenerate.charAt(0).toUpperCase()}${degenerate.slice(1)}.` });
-    return { b: bound.b, betaMax: bound.upper, cautions, ...(degenerate ? { unusable: { code: "degenerate_b", reason: degenerate } } : {}) };
+    const betaInterval = scaled(stated, bound.sign_convention === "minus" ? -1 : 1);
+    return { b: bound.b, betaMax: magnitude(betaInterval), betaInterval, cautions, ...(degenerate ? { unusable: { code: "degenerate_b", reason: degenerate } } : {}) };
   }
   const k = bound.k;
   if (k === "5l" || k === "6l") {
     cautions.push(logTermCaution(k));
-    return { b: null, betaMax: null, cautions, unusable: { code: "no_ppe_equivalent", reason: `δφ_${k} multiplies a log term: it has no single-b ppE equivalent` } };
+    return { b: null, betaMax: null, betaInterval: [null, null], cautions, unusable: { code: "no_ppe_equivalent", reason: `δφ_${k} multiplies a log term: it has no single-b ppE equivalent` } };
   }
   const f = gimrFactor(k as GimrIndex, binary.eta, {
     includesSpin: bound.includes_spin,
@@ -124,13 +146,14 @@ function summarise(bound: BoundRequest, binary: Binary): BoundSummary {
   });
   if (f.status !== "ok") {
     cautions.push({ code: "engine", message: `${f.reason.charAt(0).toUpperCase()}${f.reason.slice(1)}.` });
-    return { b: f.b, betaMax: null, cautions, unusable: { code: "degenerate_b", reason: f.reason } };
+    return { b: f.b, betaMax: null, betaInterval: [null, null], cautions, unusable: { code: "degenerate_b", reason: f.reason } };
   }
   const spinning = binary.chi_s !== 0 || binary.chi_a !== 0;
   const spin = spinning ? gimrSpinCaution(k, bound.includes_spin, f.spinModelled) : undefined;
   if (spin) cautions.push(spin);
   cautions.push(...engineCautions({ warnings: [], cautions: f.cautions }));
-  return { b: f.b, betaMax: Math.abs(f.factor) * bound.upper, cautions };
+  const betaInterval = scaled(stated, f.factor);
+  return { b: f.b, betaMax: magnitude(betaInterval), betaInterval, cautions };
 }
 
 function notApplicable(t: CompiledTheory, code: NotApplicable["code"], reason: string): NotApplicable {
@@ -141,33 +164,68 @@ function sameB(a: number, b: number): boolean {
   return Math.abs(a - b) < 1e-9;
 }
 
-function translateTheory(t: CompiledTheory, summary: BoundSummary, boundInput: BoundInput, bound: BoundRequest, prepared: Prepared, conventions: Readonly<Record<string, string>> | undefined): ConvertResult | NotApplicable {
-  if (t.noPhaseMapping) return notApplicable(t, "different_b", "its catalogued mappings are not inspiral-phase terms (ringdown or amplitude only)");
-  if (summary.unusable) return notApplicable(t, summary.unusable.code, summary.unusable.reason);
+function fmtB(b: number): string {
+  return Number(b.toPrecision(6)).toString();
+}
+
+/**
+ * Every mapping of the theory at the bound's b, one result row each: an entry with several couplings
+ * at one b (Johannsen's eps3 and alpha13, the RS-II Mdot and ell) is translated once per coupling
+ * with the others at their GR value; mappings of the same coupling at other b are left out.
+ */
+function translateTheory(t: CompiledTheory, summary: BoundSummary, boundInput: BoundInput, bound: BoundRequest, prepared: Prepared, conventions: Readonly<Record<string, string>> | undefined): (ConvertResult | NotApplicable)[] {
+  if (t.noPhaseMapping) return [notApplicable(t, "different_b", "its catalogued mappings are not inspiral-phase terms (ringdown or amplitude only)")];
+  if (summary.unusable) return [notApplicable(t, summary.unusable.code, summary.unusable.reason)];
   const b = summary.b!;
-  const ready = t.mappings.find((m) => sameB(m.compiled.b, b));
-  if (!ready) {
+  const ready = t.mappings.filter((m) => sameB(m.compiled.b, b));
+  if (ready.length === 0) {
     const broken = t.broken.find((x) => x.b !== null && sameB(x.b, b));
-    if (broken) return notApplicable(t, "evaluation_failed", `its mapping at b = ${b} could not be compiled: ${broken.reason}`);
-    return notApplicable(t, "different_b", `its mapping enters at b = ${t.bs.join(", ") || "none"}, not at b = ${b}`);
+    if (broken) return [notApplicable(t, "evaluation_failed", `its mapping at b = ${b} could not be compiled: ${broken.reason}`)];
+    return [notApplicable(t, "different_b", `its mapping enters at b = ${t.bs.join(", ") || "none"}, not at b = ${b}`)];
   }
-  let result;
-  try {
-    result = convertInContext(boundInput, prepared.context, ready.compiled);
-  } catch (err) {
-    if (err instanceof PhysicsInputError && err.field === "z") {
-      return notApplicable(t, "needs_distance", "it is a propagation effect: the bound needs the source's distance, and no redshift z was given");
+  const couplingsHere = [...new Set(ready.map((m) => m.compiled.coupling.symbol))];
+  return ready.map((m) => {
+    const symbol = m.compiled.coupling.symbol;
+    const extra: Caution[] = [];
+    if (couplingsHere.length > 1) {
+      const others = couplingsHere.filter((c) => c !== symbol);
+      const held = m.compiled.heldFixed && Object.keys(m.compiled.heldFixed).length > 0
+        ? ` (held at ${Object.entries(m.compiled.heldFixed).map(([k, v]) => `${k} = ${v}`).join(", ")})`
+        : "";
+      extra.push({
+        code: "couplings",
+        message: `${t.theory.name} has ${couplingsHere.length} couplings entering at b = ${fmtB(b)}; each is translated on its own with the others at their GR value${held}. This row bounds ${symbol}; ${others.join(", ")} ${others.length === 1 ? "has its own row" : "have their own rows"}.`,
+      });
     }
-    if (err instanceof PhysicsInputError) return notApplicable(t, "needs_input", `${err.message} (field ${err.field})`);
-    return notApplicable(t, "evaluation_failed", `the mapping could not be evaluated for this binary: ${err instanceof Error ? err.message : String(err)}`);
-  }
-  if (result.status === "no_constraint") return notApplicable(t, result.code, result.reason);
-  const distance = ready.compiled.distance;
-  const propagation =
-    distance && prepared.binary.z !== undefined
-      ? { z: prepared.binary.z, alphaMd: distance.alphaMd, mpc: distanceAlphaMpc(prepared.binary.z, distance.alphaMd, prepared.cosmology) }
-      : undefined;
-  return buildResult({ theory: t.theory, ready, result, bound, requestedConvention: conventions?.[t.theory.slug], propagation });
+    const otherOrders = t.mappings.filter((o) => o.compiled.coupling.symbol === symbol && !sameB(o.compiled.b, b)).map((o) => fmtB(o.compiled.b));
+    if (otherOrders.length > 0) {
+      extra.push({
+        code: "orders",
+        message: `This entry also maps ${symbol} at b = ${[...new Set(otherOrders)].join(", ")}; a ppE bound at b = ${fmtB(b)} constrains only the term at that b, so those orders are left out.`,
+      });
+    }
+    let result;
+    try {
+      result = convertInContext(boundInput, prepared.context, m.compiled);
+    } catch (err) {
+      if (err instanceof PhysicsInputError && err.field === "z") {
+        return notApplicable(t, "needs_distance", "it is a propagation effect: the bound needs the source's distance, and no redshift z was given");
+      }
+      if (err instanceof PhysicsInputError) return notApplicable(t, "needs_input", `${err.message} (field ${err.field})`);
+      return notApplicable(t, "evaluation_failed", `the mapping could not be evaluated for this binary: ${err instanceof Error ? err.message : String(err)}`);
+    }
+    if (result.status === "no_constraint") {
+      const reason = couplingsHere.length > 1 ? `${symbol}: ${result.reason}` : result.reason;
+      return notApplicable(t, result.code, reason);
+    }
+    const distance = m.compiled.distance;
+    const propagation =
+      distance && prepared.binary.z !== undefined
+        ? { z: prepared.binary.z, alphaMd: distance.alphaMd, mpc: distanceAlphaMpc(prepared.binary.z, distance.alphaMd, prepared.cosmology) }
+        : undefined;
+    const built = buildResult({ theory: t.theory, ready: m, result, bound, requestedConvention: conventions?.[t.theory.slug], propagation });
+    return { ...built, cautions: [...extra, ...built.cautions] };
+  });
 }
 
 export function translateBound(catalogue: CompiledCatalogue, prepared: Prepared, bound: BoundRequest, selection: Pick<ConvertRequest, "theories" | "conventions">): ConvertResponse {
@@ -177,15 +235,16 @@ export function translateBound(catalogue: CompiledCatalogue, prepared: Prepared,
   const results: ConvertResult[] = [];
   const notApplicableList: NotApplicable[] = [];
   for (const t of scope) {
-    const out = translateTheory(t, summary, boundInput, bound, prepared, selection.conventions);
-    if ("code" in out) notApplicableList.push(out);
-    else results.push(out);
+    for (const out of translateTheory(t, summary, boundInput, bound, prepared, selection.conventions)) {
+      if ("code" in out) notApplicableList.push(out);
+      else results.push(out);
+    }
   }
   const keys = new Set(results.flatMap((r) => [...r.references.map((c) => c.key), ...r.reference_bounds.map((c) => c.reference.key)]));
   const bibliography = new Map<string, ConvertResponse["bibliography"][number]>();
   for (const t of scope) for (const ref of t.theory.references) if (keys.has(ref.key) && !bibliography.has(ref.key)) bibliography.set(ref.key, ref);
   return {
-    bound: { b: summary.b, beta_max: summary.betaMax, credibility: bound.credibility },
+    bound: { b: summary.b, beta_max: summary.betaMax, beta_interval: summary.betaInterval, credibility: bound.credibility, f_low: bound.f_low },
     cosmology: { H0: prepared.cosmology.H0, Omega_m: prepared.cosmology.Omega_m },
     catalogue_revision: catalogue.revision,
     results,
@@ -198,6 +257,6 @@ export function translateBound(catalogue: CompiledCatalogue, prepared: Prepared,
 /** The whole request: selection checks, the binary, the bound. */
 export function translate(catalogue: CompiledCatalogue, request: ConvertRequest): ConvertResponse {
   checkSelection(catalogue, request.theories, request.conventions);
-  const prepared = prepareBinary(request.binary, request.cosmology);
+  const prepared = prepareBinary(request.binary, request.cosmology, request.bound.f_low);
   return translateBound(catalogue, prepared, request.bound, request);
 }

@@ -47,9 +47,9 @@ export const checkResponse = z.object({
   ok: z.boolean(),
   checks: z.array(
     z.object({
-      name: z.enum(["parse", "symbols", "dimension", "gr_limit", "pn_order", "symmetry", "derivation", "propagation"]),
+      name: z.enum(["parse", "symbols", "dimension", "gr_limit", "pn_order", "symmetry", "derivation", "propagation", "evaluation"]),
       ok: z.boolean(),
-      severity: z.enum(["error", "warning"]).optional(),
+      severity: z.enum(["error", "warning", "inconclusive"]).optional(),
       message: z.string(),
     }),
   ),

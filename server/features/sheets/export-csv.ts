@@ -18,7 +18,10 @@ export const CSV_COLUMNS = [
   "b",
   "k",
   "upper",
+  "interval_lo",
+  "interval_hi",
   "credibility",
+  "f_low",
   "sign_convention",
   "m1",
   "m2",
@@ -38,6 +41,7 @@ export const CSV_COLUMNS = [
   "unit",
   "also",
   "valid",
+  "verdict",
   "failed_conditions",
   "reason",
   "catalogue_version",
@@ -68,8 +72,11 @@ export function sheetToCsv(sheet: Sheet): string {
       r.bound.parameter,
       b,
       k,
-      r.bound.upper,
+      r.bound.upper ?? null,
+      r.bound.interval?.[0] ?? null,
+      r.bound.interval?.[1] ?? null,
       r.bound.credibility,
+      r.bound.f_low,
       r.bound.parameter === "ppe_beta" ? r.bound.sign_convention : null,
       r.binary.m1,
       r.binary.m2,
@@ -94,13 +101,14 @@ export function sheetToCsv(sheet: Sheet): string {
         x.coupling.unit,
         x.also.map((a) => `${a.symbol} ${a.side === "upper" ? "<=" : ">="} ${a.value} ${a.unit}`).join("; "),
         x.valid,
+        x.verdict,
         failedConditions(x).join("; "),
         null,
         catalogueCell(r.translation.catalogue_revision),
       ]);
     } else {
       const n = line.item;
-      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, n.reason, catalogueCell(r.translation.catalogue_revision)]);
+      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, null, n.reason, catalogueCell(r.translation.catalogue_revision)]);
     }
   }
   return lines.map((cells) => cells.map(escapeCsvCell).join(",")).join("\r\n") + "\r\n";

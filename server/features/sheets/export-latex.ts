@@ -45,10 +45,11 @@ export function numberLatex(x: number, digits = 2): string {
 }
 
 /** The verdict of a limit: every state gets a mark, explained in the caption's legend. */
-export type LimitVerdict = "valid" | "caution" | "not_valid";
+export type LimitVerdict = "valid" | "caution" | "not_valid" | "not_assessed";
 
 export function limitVerdict(result: ConvertResult): LimitVerdict {
-  if (!result.valid) return "not_valid";
+  if (result.verdict === "outside_validity") return "not_valid";
+  if (result.verdict === "not_assessed") return "not_assessed";
   return result.validity.some((v) => !v.ok) ? "caution" : "valid";
 }
 
@@ -56,12 +57,14 @@ const VERDICT_MARK: Record<LimitVerdict, string> = {
   valid: "$\\circ$",
   caution: "$\\ast$",
   not_valid: "$\\dagger$",
+  not_assessed: "$\\diamond$",
 };
 
 const VERDICT_LEGEND: Record<LimitVerdict, string> = {
   valid: "every validity condition of the small-coupling expansion holds at the limit",
-  caution: "a rule-of-thumb condition fails at the limit",
-  not_valid: "a validity condition fails at the limit, so the limit is not valid",
+  caution: "a rule-of-thumb condition is exceeded at the limit, by at most 10 times (a stretched approximation)",
+  not_valid: "a validity condition fails at the limit, so the limit is outside validity",
+  not_assessed: "the entry states no validity condition for this binary: validity not assessed",
 };
 
 // Words that keep a lower-case initial in a theory's abbreviation (dynamical Chern-Simons -> dCS).
@@ -89,8 +92,16 @@ function percent(c: number): string {
 
 function boundLatex(record: SheetRecord, digits: number): string {
   const bound = record.bound;
-  if (bound.parameter === "ppe_beta") return `$|\\beta| \\le ${numberLatex(bound.upper, digits)}$ at $b = ${bound.b}$`;
-  return `$|\\delta\\varphi_{${bound.k}}| \\le ${numberLatex(bound.upper, digits)}$`;
+  const symbol = bound.parameter === "ppe_beta" ? "\\beta" : `\\delta\\varphi_{${bound.k}}`;
+  let text: string;
+  if (bound.upper !== undefined) text = `$|${symbol}| \\le ${numberLatex(bound.upper, digits)}$`;
+  else {
+    const [lo, hi] = bound.interval ?? [null, null];
+    if (lo !== null && hi !== null) text = `$${symbol} \\in [${numberLatex(lo, digits)}, ${numberLatex(hi, digits)}]$`;
+    else if (lo !== null) text = `$${symbol} \\ge ${numberLatex(lo, digits)}$`;
+    else text = `$${symbol} \\le ${numberLatex(hi ?? Number.NaN, digits)}$`;
+  }
+  return bound.parameter === "ppe_beta" ? `${text} at $b = ${bound.b}$` : text;
 }
 
 function quantityCell(result: ConvertResult): string {
@@ -138,7 +149,7 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
   }
   if (body.length === 0) body.push(`    \\multicolumn{${COLUMNS}}{@{}l}{No limits in this sheet.} \\\\`);
   const credibilityText = creds.length === 1 ? ` at ${percent(creds[0]!)} credibility` : creds.length > 1 ? " at the credibility given beside each bound" : "";
-  const legend = (["valid", "caution", "not_valid"] as const).filter((v) => seen.has(v)).map((v) => `${VERDICT_MARK[v]}~${VERDICT_LEGEND[v]}`);
+  const legend = (["valid", "caution", "not_valid", "not_assessed"] as const).filter((v) => seen.has(v)).map((v) => `${VERDICT_MARK[v]}~${VERDICT_LEGEND[v]}`);
   const caption = [
     "Limits on theory couplings translated from the bounds of ``" + escapeLatex(sheet.name) + `''${credibilityText}.`,
     "Leading post-Newtonian mappings; a flat prior on the deviation is not flat in the coupling.",

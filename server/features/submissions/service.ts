@@ -11,7 +11,8 @@ import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from ".
 import type { Identity } from "../../http/identity.ts";
 import { enqueueMail } from "../../mail/queue.ts";
 import { decisionMessage, submittedMessages, type MailSubmission } from "../../mail/templates.ts";
-import { checkEntry, guardEntryExpressions, type MappingChecker } from "../catalogue/entry-checks.ts";
+import { checkEntry, guardEntryExpressions } from "../catalogue/entry-checks.ts";
+import type { CheckRunner } from "../expressions/check-runner.ts";
 import { diffEntries } from "../catalogue/entry-diff.ts";
 import { publishEntry } from "../catalogue/publish.ts";
 import { findTheoryId } from "../catalogue/read-repository.ts";
@@ -24,7 +25,8 @@ export interface SubmissionsDeps {
   /** Base URL for links in e-mail. */
   siteUrl: string;
   clock: () => Date;
-  checkMapping: MappingChecker;
+  /** The check workers (guard, budget, checks all run off the main thread). */
+  checks: CheckRunner;
   /** Called after a transaction that queued mail has committed. */
   mailQueued: () => void;
 }
@@ -53,6 +55,20 @@ function mailSubject(s: repo.SubmissionRecord): MailSubmission {
   return { id: s.id, slug: s.entry.slug, name: s.entry.name, target_slug: s.target_slug, version: s.version };
 }
 
+/**
+ * A check stopped by its time limit has not vouched for anything: the version cannot be accepted
+ * until a save runs the checks again and they finish.
+ */
+function refuseInconclusive(s: repo.SubmissionRecord): void {
+  const open = s.checks.results.filter((r) => r.severity === "inconclusive");
+  if (open.length === 0) return;
+  const list = open.map((r) => `${r.path} (${r.name})`).join(", ");
+  throw new ConflictError(
+    `Submission #${s.id} cannot be accepted: ${open.length === 1 ? "one check is" : `${open.length} checks are`} inconclusive (they did not finish in their time limit): ${list}. Save the submission again to re-run the checks.`,
+    { reason: "inconclusive_checks", inconclusive: open.map((r) => ({ path: r.path, name: r.name, message: r.message })) },
+  );
+}
+
 export function submissionsService(deps: SubmissionsDeps) {
   const { db, siteUrl, clock } = deps;
 
@@ -67,14 +83,16 @@ export function submissionsService(deps: SubmissionsDeps) {
   }
 
   /** Guard (400 for unusable expressions), slug rules, then the engine's checks: all before any lock is taken. */
-  async function prepare(entry: TheoryEntry, targetSlug: string | null): Promise<ChecksReport> {
-    guardEntryExpressions(entry);
+  async function prepare(entry: TheoryEntry, targetSlug: string | null, who: Identity): Promise<ChecksReport> {
+    // Fair use of the check workers is counted per account.
+    const client = `user:${who.id}`;
+    await guardEntryExpressions(entry, deps.checks, client);
     if (targetSlug !== null && entry.slug !== targetSlug) {
       throw new ValidationError(`Invalid request body: theory.slug: a change to "${targetSlug}" must keep its slug`, {
         "theory.slug": `must be "${targetSlug}", the slug of the theory this submission changes`,
       });
     }
-    return checkEntry(entry, deps.checkMapping, clock());
+    return checkEntry(entry, deps.checks, client, clock());
   }
 
   async function transition(
@@ -122,7 +140,7 @@ export function submissionsService(deps: SubmissionsDeps) {
           slug: body.theory.slug,
         });
       }
-      const checks = await prepare(body.theory, targetSlug);
+      const checks = await prepare(body.theory, targetSlug, who);
       const now = clock();
       const id = await db.transaction(async (trx) => {
         const newId = await repo.insertSubmission(trx, { authorId: who.id, targetTheoryId: targetId, entry: body.theory, checks, now });
@@ -154,7 +172,7 @@ export function submissionsService(deps: SubmissionsDeps) {
 
     async update(id: number, who: Identity, body: { version: number; theory: TheoryEntry }) {
       const before = await load(id, who);
-      const checks = await prepare(body.theory, before.target_slug);
+      const checks = await prepare(body.theory, before.target_slug, who);
       const now = clock();
       return db.transaction(async (trx) => {
         const s = await repo.lockSubmission(trx, id);
@@ -204,6 +222,7 @@ export function submissionsService(deps: SubmissionsDeps) {
         const status = nextStatus(body.decision, s.status);
         let revision: number | null = null;
         if (body.decision === "accept") {
+          refuseInconclusive(s);
           // Whoever wrote any version (an editor's fix included) is an author: acceptance needs an editor who wrote none.
           const authors = await repo.listVersionAuthors(trx, id, s.version);
           const mine = authors.find((a) => a.id === who.id);

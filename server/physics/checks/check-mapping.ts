@@ -18,6 +18,8 @@ import { MAPPING_TARGETS, type CheckResult, type MappingInput, type MappingRepor
 export interface CheckMappingOptions {
   /** Symbolic pool for the CAS steps (default: the shared pool). */
   readonly pool?: SymbolicPool;
+  /** Called with each check as it is added (a check worker streams them to the main thread). */
+  readonly onCheck?: (check: CheckResult) => void;
 }
 
 const fail = (name: CheckResult["name"], message: string): CheckResult => ({ name, ok: false, severity: "error", message });
@@ -30,6 +32,19 @@ const fail = (name: CheckResult["name"], message: string): CheckResult => ({ nam
 export async function checkMapping(input: MappingInput, options: CheckMappingOptions = {}): Promise<MappingReport> {
   validateShape(input);
   const checks: CheckResult[] = [];
+  const onCheck = options.onCheck;
+  if (onCheck !== undefined) {
+    // Every check below is added with push: observing push streams each one, however many there are.
+    // Not enumerable, so the report still crosses a thread boundary as plain data.
+    const push = checks.push.bind(checks);
+    Object.defineProperty(checks, "push", {
+      enumerable: false,
+      value: (...items: CheckResult[]) => {
+        for (const item of items) onCheck(item);
+        return push(...items);
+      },
+    });
+  }
   const report = (latex: string | null): MappingReport => ({ ok: checks.every((c) => c.ok), checks, latex });
 
   let ast: Node;

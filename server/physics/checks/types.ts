@@ -1,7 +1,12 @@
 import type { CouplingDeclaration, DefinitionDeclaration } from "../expr/symbols.ts";
 
-export type CheckName = "parse" | "symbols" | "dimension" | "gr_limit" | "pn_order" | "symmetry" | "derivation" | "propagation";
-export type Severity = "error" | "warning";
+/** "evaluation": the checks that had not finished when the job's time limit stopped it. */
+export type CheckName = "parse" | "symbols" | "dimension" | "gr_limit" | "pn_order" | "symmetry" | "derivation" | "propagation" | "evaluation";
+/**
+ * "inconclusive": the check could not finish (a time limit stopped it); ok is false but it is not a
+ * failure: it says nothing about the expression and runs again on the next save.
+ */
+export type Severity = "error" | "warning" | "inconclusive";
 
 export interface CheckResult {
   readonly name: CheckName;

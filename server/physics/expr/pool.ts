@@ -18,6 +18,12 @@ export interface SymbolicPoolOptions {
   readonly queueTimeoutMs?: number;
   /** Jobs waiting beyond this are refused at once (default 100). */
   readonly maxQueue?: number;
+  /**
+   * Runs each op elsewhere instead of in this pool's own workers (none are started): a check
+   * worker hands its CAS jobs to the main thread's pool this way, so every check shares the same
+   * two CAS workers, their queue and their deadlines.
+   */
+  readonly transport?: (op: SymbolicOp, options: { timeoutMs?: number }) => Promise<SymbolicResult>;
 }
 
 export type SymbolicErrorCode = "timeout" | "failed" | "worker_lost" | "busy" | "closed" | "unavailable" | "unrepresentable";
@@ -69,9 +75,11 @@ export class SymbolicPool {
   private nextId = 1;
   private closed = false;
   private startFailures = 0;
+  private readonly transport: SymbolicPoolOptions["transport"];
 
   constructor(options: SymbolicPoolOptions = {}) {
-    this.size = Math.max(1, Math.floor(options.size ?? 2));
+    this.transport = options.transport;
+    this.size = this.transport === undefined ? Math.max(1, Math.floor(options.size ?? 2)) : 0;
     this.timeoutMs = options.timeoutMs ?? 2000;
     this.queueTimeoutMs = options.queueTimeoutMs ?? 10_000;
     this.maxQueue = options.maxQueue ?? 100;
@@ -125,6 +133,7 @@ export class SymbolicPool {
   /** Low-level entry: the op must already hold printer output (never raw user text). */
   run(op: SymbolicOp, options: { timeoutMs?: number } = {}): Promise<SymbolicResult> {
     if (this.closed) return Promise.reject(new SymbolicError("closed", "the symbolic pool is closed"));
+    if (this.transport !== undefined) return this.transport(op, options);
     if (this.startFailures >= MAX_START_FAILURES) {
       return Promise.reject(new SymbolicError("unavailable", "symbolic workers failed to start"));
     }

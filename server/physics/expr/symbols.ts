@@ -73,6 +73,8 @@ const PRIMITIVES: ReadonlyArray<readonly [string, number, string]> = [
   ["D", 1, "distance"],
   ["D_0", 1, "distance measure D_0 (massive graviton)"],
   ["D_alpha", 1, "distance measure D_alpha (modified dispersion)"],
+  ["f_low", -1, "lowest GW frequency of the analysis band (observed), as 1/length"],
+  ["tau", 1, "time the signal spends in band above f_low, (5/256) Mc (pi Mc f)^(-8/3), as a length"],
   // Ringdown and remnant mappings: the final black hole (source frame).
   ["M_f", 1, "mass of the remnant black hole"],
   ["chi_f", 0, "dimensionless spin of the remnant black hole"],

@@ -18,6 +18,11 @@ export function blockingChecks(s: SubmissionDetail): string[] {
   return s.checks.results.filter((r) => !r.ok && r.severity === "error").map((r) => `${r.path}: ${checkLabel(r.name)} — ${r.message}`);
 }
 
+/** Checks stopped by their time limit: the server refuses to accept until a save re-runs them. */
+export function inconclusiveChecks(s: SubmissionDetail): string[] {
+  return s.checks.results.filter((r) => r.severity === "inconclusive").map((r) => `${r.path}: ${checkLabel(r.name)} — ${r.message}`);
+}
+
 export function DecisionPanel({ submission: s, ownSubmission }: Props) {
   const id = useId();
   const start = useStartReview(s.id);
@@ -25,6 +30,7 @@ export function DecisionPanel({ submission: s, ownSubmission }: Props) {
   const [comment, setComment] = useState("");
   const [commentError, setCommentError] = useState<string | undefined>();
   const blocking = blockingChecks(s);
+  const unfinished = inconclusiveChecks(s);
 
   function send(decision: "accept" | "return") {
     const parsed = decisionSchema.safeParse({ decision, comment: comment.trim() || undefined });
@@ -97,8 +103,19 @@ export function DecisionPanel({ submission: s, ownSubmission }: Props) {
           </ul>
         </div>
       )}
+      {unfinished.length > 0 && (
+        <div role="note" className="rounded border border-paper-edge bg-paper-deep p-3 text-sm" data-testid="accept-inconclusive">
+          <p className="font-semibold">Accepting is not possible while a check is inconclusive (it was stopped by its time limit):</p>
+          <ul className="mt-1 list-disc pl-5">
+            {unfinished.map((b) => (
+              <li key={b}>{b}</li>
+            ))}
+          </ul>
+          <p className="mt-1 text-ink-soft">Saving the submission runs the checks again.</p>
+        </div>
+      )}
       <div className="flex flex-wrap gap-3">
-        <Button kind="primary" disabled={blocking.length > 0} busy={decide.isPending && decide.variables?.decision === "accept"} onClick={() => send("accept")}>
+        <Button kind="primary" disabled={blocking.length > 0 || unfinished.length > 0} busy={decide.isPending && decide.variables?.decision === "accept"} onClick={() => send("accept")}>
           Accept and publish
         </Button>
         <Button kind="danger" busy={decide.isPending && decide.variables?.decision === "return"} onClick={() => send("return")}>

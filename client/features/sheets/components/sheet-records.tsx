@@ -15,7 +15,11 @@ const unit = (u: string) => (u.trim() === "1" || u.trim() === "" ? "" : unitLabe
 
 function boundText(r: SheetRecord): string {
   const b = r.bound;
-  const what = b.parameter === "ppe_beta" ? `|β| ≤ ${num(b.upper)} at b = ${b.b}${b.sign_convention === "minus" ? " (exp(−iΨ))" : ""}` : `|δφ_${b.k}| ≤ ${num(b.upper)}`;
+  const symbol = b.parameter === "ppe_beta" ? "β" : `δφ_${b.k}`;
+  const [lo, hi] = b.interval ?? [null, null];
+  const value =
+    b.upper !== undefined ? `|${symbol}| ≤ ${num(b.upper)}` : lo !== null && hi !== null ? `${symbol} ∈ [${num(lo)}, ${num(hi)}]` : lo !== null ? `${symbol} ≥ ${num(lo)}` : `${symbol} ≤ ${num(hi ?? Number.NaN)}`;
+  const what = b.parameter === "ppe_beta" ? `${value} at b = ${b.b}${b.sign_convention === "minus" ? " (exp(−iΨ))" : ""}` : value;
   return `${what}, ${Math.round(b.credibility * 1000) / 10}% credibility`;
 }
 

@@ -61,9 +61,22 @@ function CitesField({ index }: { index: number }) {
   );
 }
 
+/** A ringdown mapping names its quasinormal mode (l, m, n) instead of a PN order and b. */
+function RingdownModeFields({ base }: { base: `theory.mappings.${number}` }) {
+  return (
+    <div className="grid grid-cols-3 gap-2 sm:col-span-2" data-testid="ringdown-mode-fields">
+      <FormField name={`${base}.mode.l`} label="Mode l" inputMode="numeric" options={{ setValueAs: optionalNumber }} hint="(2,2,0) is the usual" />
+      <FormField name={`${base}.mode.m`} label="m" inputMode="numeric" options={{ setValueAs: optionalNumber }} />
+      <FormField name={`${base}.mode.n`} label="n (overtone)" inputMode="numeric" options={{ setValueAs: optionalNumber }} />
+    </div>
+  );
+}
+
 function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemove: () => void; canRemove: boolean }) {
   const base = `theory.mappings.${index}` as const;
   const couplings = useWatch<SubmissionFormInput, "theory.couplings">({ name: "theory.couplings" }) ?? [];
+  const kind = useWatch<SubmissionFormInput, `theory.mappings.${number}.kind`>({ name: `${base}.kind` });
+  const isRingdown = kind === "ringdown_frequency" || kind === "ringdown_damping";
   return (
     <fieldset className="rounded border border-paper-edge bg-white/40 p-4" data-testid={`mapping-fields-${index}`}>
       <legend className="px-1 font-semibold">Mapping {index + 1}</legend>
@@ -75,16 +88,26 @@ function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemo
             </option>
           ))}
         </FormField>
-        <FormField name={`${base}.pn_order`} label="PN order n" inputMode="decimal" options={{ setValueAs: optionalNumber }} hint="relative order; −1 for dipole radiation" />
-        <FormField name={`${base}.b`} label="ppE b" inputMode="decimal" options={{ setValueAs: optionalNumber }} hint="b = 2n − 5 for the phase" />
+        {isRingdown ? (
+          <RingdownModeFields base={base} />
+        ) : (
+          <>
+            <FormField name={`${base}.pn_order`} label="PN order n" inputMode="decimal" options={{ setValueAs: optionalNumber }} hint="relative order; −1 for dipole radiation" />
+            <FormField name={`${base}.b`} label="ppE b" inputMode="decimal" options={{ setValueAs: optionalNumber }} hint="b = 2n − 5 for the phase" />
+          </>
+        )}
         <div className="sm:col-span-4">
           <FormField
             name={`${base}.expression`}
-            label="Expression for β"
+            label={isRingdown ? (kind === "ringdown_frequency" ? "Expression for δf/f" : "Expression for δτ/τ") : "Expression for β"}
             as="textarea"
             rows={2}
             placeholder="-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))"
-            hint="Plain maths in the couplings, definitions and binary variables m1, m2, M, eta, chi1, chi2, s1, s2 …"
+            hint={
+              isRingdown
+                ? "Fractional shift of the mode at the remnant: plain maths in the couplings, definitions, the remnant's M_f and chi_f, and the binary variables"
+                : "Plain maths in the couplings, definitions and binary variables m1, m2, M, eta, chi1, chi2, s1, s2 …"
+            }
           />
           <div className="mt-2">
             <MappingLiveCheck index={index} />

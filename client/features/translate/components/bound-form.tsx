@@ -1,8 +1,8 @@
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useEffect, useMemo } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { get, useForm, useWatch, type FieldPath } from "react-hook-form";
 import type { z } from "zod";
-import { DEFAULT_COSMOLOGY, GIMR_KS, convertRequestSchema, type ConvertRequest } from "../../../../common/convert.ts";
+import { DEFAULT_COSMOLOGY, DEFAULT_F_LOW_HZ, GIMR_KS, convertRequestSchema, type ConvertRequest } from "../../../../common/convert.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
@@ -12,7 +12,7 @@ type FormPath = FieldPath<FormInput>;
 
 /** A worked example that opens the page: a 10 + 5 solar-mass black-hole binary and a -1PN bound. */
 export const EXAMPLE_REQUEST: FormInput = {
-  bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus" },
+  bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus", f_low: DEFAULT_F_LOW_HZ },
   binary: { m1: 10, m2: 5, chi1: 0, chi2: 0, bodies: ["bh", "bh"], frame: "source" },
   cosmology: { ...DEFAULT_COSMOLOGY },
 };
@@ -22,7 +22,11 @@ const FIELD_NAMES: readonly string[] = [
   "bound.b",
   "bound.k",
   "bound.upper",
+  "bound.interval",
+  "bound.interval.0",
+  "bound.interval.1",
   "bound.credibility",
+  "bound.f_low",
   "bound.sign_convention",
   "bound.includes_spin",
   "binary.m1",
@@ -40,6 +44,24 @@ const FIELD_NAMES: readonly string[] = [
 const num = { valueAsNumber: true } as const;
 const optionalNum = { setValueAs: (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v)) } as const;
 const gimrK = { setValueAs: (v: unknown) => (v === "5l" || v === "6l" ? v : Number(v)) } as const;
+/** An interval end: a number, or null when left blank (unbounded on that side). */
+const intervalEnd = { setValueAs: (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v)) } as const;
+const alwaysNull = { setValueAs: () => null } as const;
+
+/** How the bound is stated: |x| <= U, [lo, hi], or one end of it. Only the fields of the chosen shape are sent. */
+export type BoundShape = "symmetric" | "interval" | "lower_only" | "upper_only";
+
+function toShape(v: string): BoundShape {
+  return v === "interval" || v === "lower_only" || v === "upper_only" ? v : "symmetric";
+}
+
+function shapeOf(bound: FormInput["bound"]): BoundShape {
+  if (bound.interval === undefined) return "symmetric";
+  const [lo, hi] = bound.interval;
+  if (lo === null || lo === undefined) return "upper_only";
+  if (hi === null || hi === undefined) return "lower_only";
+  return "interval";
+}
 
 interface Props {
   onSubmit: (request: ConvertRequest) => void;
@@ -51,7 +73,9 @@ interface Props {
 
 /** The bound, the binary and the cosmology; validated with the same schema the server uses. */
 export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMPLE_REQUEST }: Props) {
-  const form = useForm<FormInput, unknown, ConvertRequest>({ resolver: zodResolver(convertRequestSchema), defaultValues: initial, mode: "onSubmit" });
+  // Only mounted inputs are sent: the fields of the other parameter or bound shape never reach the strict schema.
+  const form = useForm<FormInput, unknown, ConvertRequest>({ resolver: zodResolver(convertRequestSchema), defaultValues: initial, mode: "onSubmit", shouldUnregister: true });
+  const [shape, setShape] = useState<BoundShape>(() => shapeOf(initial.bound));
   const { register, handleSubmit, setError, formState, control } = form;
   const errors = formState.errors;
   const parameter = useWatch({ control, name: "bound.parameter" });
@@ -106,11 +130,38 @@ export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMP
             {(c) => <TextInput {...c} type="number" step="any" {...register("bound.b", num)} />}
           </Field>
         )}
-        <Field label={parameter === "gimr_dphi" ? "Upper bound on |δφ_k|" : "Upper bound on |β|"} error={err("bound.upper")}>
-          {(c) => <TextInput {...c} type="number" step="any" {...register("bound.upper", num)} />}
+        <Field label="Form of the bound" hint="as the analysis reports it" error={undefined}>
+          {(c) => (
+            <Select {...c} value={shape} onChange={(e) => setShape(toShape(e.target.value))} data-testid="bound-shape">
+              <option value="symmetric">symmetric |x| ≤ U</option>
+              <option value="interval">interval [lo, hi]</option>
+              <option value="lower_only">one-sided: x ≥ lo</option>
+              <option value="upper_only">one-sided: x ≤ hi</option>
+            </Select>
+          )}
         </Field>
+        {shape === "symmetric" && (
+          <Field label={parameter === "gimr_dphi" ? "Upper bound on |δφ_k|" : "Upper bound on |β|"} error={err("bound.upper")}>
+            {(c) => <TextInput {...c} type="number" step="any" {...register("bound.upper", num)} />}
+          </Field>
+        )}
+        {(shape === "interval" || shape === "lower_only") && (
+          <Field label={`Lower end lo of ${parameter === "gimr_dphi" ? "δφ_k" : "β"}`} hint="signed" error={err("bound.interval.0") ?? err("bound.interval") ?? err("bound.interval.root")}>
+            {(c) => <TextInput {...c} type="number" step="any" {...register("bound.interval.0", intervalEnd)} />}
+          </Field>
+        )}
+        {(shape === "interval" || shape === "upper_only") && (
+          <Field label={`Upper end hi of ${parameter === "gimr_dphi" ? "δφ_k" : "β"}`} hint="signed" error={err("bound.interval.1") ?? (shape === "upper_only" ? (err("bound.interval") ?? err("bound.interval.root")) : undefined)}>
+            {(c) => <TextInput {...c} type="number" step="any" {...register("bound.interval.1", intervalEnd)} />}
+          </Field>
+        )}
+        {shape === "lower_only" && <input type="hidden" {...register("bound.interval.1", alwaysNull)} />}
+        {shape === "upper_only" && <input type="hidden" {...register("bound.interval.0", alwaysNull)} />}
         <Field label="Credibility" hint="fraction, e.g. 0.9" error={err("bound.credibility")}>
           {(c) => <TextInput {...c} type="number" step="any" {...register("bound.credibility", num)} />}
+        </Field>
+        <Field label="Lowest band frequency f_low (Hz)" hint={`${DEFAULT_F_LOW_HZ} Hz is common practice; validity conditions use it`} error={err("bound.f_low")}>
+          {(c) => <TextInput {...c} type="number" step="any" {...register("bound.f_low", num)} />}
         </Field>
         {parameter === "gimr_dphi" ? (
           <label className="flex items-center gap-2 self-end text-sm sm:col-span-2">

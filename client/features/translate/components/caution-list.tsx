@@ -11,6 +11,9 @@ const codeLabel: Record<CautionCode, string> = {
   frame: "frame",
   source_status: "source",
   engine: "engine",
+  couplings: "couplings",
+  orders: "orders",
+  bodies: "bodies",
 };
 
 /** Cautions stay next to the number they qualify; validity failures are shown first and in brick. */

@@ -1,4 +1,5 @@
 import { useState } from "react";
+import { VerdictBadge } from "./results-table.tsx";
 import { eventsRequestSchema, MAX_EVENTS, type EventsRequest, type EventsResponse } from "../../../../common/convert-samples.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
@@ -184,10 +185,12 @@ export function EventsResult({ data }: { data: EventsResponse }) {
                 <td className="px-3 py-2">{e.label}</td>
                 <td className="px-3 py-2 whitespace-nowrap">
                   {e.limit === null ? "—" : <>{rel} <SciNumber value={e.limit} /> {unit}</>}
-                  {data.tightest?.label === e.label && e.limit !== null && <span className="ml-2 text-xs font-semibold text-sea">tightest</span>}
+                  {data.tightest?.label === e.label && e.limit !== null && (
+                  <span className="ml-2 text-xs font-semibold text-sea">tightest ({data.coupling.side === "lower" ? "largest" : "smallest"})</span>
+                )}
                 </td>
-                <td className={`px-3 py-2 text-sm ${e.valid === false ? "text-brick" : "text-ink-soft"}`}>{e.valid === null ? "" : e.valid ? "valid" : "not valid"}</td>
-                <td className="px-3 py-2 text-sm text-ink-soft">{e.reason ?? ""}</td>
+                <td className="px-3 py-2 text-sm">{e.verdict === null ? "" : <VerdictBadge verdict={e.verdict} />}</td>
+                <td className="px-3 py-2 text-sm text-ink-soft">{e.reason ?? (e.limit !== null && !e.combined ? "left out of the combination" : "")}</td>
               </tr>
             ))}
             <tr className="bg-sea-wash/40 align-top" data-testid="events-combined">

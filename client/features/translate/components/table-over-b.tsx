@@ -122,7 +122,7 @@ function TableResults({ data }: { data: ConvertTableResponse }) {
               <>
                 <td className="px-3 py-2 text-sm">{row.label ?? `#${row.index + 1}`}</td>
                 <td className="px-3 py-2 text-sm whitespace-nowrap">
-                  {row.input.k !== null ? `|δφ_${row.input.k}|` : "|β|"} ≤ <SciNumber value={row.input.upper} />
+                  <BoundText symbol={row.input.k !== null ? `δφ_${row.input.k}` : "β"} upper={row.input.upper} interval={row.input.interval} />
                   {row.b !== null && <span className="text-ink-faint"> at b = {row.b}</span>}
                 </td>
               </>
@@ -161,5 +161,33 @@ function TableResults({ data }: { data: ConvertTableResponse }) {
         </tbody>
       </table>
     </div>
+  );
+}
+
+/** |x| <= U, x in [lo, hi], or one side of it. */
+function BoundText({ symbol, upper, interval }: { symbol: string; upper: number | null; interval: readonly [number | null, number | null] | null }) {
+  if (upper !== null) {
+    return (
+      <>
+        |{symbol}| ≤ <SciNumber value={upper} />
+      </>
+    );
+  }
+  const [lo, hi] = interval ?? [null, null];
+  if (lo !== null && hi !== null) {
+    return (
+      <>
+        {symbol} ∈ [<SciNumber value={lo} />, <SciNumber value={hi} />]
+      </>
+    );
+  }
+  return lo !== null ? (
+    <>
+      {symbol} ≥ <SciNumber value={lo} />
+    </>
+  ) : (
+    <>
+      {symbol} ≤ <SciNumber value={hi ?? Number.NaN} />
+    </>
   );
 }

@@ -1,0 +1,38 @@
+import { useState } from "react";
+import type { ConsistencyRequest, CouplingExclusionResponse } from "../../../common/consistency.ts";
+import { ErrorNote, Loading } from "../../components/ui/states.tsx";
+import { ApiError } from "../../lib/api-client.ts";
+import { useConsistency } from "../../features/consistency/api/run-consistency.ts";
+import { ConsistencyResultView } from "../../features/consistency/components/consistency-result.tsx";
+import { ExclusionPanel } from "../../features/consistency/components/exclusion-panel.tsx";
+import { SummariesForm } from "../../features/consistency/components/summaries-form.tsx";
+
+/** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
+export function Component() {
+  const [request, setRequest] = useState<ConsistencyRequest | undefined>();
+  const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
+  const result = useConsistency(request);
+  const fields = result.error instanceof ApiError ? result.error.fields : {};
+  const marks = exclusion?.sides.filter((s) => s.x !== null).map((s) => ({ x: s.x!, label: `${exclusion.coupling.symbol} = ${Number(s.x!.toPrecision(3))}` }));
+  return (
+    <article className="flex flex-col gap-6">
+      <header className="max-w-3xl">
+        <h1 className="text-4xl leading-tight">Inspiral–merger–ringdown consistency</h1>
+        <p className="mt-3 text-lg leading-relaxed text-ink-soft">
+          Compare the remnant mass and spin inferred from the inspiral with those inferred from the merger-ringdown. The deviations are normalised by the mean of the two
+          estimates; the GR quantile is the credible level of the contour through (0, 0).
+        </p>
+      </header>
+      <SummariesForm onSubmit={setRequest} serverErrors={fields} />
+      {result.isFetching && <Loading what="the test" />}
+      {result.error && Object.keys(fields).length === 0 && <ErrorNote error={result.error} title="The test could not be run." />}
+      {result.error && Object.keys(fields).length > 0 && (
+        <p role="alert" className="text-brick">
+          {result.error.message}
+        </p>
+      )}
+      {result.data && <ConsistencyResultView result={result.data} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}
+      <ExclusionPanel test={request} onTrack={setExclusion} />
+    </article>
+  );
+}

@@ -1,0 +1,54 @@
+import type { ConsistencyResult } from "../../../../common/consistency.ts";
+import { Caution } from "../../../components/ui/states.tsx";
+import { DeviationPlot } from "./deviation-plot.tsx";
+
+const pct = (q: number) => `${(q * 100).toFixed(q > 0.999 ? 2 : 1)} %`;
+
+/** The quantile, the deviation's centre and widths, the plot and the cautions. */
+export function ConsistencyResultView({ result, track, marks }: { result: ConsistencyResult; track?: { x: number; mean: [number, number] }[]; marks?: { x: number; label: string }[] }) {
+  const [m0, m1] = result.deviation.mean;
+  const c = result.deviation.covariance;
+  const s0 = Math.sqrt(c[0][0]);
+  const s1 = Math.sqrt(c[1][1]);
+  return (
+    <section className="flex flex-col gap-4" aria-label="Consistency result" data-testid="consistency-result">
+      <div className="flex flex-wrap items-baseline gap-x-8 gap-y-2">
+        <p className="text-2xl">
+          GR quantile <strong data-testid="gr-quantile">{pct(result.gr_quantile)}</strong>
+        </p>
+        <p className="text-sm text-ink-soft">
+          (0, 0) lies on the {pct(result.gr_quantile)} credible contour: {result.gr_quantile < 0.68 ? "consistent with general relativity at the usual levels" : result.gr_quantile < 0.95 ? "in the tail; not a significant deviation on its own" : "outside the 95 % region"}.
+        </p>
+      </div>
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-4">
+        <dt className="text-ink-faint">ΔM_f/M̄_f</dt>
+        <dd>
+          {m0.toFixed(3)} ± {s0.toFixed(3)}
+        </dd>
+        <dt className="text-ink-faint">Δχ_f/χ̄_f</dt>
+        <dd>
+          {m1.toFixed(3)} ± {s1.toFixed(3)}
+        </dd>
+        <dt className="text-ink-faint">correlation</dt>
+        <dd>{(c[0][1] / (s0 * s1)).toFixed(2)}</dd>
+        <dt className="text-ink-faint">split frequency</dt>
+        <dd>{result.split_frequency_hz === undefined ? "not computed" : `${result.split_frequency_hz.toFixed(1)} Hz`}</dd>
+      </dl>
+      <DeviationPlot
+        contours={result.contours}
+        mean={result.deviation.mean}
+        {...(track ? { track } : {})}
+        {...(marks ? { marks } : {})}
+        title="Deviation from the remnant estimates"
+        filename="imr-consistency"
+      />
+      <Caution title="Read this beside the number">
+        <ul className="list-disc pl-5" data-testid="consistency-cautions">
+          {result.cautions.map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+      </Caution>
+    </section>
+  );
+}

@@ -1,0 +1,165 @@
+import { useEffect, useState, type FormEvent } from "react";
+import { couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
+import { Badge } from "../../../components/ui/badge.tsx";
+import { Button } from "../../../components/ui/button.tsx";
+import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
+import { Caution, ErrorNote, Loading } from "../../../components/ui/states.tsx";
+import { ApiError } from "../../../lib/api-client.ts";
+import { useTheories } from "../../catalogue/api/get-theories.ts";
+import { useCouplingExclusion } from "../api/run-consistency.ts";
+
+const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
+const sig = (x: number) => Number(x.toPrecision(3)).toString();
+
+const VERDICT_TONE = { valid: "ok", outside_validity: "fail", not_assessed: "caution" } as const;
+const VERDICT_LABEL = { valid: "valid", outside_validity: "outside validity", not_assessed: "not assessed" } as const;
+
+function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
+  return (
+    <table className="w-full text-sm" data-testid="exclusion-table">
+      <caption className="text-left text-ink-soft">
+        Smallest {data.coupling.symbol} ({data.coupling.unit}) at which GR is excluded at {Math.round(data.credibility * 100)} %, remnant M_f = {sig(data.remnant.M_f)} M☉, χ_f = {sig(data.remnant.chi_f)}
+      </caption>
+      <thead>
+        <tr className="text-left">
+          <th scope="col">side</th>
+          <th scope="col">exact reading</th>
+          <th scope="col">linear reading</th>
+          <th scope="col">linear reading parts by 10 % from</th>
+          <th scope="col">verdict</th>
+        </tr>
+      </thead>
+      <tbody>
+        {data.sides.map((s) => (
+          <tr key={s.side} className="border-t border-paper-edge align-top">
+            <td>{s.side === "positive" ? `${data.coupling.symbol} > 0` : `${data.coupling.symbol} < 0`}</td>
+            <td>{s.x === null ? <span className="text-ink-faint">{s.reason}</span> : sig(s.x)}</td>
+            <td>{s.x_linear === null ? "—" : sig(s.x_linear)}</td>
+            <td>{s.linear_breaks_at === null ? "not reached" : sig(s.linear_breaks_at)}</td>
+            <td>
+              <Badge tone={VERDICT_TONE[s.verdict]}>{VERDICT_LABEL[s.verdict]}</Badge>
+              {s.conditions
+                .filter((c) => c.ok === false)
+                .map((c) => (
+                  <p key={c.label} className="text-xs text-brick">
+                    {c.label}: {sig(c.value ?? 0)} vs {c.max}
+                    {c.factor === null ? "" : ` (× ${sig(c.factor)})`}
+                  </p>
+                ))}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+interface Props {
+  /** The widths of the test come from the summaries above. */
+  test: ConsistencyRequest | undefined;
+  onTrack: (data: CouplingExclusionResponse | undefined) => void;
+}
+
+/** "What coupling would this test exclude": a theory's ringdown shifts against the test's widths. */
+export function ExclusionPanel({ test, onTrack }: Props) {
+  const theories = useTheories({});
+  const ringdownTheories = (theories.data?.theories ?? []).filter((t) => t.mappings.some((m) => m.kind === "ringdown_frequency" || m.kind === "ringdown_damping"));
+  const [slug, setSlug] = useState("");
+  const [binary, setBinary] = useState({ m1: "39", m2: "32", chi1: "0", chi2: "0", z: "0.09" });
+  const [frame, setFrame] = useState<"detector" | "source">("detector");
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [request, setRequest] = useState<CouplingExclusionRequest | undefined>();
+  const result = useCouplingExclusion(request);
+  const serverFields = result.error instanceof ApiError ? result.error.fields : {};
+  const shown = { ...serverFields, ...errors };
+
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    if (!test) {
+      setErrors({ test: "Run the test with two summaries first: its widths are used here." });
+      return;
+    }
+    const width = (p: ConsistencyRequest["inspiral"]) => ({ sigma_M_f: p.sigma_M_f, sigma_chi_f: p.sigma_chi_f, ...(p.rho === undefined ? {} : { rho: p.rho }) });
+    const parsed = couplingExclusionRequestSchema.safeParse({
+      theory: slug || ringdownTheories[0]?.slug || "",
+      binary: Object.fromEntries([...Object.entries(binary).map(([k, v]) => [k, num(v)] as const).filter(([, v]) => v !== undefined), ["frame", frame]]),
+      test: { inspiral: width(test.inspiral), merger_ringdown: width(test.merger_ringdown) },
+    });
+    if (!parsed.success) {
+      const next: Record<string, string> = {};
+      for (const issue of parsed.error.issues) next[issue.path.join(".")] ??= issue.message;
+      setErrors(next);
+      return;
+    }
+    setErrors({});
+    setRequest(parsed.data);
+  };
+
+  const data = result.data;
+  useEffect(() => onTrack(data), [data, onTrack]);
+
+  return (
+    <section className="flex flex-col gap-4 rounded border border-paper-edge p-4" aria-labelledby="exclusion-heading" data-testid="exclusion-panel">
+      <h2 id="exclusion-heading" className="text-2xl">
+        What coupling would this test exclude?
+      </h2>
+      <p className="max-w-3xl text-ink-soft">
+        A theory that shifts the ringdown makes a GR template infer a different remnant from the merger-ringdown part. With the widths of the test above and a binary, this finds
+        the smallest coupling at which (0, 0) would leave the credible region, and draws the expected deviation over the contours.
+      </p>
+      <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
+        <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+          <Field label="Theory" error={shown.theory} className="col-span-2">
+            {(control) => (
+              <Select {...control} name="theory" value={slug || ringdownTheories[0]?.slug || ""} onChange={(e) => setSlug(e.target.value)}>
+                {ringdownTheories.map((t) => (
+                  <option key={t.slug} value={t.slug}>
+                    {t.name}
+                  </option>
+                ))}
+              </Select>
+            )}
+          </Field>
+          {(["m1", "m2", "chi1", "chi2", "z"] as const).map((k) => (
+            <Field key={k} label={k === "z" ? "z" : k === "m1" || k === "m2" ? `${k} (M☉)` : k === "chi1" ? "χ1" : "χ2"} error={shown[`binary.${k}`]}>
+              {(control) => <TextInput {...control} name={`binary.${k}`} inputMode="decimal" value={binary[k]} onChange={(e) => setBinary((b) => ({ ...b, [k]: e.target.value }))} />}
+            </Field>
+          ))}
+          <Field label="Mass frame" error={shown["binary.frame"]}>
+            {(control) => (
+              <Select {...control} name="binary.frame" value={frame} onChange={(e) => setFrame(e.target.value === "source" ? "source" : "detector")}>
+                <option value="detector">detector</option>
+                <option value="source">source</option>
+              </Select>
+            )}
+          </Field>
+        </div>
+        {shown.test && (
+          <p role="alert" className="text-sm text-brick">
+            {shown.test}
+          </p>
+        )}
+        <div>
+          <Button kind="primary" type="submit" data-testid="run-exclusion" disabled={ringdownTheories.length === 0}>
+            Find the excluded coupling
+          </Button>
+        </div>
+      </form>
+      {theories.isPending && <Loading what="the catalogue" />}
+      {result.isFetching && <Loading what="the forecast" />}
+      {result.error && !(result.error instanceof ApiError && Object.keys(result.error.fields).length > 0) && <ErrorNote error={result.error} title="The forecast failed." />}
+      {data && (
+        <>
+          <ExclusionTable data={data} />
+          <Caution title="Where this estimate stops being trustworthy">
+            <ul className="list-disc pl-5">
+              {data.cautions.map((c) => (
+                <li key={c}>{c}</li>
+              ))}
+            </ul>
+          </Caution>
+        </>
+      )}
+    </section>
+  );
+}

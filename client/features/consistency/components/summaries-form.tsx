@@ -1,0 +1,105 @@
+import { useState, type FormEvent } from "react";
+import { consistencyRequestSchema, type ConsistencyRequest } from "../../../../common/consistency.ts";
+import { Button } from "../../../components/ui/button.tsx";
+import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
+
+type Estimate = Record<"M_f" | "chi_f" | "sigma_M_f" | "sigma_chi_f" | "rho", string>;
+
+/** Invented demonstration numbers (a heavy binary, detector frame), not any published event. */
+const DEMO: { inspiral: Estimate; merger_ringdown: Estimate } = {
+  inspiral: { M_f: "63.1", chi_f: "0.66", sigma_M_f: "4.1", sigma_chi_f: "0.03", rho: "-0.8" },
+  merger_ringdown: { M_f: "68.4", chi_f: "0.72", sigma_M_f: "4.6", sigma_chi_f: "0.08", rho: "0.9" },
+};
+
+const LABELS: Record<keyof Estimate, string> = {
+  M_f: "M_f (M☉)",
+  chi_f: "χ_f",
+  sigma_M_f: "σ(M_f) (M☉)",
+  sigma_chi_f: "σ(χ_f)",
+  rho: "correlation ρ",
+};
+
+const toNumber = (s: string): number | undefined => (s.trim() === "" ? undefined : Number(s));
+
+interface Props {
+  onSubmit: (request: ConsistencyRequest) => void;
+  serverErrors: Record<string, string>;
+}
+
+/** Two remnant estimates as Gaussian summaries: centre, widths and correlation of (M_f, chi_f). */
+export function SummariesForm({ onSubmit, serverErrors }: Props) {
+  const [values, setValues] = useState(DEMO);
+  const [frame, setFrame] = useState<"detector" | "source">("detector");
+  const [z, setZ] = useState("");
+  const [levels, setLevels] = useState("0.68, 0.9, 0.95");
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const shown = { ...serverErrors, ...errors };
+
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    const estimate = (v: Estimate) => Object.fromEntries(Object.entries(v).map(([k, s]) => [k, toNumber(s)]).filter(([, n]) => n !== undefined));
+    const parsed = consistencyRequestSchema.safeParse({
+      inspiral: estimate(values.inspiral),
+      merger_ringdown: estimate(values.merger_ringdown),
+      frame,
+      ...(toNumber(z) === undefined ? {} : { z: toNumber(z) }),
+      levels: levels.split(",").map((s) => Number(s.trim())).filter((n) => !Number.isNaN(n)),
+    });
+    if (!parsed.success) {
+      const next: Record<string, string> = {};
+      for (const issue of parsed.error.issues) next[issue.path.join(".")] ??= issue.message;
+      setErrors(next);
+      return;
+    }
+    setErrors({});
+    onSubmit(parsed.data);
+  };
+
+  return (
+    <form onSubmit={submit} className="flex flex-col gap-4" data-testid="summaries-form" noValidate>
+      <div className="grid gap-4 md:grid-cols-2">
+        {(["inspiral", "merger_ringdown"] as const).map((part) => (
+          <fieldset key={part} className="rounded border border-paper-edge p-3">
+            <legend className="px-1 font-semibold">{part === "inspiral" ? "Inspiral estimate" : "Merger-ringdown estimate"}</legend>
+            <div className="grid grid-cols-2 gap-3 sm:grid-cols-3">
+              {(Object.keys(LABELS) as (keyof Estimate)[]).map((k) => (
+                <Field key={k} label={LABELS[k]} error={shown[`${part}.${k}`]} hint={k === "rho" ? "blank = 0 (then a caution)" : undefined}>
+                  {(control) => (
+                    <TextInput
+                      {...control}
+                      inputMode="decimal"
+                      name={`${part}.${k}`}
+                      value={values[part][k]}
+                      onChange={(e) => setValues((v) => ({ ...v, [part]: { ...v[part], [k]: e.target.value } }))}
+                    />
+                  )}
+                </Field>
+              ))}
+            </div>
+          </fieldset>
+        ))}
+      </div>
+      <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+        <Field label="Mass frame" error={shown.frame}>
+          {(control) => (
+            <Select {...control} name="frame" value={frame} onChange={(e) => setFrame(e.target.value === "source" ? "source" : "detector")}>
+              <option value="detector">detector (redshifted)</option>
+              <option value="source">source</option>
+            </Select>
+          )}
+        </Field>
+        <Field label="Redshift z" error={shown.z} hint="optional; gives the split frequency for source-frame masses">
+          {(control) => <TextInput {...control} name="z" inputMode="decimal" value={z} onChange={(e) => setZ(e.target.value)} />}
+        </Field>
+        <Field label="Credible levels" error={shown.levels ?? shown["levels.0"] ?? shown["levels.1"] ?? shown["levels.2"]} className="col-span-2">
+          {(control) => <TextInput {...control} name="levels" value={levels} onChange={(e) => setLevels(e.target.value)} />}
+        </Field>
+      </div>
+      <div>
+        <Button kind="primary" type="submit" data-testid="run-consistency">
+          Run the test
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,113 @@
+import { readFileSync } from "node:fs";
+import type { BrowserContext, Download, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
+import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
+import { clientIsBuilt, launchBrowser, screenshotPath } from "../helpers/browser.ts";
+import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+
+/**
+ * The consistency page in Chromium against the real app: a visitor runs the test on two Gaussian
+ * summaries (the form's invented demonstration values), sees the credible regions, the GR point and
+ * the quantile, asks which Johannsen alpha_13 the test would exclude and sees the track drawn over the
+ * contours, downloads the plot; then translates a ringdown bound on the translate page.
+ */
+
+/** The GR quantile of the form's demo values, recomputed here (Ghosh et al. 2016 deviations, first-order propagation, chi-square(2); derived). */
+function demoQuantile(): number {
+  const I = { M: 63.1, c: 0.66, sM: 4.1, sc: 0.03, r: -0.8 };
+  const R = { M: 68.4, c: 0.72, sM: 4.6, sc: 0.08, r: 0.9 };
+  const sM = I.M + R.M;
+  const sC = I.c + R.c;
+  const mu = [(2 * (I.M - R.M)) / sM, (2 * (I.c - R.c)) / sC];
+  const a = [(4 * R.M) / sM ** 2, (4 * R.c) / sC ** 2];
+  const b = [(4 * I.M) / sM ** 2, (4 * I.c) / sC ** 2];
+  const s00 = a[0]! ** 2 * I.sM ** 2 + b[0]! ** 2 * R.sM ** 2;
+  const s11 = a[1]! ** 2 * I.sc ** 2 + b[1]! ** 2 * R.sc ** 2;
+  const s01 = a[0]! * a[1]! * I.r * I.sM * I.sc + b[0]! * b[1]! * R.r * R.sM * R.sc;
+  const d2 = (s11 * mu[0]! ** 2 - 2 * s01 * mu[0]! * mu[1]! + s00 * mu[1]! ** 2) / (s00 * s11 - s01 ** 2);
+  return 1 - Math.exp(-d2 / 2);
+}
+
+describe("browser: the IMR consistency page and the ringdown panel", () => {
+  let tdb: TestDatabase;
+  let stack: SignInStack;
+  let visitor: BrowserContext;
+
+  beforeAll(async () => {
+    if (!clientIsBuilt()) throw new Error("dist/ is missing: run `npx vite build` first (npm test does it).");
+    tdb = await createTestDatabase();
+    stack = await startSignInStack(tdb, { env: { RATE_LIMIT_PER_MINUTE: "1000" } });
+    await tdb.db.transaction(async (trx) => {
+      await catalogueSeed.run(trx);
+      await ringdownCatalogueSeed.run(trx);
+    });
+    visitor = await launchBrowser();
+  }, 120_000);
+  afterAll(async () => {
+    await visitor?.close();
+    await stack?.close();
+    await tdb?.drop();
+  });
+
+  function watch(page: Page) {
+    const errors: string[] = [];
+    page.on("console", (m) => {
+      if (m.type() === "error") errors.push(m.text());
+    });
+    page.on("pageerror", (e) => errors.push(e.message));
+    return errors;
+  }
+
+  it("when a visitor runs the test on two summaries, then contours, the GR point and the quantile appear, and a theory's track is drawn over them", { timeout: 90_000 }, async () => {
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    await page.goto(`${stack.baseUrl}/consistency`, { waitUntil: "networkidle" });
+    await expect(page.title()).resolves.toMatch(/consistency/i);
+
+    // A field error from the shared schema lands beside its field.
+    await page.locator('input[name="inspiral.chi_f"]').fill("1.2");
+    await page.getByTestId("run-consistency").click();
+    await expect(page.getByText("|chi_f| must be below 1 (a Kerr black hole)").isVisible()).resolves.toBe(true);
+    await page.locator('input[name="inspiral.chi_f"]').fill("0.66");
+    await page.getByTestId("run-consistency").click();
+
+    await page.getByTestId("gr-quantile").waitFor();
+    const shown = Number((await page.getByTestId("gr-quantile").textContent())!.replace(/[^0-9.]/g, "")) / 100;
+    expect(shown).toBeCloseTo(demoQuantile(), 3);
+    await expect(page.locator('[data-testid="deviation-plot"] path[data-level]').count()).resolves.toBe(3);
+    await expect(page.getByTestId("gr-point").count()).resolves.toBe(1);
+    await expect(page.getByTestId("consistency-cautions").textContent()).resolves.toMatch(/Gaussian approximation/);
+
+    // What would the test exclude for the Johannsen 2013 entry's light-ring shifts?
+    await page.getByLabel("Theory").selectOption("johannsen");
+    await page.getByTestId("run-exclusion").click();
+    await page.getByTestId("exclusion-table").waitFor();
+    await page.getByTestId("deviation-track").waitFor();
+    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/alpha13 > 0/);
+
+    const [download] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-svg").click()])) as [Download, void];
+    const svg = readFileSync(await download.path(), "utf8");
+    expect(download.suggestedFilename()).toBe("imr-consistency.svg");
+    expect(svg).toMatch(/<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
+    expect(svg).toMatch(/data-level="0.9"/);
+    await page.screenshot({ path: screenshotPath("consistency-page"), fullPage: true });
+    expect(errors).toEqual([]);
+  });
+
+  it("when a visitor translates a ringdown bound, then the spacetime entries get limits with verdicts", { timeout: 60_000 }, async () => {
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    await page.goto(`${stack.baseUrl}/translate`, { waitUntil: "networkidle" });
+    await page.getByTestId("run-ringdown").click();
+    const row = page.getByTestId("ringdown-result-johannsen");
+    await row.waitFor();
+    // df = -alpha13/27 and |df| <= 0.05: |alpha13| <= 1.35 (light ring; tests/api/convert-ringdown.test.ts checks it against the metric).
+    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ alpha13 ≤ 1\.35/);
+    await expect(row.textContent()).resolves.toMatch(/outside validity/);
+    await expect(page.getByTestId("ringdown-mode").textContent()).resolves.toMatch(/Hz/);
+    await page.getByTestId("ringdown-panel").screenshot({ path: screenshotPath("translate-ringdown") });
+    expect(errors).toEqual([]);
+  });
+});
