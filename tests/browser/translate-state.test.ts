@@ -53,7 +53,7 @@ describe("browser: a translation's state lives in its link", () => {
     await verdict.scrollIntoViewIfNeeded();
     const box = await verdict.boundingBox();
     expect(box && box.x >= 0 && box.x + box.width <= 375).toBe(true);
-    await expect(verdict.textContent()).resolves.toMatch(/not valid/);
+    await expect(verdict.textContent()).resolves.toMatch(/outside validity/);
     await expect(page.evaluate(() => document.documentElement.scrollWidth)).resolves.toBeLessThanOrEqual(375);
     await page.screenshot({ path: screenshotPath("translate-state-375-result"), fullPage: false });
 
