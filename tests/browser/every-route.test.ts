@@ -146,6 +146,7 @@ describe("browser: every route at 375 px and 1366 px", () => {
     const page = await browser.newPage();
     await page.setViewportSize({ width: 375, height: 740 });
     await page.goto(`${stack.baseUrl}/catalogue`, { waitUntil: "networkidle" });
+    await page.locator("main h1").first().waitFor();
     await page.keyboard.press("Tab");
     await expect(page.evaluate(() => document.activeElement?.textContent ?? "")).resolves.toMatch(/Skip to the content/);
     await page.keyboard.press("Enter");
