@@ -139,7 +139,7 @@ function resultCautions(p: PipelineResult, request: SamplesJobRequest, target: R
 
 /** row, deviation, beta, canonical coupling, quoted coupling (when different), weight. */
 async function perSampleCsv(p: PipelineResult, quotedSymbol: string, canonicalSymbol: string, quoted: ((v: number) => number) | null): Promise<Buffer> {
-  const gz = createGzip({ level: 6 });
+  const gz = createGzip({ level: 1 });
   const parts: Buffer[] = [];
   gz.on("data", (c: Buffer) => parts.push(c));
   const done = new Promise<void>((resolve, reject) => {
