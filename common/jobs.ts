@@ -194,3 +194,19 @@ export const jobViewSchema = z.object({
 export type JobView = z.infer<typeof jobViewSchema>;
 
 export const jobCreatedSchema = z.object({ job: z.object({ id: jobIdSchema, status: z.enum(JOB_STATUSES), progress: z.number() }) });
+
+export const filePreviewSchema = z.object({
+  file: z.object({ name: z.string(), bytes: z.number().int(), format: z.enum(["text", "json", "hdf5"]) }),
+  tables: z.array(
+    z.object({
+      /** HDF5 path or null (text, top-level JSON). */
+      path: z.string().nullable(),
+      rows: z.number().int().nullable(),
+      columns: z.array(
+        z.object({ name: z.string(), first: z.array(z.number().nullable()), numeric: z.boolean(), min: z.number().nullable(), max: z.number().nullable(), mean: z.number().nullable(), non_finite: z.number().int() }),
+      ),
+    }),
+  ),
+  note: z.string().optional(),
+});
+export type FilePreview = z.infer<typeof filePreviewSchema>;
