@@ -52,6 +52,7 @@ async function main(): Promise<void> {
         frame: "source",
         bodies: ["bh", "bh"],
         cosmology: DEFAULT_COSMOLOGY,
+        fLowHz: 20,
         columns: { deviation: col("beta"), m1: col("m1"), m2: col("m2"), chi1: col("chi1"), chi2: col("chi2") },
         names: {},
         prior: { kind: "uniform" },

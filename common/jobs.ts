@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { bodyKindSchema, cautionSchema, cosmologySchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
+import { bodyKindSchema, cautionSchema, cosmologySchema, fLowSchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
 
 /**
  * Background jobs (docs/samples-jobs.md): POST /api/v1/jobs/samples (multipart: `file` and
@@ -58,6 +58,8 @@ export const samplesJobRequestSchema = z
     frame: z.enum(["source", "detector"], { error: 'frame must be "source" or "detector"' }),
     bodies: z.tuple([bodyKindSchema, bodyKindSchema]).default(["bh", "bh"]),
     cosmology: cosmologySchema.optional(),
+    /** Lowest observed frequency of the analysis band (Hz), for the in-band validity conditions. */
+    f_low: fLowSchema,
     prior: priorSchema.default({ kind: "as_translated" }),
     /** The analysis prior: uniform in the deviation over this range (default: the samples' span). */
     analysis_prior_range: range("analysis_prior_range").optional(),
@@ -159,6 +161,7 @@ export const stackJobRequestSchema = z.strictObject({
   credibility: finite("credibility").gt(0).lt(1),
   bodies: z.tuple([bodyKindSchema, bodyKindSchema]).default(["bh", "bh"]),
   cosmology: cosmologySchema.optional(),
+  f_low: fLowSchema,
   prior: priorSchema.default({ kind: "uniform" }),
   events: z.array(stackEventSchema).min(1, "give at least one event").max(50, "at most 50 events"),
   include_outside_validity: z.boolean().default(false),

@@ -64,6 +64,7 @@ export async function runSamplesJob(input: SamplesJobInput): Promise<SamplesJobO
     frame: request.frame,
     bodies: request.bodies,
     cosmology: request.cosmology ?? { ...DEFAULT_COSMOLOGY },
+    fLowHz: request.f_low,
     columns: columns as SampleColumns,
     names,
     prior: { kind: request.prior.kind, range: request.prior.range },
