@@ -10,6 +10,7 @@ import { accountsRoutes } from "./features/accounts/routes.ts";
 import { adminRoutes } from "./features/admin/routes.ts";
 import { catalogueApiRoutes } from "./features/catalogue/api.ts";
 import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
+import { consistencyJobRoutes } from "./features/consistency/job-routes.ts";
 import { consistencyRoutes } from "./features/consistency/routes.ts";
 import { ringdownCatalogue } from "./features/ringdown/catalogue.ts";
 import { ringdownRoutes } from "./features/ringdown/routes.ts";
@@ -122,6 +123,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
+  table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
   const ringdown = ringdownCatalogue(db);
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
   table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));

@@ -201,6 +201,7 @@ describe("submission form: where the server's field errors land", () => {
               checks: checksReport,
               target_revision: null,
               diff: null,
+              authors: [],
             },
           }
         : undefined,
