@@ -185,6 +185,7 @@ export const curveUploadSchema = z.strictObject({
   data: z.string({ error: "data is required: the two-column table as text" }).min(1, "data is required").max(MAX_CURVE_BYTES, `data must be at most ${MAX_CURVE_BYTES} characters`),
 });
 export type CurveUpload = z.output<typeof curveUploadSchema>;
+export type CurveUploadInput = z.input<typeof curveUploadSchema>;
 
 // ---------------------------------------------------------------------------------------------
 // Combining uploaded Fisher matrices

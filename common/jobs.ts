@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { consistencyResultSchema } from "./consistency.ts";
 import { bodyKindSchema, cautionSchema, cosmologySchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
 
 /**
@@ -9,7 +10,7 @@ import { bodyKindSchema, cautionSchema, cosmologySchema, gimrKSchema, signConven
 
 export const JOB_STATUSES = ["queued", "running", "done", "failed", "cancelled"] as const;
 export type JobStatus = (typeof JOB_STATUSES)[number];
-export const JOB_KINDS = ["samples", "stack"] as const;
+export const JOB_KINDS = ["samples", "stack", "consistency"] as const;
 export type JobKind = (typeof JOB_KINDS)[number];
 
 /** 144 random bits, base64url (24 characters). */
@@ -188,7 +189,7 @@ export const jobViewSchema = z.object({
   finished_at: z.string().nullable(),
   expires_at: z.string().nullable(),
   file: z.object({ name: z.string(), bytes: z.number().int(), sha256: z.string(), format: z.string() }).nullable(),
-  result: z.union([samplesJobResultSchema, stackJobResultSchema]).optional(),
+  result: z.union([samplesJobResultSchema, stackJobResultSchema, consistencyResultSchema]).optional(),
   error: jobErrorSchema.optional(),
 });
 export type JobView = z.infer<typeof jobViewSchema>;

@@ -20,6 +20,7 @@ const navItems: NavItem[] = [
   { to: paths.home(), label: "Overview" },
   { to: paths.catalogue(), label: "Catalogue" },
   { to: paths.translate(), label: "Translate" },
+  { to: paths.forecast(), label: "Forecast" },
   { to: paths.consistency(), label: "IMR consistency" },
   { to: paths.sheets(), label: "Sheets", role: "analyst" },
   { to: paths.mySubmissions(), label: "My submissions", role: ["contributor", "editor"] },

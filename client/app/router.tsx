@@ -29,6 +29,7 @@ export function createAppRouter(queryClient: QueryClient) {
         { path: "review/:id", lazy: () => import("./routes/review.tsx") },
         { path: "dev/outbox", lazy: () => import("./routes/outbox.tsx") },
         { path: "translate", lazy: () => import("./routes/translate.tsx") },
+        { path: "forecast", lazy: () => import("./routes/forecast.tsx") },
         { path: "consistency", lazy: () => import("./routes/consistency.tsx") },
         { path: "sheets", lazy: () => import("./routes/sheets.tsx") },
         { path: "sheets/:id", lazy: () => import("./routes/sheet.tsx") },

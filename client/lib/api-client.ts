@@ -34,6 +34,8 @@ export function setCsrfToken(token: string | undefined): void {
 interface RequestOptions {
   method?: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
   body?: unknown;
+  /** A multipart body (file uploads); sent as it is, instead of `body`. */
+  form?: FormData;
   signal?: AbortSignal;
 }
 
@@ -47,7 +49,7 @@ export async function apiRequest<S extends z.ZodType>(url: string, schema: S, op
     method,
     headers,
     credentials: "same-origin",
-    body: opts.body === undefined ? null : JSON.stringify(opts.body),
+    body: opts.form ?? (opts.body === undefined ? null : JSON.stringify(opts.body)),
     signal: opts.signal ?? null,
   });
   const text = await res.text();

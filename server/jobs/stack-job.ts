@@ -3,7 +3,6 @@ import { DEFAULT_COSMOLOGY } from "../../common/convert.ts";
 import type { SamplesJobResult, StackJobRequest, StackJobResult } from "../../common/jobs.ts";
 import { selectTarget } from "../features/convert/samples-common.ts";
 import type { CompiledCatalogue } from "../features/convert/compiled-catalogue.ts";
-import type { JobsRepository } from "../features/jobs/repository.ts";
 import { makeBinary } from "../physics/binary.ts";
 import { createConversionContext } from "../physics/convert.ts";
 import { detectPowerLaw } from "../physics/invert.ts";
@@ -11,7 +10,7 @@ import { quotedValueOf } from "../physics/quoted-forms.ts";
 import { gimrFactor, type GimrIndex } from "../physics/taylorf2.ts";
 import { SampleInputError } from "../physics/samples/sample-input-error.ts";
 import { inverseNormalCdf } from "../physics/samples/normal.ts";
-import { readStackValues } from "./samples-job.ts";
+import type { readStackValues } from "./samples-job.ts";
 
 /**
  * Several events, one coupling (docs/samples-jobs.md, "Several events"): on a common grid,
@@ -52,8 +51,11 @@ function quantileOnGrid(edges: Float64Array, mass: Float64Array, q: number): num
   return edges[edges.length - 1]!;
 }
 
-export async function runStackJob(input: { request: StackJobRequest; catalogue: CompiledCatalogue; repo: JobsRepository; onProgress: (f: number) => Promise<void> }): Promise<StackJobResult> {
-  const { request, repo } = input;
+/** A finished samples job's result and the per-sample values stacking reads, or null when gone. */
+export type LoadSamplesEvent = (jobId: string) => Promise<{ result: SamplesJobResult; values: ReturnType<typeof readStackValues> } | null>;
+
+export async function runStackJob(input: { request: StackJobRequest; catalogue: CompiledCatalogue; load: LoadSamplesEvent; onProgress: (f: number) => Promise<void> }): Promise<StackJobResult> {
+  const { request } = input;
   const target = selectTarget(input.catalogue, request);
   const mapping = target.ready.compiled;
   const cosmology = request.cosmology ?? { ...DEFAULT_COSMOLOGY };
@@ -70,13 +72,12 @@ export async function runStackJob(input: { request: StackJobRequest; catalogue: 
   let power: number | null = null;
   for (const [i, e] of request.events.entries()) {
     if ("job" in e) {
-      const row = await repo.get(e.job);
-      const buf = await repo.readBlob(e.job, "stack.f64");
-      if (!row || row.status !== "done" || !buf) throw new SampleInputError(`events.${i}.job: job ${e.job} is no longer available.`);
-      const result = row.result as SamplesJobResult;
+      const got = await input.load(e.job);
+      if (!got) throw new SampleInputError(`events.${i}.job: job ${e.job} is no longer available.`);
+      const result = got.result;
       if (result.coupling.side === "interval") throw new SampleInputError(`events.${i}.job: stacking signed couplings is not supported yet; stack one-signed couplings.`);
       power = result.power;
-      loaded.push({ label: e.label, kind: "samples", values: readStackValues(buf), result });
+      loaded.push({ label: e.label, kind: "samples", values: got.values, result });
     } else {
       const binary = makeBinary({ m1: e.binary.m1, m2: e.binary.m2, chi1: e.binary.chi1, chi2: e.binary.chi2, bodies: request.bodies, frame: "source", ...(e.binary.z === undefined ? {} : { z: e.binary.z }) });
       const env = createConversionContext(binary, { cosmology }).envFor(mapping);

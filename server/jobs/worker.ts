@@ -2,7 +2,7 @@ import { mkdtemp, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import type PgBoss from "pg-boss";
-import type { JobError, SamplesJobRequest, StackJobRequest } from "../../common/jobs.ts";
+import type { JobError, SamplesJobRequest, SamplesJobResult, StackJobRequest } from "../../common/jobs.ts";
 import type { Config } from "../config.ts";
 import type { Knex } from "../db/knex.ts";
 import { dbCatalogueReader } from "../features/convert/catalogue-reader.ts";
@@ -12,7 +12,9 @@ import { jobsRepository } from "../features/jobs/repository.ts";
 import type { Logger } from "../logger.ts";
 import { AppError } from "../errors.ts";
 import { JobCancelled, SampleInputError } from "../physics/samples/sample-input-error.ts";
-import { runSamplesJob } from "./samples-job.ts";
+import { consistencyJobRequestSchema } from "../../common/consistency.ts";
+import { CONSISTENCY_FILES, runConsistencyJob } from "./consistency-job.ts";
+import { readStackValues, runSamplesJob } from "./samples-job.ts";
 import { runStackJob } from "./stack-job.ts";
 
 /**
@@ -71,8 +73,23 @@ export async function startWorker(deps: { config: Config; db: Knex; logger: Logg
           onProgress,
         });
         await repo.finish(id, out.result, config.JOBS_RETENTION_HOURS, out.blobs);
+      } else if (row.kind === "consistency") {
+        const files = { inspiral: "", merger_ringdown: "" };
+        for (const name of CONSISTENCY_FILES) {
+          const blob = await repo.readBlob(id, name);
+          if (!blob) throw new SampleInputError(`The ${name} file is no longer stored (was the job cancelled?).`, { file: name });
+          files[name] = blob.toString("utf8");
+        }
+        const out = await runConsistencyJob({ request: consistencyJobRequestSchema.parse(row.request), files, onProgress });
+        await repo.finish(id, out, config.JOBS_RETENTION_HOURS, []);
       } else {
-        const out = await runStackJob({ request: row.request as StackJobRequest, catalogue, repo, onProgress });
+        const load = async (jobId: string) => {
+          const event = await repo.get(jobId);
+          const buf = await repo.readBlob(jobId, "stack.f64");
+          if (!event || event.status !== "done" || !buf) return null;
+          return { result: event.result as SamplesJobResult, values: readStackValues(buf) };
+        };
+        const out = await runStackJob({ request: row.request as StackJobRequest, catalogue, load, onProgress });
         await repo.finish(id, out, config.JOBS_RETENTION_HOURS, []);
       }
       log.info("job done");

@@ -234,14 +234,31 @@ export function detectorFisher(integrals: DetectorIntegrals, b: number): number[
   g[0]![0] = integrals.snr2;
   for (let a = 0; a < 6; a++) for (let c = 0; c < 6; c++) g[a + 1]![c + 1] = integrals.base[a * 6 + c]!;
   const { weights, lnu, columns } = integrals;
-  const cross = new Array<number>(6).fill(0);
+  const [c0, c1, c2, c3, c4, c5] = columns as [Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array];
+  const n = weights.length;
+  // ln u is evenly spaced on the grid, so u^b is a geometric sequence: one exp per block of points
+  // instead of one per point (re-anchored every 256 points, so rounding cannot accumulate).
+  const ratio = n > 1 ? Math.exp(b * (lnu[1]! - lnu[0]!)) : 1;
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let s4 = 0;
+  let s5 = 0;
   let bb = 0;
-  for (let i = 0; i < weights.length; i++) {
-    const ub = Math.exp(b * lnu[i]!);
+  let ub = 0;
+  for (let i = 0; i < n; i++) {
+    ub = (i & 255) === 0 ? Math.exp(b * lnu[i]!) : ub * ratio;
     const wu = weights[i]! * ub;
     bb += wu * ub;
-    for (let j = 0; j < 6; j++) cross[j]! += wu * columns[j]![i]!;
+    s0 += wu * c0[i]!;
+    s1 += wu * c1[i]!;
+    s2 += wu * c2[i]!;
+    s3 += wu * c3[i]!;
+    s4 += wu * c4[i]!;
+    s5 += wu * c5[i]!;
   }
+  const cross = [s0, s1, s2, s3, s4, s5];
   for (let j = 0; j < 6; j++) {
     g[BETA_INDEX]![j + 1] = cross[j]!;
     g[j + 1]![BETA_INDEX] = cross[j]!;

@@ -1,0 +1,246 @@
+import { describe, expect, it } from "vitest";
+import { DEFAULT_COSMOLOGY } from "../../common/convert.ts";
+import type { SamplesJobResult, StackJobRequest } from "../../common/jobs.ts";
+import { makeBinary } from "../../server/physics/binary.ts";
+import { compileMapping, type CatalogueTheory, type CompiledMapping } from "../../server/physics/catalogue-mapping.ts";
+import { createConversionContext } from "../../server/physics/convert.ts";
+import { runPipeline, type PipelineInput, type PipelineResult } from "../../server/physics/samples/pipeline.ts";
+import { weightedQuantiles } from "../../server/physics/samples/weighted.ts";
+import { readStackValues, stackValues } from "../../server/jobs/samples-job.ts";
+import { runStackJob } from "../../server/jobs/stack-job.ts";
+import { seedCatalogue } from "../api/convert-fixture.ts";
+import { filled, gaussian } from "../helpers/samples-data.ts";
+
+/**
+ * The samples statistics against formulas written here (docs/samples-jobs.md): synthetic Gaussian
+ * posteriors on beta at one fixed binary, where the coupling posterior under each prior is known in
+ * closed form or as a one-dimensional integral, and the stack of two events against the product of
+ * their Gaussian likelihoods.
+ */
+
+// Standard normal CDF through erf (Abramowitz & Stegun 1964, 7.1.26, |error| < 1.5e-7).
+function Phi(x: number): number {
+  const z = Math.abs(x) / Math.SQRT2;
+  const t = 1 / (1 + 0.3275911 * z);
+  const erf = 1 - ((((1.061405429 * t - 1.453152027) * t + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.exp(-z * z);
+  return x >= 0 ? 0.5 * (1 + erf) : 0.5 * (1 - erf);
+}
+function inversePhi(p: number): number {
+  let lo = -10;
+  let hi = 10;
+  for (let i = 0; i < 100; i++) {
+    const mid = (lo + hi) / 2;
+    if (Phi(mid) < p) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
+}
+/** The c-quantile of an unnormalised density on [a, b] (trapezoid rule on 200 001 points). */
+function quantileOf(density: (x: number) => number, a: number, b: number, c: number): number {
+  const n = 200_000;
+  const h = (b - a) / n;
+  const cum = new Float64Array(n + 1);
+  let prev = density(a);
+  for (let i = 1; i <= n; i++) {
+    const f = density(a + i * h);
+    cum[i] = cum[i - 1]! + ((prev + f) * h) / 2;
+    prev = f;
+  }
+  const target = c * cum[n]!;
+  let i = 0;
+  while (cum[i + 1]! < target) i++;
+  return a + (i + (target - cum[i]!) / (cum[i + 1]! - cum[i]!)) * h;
+}
+/** Weighted CDF of the analytic density at x: for a tolerance in probability, scale-free. */
+function cdfAt(density: (x: number) => number, a: number, b: number, x: number): number {
+  const n = 200_000;
+  const h = (b - a) / n;
+  let total = 0;
+  let below = 0;
+  for (let i = 0; i < n; i++) {
+    const m = a + (i + 0.5) * h;
+    const f = density(m) * h;
+    total += f;
+    if (m <= x) below += f;
+  }
+  return below / total;
+}
+
+const catalogue = seedCatalogue();
+function target(slug: string, b: number): { entry: CatalogueTheory; mapping: CompiledMapping } {
+  const t = catalogue.bySlug.get(slug)!;
+  return { entry: t.theory.entry as CatalogueTheory, mapping: t.mappings.find((m) => m.compiled.b === b)!.compiled };
+}
+function prefactor(mapping: CompiledMapping, m1: number, m2: number): number {
+  const env = createConversionContext(makeBinary({ m1, m2, frame: "source" }), { cosmology: DEFAULT_COSMOLOGY }).envFor(mapping);
+  return mapping.evaluate(1, env);
+}
+
+function input(t: { entry: CatalogueTheory; mapping: CompiledMapping }, beta: Float64Array, m1: number, m2: number, prior: PipelineInput["prior"], credibility = 0.9): PipelineInput {
+  const n = beta.length;
+  return {
+    entry: t.entry,
+    mapping: t.mapping,
+    parameter: "ppe_beta",
+    includesSpin: false,
+    signConvention: "plus",
+    credibility,
+    frame: "source",
+    bodies: ["bh", "bh"],
+    cosmology: DEFAULT_COSMOLOGY,
+    columns: { deviation: beta, m1: filled(n, m1), m2: filled(n, m2) },
+    names: { deviation: "beta", m1: "m1", m2: "m2" },
+    prior,
+    maxNonFiniteFraction: 0.01,
+    fileLabel: "synthetic",
+  };
+}
+
+describe("posterior samples: weighted credible bounds", () => {
+  // EdGB at b = -7 (Yagi 2012 mapping as catalogued): beta = K alpha^2 with K < 0 for a 10 + 5 Msun binary of non-spinning holes.
+  const edgb = target("edgb", -7);
+  const K = prefactor(edgb.mapping, 10, 5);
+  const sigma = 2e-3;
+  const mu = -0.5 * sigma;
+  const n = 100_000;
+  const beta = gaussian(2024, n, mu, sigma);
+  // In y = beta / K the posterior is N(m, sd) cut at y > 0 (the side EdGB reaches), alpha = sqrt(y).
+  const m = mu / K;
+  const sd = sigma / Math.abs(K);
+  const like = (alpha: number) => Math.exp(-0.5 * ((K * alpha * alpha - mu) / sigma) ** 2);
+  const alphaMax = Math.sqrt(m + 8 * sd);
+
+  it("when the prior is 'as translated', then the bound is the truncated-Gaussian quantile in closed form (derived)", async () => {
+    const r = await runPipeline(input(edgb, beta, 10, 5, { kind: "as_translated" }));
+    expect(K).toBeLessThan(0);
+    expect(r.side).toBe("upper");
+    expect(r.power).toBe(2);
+    // Kept fraction: P(beta < 0) = Phi(-mu/sigma) = Phi(0.5) (derived); binomial error at n = 1e5 is 0.0016.
+    expect(Math.abs(r.samples.used / n - Phi(0.5))).toBeLessThan(0.006);
+    const p0 = Phi(-m / sd);
+    const yc = m + sd * inversePhi(p0 + 0.9 * (1 - p0));
+    expect(Math.abs(r.canonical.value! / Math.sqrt(yc) - 1)).toBeLessThan(0.01);
+    expect(r.effective_sample_size).toBe(r.samples.used);
+    // sqrt_alpha is quoted: the quoted value is alpha^(1/2).
+    expect(r.quoted.value).toBeCloseTo(Math.sqrt(r.canonical.value!), 12);
+  });
+
+  it("when the prior is uniform in alpha, then the weighted bound matches the quantile of N(K alpha^2; mu, sigma) on alpha > 0 (derived, numerical integral)", async () => {
+    const r = await runPipeline(input(edgb, beta, 10, 5, { kind: "uniform" }));
+    const exact = quantileOf(like, 0, alphaMax, 0.9);
+    // Importance-sampling error on the CDF is about sqrt(c(1-c)/ESS); allow 5 times that.
+    expect(Math.abs(cdfAt(like, 0, alphaMax, r.canonical.value!) - 0.9)).toBeLessThan(5 * Math.sqrt(0.09 / r.effective_sample_size));
+    expect(Math.abs(r.canonical.value! / exact - 1)).toBeLessThan(0.02);
+    expect(r.effective_sample_size).toBeLessThan(r.samples.used);
+    expect(r.effective_sample_size).toBeGreaterThan(1000);
+    // The reweighting matters here: the as-translated bound is elsewhere (so this test would fail without the weights).
+    const plain = await runPipeline(input(edgb, beta, 10, 5, { kind: "as_translated" }));
+    expect(Math.abs(plain.canonical.value! / exact - 1)).toBeGreaterThan(0.05);
+  });
+
+  it("when the prior is log-uniform in alpha over a range, then the bound matches the quantile of N(K alpha^2; mu, sigma) / alpha on that range (derived)", async () => {
+    const a = 0.2 * Math.sqrt(sd);
+    const b = alphaMax;
+    const r = await runPipeline(input(edgb, beta, 10, 5, { kind: "log_uniform", range: [a, b] }));
+    const density = (alpha: number) => like(alpha) / alpha;
+    const exact = quantileOf(density, a, b, 0.9);
+    expect(Math.abs(cdfAt(density, a, b, r.canonical.value!) - 0.9)).toBeLessThan(5 * Math.sqrt(0.09 / r.effective_sample_size));
+    expect(Math.abs(r.canonical.value! / exact - 1)).toBeLessThan(0.03);
+    expect(Math.abs(r.canonical.value! / quantileOf(like, 0, alphaMax, 0.9) - 1)).toBeGreaterThan(0.05);
+  });
+
+  it("when a coupling may take either sign and beta is linear in it, then the result is a signed equal-tailed interval (derived)", async () => {
+    // Time-varying G at b = -13 (beta = -(275/851968) Gdot Mc), declared here with range "any_sign".
+    const vg = catalogue.bySlug.get("varying-g")!.theory.entry as CatalogueTheory;
+    const entry = { ...vg, couplings: vg.couplings.map((c, i) => (i === 0 ? { ...c, range: "any_sign" } : c)) } as CatalogueTheory;
+    const mapping = compileMapping(entry, 0);
+    const Kg = prefactor(mapping, 10, 5);
+    const betas = gaussian(77, 50_000, 1e-3, 4e-3);
+    const r = await runPipeline(input({ entry, mapping }, betas, 10, 5, { kind: "as_translated" }));
+    expect(r.signed).toBe(true);
+    expect(r.side).toBe("interval");
+    // x = beta / K is Gaussian with mean 1e-3/K and sd 4e-3/|K|: the 5% and 95% points (derived).
+    const lo = (1e-3 + 4e-3 * inversePhi(Kg < 0 ? 0.95 : 0.05)) / Kg;
+    const hi = (1e-3 + 4e-3 * inversePhi(Kg < 0 ? 0.05 : 0.95)) / Kg;
+    const [a, b] = r.canonical.interval!;
+    expect(Math.abs(a - lo) / (hi - lo)).toBeLessThan(0.01);
+    expect(Math.abs(b - hi) / (hi - lo)).toBeLessThan(0.01);
+    expect(r.samples.used).toBe(50_000);
+  });
+
+  it("when weights are given, then the weighted quantile interpolates the weighted CDF (derived on four points)", () => {
+    const x = Float64Array.from([3, 1, 2, 4]);
+    const w = Float64Array.from([1, 1, 2, 0]);
+    // Sorted: 1 (C=0.25), 2 (C=0.75), 3 (C=1), 4 (C=1). q = 0.5 lies between 1 and 2: 1 + (0.5-0.25)/0.5 = 1.5.
+    expect(weightedQuantiles(x, w, Float64Array.from(x).sort(), [0.5, 0.25, 0.9])).toEqual([1.5, 1, 2 + (0.9 - 0.75) / 0.25]);
+  });
+
+  it("when the bound is set, then the verdict counts the posterior's binaries outside each hard condition at the bound", async () => {
+    const r = await runPipeline(input(edgb, beta, 10, 5, { kind: "as_translated" }));
+    // Every sample has the same binary: the fraction outside is 0 or 1, and matches 16 pi alpha^2 / m2^4 <= 1/6 at the bound (the condition as catalogued).
+    const kmPerMsun = 1.3271244e20 / 299_792_458 ** 2 / 1000;
+    const worst = (16 * Math.PI * r.canonical.value! ** 2) / (5 * kmPerMsun) ** 4;
+    const hard = r.conditions.filter((c) => c.kind === "hard");
+    expect(hard.length).toBeGreaterThan(0);
+    expect(r.fraction_outside).toBe(worst > 1 / 6 ? 1 : 0);
+    expect(r.verdict).toBe(worst > 1 / 6 ? "outside_validity" : "valid");
+  });
+});
+
+describe("several events: stacking", () => {
+  const edgb = target("edgb", -7);
+  const K1 = prefactor(edgb.mapping, 10, 5);
+  const K2 = prefactor(edgb.mapping, 8, 3);
+  const e1 = { mu: 0, sigma: 2e-3 };
+  const e2 = { mu: -5e-4, sigma: 4e-3 };
+  // Product of the two Gaussian likelihoods in beta_i = K_i alpha^2, uniform prior in alpha >= 0 (derived).
+  const product = (a: number) => Math.exp(-0.5 * ((K1 * a * a - e1.mu) / e1.sigma) ** 2 - 0.5 * ((K2 * a * a - e2.mu) / e2.sigma) ** 2);
+  const amax = Math.sqrt(Math.min((6 * e1.sigma) / Math.abs(K1), (6 * e2.sigma) / Math.abs(K2)) * 3);
+  const exact = quantileOf(product, 0, amax, 0.9);
+  const request = (events: StackJobRequest["events"]): StackJobRequest => ({
+    theory: "edgb",
+    parameter: "ppe_beta",
+    b: -7,
+    credibility: 0.9,
+    bodies: ["bh", "bh"],
+    prior: { kind: "uniform" },
+    events,
+    include_outside_validity: true,
+  });
+
+  it("when two events come as samples jobs, then the combined bound matches the analytic product's quantile", async () => {
+    const runs: Record<string, { result: SamplesJobResult; values: ReturnType<typeof readStackValues> }> = {};
+    for (const [id, e, m1, m2, seed] of [["AAAAAAAAAAAAAAAAAAAAAAA1", e1, 10, 5, 5], ["AAAAAAAAAAAAAAAAAAAAAAA2", e2, 8, 3, 6]] as const) {
+      const r: PipelineResult = await runPipeline(input(edgb, gaussian(seed, 100_000, e.mu, e.sigma), m1, m2, { kind: "as_translated" }));
+      runs[id] = { result: { verdict: r.verdict, power: r.power, conditions: r.conditions, coupling: { side: r.side } } as unknown as SamplesJobResult, values: readStackValues(stackValues(r)) };
+    }
+    const out = await runStackJob({
+      request: request([
+        { label: "one", job: "AAAAAAAAAAAAAAAAAAAAAAA1" },
+        { label: "two", job: "AAAAAAAAAAAAAAAAAAAAAAA2" },
+      ]),
+      catalogue,
+      load: async (id) => runs[id] ?? null,
+      onProgress: async () => undefined,
+    });
+    const alpha = out.coupling.value! ** 2; // quoted sqrt(alpha) -> alpha
+    expect(Math.abs(alpha / exact - 1)).toBeLessThan(0.03);
+    // The combination is tighter than either event alone (each event's own bound is listed).
+    for (const e of out.events) expect(e.bound!).toBeGreaterThan(out.coupling.value!);
+    expect(out.events.every((e) => e.used)).toBe(true);
+  });
+
+  it("when the same two events come as summaries (quick estimate), then the combined bound matches the product to the grid's accuracy", async () => {
+    const out = await runStackJob({
+      request: request([
+        { label: "one", summary: { centre: e1.mu, width: e1.sigma }, binary: { m1: 10, m2: 5, chi1: 0, chi2: 0 } },
+        { label: "two", summary: { centre: e2.mu, width: e2.sigma }, binary: { m1: 8, m2: 3, chi1: 0, chi2: 0 } },
+      ]),
+      catalogue,
+      load: async () => null,
+      onProgress: async () => undefined,
+    });
+    expect(Math.abs(out.coupling.value! ** 2 / exact - 1)).toBeLessThan(0.01);
+    expect(out.cautions.some((c) => /Quick estimate/.test(c.message))).toBe(true);
+  });
+});
