@@ -73,7 +73,8 @@ export const theorySummarySchema = z.object({
   updated_at: z.string(),
   /** True when any mapping's formula still awaits an editor's check against its source. */
   source_to_be_confirmed: z.boolean(),
-  couplings: z.array(z.object({ symbol: z.string(), latex: z.string(), unit: z.string() })),
+  /** latex_html: the symbol already typeset by KaTeX on the server (null if its TeX does not parse). */
+  couplings: z.array(z.object({ symbol: z.string(), latex: z.string(), latex_html: z.string().nullable(), unit: z.string() })),
   mappings: z.array(mappingSummarySchema),
   references: z.array(storedReferenceSchema),
   retired: storedRetirementSchema,

@@ -130,3 +130,14 @@ export const couplingExclusionResponseSchema = z.object({
   cautions: z.array(z.string()),
 });
 export type CouplingExclusionResponse = z.infer<typeof couplingExclusionResponseSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// From posterior samples (POST /api/v1/jobs/consistency: multipart `inspiral`, `merger_ringdown`, `request`)
+
+export const consistencyJobRequestSchema = z.strictObject({
+  /** Frame of the masses in both files. */
+  frame: massFrameSchema,
+  z: num("z").min(0, "z must be >= 0").optional(),
+  levels: levelsSchema,
+});
+export type ConsistencyJobRequest = z.output<typeof consistencyJobRequestSchema>;

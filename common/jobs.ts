@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { bodyKindSchema, cautionSchema, cosmologySchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
+import { consistencyResultSchema } from "./consistency.ts";
+import { bodyKindSchema, cautionSchema, cosmologySchema, fLowSchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
 
 /**
  * Background jobs (docs/samples-jobs.md): POST /api/v1/jobs/samples (multipart: `file` and
@@ -9,7 +10,7 @@ import { bodyKindSchema, cautionSchema, cosmologySchema, gimrKSchema, signConven
 
 export const JOB_STATUSES = ["queued", "running", "done", "failed", "cancelled"] as const;
 export type JobStatus = (typeof JOB_STATUSES)[number];
-export const JOB_KINDS = ["samples", "stack"] as const;
+export const JOB_KINDS = ["samples", "stack", "consistency"] as const;
 export type JobKind = (typeof JOB_KINDS)[number];
 
 /** 144 random bits, base64url (24 characters). */
@@ -58,6 +59,8 @@ export const samplesJobRequestSchema = z
     frame: z.enum(["source", "detector"], { error: 'frame must be "source" or "detector"' }),
     bodies: z.tuple([bodyKindSchema, bodyKindSchema]).default(["bh", "bh"]),
     cosmology: cosmologySchema.optional(),
+    /** Lowest observed frequency of the analysis band (Hz), for the in-band validity conditions. */
+    f_low: fLowSchema,
     prior: priorSchema.default({ kind: "as_translated" }),
     /** The analysis prior: uniform in the deviation over this range (default: the samples' span). */
     analysis_prior_range: range("analysis_prior_range").optional(),
@@ -159,6 +162,7 @@ export const stackJobRequestSchema = z.strictObject({
   credibility: finite("credibility").gt(0).lt(1),
   bodies: z.tuple([bodyKindSchema, bodyKindSchema]).default(["bh", "bh"]),
   cosmology: cosmologySchema.optional(),
+  f_low: fLowSchema,
   prior: priorSchema.default({ kind: "uniform" }),
   events: z.array(stackEventSchema).min(1, "give at least one event").max(50, "at most 50 events"),
   include_outside_validity: z.boolean().default(false),
@@ -188,9 +192,25 @@ export const jobViewSchema = z.object({
   finished_at: z.string().nullable(),
   expires_at: z.string().nullable(),
   file: z.object({ name: z.string(), bytes: z.number().int(), sha256: z.string(), format: z.string() }).nullable(),
-  result: z.union([samplesJobResultSchema, stackJobResultSchema]).optional(),
+  result: z.union([samplesJobResultSchema, stackJobResultSchema, consistencyResultSchema]).optional(),
   error: jobErrorSchema.optional(),
 });
 export type JobView = z.infer<typeof jobViewSchema>;
 
 export const jobCreatedSchema = z.object({ job: z.object({ id: jobIdSchema, status: z.enum(JOB_STATUSES), progress: z.number() }) });
+
+export const filePreviewSchema = z.object({
+  file: z.object({ name: z.string(), bytes: z.number().int(), format: z.enum(["text", "json", "hdf5"]) }),
+  tables: z.array(
+    z.object({
+      /** HDF5 path or null (text, top-level JSON). */
+      path: z.string().nullable(),
+      rows: z.number().int().nullable(),
+      columns: z.array(
+        z.object({ name: z.string(), first: z.array(z.number().nullable()), numeric: z.boolean(), min: z.number().nullable(), max: z.number().nullable(), mean: z.number().nullable(), non_finite: z.number().int() }),
+      ),
+    }),
+  ),
+  note: z.string().optional(),
+});
+export type FilePreview = z.infer<typeof filePreviewSchema>;

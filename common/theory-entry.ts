@@ -333,6 +333,10 @@ export const mappingSchema = mappingObject.superRefine((m, ctx) => {
     }
     if (m.kind === "inspiral_phase" && m.b === undefined) ctx.addIssue({ code: "custom", path: ["b"], message: "is required for an inspiral_phase mapping" });
     if (m.kind === "inspiral_amplitude" && m.a === undefined) ctx.addIssue({ code: "custom", path: ["a"], message: "is required for an inspiral_amplitude mapping" });
+    // Yunes & Pretorius 2009 (arXiv:0909.3328): a correction at relative n-th PN order has amplitude exponent a = 2n.
+    if (m.kind === "inspiral_amplitude" && m.a !== undefined && m.pn_order !== undefined && Math.abs(m.a - 2 * m.pn_order) > 1e-9) {
+      ctx.addIssue({ code: "custom", path: ["a"], message: `must be 2n for a correction at n-th PN order: pn_order ${m.pn_order} gives a = ${2 * m.pn_order}, not ${m.a}` });
+    }
     if ((m.kind === "ringdown_frequency" || m.kind === "ringdown_damping") && m.mode === undefined) {
       ctx.addIssue({ code: "custom", path: ["mode"], message: "is required for a ringdown mapping: the quasinormal mode (l, m, n), e.g. (2, 2, 0)" });
     }

@@ -10,6 +10,7 @@ import { accountsRoutes } from "./features/accounts/routes.ts";
 import { adminRoutes } from "./features/admin/routes.ts";
 import { catalogueApiRoutes } from "./features/catalogue/api.ts";
 import { dbCatalogueReader } from "./features/convert/catalogue-reader.ts";
+import { consistencyJobRoutes } from "./features/consistency/job-routes.ts";
 import { consistencyRoutes } from "./features/consistency/routes.ts";
 import { ringdownCatalogue } from "./features/ringdown/catalogue.ts";
 import { ringdownRoutes } from "./features/ringdown/routes.ts";
@@ -104,9 +105,9 @@ export function createApp(deps: AppDeps): DragomanApp {
   );
   // gzip or brotli (as the client accepts) for API answers and client files over 1 kB.
   app.use(compression());
-  // Posterior samples arrive as long JSON columns (up to 200 000 rows): that one route gets its own, larger limit.
-  app.use("/api/v1/convert/samples", express.json({ limit: config.CONVERT_SAMPLES_MAX_BYTES }));
-  app.use(express.json({ limit: "2mb" }));
+  // The path and query are guarded here; each route reads its JSON body itself, after its access
+  // rule and rate limit, within its own size limit (server/http/body.ts).
+  table.defaultBodyLimit = config.JSON_BODY_MAX_BYTES;
   app.use(textGuard);
   // Headers, rate limits, session, identity, CSRF and the /auth routes (server/auth/install-auth.ts).
   const auth = installAuth(app, table, deps);
@@ -122,6 +123,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", convertRoutes(translator, config));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
+  table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
   const ringdown = ringdownCatalogue(db);
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
   table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));

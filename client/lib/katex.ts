@@ -1,17 +1,32 @@
 import type katexDefault from "katex";
 import type { KatexOptions } from "katex";
+import { TEX_RENDER_OPTIONS } from "../../common/tex-options.ts";
 
 /**
- * KaTeX is ~270 kB of JavaScript; only pages that show formulas should pay for it. The module is
- * imported once on first use and shared; its stylesheet is already in index.css.
+ * KaTeX is ~260 kB of JavaScript and 23 kB of CSS (plus fonts fetched only for glyphs in use); only
+ * pages that show formulas pay for it. The module and its stylesheet are imported once on first use
+ * and shared. Markup typeset on the server (the catalogue list) needs the stylesheet only.
  */
 type Katex = typeof katexDefault;
 
 let pending: Promise<Katex> | undefined;
 let loaded: Katex | undefined;
+let cssPending: Promise<void> | undefined;
+let cssLoaded = false;
+
+export function loadKatexCss(): Promise<void> {
+  cssPending ??= import("katex/dist/katex.min.css").then(() => {
+    cssLoaded = true;
+  });
+  return cssPending;
+}
+
+export function katexCssIfLoaded(): boolean {
+  return cssLoaded;
+}
 
 export function loadKatex(): Promise<Katex> {
-  pending ??= import("katex").then((m) => {
+  pending ??= Promise.all([import("katex"), loadKatexCss()]).then(([m]) => {
     loaded = m.default;
     return m.default;
   });
@@ -29,15 +44,8 @@ export interface RenderedTex {
   error?: string;
 }
 
-const baseOptions: KatexOptions = {
-  throwOnError: false,
-  // User-typed TeX: no \href, \url or \includegraphics, and no macro definitions that leak between formulas.
-  trust: false,
-  strict: "ignore",
-  maxSize: 20,
-  maxExpand: 200,
-  output: "htmlAndMathml",
-};
+// The server typesets with the same options (common/tex-options.ts).
+const baseOptions: KatexOptions = TEX_RENDER_OPTIONS;
 
 export function renderTex(katex: Katex, tex: string, displayMode = false): RenderedTex {
   try {

@@ -12,6 +12,8 @@ import { jobsRepository } from "../features/jobs/repository.ts";
 import type { Logger } from "../logger.ts";
 import { AppError } from "../errors.ts";
 import { JobCancelled, SampleInputError } from "../physics/samples/sample-input-error.ts";
+import { consistencyJobRequestSchema } from "../../common/consistency.ts";
+import { CONSISTENCY_FILES, runConsistencyJob } from "./consistency-job.ts";
 import { readStackValues, runSamplesJob } from "./samples-job.ts";
 import { runStackJob } from "./stack-job.ts";
 
@@ -71,6 +73,15 @@ export async function startWorker(deps: { config: Config; db: Knex; logger: Logg
           onProgress,
         });
         await repo.finish(id, out.result, config.JOBS_RETENTION_HOURS, out.blobs);
+      } else if (row.kind === "consistency") {
+        const files = { inspiral: "", merger_ringdown: "" };
+        for (const name of CONSISTENCY_FILES) {
+          const blob = await repo.readBlob(id, name);
+          if (!blob) throw new SampleInputError(`The ${name} file is no longer stored (was the job cancelled?).`, { file: name });
+          files[name] = blob.toString("utf8");
+        }
+        const out = await runConsistencyJob({ request: consistencyJobRequestSchema.parse(row.request), files, onProgress });
+        await repo.finish(id, out, config.JOBS_RETENTION_HOURS, []);
       } else {
         const load = async (jobId: string) => {
           const event = await repo.get(jobId);

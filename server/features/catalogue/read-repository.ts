@@ -11,6 +11,7 @@ import type {
 } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
 import { listReferencesOfTheories, listTheoryReferences } from "../references/repository.ts";
+import { texToHtml } from "./tex-html.ts";
 
 /** Reads of the accepted catalogue, from the normalised tables. Plain objects out. */
 
@@ -206,7 +207,7 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
       revision: t.current_revision,
       updated_at: t.updated_at.toISOString(),
       source_to_be_confirmed: t.needs_source_confirmation,
-      couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, unit })),
+      couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, latex_html: texToHtml(latex), unit })),
       mappings: own.map(({ kind, b, a, pn_order, retired_at }) => ({ kind, b, a, pn_order, retired: retired_at !== null })),
       references: refs.get(t.id) ?? [],
       retired: retirementOf(t),

@@ -46,7 +46,7 @@ const columns = [
       <ul className="flex flex-col gap-0.5">
         {info.row.original.couplings.map((c) => (
           <li key={c.symbol} className="whitespace-nowrap">
-            <MathTex tex={c.latex} /> <span className="text-xs text-ink-faint">{unitLabel(c.unit)}</span>
+            <MathTex tex={c.latex} html={c.latex_html} /> <span className="text-xs text-ink-faint">{unitLabel(c.unit)}</span>
           </li>
         ))}
       </ul>
@@ -61,7 +61,7 @@ const columns = [
       <ul className="flex flex-col gap-0.5 tabular-nums">
         {info.row.original.mappings.map((m, i) => (
           <li key={i} className="whitespace-nowrap">
-            {m.b !== null ? <MathTex tex={`b = ${m.b}`} label={`b = ${signed(m.b)}`} /> : m.a !== null ? <MathTex tex={`a = ${m.a}`} /> : <span>{m.kind.replace(/_/g, " ")}</span>}
+            {m.b !== null ? <Exponent name="b" value={m.b} /> : m.a !== null ? <Exponent name="a" value={m.a} /> : <span>{m.kind.replace(/_/g, " ")}</span>}
             <span className="ml-2 text-sm text-ink-soft">{pnLabel(m.pn_order)}</span>
           </li>
         ))}
@@ -71,6 +71,15 @@ const columns = [
   col.accessor("revision", { header: "Revision", cell: (info) => <span className="tabular-nums">{info.getValue()}</span> }),
   col.accessor("updated_at", { header: "Updated", cell: (info) => <span className="tabular-nums whitespace-nowrap">{shortDate(info.getValue())}</span> }),
 ];
+
+/** "b = −7" typeset as math (italic symbol, true minus) without loading KaTeX on the list. */
+function Exponent({ name, value }: { name: string; value: number }) {
+  return (
+    <span className="whitespace-nowrap">
+      <i className="font-serif">{name}</i> = {signed(value)}
+    </span>
+  );
+}
 
 export function TheoryTable({ theories }: { theories: TheorySummary[] }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "name", desc: false }]);
