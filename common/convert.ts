@@ -246,7 +246,7 @@ export const cautionCodeSchema = z.enum([
   "engine",
   "couplings",
   "orders",
-  "bodies",
+  "signed_interval",
 ]);
 export type CautionCode = z.infer<typeof cautionCodeSchema>;
 
