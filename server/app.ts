@@ -105,9 +105,9 @@ export function createApp(deps: AppDeps): DragomanApp {
   );
   // gzip or brotli (as the client accepts) for API answers and client files over 1 kB.
   app.use(compression());
-  // Posterior samples arrive as long JSON columns (up to 200 000 rows): that one route gets its own, larger limit.
-  app.use("/api/v1/convert/samples", express.json({ limit: config.CONVERT_SAMPLES_MAX_BYTES }));
-  app.use(express.json({ limit: "2mb" }));
+  // The path and query are guarded here; each route reads its JSON body itself, after its access
+  // rule and rate limit, within its own size limit (server/http/body.ts).
+  table.defaultBodyLimit = config.JSON_BODY_MAX_BYTES;
   app.use(textGuard);
   // Headers, rate limits, session, identity, CSRF and the /auth routes (server/auth/install-auth.ts).
   const auth = installAuth(app, table, deps);

@@ -51,6 +51,8 @@ export const configSchema = z
     // Expression checks run in worker threads (server/physics/checks/check-pool.ts): how many, the hard
     // time limit of one job, the requests one client (address or account) may have in flight, and how
     // many jobs may wait. Beyond the last two the answer is 429 / 503 with Retry-After, never a wait.
+    // Largest JSON body of a route that declares no limit of its own (bytes); refused with 413 before it is read.
+    JSON_BODY_MAX_BYTES: z.coerce.number().int().positive().default(2_097_152),
     CHECK_WORKERS: z.coerce.number().int().min(1).max(16).default(2),
     CHECK_TIMEOUT_MS: z.coerce.number().int().min(100).default(8000),
     CHECK_IN_FLIGHT_PER_CLIENT: z.coerce.number().int().min(1).default(2),

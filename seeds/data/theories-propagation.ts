@@ -151,8 +151,8 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
         derivation: {
           kind: "propagation",
           order: (b + 5) / 2,
-          A: `${lambda}^(${alphaMd - 2})`,
-          note: "A / h^(2 - alpha) = lambda_A^(alpha - 2) for A > 0; the engine re-derives beta from the dispersion relation (particle speed p/E, as Mirshekari, Yunes & Will 2012)",
+          A: `${lambda}*abs(${lambda})^(${alphaMd - 3})`,
+          note: "A / h^(2 - alpha) = sgn(lambda_A) |lambda_A|^(alpha - 2) (lambda_A signed like A); the engine re-derives beta from the dispersion relation (particle speed p/E, as Mirshekari, Yunes & Will 2012)",
         },
         validity: [
           alphaMd < 2

@@ -129,6 +129,13 @@ export const johannsenPsaltis: TheoryEntryInput = {
       coupling: "eps3",
       expression: "(75/64)*eps3*eta^(-4/5)",
       latex: "\\beta = \\frac{75}{64}\\,\\epsilon_3\\,\\eta^{-4/5}",
+      derivation: {
+        kind: "energy_flux",
+        order: 2,
+        A: "eps3",
+        B: "-2*eps3",
+        note: "test-body binding energy E = E_GR [1 + eps3 v^4] and quadrupole flux with the modified Kepler law F = F_GR [1 - 2 eps3 v^4] (our own derivation); the engine re-derives beta",
+      },
       body_rules: [{ kind: "derived_for", description: "a deformed black-hole metric", bodies: ["bh"] }],
       validity: [{ expression: "abs(eps3)", max: 1, label: "small deformation: |epsilon_3| below 1", kind: "rule_of_thumb", reference: "project choice" }],
       source_status: "derived",

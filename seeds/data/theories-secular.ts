@@ -148,6 +148,12 @@ export const extraDimension: TheoryEntry = {
       b: -13,
       coupling: "ell",
       expression: `-(25/851968)*(${mdotOfEll})*${massLossShape}`,
+      derivation: {
+        kind: "frequency_drift",
+        order: -4,
+        gamma: `(5/768)*(${mdotOfEll})*${massLossShape}`,
+        note: "the drift of the Mdot mapping with Mdot = -C(ell) (1/m1^2 + 1/m2^2) (per-hole law; the rate C(ell) is from memory)",
+      },
       latex:
         "\\beta = -\\frac{25}{851968}\\,C(\\ell)\\left(\\frac{1}{m_1^2} + \\frac{1}{m_2^2}\\right)\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad C(\\ell) = 2.8\\times10^{-7}\\,M_\\odot^3/\\mathrm{yr}\\,(\\ell/10\\,\\mu\\mathrm{m})^2",
       body_rules: [BLACK_HOLES_ONLY],

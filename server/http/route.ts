@@ -1,6 +1,7 @@
 import type { NextFunction, Request, RequestHandler, Response, Router } from "express";
 import type { z } from "zod";
 import { ForbiddenError, UnauthorizedError, ValidationError, type FieldErrors } from "../errors.ts";
+import { jsonBody } from "./body.ts";
 import type { Role } from "./identity.ts";
 
 /**
@@ -34,8 +35,10 @@ export interface RouteSpec {
   response?: z.ZodType;
   /** Extra statuses the route can answer with, for the API document. */
   errors?: number[];
-  /** Middleware that runs after the access check (rate limits, uploads). */
+  /** Middleware that runs after the access check (rate limits, uploads) and before the JSON body is read. */
   before?: RequestHandler[];
+  /** Largest JSON body this route reads, in bytes (default: the table's defaultBodyLimit). */
+  bodyLimit?: number;
   handler: (req: Request, res: Response, next: NextFunction) => unknown;
 }
 
@@ -46,13 +49,17 @@ export interface MountedRoute extends RouteSpec {
 export class RouteTable {
   readonly routes: MountedRoute[] = [];
   devRoutesEnabled = false;
+  /** JSON body limit of routes that declare none (bytes); createApp sets it from JSON_BODY_MAX_BYTES. */
+  defaultBodyLimit = 2_097_152;
 
   mount(router: Router, prefix: string, specs: RouteSpec[]): void {
     for (const spec of specs) {
       if (!spec.access) throw new Error(`Route ${spec.method.toUpperCase()} ${prefix}${spec.path} declares no access rule`);
       this.routes.push({ ...spec, fullPath: prefix + spec.path });
       const guard = accessGuard(spec.access, () => this.devRoutesEnabled);
-      router[spec.method](spec.path, guard, ...(spec.before ?? []), async (req, res, next) => {
+      // Access, then rate limits and uploads, then the body: nothing is read for a request that is refused.
+      const body = spec.method === "get" || spec.method === "delete" ? [] : jsonBody(spec.bodyLimit ?? this.defaultBodyLimit);
+      router[spec.method](spec.path, guard, ...(spec.before ?? []), ...body, async (req, res, next) => {
         await spec.handler(req, res, next);
       });
     }

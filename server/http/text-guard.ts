@@ -69,3 +69,13 @@ export const textGuard: RequestHandler = (req, _res, next) => {
   }
   next();
 };
+
+/** The same gate for a body parsed later, by its route (server/http/body.ts). */
+export const bodyTextGuard: RequestHandler = (req, _res, next) => {
+  const found = req.body === undefined ? undefined : findBad(req.body);
+  if (found) {
+    const [field, why] = found;
+    return next(new ValidationError(`${field} ${why}.`, { [field]: why }));
+  }
+  next();
+};

@@ -136,6 +136,24 @@ describe("POST /api/v1/theories/:slug/retire (one coupling or one mapping)", () 
   });
 });
 
+describe("amplitude mappings (common/theory-entry.ts)", () => {
+  it("when an amplitude exponent does not match its PN order, then the entry is refused naming a (a = 2n, Yunes & Pretorius 2009)", () => {
+    const entry = (a: number) => ({
+      slug: "toy-amp",
+      name: "Toy",
+      family: "other",
+      summary: "A toy entry.",
+      couplings: [{ symbol: "g", latex: "g", dimension: 0, unit: "1" }],
+      mappings: [{ kind: "inspiral_amplitude", pn_order: -1, a, expression: "g" }],
+      references: [{ key: "r", authors: ["A. Author"], title: "T", year: 2020 }],
+    });
+    expect(theoryEntrySchema.safeParse(entry(-2)).success).toBe(true);
+    const wrong = theoryEntrySchema.safeParse(entry(-7));
+    expect(wrong.success).toBe(false);
+    expect(wrong.error?.issues.find((i) => i.path.join(".") === "mappings.0.a")?.message).toMatch(/gives a = -2, not -7/);
+  });
+});
+
 describe("retire and restore: refusals", () => {
   it("when the caller is not an editor, the theory unknown, a field unknown or the target out of range, then 401/403/404/400", async () => {
     expect((await request(app).post("/api/v1/theories/edgb/retire").send({ reason: "x" })).status).toBe(401);

@@ -1,10 +1,13 @@
 import { readFileSync } from "node:fs";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
+import { createLogger } from "../../server/logger.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
 import { clientIsBuilt, launchBrowser, screenshotPath } from "../helpers/browser.ts";
+import { testConfig } from "../helpers/app.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
 /**
@@ -34,6 +37,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
   let tdb: TestDatabase;
   let stack: SignInStack;
   let visitor: BrowserContext;
+  let worker: RunningWorker;
 
   beforeAll(async () => {
     if (!clientIsBuilt()) throw new Error("dist/ is missing: run `npx vite build` first (npm test does it).");
@@ -43,10 +47,13 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
       await catalogueSeed.run(trx);
       await ringdownCatalogueSeed.run(trx);
     });
+    const config = testConfig(tdb.url, { JOBS_SWEEP_SECONDS: "1" });
+    worker = await startWorker({ config, db: tdb.db, logger: createLogger(config) });
     visitor = await launchBrowser();
   }, 120_000);
   afterAll(async () => {
     await visitor?.close();
+    await worker?.stop();
     await stack?.close();
     await tdb?.drop();
   });
@@ -108,6 +115,43 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await expect(row.textContent()).resolves.toMatch(/outside validity/);
     await expect(page.getByTestId("ringdown-mode").textContent()).resolves.toMatch(/Hz/);
     await page.getByTestId("ringdown-panel").screenshot({ path: screenshotPath("translate-ringdown") });
+    expect(errors).toEqual([]);
+  });
+
+  it("when a visitor uploads two sample files, then the job runs and the contours and quantile appear", { timeout: 90_000 }, async () => {
+    // Samples drawn here from two uncorrelated Gaussians (seeded); the quantile is checked against the
+    // first-order Gaussian value 1 - exp(-d^2/2) for the generating widths (derived), within 0.06: the
+    // Monte-Carlo tolerance of tests/physics/ringdown-consistency.test.ts plus the draws' own scatter.
+    const draw = (M0: number, c0: number, sM: number, sc: number, seed: number) => {
+      let s = seed;
+      const u = () => {
+        s = (s * 16807) % 2147483647;
+        return s / 2147483647;
+      };
+      const g = () => Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u());
+      const rows = ["M_f,chi_f"];
+      for (let i = 0; i < 8000; i += 1) rows.push(`${(M0 + sM * g()).toFixed(4)},${(c0 + sc * g()).toFixed(5)}`);
+      return Buffer.from(rows.join("\n"));
+    };
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    await page.goto(`${stack.baseUrl}/consistency`, { waitUntil: "networkidle" });
+    await page.getByTestId("input-samples").check();
+    await page.locator('input[name="inspiral"]').setInputFiles({ name: "inspiral.csv", mimeType: "text/csv", buffer: draw(62, 0.68, 2, 0.03, 7) });
+    await page.locator('input[name="merger_ringdown"]').setInputFiles({ name: "ringdown.csv", mimeType: "text/csv", buffer: draw(66, 0.72, 2.5, 0.04, 9) });
+    await page.getByTestId("run-samples-consistency").click();
+    await page.getByTestId("gr-quantile").waitFor({ timeout: 60_000 });
+    await expect(page.locator('[data-testid="deviation-plot"] path[data-level]').count()).resolves.toBe(3);
+    const q = Number((await page.getByTestId("gr-quantile").textContent())!.replace(/[^0-9.]/g, "")) / 100;
+    const sM = 128;
+    const sC = 1.4;
+    const mu = [(2 * (62 - 66)) / sM, (2 * (0.68 - 0.72)) / sC];
+    const vM = ((4 * 66) / sM ** 2) ** 2 * 4 + ((4 * 62) / sM ** 2) ** 2 * 6.25;
+    const vC = ((4 * 0.72) / sC ** 2) ** 2 * 0.0009 + ((4 * 0.68) / sC ** 2) ** 2 * 0.0016;
+    const expected = 1 - Math.exp(-(mu[0]! ** 2 / vM + mu[1]! ** 2 / vC) / 2);
+    expect(Math.abs(q - expected)).toBeLessThan(0.06);
+    await expect(page.getByTestId("consistency-cautions").textContent()).resolves.toMatch(/random \(inspiral, merger-ringdown\) pairs/);
+    await page.screenshot({ path: screenshotPath("consistency-samples"), fullPage: true });
     expect(errors).toEqual([]);
   });
 });

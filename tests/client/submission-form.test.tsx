@@ -272,6 +272,22 @@ describe("submission form: the engine's verdict while typing", () => {
     });
   });
 
+  it("when the coupling's GR value is chosen, then the live check sends it and shows the GR-limit verdict", async () => {
+    responders.push((c) => {
+      if (c.method !== "POST" || c.url !== "/api/v1/expressions/check") return undefined;
+      const declared = (c.body as { couplings: { gr_value?: string }[] }).couplings[0]?.gr_value;
+      return declared === "infinity"
+        ? { status: 200, body: { ok: false, latex: "\\beta", checks: [{ name: "gr_limit", ok: false, severity: "error", message: "GR is declared at alpha -> infinity, but the expression vanishes only as alpha -> 0" }] } }
+        : { status: 200, body: { ok: true, latex: "\\beta", checks: [{ name: "gr_limit", ok: true, message: "the expression vanishes when alpha = 0" }, { name: "symmetry", ok: true, message: "dipole term: it vanishes for identical bodies" }] } };
+    });
+    renderForm();
+    await waitFor(() => expect(screen.getByTestId("live-checks-0").querySelector('[data-check="symmetry"]')?.getAttribute("data-outcome")).toBe("ok"));
+    fireEvent.change(within(screen.getByTestId("coupling-fields-0")).getByLabelText("GR is at"), { target: { value: "infinity" } });
+    await waitFor(() => expect(screen.getByTestId("live-checks-0").querySelector('[data-check="gr_limit"]')?.getAttribute("data-outcome")).toBe("failed"));
+    const sent = calls.filter((c) => c.url === "/api/v1/expressions/check").map((c) => c.body as { couplings: unknown[] });
+    expect(sent.at(-1)?.couplings).toEqual([{ symbol: "alpha", dimension: 2, gr_value: "infinity" }]);
+  });
+
   it("when the engine refuses the expression (400 naming it), then its reason is shown inline", async () => {
     responders.push((c) =>
       c.method === "POST" && c.url === "/api/v1/expressions/check"

@@ -234,7 +234,7 @@ describe("the seeded catalogue (seeds/data/theories.ts, published through the ac
     // Mappings whose formula follows from stated inputs: the energy/flux or frequency-drift change
     // (energy balance and the SPA, Yunes & Pretorius 2009) or the dispersion relation (Mirshekari,
     // Yunes & Will 2012). dcs (spin-dependent energy and flux not stated), noncommutative (its energy
-    // and flux are not known to us) and the RS-II length ell (a rate law from memory) carry none.
+    // and flux are not known to us) carry none; the RS-II length ell is derived through the per-hole law with a rate recalled from memory.
     const verified: string[] = [];
     for (const [slug, t] of details) {
       for (const m of t.mappings) {
@@ -246,7 +246,7 @@ describe("the seeded catalogue (seeds/data/theories.ts, published through the ac
         verified.push(`${slug}:${m.coupling}`);
       }
     }
-    const expected = ["edgb:alpha", "brans-dicke:omega_BD", "scalar-dipole:B_dip", "massive-graviton:lambda_g", "varying-g:Gdot", "extra-dimension:Mdot_loss", "johannsen:alpha13", "johannsen:eps3"];
+    const expected = ["edgb:alpha", "brans-dicke:omega_BD", "scalar-dipole:B_dip", "massive-graviton:lambda_g", "varying-g:Gdot", "extra-dimension:Mdot_loss", "extra-dimension:ell", "johannsen:alpha13", "johannsen:eps3"];
     expect(verified).toEqual(expect.arrayContaining(expected));
     expect(verified.filter((v) => v.startsWith("dispersion-")).length).toBe([...details.keys()].filter((k) => k.startsWith("dispersion-")).length);
   });

@@ -5,11 +5,13 @@ import { ApiError } from "../../lib/api-client.ts";
 import { useConsistency } from "../../features/consistency/api/run-consistency.ts";
 import { ConsistencyResultView } from "../../features/consistency/components/consistency-result.tsx";
 import { ExclusionPanel } from "../../features/consistency/components/exclusion-panel.tsx";
+import { SamplesForm } from "../../features/consistency/components/samples-form.tsx";
 import { SummariesForm } from "../../features/consistency/components/summaries-form.tsx";
 
 /** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
 export function Component() {
   const [request, setRequest] = useState<ConsistencyRequest | undefined>();
+  const [input, setInput] = useState<"summaries" | "samples">("summaries");
   const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
   const result = useConsistency(request);
   const fields = result.error instanceof ApiError ? result.error.fields : {};
@@ -23,15 +25,34 @@ export function Component() {
           estimates; the GR quantile is the credible level of the contour through (0, 0).
         </p>
       </header>
-      <SummariesForm onSubmit={setRequest} serverErrors={fields} />
-      {result.isFetching && <Loading what="the test" />}
-      {result.error && Object.keys(fields).length === 0 && <ErrorNote error={result.error} title="The test could not be run." />}
-      {result.error && Object.keys(fields).length > 0 && (
-        <p role="alert" className="text-brick">
-          {result.error.message}
-        </p>
+      <div role="radiogroup" aria-label="Input" className="flex flex-wrap gap-4">
+        {(
+          [
+            ["summaries", "Two Gaussian summaries"],
+            ["samples", "Two sample files"],
+          ] as const
+        ).map(([value, label]) => (
+          <label key={value} className="flex items-center gap-2">
+            <input type="radio" name="consistency-input" value={value} checked={input === value} onChange={() => setInput(value)} data-testid={`input-${value}`} />
+            {label}
+          </label>
+        ))}
+      </div>
+      {input === "summaries" ? (
+        <>
+          <SummariesForm onSubmit={setRequest} serverErrors={fields} />
+          {result.isFetching && <Loading what="the test" />}
+          {result.error && Object.keys(fields).length === 0 && <ErrorNote error={result.error} title="The test could not be run." />}
+          {result.error && Object.keys(fields).length > 0 && (
+            <p role="alert" className="text-brick">
+              {result.error.message}
+            </p>
+          )}
+          {result.data && <ConsistencyResultView result={result.data} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}
+        </>
+      ) : (
+        <SamplesForm>{(r) => <ConsistencyResultView result={r} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}</SamplesForm>
       )}
-      {result.data && <ConsistencyResultView result={result.data} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}
       <ExclusionPanel test={request} onTrack={setExclusion} />
     </article>
   );

@@ -54,6 +54,8 @@ export function samplesRoutes(service: ConvertService, config: Config): RouteSpe
       response: samplesResponseSchema,
       errors: [400, 429],
       before: [limit, csvUpload],
+      // Posterior samples arrive as long JSON columns (up to 200 000 rows): this route gets its own, larger limit.
+      bodyLimit: config.CONVERT_SAMPLES_MAX_BYTES,
       handler: async (req, res) => {
         const fromUpload = Boolean(req.is("multipart/form-data"));
         let request;

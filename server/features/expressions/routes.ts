@@ -15,6 +15,9 @@ import { checkRequest, checkResponse, deriveRequest, deriveResponse } from "./sc
  */
 const UNUSABLE: readonly ExpressionError["code"][] = ["too_long", "too_deep", "too_large", "bad_character", "forbidden_syntax", "bad_input"];
 
+/** An expression is at most 2000 characters; 512 KiB leaves room for 50 definitions and a derivation, and for the guard to name what is too long. */
+const EXPRESSION_BODY_LIMIT = 524_288;
+
 /** Whose work it is, for fair use of the check workers: the account when signed in, else the address. */
 export function checkClient(req: Request): string {
   return req.identity ? `user:${req.identity.id}` : `ip:${ipKeyGenerator(req.ip ?? "unknown")}`;
@@ -40,6 +43,7 @@ export function expressionRoutes(config: Config, checks: CheckRunner): RouteSpec
       response: checkResponse,
       errors: [400, 429, 503],
       before: [limiter],
+      bodyLimit: EXPRESSION_BODY_LIMIT,
       handler: async (req, res) => {
         const input = parseWith(checkRequest, req.body);
         try {
@@ -62,6 +66,7 @@ export function expressionRoutes(config: Config, checks: CheckRunner): RouteSpec
       response: deriveResponse,
       errors: [400, 429, 503],
       before: [limiter],
+      bodyLimit: EXPRESSION_BODY_LIMIT,
       handler: async (req, res) => {
         const input = parseWith(deriveRequest, req.body);
         try {

@@ -5,11 +5,13 @@ import { apiPaths } from "../../../lib/paths.ts";
 
 const termInput = z.object({ order: z.number(), coefficient: z.string() });
 
-/** POST /api/v1/expressions/derive: beta from a change of binding energy, flux or frequency drift. */
+/** POST /api/v1/expressions/derive: beta from a change of binding energy, flux or frequency drift, or from a dispersion relation. */
 export const deriveRequestSchema = z.object({
   energy: termInput.optional(),
   flux: termInput.optional(),
   frequency_drift: termInput.optional(),
+  /** A dispersion E^2 = p^2 + A p^alpha_md; the coefficient is A / h^(2 - alpha_md), a power of length. */
+  propagation: z.object({ alpha_md: z.number(), coefficient: z.string() }).optional(),
   couplings: z.array(z.object({ symbol: z.string(), dimension: z.number() })),
   definitions: z.array(z.object({ symbol: z.string(), expression: z.string() })),
 });

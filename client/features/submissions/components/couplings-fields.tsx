@@ -10,6 +10,9 @@ function CouplingPreview({ index }: { index: number }) {
   return latex ? <MathTex tex={latex} /> : <span className="text-ink-faint text-sm">(TeX preview)</span>;
 }
 
+/** A select left at "not stated" leaves the field absent. */
+const blankAsUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
+
 export function CouplingsFields() {
   const { control } = useFormContext<SubmissionFormInput>();
   const { fields, append, remove } = useFieldArray({ control, name: "theory.couplings" });
@@ -37,8 +40,25 @@ export function CouplingsFields() {
               hint="G = c = 1: 2 for km², 0 if dimensionless"
             />
             <FormField name={`theory.couplings.${i}.unit`} label="Unit" placeholder="km^2" />
-            <FormField name={`theory.couplings.${i}.description`} label="Description" className="sm:col-span-3" placeholder="Gauss-Bonnet coupling in the convention of the action above" />
-            <div className="flex items-end justify-end">
+            <FormField
+              name={`theory.couplings.${i}.gr_value`}
+              label="GR is at"
+              as="select"
+              options={{ setValueAs: blankAsUndefined }}
+              hint="the checks send the coupling there: beta must vanish"
+            >
+              <option value="">not stated</option>
+              <option value="zero">coupling = 0</option>
+              <option value="infinity">coupling → ∞ (λ_g, ω_BD)</option>
+            </FormField>
+            <FormField name={`theory.couplings.${i}.range`} label="Physical range" as="select" options={{ setValueAs: blankAsUndefined }}>
+              <option value="">not stated</option>
+              <option value="positive">positive</option>
+              <option value="non_negative">zero or positive</option>
+              <option value="any_sign">either sign</option>
+            </FormField>
+            <FormField name={`theory.couplings.${i}.description`} label="Description" className="sm:col-span-2" placeholder="Gauss-Bonnet coupling in the convention of the action above" />
+            <div className="flex items-end justify-end sm:col-span-4">
               <Button kind="danger" onClick={() => remove(i)} disabled={fields.length === 1} aria-label={`Remove coupling ${i + 1}`}>
                 Remove
               </Button>

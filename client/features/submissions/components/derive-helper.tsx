@@ -6,7 +6,7 @@ import { ErrorNote } from "../../../components/ui/states.tsx";
 import { useDeriveBeta, type DeriveRequest } from "../api/derive-beta.ts";
 import type { SubmissionFormInput } from "./form-values.ts";
 
-type Source = "energy_flux" | "frequency_drift";
+type Source = "energy_flux" | "frequency_drift" | "propagation";
 
 const inputClass = "w-full rounded border border-paper-edge bg-white/70 px-2 py-1 font-mono text-sm";
 
@@ -24,10 +24,15 @@ export function DeriveHelper({ index }: { index: number }) {
   const [energy, setEnergy] = useState("");
   const [flux, setFlux] = useState("");
   const [gamma, setGamma] = useState("");
+  const [alphaMd, setAlphaMd] = useState("0");
+  const [dispersion, setDispersion] = useState("");
   const [used, setUsed] = useState<number | undefined>();
 
-  const orderNumber = Number(order);
-  const orderOk = order.trim() !== "" && Number.isFinite(orderNumber);
+  const alphaNumber = Number(alphaMd);
+  const alphaOk = alphaMd.trim() !== "" && Number.isFinite(alphaNumber);
+  // A propagation effect's order follows from the dispersion exponent: n = (3 alpha + 2) / 2.
+  const orderNumber = source === "propagation" ? (3 * alphaNumber + 2) / 2 : Number(order);
+  const orderOk = source === "propagation" ? alphaOk : order.trim() !== "" && Number.isFinite(orderNumber);
 
   function run() {
     const couplings = getValues("theory.couplings").flatMap((c) => (c.symbol && typeof c.dimension === "number" ? [{ symbol: c.symbol, dimension: c.dimension }] : []));
@@ -36,8 +41,10 @@ export function DeriveHelper({ index }: { index: number }) {
     if (source === "energy_flux") {
       if (energy.trim()) req.energy = { order: orderNumber, coefficient: energy.trim() };
       if (flux.trim()) req.flux = { order: orderNumber, coefficient: flux.trim() };
-    } else if (gamma.trim()) {
+    } else if (source === "frequency_drift" && gamma.trim()) {
       req.frequency_drift = { order: orderNumber, coefficient: gamma.trim() };
+    } else if (source === "propagation" && dispersion.trim()) {
+      req.propagation = { alpha_md: alphaNumber, coefficient: dispersion.trim() };
     }
     setUsed(undefined);
     derive.mutate(req);
@@ -51,17 +58,20 @@ export function DeriveHelper({ index }: { index: number }) {
     setValue(`${base}.expression`, term.beta, opts);
     setValue(`${base}.b`, term.b, opts);
     setValue(`${base}.pn_order`, term.pn_order, opts);
+    if (source === "propagation") setValue(`${base}.alpha_md`, alphaNumber, opts);
     setValue(
       `${base}.derivation`,
       source === "energy_flux"
         ? { kind: "energy_flux", order: orderNumber, ...(energy.trim() ? { A: energy.trim() } : {}), ...(flux.trim() ? { B: flux.trim() } : {}) }
-        : { kind: "frequency_drift", order: orderNumber, gamma: gamma.trim() },
+        : source === "frequency_drift"
+          ? { kind: "frequency_drift", order: orderNumber, gamma: gamma.trim() }
+          : { kind: "propagation", order: orderNumber, A: dispersion.trim() },
       opts,
     );
     setUsed(termIndex);
   }
 
-  const canRun = orderOk && (source === "energy_flux" ? Boolean(energy.trim() || flux.trim()) : Boolean(gamma.trim()));
+  const canRun = orderOk && (source === "energy_flux" ? Boolean(energy.trim() || flux.trim()) : source === "frequency_drift" ? Boolean(gamma.trim()) : Boolean(dispersion.trim()));
   return (
     <div className="flex flex-col gap-3 text-sm" data-testid={`derive-${index}`}>
       <fieldset className="flex flex-wrap gap-4">
@@ -72,21 +82,42 @@ export function DeriveHelper({ index }: { index: number }) {
         <label className="flex items-center gap-1">
           <input type="radio" name={`${id}-source`} checked={source === "frequency_drift"} onChange={() => setSource("frequency_drift")} /> frequency drift
         </label>
+        <label className="flex items-center gap-1">
+          <input type="radio" name={`${id}-source`} checked={source === "propagation"} onChange={() => setSource("propagation")} /> propagation (dispersion relation)
+        </label>
       </fieldset>
       <p className="text-ink-soft">
         {source === "energy_flux" ? (
           <MathTex tex={"E = E_{\\rm GR}\\,[1 + A\\,v^{2k}],\\quad F = F_{\\rm GR}\\,[1 + B\\,v^{2k}]"} />
-        ) : (
+        ) : source === "frequency_drift" ? (
           <MathTex tex={"\\dot f = \\dot f_{\\rm GR}\\,[1 + \\gamma\\,u^{2k}]"} />
+        ) : (
+          <MathTex tex={"E^2 = p^2 + A\\,p^{\\alpha}"} />
         )}
-        <span className="ml-2">first order in A, B, γ; k is the relative PN order.</span>
+        <span className="ml-2">
+          {source === "propagation"
+            ? "first order in A; give A / h^(2 − α) as a power of length with its sign (1/lambda_g^2 for a graviton mass, α = 0)."
+            : "first order in A, B, γ; k is the relative PN order."}
+        </span>
       </p>
       <div className="grid gap-3 sm:grid-cols-[6rem_1fr_1fr]">
-        <label className="flex flex-col gap-1">
-          <span className="font-semibold">k (PN order)</span>
-          <input className={inputClass} value={order} onChange={(e) => setOrder(e.target.value)} inputMode="decimal" aria-invalid={!orderOk} />
-        </label>
-        {source === "energy_flux" ? (
+        {source === "propagation" ? (
+          <label className="flex flex-col gap-1">
+            <span className="font-semibold">α (exponent)</span>
+            <input className={inputClass} value={alphaMd} onChange={(e) => setAlphaMd(e.target.value)} inputMode="decimal" aria-invalid={!alphaOk} />
+          </label>
+        ) : (
+          <label className="flex flex-col gap-1">
+            <span className="font-semibold">k (PN order)</span>
+            <input className={inputClass} value={order} onChange={(e) => setOrder(e.target.value)} inputMode="decimal" aria-invalid={!orderOk} />
+          </label>
+        )}
+        {source === "propagation" ? (
+          <label className="flex flex-col gap-1 sm:col-span-2">
+            <span className="font-semibold">A / h^(2 − α) (dispersion)</span>
+            <input className={inputClass} value={dispersion} onChange={(e) => setDispersion(e.target.value)} placeholder="1/lambda_g^2" spellCheck={false} />
+          </label>
+        ) : source === "energy_flux" ? (
           <>
             <label className="flex flex-col gap-1">
               <span className="font-semibold">A (energy)</span>

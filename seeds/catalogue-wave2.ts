@@ -1,0 +1,41 @@
+import { theoryEntrySchema, type TheoryEntryInput } from "../common/catalogue.ts";
+import type { Knex } from "../server/db/knex.ts";
+import { ConflictError } from "../server/errors.ts";
+import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
+import { publishEntry } from "../server/features/catalogue/publish.ts";
+import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
+import { THEORIES_WAVE2 } from "./data/theories-wave2.ts";
+import type { SeedStep } from "./index.ts";
+
+/**
+ * The second batch of entries, published as revision 1 each through the accept path (schema,
+ * engine checks stored, refused if a check fails). A step of its own, recorded in seed_runs, so an
+ * existing database gains these entries once and a fresh one gets them after the first batch. An
+ * entry whose slug is already taken (a contributor got there first) is left alone.
+ */
+export async function publishWave2Entry(trx: Knex.Transaction, input: TheoryEntryInput, acceptedBy: number | null, now: Date) {
+  const entry = theoryEntrySchema.parse(input);
+  const runner = inProcessCheckRunner();
+  await guardEntryExpressions(entry, runner, "seed", `${entry.slug}.`);
+  const checks = await checkEntry(entry, runner, "seed", now);
+  return publishEntry(trx, entry, checks, { targetSlug: null, submissionId: null, authorId: null, acceptedBy, now });
+}
+
+export const catalogueWave2Seed: SeedStep = {
+  name: "catalogue-wave2",
+  run: async (trx) => {
+    const editor = await trx("users").where({ login: "demo-editor" }).first<{ id: number } | undefined>("id");
+    const now = new Date();
+    for (const input of THEORIES_WAVE2) {
+      const taken = await trx("theories").where({ slug: input.slug }).first<{ id: number } | undefined>("id");
+      if (taken) continue;
+      try {
+        await publishWave2Entry(trx, input, editor?.id ?? null, now);
+      } catch (err) {
+        // A refused entry must not take the demo down; tests/physics/seeded-wave2.test.ts fails on it instead.
+        if (!(err instanceof ConflictError)) throw err;
+        process.stderr.write(`catalogue seed (wave 2): left out "${input.slug}": ${err.message}\n`);
+      }
+    }
+  },
+};

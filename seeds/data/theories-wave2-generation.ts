@@ -1,0 +1,505 @@
+/**
+ * Second batch, effects generated at the binary: a varying G with body sensitivities, vector and
+ * scalar dipole charges, scalar-Gauss-Bonnet with a general coupling function, quadrupole deviations
+ * of black-hole mimickers, and their tidal deformability. Written in the submission shape; published
+ * by seeds/catalogue-wave2.ts.
+ *
+ * Energy balance (Yunes & Pretorius 2009): a change E = E_GR [1 + A v^(2k)], F = F_GR [1 + B v^(2k)]
+ * gives beta = 15 [(k + 1) A - B] eta^(-2k/5) / [16 (2k - 8)(2k - 5)] at b = 2k - 5; a change of the
+ * frequency drift df/dt = GR [1 + gamma u^(b+5)] gives beta = -15 gamma / [16 b (b - 3)]. The engine
+ * re-derives every beta below that states its inputs. A 2PN change of the phase coefficient phi_4 by
+ * d phi_4 gives beta = (3/128) eta^(-4/5) d phi_4 at b = -1.
+ */
+import type { TheoryEntryInput } from "../../common/catalogue.ts";
+import { FIRST, WAVE2_REFS } from "./references-wave2.ts";
+
+/** Dipole-to-quadrupole flux ratio B v^-2 at the band's low end, v = (pi M f_low)^(1/3). */
+const dipoleAtLowEnd = (B: string) => ({
+  expression: `${B}*(pi*M*f_low)^(-2/3)`,
+  max: 0.1,
+  label: "dipole flux small against the quadrupole flux over the band: B v^-2 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
+  kind: "rule_of_thumb" as const,
+  reference: "project choice: 0.1 stands for 'much less than 1'",
+});
+
+export const varyingGSensitivities: TheoryEntryInput = {
+  slug: "varying-g-sensitivities",
+  name: "Time-varying Newton constant with body sensitivities",
+  family: "varying-constants",
+  summary:
+    "A drift of G changes the orbit and the radiation reaction; compact bodies respond with their own mass change, m_i proportional to G^(-s_i), with the sensitivity s_i = -d ln m_i / d ln G (1/2 for a black hole). The leading phase correction is a -4PN term proportional to (dG/dt / G) times the chirp mass, with a sensitivity-dependent factor.",
+  assumptions: [
+    "Gdot/G constant over the observed inspiral and evaluated at the source (source-frame Mc)",
+    "bodies keep their momentum while their masses change (Nordtvedt 1990): the orbital frequency changes as d ln omega = (Gdot/G)[2 - 3(s1 + s2) + (m1 s1 + m2 s2)/M] dt",
+    "radiation reaction as in GR with G(t) and m_i(t): df/dt proportional to (G Mc)^(5/3)",
+    "s1 = s2 = 0 gives the 'varying-g' entry, -(275/851968) (Gdot/G) Mc",
+  ],
+  couplings: [
+    {
+      symbol: "Gdot",
+      latex: "\\dot G/G",
+      dimension: -1,
+      unit: "1/km",
+      description: "fractional rate of change of G in geometric units (a rate r in 1/s is r/c in 1/km)",
+      quoted: { form: "per_year", symbol: "Gdot_over_G", latex: "\\dot G/G", unit: "1/yr" },
+      range: "any_sign",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -4,
+      b: -13,
+      expression: "-(25/851968)*Gdot*Mc*(11 - 21*(sigma1 + sigma2) + 7*(m1*sigma1 + m2*sigma2)/M)",
+      latex: "\\beta = -\\frac{25}{851968}\\,\\frac{\\dot G}{G}\\,\\mathcal{M}\\left[11 - 21(s_1 + s_2) + 7\\,\\frac{m_1 s_1 + m_2 s_2}{M}\\right]",
+      frame_note: "Gdot/G is the rate at the source and Mc the source-frame chirp mass.",
+      derivation: {
+        kind: "frequency_drift",
+        order: -4,
+        gamma: "(1/768)*Gdot*Mc*(55 - 105*(sigma1 + sigma2) + 35*(m1*sigma1 + m2*sigma2)/M)",
+        note: "conservative: d ln f/dt = (Gdot/G)[2 - 3 S + X] (Nordtvedt 1990), S = s1 + s2, X = (m1 s1 + m2 s2)/M, times f/(df/dt)_GR = (5/96) Mc u^-8; dissipative: (G Mc)^(5/3) with d ln(G Mc)/dt = (Gdot/G)[1 - 3S/5 + X/5] over t_c - t = (5/256) Mc u^-8, a factor -(25/768). gamma = (Gdot/G) Mc [55 - 105 S + 35 X]/768 (our own derivation)",
+      },
+      body_rules: [
+        {
+          kind: "charge",
+          description: "sensitivity s = -d ln m / d ln G at fixed baryon number: 1/2 for a black hole, about 0.1 to 0.3 for a neutron star (equation of state); supplied as sigma1, sigma2",
+          bodies: ["bh", "ns"],
+          reference: FIRST.will1994.key,
+        },
+      ],
+      validity: [
+        {
+          expression: "abs(Gdot)*tau",
+          max: 0.1,
+          label: "G changes little while the signal is in band: |Gdot/G| tau below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)",
+          kind: "rule_of_thumb",
+          reference: "in-band time at leading order (common practice); project choice: 0.1 stands for 'much less than 1'",
+        },
+      ],
+      source_status: "derived",
+      references: [WAVE2_REFS.nordtvedt1990.key, FIRST.tahuraYagi.key, FIRST.yps2010.key],
+      notes:
+        "Our own derivation under the stated assumptions; Tahura & Yagi 2018 give a general form with sensitivities that an editor should compare (value from memory that it exists). For two black holes (s = 1/2): 11 - 21 + 3.5 = -6.5, the opposite sign to the no-sensitivity case.",
+    },
+  ],
+  references: [WAVE2_REFS.nordtvedt1990, FIRST.tahuraYagi, FIRST.yps2010, FIRST.will1994, WAVE2_REFS.hofmannMuller2018],
+  reference_bounds: [
+    {
+      coupling: "Gdot",
+      quoted_symbol: "Gdot_over_G",
+      value: 1.5e-13,
+      unit: "1/yr",
+      side: "upper",
+      credibility: 0.68,
+      data: "lunar laser ranging (Earth-Moon: weak-field bodies, sensitivities near 0)",
+      reference: WAVE2_REFS.hofmannMuller2018.key,
+      source_status: "memory",
+      note: "recalled as Gdot/G = (7.1 +- 7.6) x 10^-14 /yr (1 sigma); the value shown is the centre plus 1 sigma. Value from memory.",
+    },
+  ],
+  needs_source_confirmation: true,
+};
+
+export const vectorCharges: TheoryEntryInput = {
+  slug: "vector-charges",
+  name: "Massless vector charges (electric or dark U(1)) on compact bodies",
+  family: "other",
+  summary:
+    "Compact bodies carrying charges of a massless vector field, electric or a dark-sector U(1) (minicharged dark matter), attract or repel each other and radiate vector dipole waves when their charge-to-mass ratios differ: a -1PN phase term in the squared difference of the charge-to-mass ratios.",
+  assumptions: [
+    "charge-to-mass ratios q_i = Q_i / (sqrt(G) m_i) in Gaussian units with G = c = 1 (|q| <= 1 for a black hole); for a dark U(1), Q in that sector's Gaussian units",
+    "the Coulomb-like force changes Kepler's law by (1 - q1 q2) at 0PN, which the measured chirp mass absorbs; corrections to the dipole of order q1 q2 (q1 - q2)^2 are dropped",
+    "dipole flux (2/3) mu^2 (q1 - q2)^2 (M/r^2)^2 (Larmor), twice the scalar dipole flux for the same charges",
+  ],
+  couplings: [
+    {
+      symbol: "dq",
+      latex: "|q_1 - q_2|",
+      dimension: 0,
+      unit: "1",
+      description: "difference of the bodies' charge-to-mass ratios (a property of the binary)",
+      quoted: { form: "identity", symbol: "dq", latex: "|q_1 - q_2|", unit: "1" },
+      range: "non_negative",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(5/3584)*eta^(2/5)*dq^2",
+      latex: "\\beta = -\\frac{5}{3584}\\,\\eta^{2/5}\\,(q_1 - q_2)^2",
+      derivation: {
+        kind: "energy_flux",
+        order: -1,
+        A: "0",
+        B: "(5/48)*dq^2",
+        note: "F_dip = (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/48)(q1 - q2)^2 (our own derivation; Larmor formula)",
+      },
+      body_rules: [
+        {
+          kind: "charge",
+          description: "any body may carry a charge (black holes keep a gauge charge); astrophysical black holes are expected to be nearly neutral electrically, so the electric case mostly tests exotic charging",
+          bodies: ["bh", "ns"],
+        },
+      ],
+      validity: [
+        dipoleAtLowEnd("(5/48)*dq^2"),
+        {
+          expression: "dq/2",
+          max: 1,
+          label: "each black hole below extremality: |q_i| <= 1, so |q1 - q2| <= 2",
+          kind: "hard",
+          reference: "Reissner-Nordstrom extremality (common practice)",
+        },
+      ],
+      source_status: "derived",
+      references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
+      notes: "The coupling is the charge difference of the binary analysed: a limit holds for that binary, not for a universal charge.",
+    },
+  ],
+  references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016, FIRST.yyp2016],
+  needs_source_confirmation: true,
+};
+
+export const scalarGaussBonnetGeneral: TheoryEntryInput = {
+  slug: "sgb-general",
+  name: "Scalar-Gauss-Bonnet gravity with a general coupling function f(phi)",
+  family: "quadratic-gravity",
+  summary:
+    "A scalar coupled to the Gauss-Bonnet invariant through alpha f(phi). At leading order in the coupling the black-hole scalar charge depends only on f'(phi_0), phi_0 the asymptotic value, so the -1PN dipole term is the one of the linear (shift-symmetric) theory with alpha replaced by alpha f'(phi_0). Couplings with f'(phi_0) = 0 (the quadratic couplings of spontaneous scalarization) give no leading dipole and are not covered.",
+  action_latex:
+    "S = \\int d^4x\\,\\sqrt{-g}\\left[\\frac{R}{16\\pi} + \\alpha f(\\phi)\\,\\mathcal{G} - \\frac{1}{2}\\nabla_\\mu\\phi\\nabla^\\mu\\phi\\right]",
+  assumptions: [
+    "f'(phi_0) != 0; leading order in alpha f'(phi_0)",
+    "normalisation of convention A (canonical scalar, R/16 pi): alpha f(phi) = alpha phi gives the 'edgb' entry",
+    "neutron stars carry no scalar charge at this order (the Gauss-Bonnet integral over a star without horizon vanishes)",
+  ],
+  couplings: [
+    {
+      symbol: "alpha_f",
+      latex: "|\\alpha f'(\\phi_0)|",
+      dimension: 2,
+      unit: "km^2",
+      description: "effective linear coupling |alpha f'(phi_0)| in convention A; the mapping depends on its square",
+      quoted: { form: "sqrt", symbol: "sqrt_alpha_f", latex: "\\sqrt{|\\alpha f'(\\phi_0)|}", unit: "km" },
+      convention: "A",
+      range: "non_negative",
+      gr_value: "zero",
+    },
+  ],
+  definitions: [{ symbol: "zeta", expression: "16*pi*alpha_f^2/M^4", latex: "\\zeta = 16\\pi\\,[\\alpha f'(\\phi_0)]^2/M^4" }],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))",
+      latex: "\\beta = -\\frac{5}{7168}\\,\\zeta\\,\\frac{(m_1^2 s_2 - m_2^2 s_1)^2}{M^4\\,\\eta^{18/5}}",
+      derivation: {
+        kind: "energy_flux",
+        order: -1,
+        A: "0",
+        B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
+        note: "scalar dipole flux of the black holes' charges, as in the linear theory with alpha -> alpha f'(phi_0)",
+      },
+      body_rules: [
+        {
+          kind: "charge",
+          description: "black holes carry the spin-dependent charge factor s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2 (value from memory); neutron stars s = 0 at leading order",
+          bodies: ["bh", "ns"],
+        },
+      ],
+      validity: ([1, 2] as const).map((i) => ({
+        expression: `16*pi*alpha_f^2/m${i}^4`,
+        max: 0.1,
+        label: `small coupling on body ${i}: 16 pi (alpha f')^2 / m${i}^4 well below 1`,
+        kind: "rule_of_thumb" as const,
+        reference: "project choice: 0.1 stands for 'much less than 1'",
+        body: i,
+        applies_to: ["bh" as const],
+      })),
+      source_status: "derived",
+      references: [WAVE2_REFS.julieBerti2019.key, FIRST.yyp2016.key],
+      notes: "Equal-mass, equal-spin black holes give beta = 0 (no constraint). Higher orders in alpha depend on f''(phi_0) and beyond.",
+    },
+  ],
+  references: [WAVE2_REFS.julieBerti2019, FIRST.yyp2016, FIRST.lyu2022],
+  reference_bounds: [
+    {
+      coupling: "alpha_f",
+      quoted_symbol: "sqrt_alpha_f",
+      value: 1.33,
+      unit: "km",
+      side: "upper",
+      credibility: 0.9,
+      data: "neutron-star - black-hole events",
+      reference: FIRST.lyu2022.key,
+      source_status: "confirmed",
+      convention: "A",
+      note: "published for the linear coupling; applies to |alpha f'(phi_0)| at leading order",
+    },
+  ],
+  needs_source_confirmation: true,
+};
+
+/** beta of a 2PN change d phi_4 of the phase coefficient: (3/128) eta^(-4/5) d phi_4. */
+const QM_PREFACTOR = "-(75/64)*eta^(-4/5)";
+
+export const spinInducedQuadrupole: TheoryEntryInput = {
+  slug: "spin-induced-quadrupole",
+  name: "Spin-induced quadrupole moment (black-hole mimickers)",
+  kind: "parameterized_spacetime",
+  family: "parameterized-black-hole",
+  summary:
+    "A spinning body's quadrupole Q_i = -kappa_i chi_i^2 m_i^3 has kappa = 1 for a Kerr black hole and larger values for neutron stars and boson stars. A deviation dkappa of both bodies changes the 2PN quadrupole-monopole term of the phase.",
+  assumptions: [
+    "aligned spins; the same deviation for both bodies (dkappa_1 = dkappa_2 = dkappa_s, dkappa_a = 0)",
+    "2PN quadrupole-monopole term only; kappa terms at 3PN and beyond not included",
+    "the term is linear in kappa, so no small-coupling expansion is involved; the binary must spin to say anything",
+  ],
+  couplings: [
+    {
+      symbol: "dkappa_s",
+      latex: "\\delta\\kappa_s",
+      dimension: 0,
+      unit: "1",
+      description: "deviation of the spin-induced quadrupole coefficient from its Kerr value 1",
+      quoted: { form: "identity", symbol: "dkappa_s", latex: "\\delta\\kappa_s", unit: "1" },
+      range: "any_sign",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: 2,
+      b: -1,
+      expression: `${QM_PREFACTOR}*dkappa_s*(m1^2*chi1^2 + m2^2*chi2^2)/M^2`,
+      latex: "\\beta = -\\frac{75}{64}\\,\\eta^{-4/5}\\,\\delta\\kappa_s\\,\\frac{m_1^2\\chi_1^2 + m_2^2\\chi_2^2}{M^2}",
+      body_rules: [{ kind: "derived_for", description: "compact objects whose quadrupole follows their spin; Kerr black holes have dkappa = 0", bodies: ["bh", "ns"] }],
+      validity: [
+        {
+          expression: "50*abs(dkappa_s)*(m1^2*chi1^2 + m2^2*chi2^2)/(36*M^2)",
+          max: 0.1,
+          label: "the deviation stays a perturbation of the phase at the ISCO: 50 |dkappa| sum (m_i chi_i / M)^2 v^4 below 0.1 at v^2 = 1/6",
+          kind: "rule_of_thumb",
+          reference: "project choice: 0.1 stands for 'much less than 1'",
+        },
+      ],
+      source_status: "derived",
+      references: [WAVE2_REFS.krishnendu2017.key, WAVE2_REFS.poisson1998.key],
+      notes:
+        "From the 2PN coefficient phi_4 = ... - sum_i (50 kappa_i + 5/8) (m_i/M)^2 chi_i^2 (aligned spins): d phi_4 = -50 dkappa sum_i (m_i/M)^2 chi_i^2 and beta = (3/128) eta^(-4/5) d phi_4. Non-spinning binaries give beta = 0 (no constraint).",
+    },
+  ],
+  references: [WAVE2_REFS.krishnendu2017, WAVE2_REFS.poisson1998],
+  needs_source_confirmation: true,
+};
+
+export const quasiKerrQuadrupole: TheoryEntryInput = {
+  slug: "quasi-kerr-quadrupole",
+  name: "Quasi-Kerr quadrupole deviation (bumpy black holes)",
+  kind: "parameterized_spacetime",
+  family: "parameterized-black-hole",
+  summary:
+    "A black-hole spacetime whose mass quadrupole differs from Kerr's: Q = -M (a^2 + epsilon M^2). The extra quadrupole -epsilon m_i^3 of each body enters the 2PN quadrupole-monopole term of the phase even without spin.",
+  assumptions: [
+    "the same epsilon for both bodies; the quadrupole axis along the orbital angular momentum (aligned spins)",
+    "leading order in epsilon; 2PN quadrupole-monopole term only",
+  ],
+  couplings: [
+    {
+      symbol: "eps_Q",
+      latex: "\\epsilon",
+      dimension: 0,
+      unit: "1",
+      description: "quadrupole deviation: Q_i = -m_i^3 (chi_i^2 + epsilon)",
+      quoted: { form: "identity", symbol: "eps_Q", latex: "|\\epsilon|", unit: "1" },
+      range: "any_sign",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: 2,
+      b: -1,
+      expression: `${QM_PREFACTOR}*eps_Q*(m1^2 + m2^2)/M^2`,
+      latex: "\\beta = -\\frac{75}{64}\\,\\eta^{-4/5}\\,\\epsilon\\,\\frac{m_1^2 + m_2^2}{M^2}",
+      body_rules: [{ kind: "derived_for", description: "deformed black holes (each with its own quadrupole deviation epsilon m_i^3)", bodies: ["bh"] }],
+      validity: [
+        {
+          expression: "abs(eps_Q)",
+          max: 1,
+          label: "small deformation: |epsilon| below 1",
+          kind: "rule_of_thumb",
+          reference: "project choice",
+        },
+      ],
+      source_status: "derived",
+      references: [WAVE2_REFS.glampedakisBabak2006.key, WAVE2_REFS.poisson1998.key],
+      notes:
+        "The quadrupole-monopole term of phi_4 is -50 (-Q_i / m_i^3)(m_i/M)^2 per body; with -Q_i/m_i^3 = chi_i^2 + epsilon the epsilon part is d phi_4 = -50 epsilon (m1^2 + m2^2)/M^2, so beta = (3/128) eta^(-4/5) d phi_4 (our own derivation).",
+    },
+  ],
+  references: [WAVE2_REFS.glampedakisBabak2006, WAVE2_REFS.poisson1998],
+  needs_source_confirmation: true,
+};
+
+export const scalarizedNeutronStar: TheoryEntryInput = {
+  slug: "scalarized-neutron-star",
+  name: "Scalar-tensor theory with a scalarized neutron star (neutron-star - black-hole binaries)",
+  family: "scalar-tensor",
+  summary:
+    "In scalar-tensor theories of the Damour-Esposito-Farese type a neutron star can carry a large effective scalar coupling alpha_A (spontaneous scalarization) while a black hole carries none. A neutron-star - black-hole binary then radiates scalar dipole waves in proportion to alpha_A^2: a -1PN term. Turning a limit on alpha_A into (alpha_0, beta_0) needs the star's structure (equation of state and mass), which the catalogue does not hold.",
+  action_latex:
+    "S = \\frac{1}{16\\pi}\\int d^4x\\,\\sqrt{-g_*}\\left[R_* - 2 g_*^{\\mu\\nu}\\partial_\\mu\\varphi\\,\\partial_\\nu\\varphi\\right] + S_m[\\psi_m, A^2(\\varphi) g_*],\\quad \\ln A = \\alpha_0 (\\varphi - \\varphi_0) + \\tfrac12 \\beta_0 (\\varphi - \\varphi_0)^2",
+  assumptions: [
+    "massless scalar; leading order in the dipole flux; the black hole has alpha_BH = 0 (no scalar hair)",
+    "the effective gravitational constant G (1 + alpha_A alpha_B) equals G for a black-hole companion",
+    "dipole flux (1/3) eta^2 v^8 (alpha_A - alpha_B)^2 (Damour & Esposito-Farese 1996, value from memory)",
+  ],
+  couplings: [
+    {
+      symbol: "alpha_NS",
+      latex: "\\alpha_A",
+      dimension: 0,
+      unit: "1",
+      description: "effective scalar coupling of the neutron star, d ln m_A / d phi",
+      quoted: { form: "identity", symbol: "alpha_NS", latex: "|\\alpha_A|", unit: "1" },
+      range: "any_sign",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(5/7168)*eta^(2/5)*alpha_NS^2",
+      latex: "\\beta = -\\frac{5}{7168}\\,\\eta^{2/5}\\,\\alpha_A^2",
+      derivation: {
+        kind: "energy_flux",
+        order: -1,
+        A: "0",
+        B: "(5/96)*alpha_NS^2",
+        note: "F_dip = (1/3) eta^2 v^8 alpha_A^2 against (32/5) eta^2 v^10: B = (5/96) alpha_A^2 (derived from the dipole flux)",
+      },
+      body_rules: [
+        { kind: "derived_for", description: "a neutron star with a black-hole companion (alpha_BH = 0); for two neutron stars the difference alpha_A - alpha_B enters instead", bodies: ["bh", "ns"] },
+      ],
+      validity: [dipoleAtLowEnd("(5/96)*alpha_NS^2")],
+      source_status: "derived",
+      references: [WAVE2_REFS.damourEspositoFarese1996.key, WAVE2_REFS.damourEspositoFarese1993.key],
+      notes: "The same flux normalisation as the Brans-Dicke entry, where alpha_A = (1 - 2 s_A)/sqrt(2 omega_BD + 3).",
+    },
+  ],
+  references: [WAVE2_REFS.damourEspositoFarese1993, WAVE2_REFS.damourEspositoFarese1996, FIRST.will1994],
+  needs_source_confirmation: true,
+};
+
+export const ecoTidal: TheoryEntryInput = {
+  slug: "eco-tidal-deformability",
+  name: "Tidal deformability of black-hole mimickers (exotic compact objects)",
+  family: "other",
+  summary:
+    "Black holes have zero tidal Love numbers; horizonless compact objects (boson stars, gravastars, wormholes, objects with a surface near the would-be horizon) do not. A common dimensionless tidal deformability Lambda of both bodies adds the 5PN tidal term of the phase.",
+  assumptions: [
+    "both bodies have the same Lambda = (2/3) k2 (R/m)^5 (objects of the same kind and compactness; then Lambda does not depend on the mass)",
+    "leading (5PN) tidal term; the 6PN tidal term is not included",
+    "Lambda may be negative for some objects (Cardoso et al. 2017)",
+  ],
+  couplings: [
+    {
+      symbol: "Lambda_eco",
+      latex: "\\Lambda",
+      dimension: 0,
+      unit: "1",
+      description: "dimensionless tidal deformability of each body; 0 for black holes",
+      quoted: { form: "identity", symbol: "Lambda_eco", latex: "\\Lambda", unit: "1" },
+      range: "any_sign",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: 5,
+      b: 5,
+      expression: "-(9/16)*Lambda_eco*((m1 + 12*m2)*m1^4 + (m2 + 12*m1)*m2^4)/(M^5*eta^2)",
+      latex: "\\beta = -\\frac{117}{256}\\,\\frac{\\tilde\\Lambda}{\\eta^2},\\quad \\tilde\\Lambda = \\frac{16}{13}\\,\\Lambda\\,\\frac{(m_1 + 12 m_2) m_1^4 + (m_2 + 12 m_1) m_2^4}{M^5}",
+      derivation: {
+        kind: "energy_flux",
+        order: 5,
+        A: "-9*Lambda_eco*(m2*m1^4 + m1*m2^4)/M^5",
+        B: "6*Lambda_eco*((M + 2*m2)*m1^4 + (M + 2*m1)*m2^4)/M^5",
+        note: "tidal binding energy -9 (m_j/m_i) Lambda_i (m_i/M)^5 v^10 and flux 6 (1 + 2 m_j/M)(m_i/M)^4 Lambda_i v^10 per deformed body (Flanagan & Hinderer 2008; Vines, Flanagan & Hinderer 2011; values from memory); they reproduce the -(39/2) Lambda-tilde v^10 phase coefficient",
+      },
+      body_rules: [{ kind: "derived_for", description: "horizonless compact objects of one kind; a black hole has Lambda = 0", bodies: ["bh", "ns"] }],
+      validity: [
+        {
+          expression: "(39/2)*abs(Lambda_eco)/6^5",
+          max: 0.1,
+          label: "the tidal term stays a correction at the ISCO: (39/2) |Lambda| v^10 below 0.1 at v^2 = 1/6",
+          kind: "rule_of_thumb",
+          reference: "project choice: 0.1 stands for 'much less than 1'",
+        },
+      ],
+      source_status: "memory",
+      references: [WAVE2_REFS.flanaganHinderer2008.key, WAVE2_REFS.vinesFlanaganHinderer2011.key, WAVE2_REFS.cardosoEtAl2017.key],
+      notes: "For equal masses Lambda-tilde = Lambda. A neutron star is such an object too, but its Lambda depends on its mass: use a tidal analysis for neutron stars.",
+    },
+  ],
+  references: [WAVE2_REFS.flanaganHinderer2008, WAVE2_REFS.vinesFlanaganHinderer2011, WAVE2_REFS.cardosoEtAl2017],
+  needs_source_confirmation: true,
+};
+
+export const scalarCharges: TheoryEntryInput = {
+  slug: "scalar-charges",
+  name: "Massless scalar charges (dark scalar fifth force) on compact bodies",
+  family: "scalar-tensor",
+  summary:
+    "A massless scalar coupled to matter with composition-dependent strength (a dark-sector fifth force, scalar hair of exotic compact objects): bodies with different scalar charge-to-mass ratios radiate scalar dipole waves, a -1PN term in the squared difference of the ratios. The scalar analogue of the vector-charge entry, with half its dipole flux.",
+  assumptions: [
+    "scalar charge-to-mass ratios q_i normalised so that the scalar force is q1 q2 m1 m2 / r^2 (G = c = 1)",
+    "the 0PN change of Kepler's law (1 + q1 q2) is absorbed in the measured chirp mass; corrections of order q1 q2 (q1 - q2)^2 are dropped",
+    "dipole flux (1/3) mu^2 (q1 - q2)^2 (M/r^2)^2",
+  ],
+  couplings: [
+    {
+      symbol: "dqs",
+      latex: "|q^{s}_1 - q^{s}_2|",
+      dimension: 0,
+      unit: "1",
+      description: "difference of the bodies' scalar charge-to-mass ratios (a property of the binary)",
+      quoted: { form: "identity", symbol: "dqs", latex: "|q^{s}_1 - q^{s}_2|", unit: "1" },
+      range: "non_negative",
+      gr_value: "zero",
+    },
+  ],
+  mappings: [
+    {
+      kind: "inspiral_phase",
+      pn_order: -1,
+      b: -7,
+      expression: "-(5/7168)*eta^(2/5)*dqs^2",
+      latex: "\\beta = -\\frac{5}{7168}\\,\\eta^{2/5}\\,(q^{s}_1 - q^{s}_2)^2",
+      derivation: {
+        kind: "energy_flux",
+        order: -1,
+        A: "0",
+        B: "(5/96)*dqs^2",
+        note: "F_dip = (1/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/96)(q1 - q2)^2 (derived)",
+      },
+      body_rules: [{ kind: "charge", description: "any body may carry a scalar charge in such a theory; Kerr black holes of GR carry none", bodies: ["bh", "ns"] }],
+      validity: [dipoleAtLowEnd("(5/96)*dqs^2")],
+      source_status: "derived",
+      references: [FIRST.will1994.key, FIRST.yyp2016.key],
+      notes: "The coupling is the charge difference of the binary analysed: a limit holds for that binary. Brans-Dicke is the case q_i = (1 - 2 s_i)/sqrt(2 omega_BD + 3).",
+    },
+  ],
+  references: [FIRST.will1994, FIRST.yyp2016],
+};

@@ -1,0 +1,22 @@
+/**
+ * The second batch of catalogue entries (submission shape), published once by the seed step
+ * "catalogue-wave2" (seeds/catalogue-wave2.ts), so that a database seeded before they existed gains
+ * them on its next start.
+ */
+import type { TheoryEntryInput } from "../../common/catalogue.ts";
+import { ecoTidal, quasiKerrQuadrupole, scalarCharges, scalarGaussBonnetGeneral, scalarizedNeutronStar, spinInducedQuadrupole, varyingGSensitivities, vectorCharges } from "./theories-wave2-generation.ts";
+import { dispersionA35, gwSpeed, massiveGravitonTwoOrders } from "./theories-wave2-propagation.ts";
+
+export const THEORIES_WAVE2: readonly TheoryEntryInput[] = [
+  dispersionA35,
+  gwSpeed,
+  massiveGravitonTwoOrders,
+  varyingGSensitivities,
+  vectorCharges,
+  scalarCharges,
+  scalarGaussBonnetGeneral,
+  scalarizedNeutronStar,
+  spinInducedQuadrupole,
+  quasiKerrQuadrupole,
+  ecoTidal,
+];
