@@ -82,7 +82,7 @@ export const theorySummarySchema = z.object({
 export const theoryListResponseSchema = z.object({ theories: z.array(theorySummarySchema) });
 export type TheorySummary = z.infer<typeof theorySummarySchema>;
 
-export const theoryListQuerySchema = z.object({
+export const theoryListQuerySchema = z.strictObject({
   family: z.enum(THEORY_FAMILIES).optional(),
   b: z.coerce.number().finite().optional(),
   pn_order: z.coerce.number().finite().optional(),
@@ -246,14 +246,14 @@ export type RevisionDetail = z.infer<typeof revisionDetailSchema>;
 // ---------------------------------------------------------------------------------------------
 // Submissions
 
-export const createSubmissionSchema = z.object({
+export const createSubmissionSchema = z.strictObject({
   /** Slug of the accepted theory this submission changes; absent for a new entry. */
   target_slug: z.string().regex(SLUG_PATTERN, "must be the slug of an accepted theory").optional(),
   theory: theoryEntrySchema,
 });
 export type CreateSubmissionInput = z.input<typeof createSubmissionSchema>;
 
-export const updateSubmissionSchema = z.object({
+export const updateSubmissionSchema = z.strictObject({
   /** The version the caller last read; a stale one answers 409. */
   version: z.number().int().positive(),
   theory: theoryEntrySchema,
@@ -285,7 +285,7 @@ export const submissionSummarySchema = z.object({
 });
 export type SubmissionSummary = z.infer<typeof submissionSummarySchema>;
 
-export const submissionListQuerySchema = z.object({
+export const submissionListQuerySchema = z.strictObject({
   mine: z.enum(["1", "0", "true", "false"]).transform((v) => v === "1" || v === "true").optional(),
   status: z
     .string()
@@ -315,7 +315,7 @@ export const statusResponseSchema = z.object({
 });
 
 export const decisionSchema = z
-  .object({
+  .strictObject({
     decision: z.enum(["accept", "return"]),
     comment: z.string().trim().max(8000).optional(),
   })
@@ -337,13 +337,13 @@ export const commentSchema = z.object({
   created_at: z.string(),
 });
 export type SubmissionComment = z.infer<typeof commentSchema>;
-export const createCommentSchema = z.object({ body: text(8000) });
+export const createCommentSchema = z.strictObject({ body: text(8000) });
 export const commentListResponseSchema = z.object({ comments: z.array(commentSchema) });
 
 // ---------------------------------------------------------------------------------------------
 // References API
 
-export const parseBibtexRequestSchema = z.object({ bibtex: z.string().min(1, "must not be empty").max(20_000) });
+export const parseBibtexRequestSchema = z.strictObject({ bibtex: z.string().min(1, "must not be empty").max(20_000) });
 /** parse-bibtex answers a reference in the entry's input shape, ready to paste into a form. */
 export const parsedReferenceSchema = z.object({
   key: z.string().optional(),
@@ -360,7 +360,7 @@ export const parsedReferenceSchema = z.object({
 });
 export type ParsedReference = z.infer<typeof parsedReferenceSchema>;
 export const referenceListResponseSchema = z.object({ references: z.array(storedReferenceSchema) });
-export const bibtexExportQuerySchema = z.object({
+export const bibtexExportQuerySchema = z.strictObject({
   ids: z
     .string()
     .min(1, "must list reference ids, e.g. ids=1,2,3")

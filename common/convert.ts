@@ -169,7 +169,7 @@ export const cosmologySchema = z.strictObject({
 });
 export type CosmologyRequest = z.output<typeof cosmologySchema>;
 
-export const theorySlugSchema = z.string().regex(/^[a-z0-9][a-z0-9-]{0,63}$/, "a theory slug is lower-case letters, digits and dashes");
+export const theorySlugSchema = z.string().regex(/^[a-z0-9][a-z0-9-]{0,63}$/, "name a catalogue entry by its short name, as in its address: lower-case letters, digits and dashes (edgb, massive-graviton)");
 
 export const convertRequestSchema = z.strictObject({
   bound: boundSchema,
@@ -246,7 +246,7 @@ export const cautionCodeSchema = z.enum([
   "engine",
   "couplings",
   "orders",
-  "bodies",
+  "signed_interval",
 ]);
 export type CautionCode = z.infer<typeof cautionCodeSchema>;
 

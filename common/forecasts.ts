@@ -115,6 +115,8 @@ export const forecastTranslationSchema = z.object({
   b: z.number(),
   beta_max: z.number(),
   sides: z.enum(["one", "two"]),
+  /** The signed interval on beta that was translated: [-B, B] two-sided; [-B, null] or [null, B] one-sided. */
+  interval: z.tuple([z.number().nullable(), z.number().nullable()]),
   results: z.array(convertResultSchema),
   not_applicable: z.array(notApplicableSchema),
   cautions: z.array(cautionSchema),

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { consistencyResultSchema } from "./consistency.ts";
-import { bodyKindSchema, cautionSchema, cosmologySchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
+import { bodyKindSchema, cautionSchema, cosmologySchema, fLowSchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
 
 /**
  * Background jobs (docs/samples-jobs.md): POST /api/v1/jobs/samples (multipart: `file` and
@@ -59,6 +59,8 @@ export const samplesJobRequestSchema = z
     frame: z.enum(["source", "detector"], { error: 'frame must be "source" or "detector"' }),
     bodies: z.tuple([bodyKindSchema, bodyKindSchema]).default(["bh", "bh"]),
     cosmology: cosmologySchema.optional(),
+    /** Lowest observed frequency of the analysis band (Hz), for the in-band validity conditions. */
+    f_low: fLowSchema,
     prior: priorSchema.default({ kind: "as_translated" }),
     /** The analysis prior: uniform in the deviation over this range (default: the samples' span). */
     analysis_prior_range: range("analysis_prior_range").optional(),
@@ -160,6 +162,7 @@ export const stackJobRequestSchema = z.strictObject({
   credibility: finite("credibility").gt(0).lt(1),
   bodies: z.tuple([bodyKindSchema, bodyKindSchema]).default(["bh", "bh"]),
   cosmology: cosmologySchema.optional(),
+  f_low: fLowSchema,
   prior: priorSchema.default({ kind: "uniform" }),
   events: z.array(stackEventSchema).min(1, "give at least one event").max(50, "at most 50 events"),
   include_outside_validity: z.boolean().default(false),
@@ -195,3 +198,19 @@ export const jobViewSchema = z.object({
 export type JobView = z.infer<typeof jobViewSchema>;
 
 export const jobCreatedSchema = z.object({ job: z.object({ id: jobIdSchema, status: z.enum(JOB_STATUSES), progress: z.number() }) });
+
+export const filePreviewSchema = z.object({
+  file: z.object({ name: z.string(), bytes: z.number().int(), format: z.enum(["text", "json", "hdf5"]) }),
+  tables: z.array(
+    z.object({
+      /** HDF5 path or null (text, top-level JSON). */
+      path: z.string().nullable(),
+      rows: z.number().int().nullable(),
+      columns: z.array(
+        z.object({ name: z.string(), first: z.array(z.number().nullable()), numeric: z.boolean(), min: z.number().nullable(), max: z.number().nullable(), mean: z.number().nullable(), non_finite: z.number().int() }),
+      ),
+    }),
+  ),
+  note: z.string().optional(),
+});
+export type FilePreview = z.infer<typeof filePreviewSchema>;

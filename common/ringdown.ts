@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { checkBoundValue, intervalSchema } from "./convert.ts";
 
 /**
  * Ringdown-only bounds (POST /api/v1/convert/ringdown): a bound on the fractional shift of one
@@ -12,25 +13,18 @@ export const QNM_MODE_KEYS = ["220", "221", "330", "210", "440"] as const;
 export const RINGDOWN_PARAMETERS = ["qnm_dfreq", "qnm_dtau"] as const;
 export type RingdownParameter = (typeof RINGDOWN_PARAMETERS)[number];
 
+/** Same bound model as the translator (common/convert.ts): exactly one of upper or a signed interval, either end null for one side. */
 export const qnmBoundSchema = z
   .strictObject({
     parameter: z.enum(RINGDOWN_PARAMETERS, { error: 'parameter must be "qnm_dfreq" or "qnm_dtau"' }),
     mode: z.enum(QNM_MODE_KEYS, { error: `mode must be one of ${QNM_MODE_KEYS.join(", ")}` }).default("220"),
     /** Bound on |shift|. */
     upper: num("upper").positive("upper must be positive: it bounds |shift|").optional(),
-    /** Credible interval [lo, hi] on the signed shift. */
-    interval: z.tuple([num("interval.0"), num("interval.1")]).optional(),
+    /** Credible interval [lo, hi] on the signed shift; either end null for a one-sided bound. */
+    interval: intervalSchema.optional(),
     credibility: num("credibility").gt(0, "credibility must lie strictly between 0 and 1").lt(1, "credibility must lie strictly between 0 and 1"),
   })
-  .superRefine((b, ctx) => {
-    if ((b.upper === undefined) === (b.interval === undefined)) {
-      ctx.addIssue({ code: "custom", path: ["upper"], message: "give exactly one of upper (a bound on |shift|) or interval ([lo, hi])" });
-    }
-    if (b.interval && !(b.interval[0] < b.interval[1])) ctx.addIssue({ code: "custom", path: ["interval"], message: "interval must be [lo, hi] with lo < hi" });
-    if (b.interval && (b.interval[0] > 0 || b.interval[1] < 0)) {
-      ctx.addIssue({ code: "custom", path: ["interval"], message: "interval excludes 0 (general relativity): that is a claimed deviation, not a bound" });
-    }
-  });
+  .superRefine((b, ctx) => checkBoundValue(b, ctx));
 
 const frame = z.enum(["detector", "source"], { error: 'frame must be "detector" or "source"' });
 const z_ = num("z").min(0, "z must be >= 0").optional();

@@ -11,7 +11,7 @@ const text = (what: string, max: number) => z.string({ error: `${what} must be t
 
 export const MAX_SHEET_RECORDS = 50;
 
-export const sheetRecordInputSchema = z.object({
+export const sheetRecordInputSchema = z.strictObject({
   label: text("label", 120).min(1, "label is required: name the event or analysis"),
   detector_network: text("detector_network", 120).default(""),
   analysis_method: text("analysis_method", 200).default(""),
@@ -31,7 +31,7 @@ const name = text("name", 200).min(1, "name is required");
 const description = text("description", 4000);
 const records = z.array(sheetRecordInputSchema).max(MAX_SHEET_RECORDS, `a sheet holds at most ${MAX_SHEET_RECORDS} records`);
 
-export const createSheetSchema = z.object({
+export const createSheetSchema = z.strictObject({
   name,
   description: description.default(""),
   records: records.default([]),
@@ -39,7 +39,7 @@ export const createSheetSchema = z.object({
 export type CreateSheetRequest = z.output<typeof createSheetSchema>;
 
 export const updateSheetSchema = z
-  .object({
+  .strictObject({
     /** The version the client last read: a stale one gets 409. */
     version: z.number({ error: "version is required (the version you last read)" }).int().positive().max(MAX_DB_INT, `version must be at most ${MAX_DB_INT}`),
     name: name.optional(),
@@ -56,7 +56,7 @@ export const sheetIdSchema = dbId("id");
 
 export const EXPORT_FORMATS = ["csv", "json", "latex", "bibtex"] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];
-export const exportQuerySchema = z.object({
+export const exportQuerySchema = z.strictObject({
   format: z.enum(EXPORT_FORMATS, { error: `format must be one of ${EXPORT_FORMATS.join(", ")}` }),
   digits: z.coerce.number().int().min(1, "digits must be 1 to 6").max(6, "digits must be 1 to 6").default(2),
 });

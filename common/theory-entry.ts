@@ -151,7 +151,7 @@ const authorsSchema = z
     });
   });
 
-export const referenceInputSchema = z.object({
+export const referenceInputSchema = z.strictObject({
   /** Key other parts of the entry cite this reference by (mappings, conventions, bounds). */
   key: referenceKey.optional(),
   arxiv: optionalId(arxivIdSchema),
@@ -183,7 +183,7 @@ const dimensionSchema = z.union([
     .transform((v) => (v === "1" ? 0 : v === "L" ? 1 : Number(v.slice(2).replace(/[()]/g, "")))),
 ]);
 
-export const conventionSchema = z.object({
+export const conventionSchema = z.strictObject({
   name: text(80),
   action_latex: optionalText(4000),
   /** coupling in the entry's canonical convention = factor x coupling in this convention. */
@@ -195,7 +195,7 @@ export const conventionSchema = z.object({
   note: optionalText(1000),
 });
 
-export const quotedFormSchema = z.object({
+export const quotedFormSchema = z.strictObject({
   form: z.enum(QUOTED_FORMS),
   symbol: symbol,
   latex: text(200),
@@ -210,7 +210,7 @@ export const quotedFormSchema = z.object({
  * stays readable with its history. Set only through the retire and restore actions (a submission's own
  * value is replaced by the catalogue's when it is published).
  */
-export const retirementSchema = z.object({
+export const retirementSchema = z.strictObject({
   reason: text(1000),
   /** ISO 8601 time of the retirement. */
   at: z.string().max(40),
@@ -219,7 +219,7 @@ export const retirementSchema = z.object({
 });
 export type Retirement = z.infer<typeof retirementSchema>;
 
-export const couplingSchema = z.object({
+export const couplingSchema = z.strictObject({
   symbol: symbol,
   latex: text(200),
   /** Power of length in geometric units (G = c = 1): 2 for a length^2 coupling, 0 if dimensionless ("L^2" and "1" are read too). */
@@ -239,14 +239,14 @@ export const couplingSchema = z.object({
   retired: retirementSchema.optional(),
 });
 
-export const definitionSchema = z.object({
+export const definitionSchema = z.strictObject({
   symbol: symbol,
   expression: expression,
   latex: optionalText(4000),
   description: optionalText(1000),
 });
 
-export const validityConditionSchema = z.object({
+export const validityConditionSchema = z.strictObject({
   /** A dimensionless quantity that must stay below `max` for the mapping to hold. */
   expression: expression,
   max: z.number().finite(),
@@ -268,7 +268,7 @@ export const validityConditionSchema = z.object({
  * F = F_GR [1 + B v^(2 order)]), of the frequency drift (df/dt = GR [1 + gamma u^(b+5)]), or from
  * propagation; the engine re-derives beta from it and compares.
  */
-export const derivationSchema = z.object({
+export const derivationSchema = z.strictObject({
   kind: z.enum(DERIVATION_KINDS),
   order: z.number().finite(),
   A: expression.optional(),
@@ -277,7 +277,7 @@ export const derivationSchema = z.object({
   note: optionalText(1000),
 });
 
-export const bodyRuleSchema = z.object({
+export const bodyRuleSchema = z.strictObject({
   /** "charge": which bodies carry the charge; "derived_for": which bodies the formula was derived for (others get a caution); "only_for": the mapping does not apply to other bodies. */
   kind: z.enum(BODY_RULE_KINDS),
   description: text(1000),
@@ -285,13 +285,13 @@ export const bodyRuleSchema = z.object({
   reference: referenceKey.optional(),
 });
 
-export const qnmModeSchema = z.object({
+export const qnmModeSchema = z.strictObject({
   l: z.number().int().min(2),
   m: z.number().int(),
   n: z.number().int().min(0),
 });
 
-export const mappingObject = z.object({
+export const mappingObject = z.strictObject({
     kind: z.enum(MAPPING_KINDS),
     /** Relative PN order n of the correction (b = 2n - 5 for the phase). */
     pn_order: z.number().finite().optional(),
@@ -313,7 +313,7 @@ export const mappingObject = z.object({
     frame_note: optionalText(1000),
     derivation: derivationSchema.optional(),
     /** The same correction as a gIMR deviation dphi_k, when it has one. */
-    gimr_equivalent: z.object({ k: z.number().finite(), expression: expression, source_status: z.enum(SOURCE_STATUSES) }).optional(),
+    gimr_equivalent: z.strictObject({ k: z.number().finite(), expression: expression, source_status: z.enum(SOURCE_STATUSES) }).optional(),
     body_rules: z.array(bodyRuleSchema).max(20).default([]),
     validity: z.array(validityConditionSchema).max(20).default([]),
     /** Shown beside every translation with this mapping, where the number can mislead. */
@@ -342,7 +342,7 @@ export const mappingSchema = mappingObject.superRefine((m, ctx) => {
     }
   });
 
-export const referenceBoundSchema = z.object({
+export const referenceBoundSchema = z.strictObject({
   /** Symbol of the coupling the bound limits. */
   coupling: symbol,
   /** Symbol of the quantity the value is quoted as (sqrt_alpha, or m_g for lambda_g), when not the coupling itself. */
@@ -362,7 +362,7 @@ export const referenceBoundSchema = z.object({
   note: optionalText(1000),
 });
 
-export const theoryEntryObject = z.object({
+export const theoryEntryObject = z.strictObject({
   slug: z.string().regex(SLUG_PATTERN, "must be lower-case words joined by hyphens, e.g. edgb or massive-graviton").max(64),
   name: text(200),
   kind: z.enum(ENTRY_KINDS).default("theory"),

@@ -86,7 +86,7 @@ export const edgb: TheoryEntry = {
         order: -1,
         A: "0",
         B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
-        note: "dipole flux F = F_GR [1 + B v^-2]; physics.md 2.3 checks this B against beta",
+        note: "dipole flux F = F_GR [1 + B v^-2]; the derivation check compares this B with beta",
       },
       gimr_equivalent: { k: -2, expression: "-(10*pi/21)*alpha^2*(s1/m1^2 - s2/m2^2)^2", source_status: "derived" },
       body_rules: [

@@ -64,6 +64,7 @@ export async function runSamplesJob(input: SamplesJobInput): Promise<SamplesJobO
     frame: request.frame,
     bodies: request.bodies,
     cosmology: request.cosmology ?? { ...DEFAULT_COSMOLOGY },
+    fLowHz: request.f_low,
     columns: columns as SampleColumns,
     names,
     prior: { kind: request.prior.kind, range: request.prior.range },
@@ -139,7 +140,7 @@ function resultCautions(p: PipelineResult, request: SamplesJobRequest, target: R
 
 /** row, deviation, beta, canonical coupling, quoted coupling (when different), weight. */
 async function perSampleCsv(p: PipelineResult, quotedSymbol: string, canonicalSymbol: string, quoted: ((v: number) => number) | null): Promise<Buffer> {
-  const gz = createGzip({ level: 6 });
+  const gz = createGzip({ level: 1 });
   const parts: Buffer[] = [];
   gz.on("data", (c: Buffer) => parts.push(c));
   const done = new Promise<void>((resolve, reject) => {

@@ -80,7 +80,7 @@ export async function runStackJob(input: { request: StackJobRequest; catalogue: 
       loaded.push({ label: e.label, kind: "samples", values: got.values, result });
     } else {
       const binary = makeBinary({ m1: e.binary.m1, m2: e.binary.m2, chi1: e.binary.chi1, chi2: e.binary.chi2, bodies: request.bodies, frame: "source", ...(e.binary.z === undefined ? {} : { z: e.binary.z }) });
-      const env = createConversionContext(binary, { cosmology }).envFor(mapping);
+      const env = createConversionContext(binary, { cosmology, fLowHz: request.f_low }).envFor(mapping);
       const F = mapping.bind ? mapping.bind(env) : (x: number) => mapping.evaluate(x, env);
       const law = detectPowerLaw(F);
       if (!law) throw new SampleInputError(`events.${i}: the mapping is not a power law in the coupling for this binary.`);

@@ -126,6 +126,15 @@ describe("POST /api/v1/convert/ringdown", () => {
     expect(body.qnm.frame).toBe("source");
   });
 
+  it("when a one-sided interval is given, then only the side the theory can reach is limited", async () => {
+    // df = eps3/54 <= 0.02 (hi only): eps3 <= 1.08; for eps3 < 0 the shift is negative and never leaves [-inf, 0.02] (derived).
+    const body = await convert({ bound: { parameter: "qnm_dfreq", interval: [null, 0.02], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.68, frame: "source" }, theories: ["johannsen-psaltis"] });
+    const r = body.results[0]!;
+    expect(r.upper?.value).toBeCloseTo(1.08, 8);
+    expect(r.lower).toBeNull();
+    expect(r.unconstrained[0]?.side).toBe("negative");
+  });
+
   it("when a bound on the damping time is given with a binary, then the remnant comes from the fits and the mapping dtau = alpha13/27 applies", async () => {
     const body = await convert({ bound: { parameter: "qnm_dtau", upper: 0.03, credibility: 0.9 }, binary: { m1: 36, m2: 29, frame: "source" } });
     // Husa et al. 2016: chi_f = 0.6800 for 36 + 29 non-spinning (our own computation).
@@ -148,7 +157,8 @@ describe("POST /api/v1/convert/ringdown", () => {
     const cases: [object, string][] = [
       [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 1, frame: "source" } }, "remnant.chi_f"],
       [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "detector" } }, "remnant.z"],
-      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, interval: [-1, 1], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.upper"],
+      [{ bound: { parameter: "qnm_dfreq", upper: 0.1, interval: [-1, 1], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.interval"],
+      [{ bound: { parameter: "qnm_dfreq", credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.upper"],
       [{ bound: { parameter: "qnm_dfreq", interval: [0.1, 0.2], credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.interval"],
       [{ bound: { parameter: "qnm_dfreq", mode: "550", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" } }, "bound.mode"],
       [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 } }, "remnant"],

@@ -75,6 +75,17 @@ describe("POST /api/v1/forecasts", () => {
     expect(body.matrices![0]!.b).toBe(-1);
   });
 
+  it("when sides is one, then the bound is 1.2816 sigma and EdGB (beta < 0) is translated from the interval [-B, null] only (one-sided Gaussian quantile, common practice)", async () => {
+    const res = await request(app).post("/api/v1/forecasts").send({ source: SOURCE, detectors: [{ curve: "aligo-design" }], networks: [[0]], b: [-7], sides: "one" });
+    expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(200);
+    const body = forecastResponseSchema.parse(res.body);
+    const row = body.networks[0]!.rows[0]!;
+    expect(row.bound! / row.sigma_beta!).toBeCloseTo(1.281552, 5);
+    const withEdgb = body.translations.filter((t) => t.b === -7 && t.results.some((r) => r.theory === "edgb"));
+    expect(withEdgb.map((t) => t.interval)).toEqual([[-row.bound!, null]]);
+    expect(body.translations.filter((t) => t.b === -7).map((t) => t.interval)).toEqual([[-row.bound!, null], [null, row.bound!]]);
+  });
+
   it("when the input is bad, then 400 naming the field and nothing computed", async () => {
     const cases: [unknown, string][] = [
       [{ source: SOURCE, detectors: [{ curve: "cosmic-swan" }], networks: [[0]], b: [-7] }, "detectors.0.curve"],

@@ -4,7 +4,7 @@ import path from "node:path";
 import { gunzipSync } from "node:zlib";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { samplesJobResultSchema, type SamplesJobResult } from "../../common/jobs.ts";
+import { samplesJobResultSchema, stackJobResultSchema, type SamplesJobResult } from "../../common/jobs.ts";
 import type { DragomanApp } from "../../server/app.ts";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
 import { createLogger } from "../../server/logger.ts";
@@ -22,7 +22,7 @@ import { filled, gaussian, toCsv, writeHdf5 } from "../helpers/samples-data.ts";
 
 const OVERRIDES = { JOBS_ANON_PER_HOUR: "10000", JOBS_SWEEP_SECONDS: "1" };
 
-describe("POST /api/v1/jobs/samples", () => {
+describe("POST /api/v1/jobs/samples and /api/v1/jobs/stack", () => {
   let tdb: TestDatabase;
   let app: DragomanApp;
   let worker: RunningWorker;
@@ -197,6 +197,30 @@ describe("POST /api/v1/jobs/samples", () => {
     } finally {
       await small.locals.jobQueue.stop();
     }
+  });
+
+  it("when two finished samples jobs are stacked (POST /jobs/stack), then the combined bound is tighter than each event's and carries a verdict", async () => {
+    const a = await submitSamples(app, toCsv({ beta, m1: filled(n, 10), m2: filled(n, 5) }), "a.csv", settings);
+    const b = await submitSamples(app, toCsv({ beta: gaussian(12, n, 0, 3e-3), m1: filled(n, 8), m2: filled(n, 3) }), "b.csv", settings);
+    await done(a);
+    await done(b);
+    const body = { theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, prior: { kind: "uniform" }, include_outside_validity: true, events: [{ label: "A", job: a.body.job.id }, { label: "B", job: b.body.job.id }] };
+    const res = await request(app).post("/api/v1/jobs/stack").send(body);
+    expect(res.status, JSON.stringify(res.body)).toBe(202);
+    const view = await waitForJob(app, res.body.job.id as string);
+    expect(view.status, JSON.stringify(view.error ?? {})).toBe("done");
+    const r = stackJobResultSchema.parse(view.result);
+    expect(r.events.map((e) => e.label)).toEqual(["A", "B"]);
+    // Both likelihoods fall with the coupling, so their product is at least as tight as the tighter event (up to the
+    // grid's histogram noise, 1%) and tighter than the weaker one (derived).
+    const bounds = r.events.map((e) => e.bound!);
+    expect(r.coupling.value!).toBeLessThan(Math.min(...bounds) * 1.01);
+    expect(r.coupling.value!).toBeLessThan(Math.max(...bounds));
+    expect(["valid", "outside_validity", "not_assessed"]).toContain(r.verdict);
+    // A job that is not a finished samples job is refused, naming the event.
+    const bad = await request(app).post("/api/v1/jobs/stack").send({ ...body, events: [{ label: "X", job: "AAAAAAAAAAAAAAAAAAAAAAAA" }] });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toHaveProperty("events.0.job");
   });
 
   it("when a job is unknown, then GET and DELETE answer 404; a malformed id 400", async () => {

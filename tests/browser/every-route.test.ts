@@ -146,10 +146,11 @@ describe("browser: every route at 375 px and 1366 px", () => {
     const page = await browser.newPage();
     await page.setViewportSize({ width: 375, height: 740 });
     await page.goto(`${stack.baseUrl}/catalogue`, { waitUntil: "networkidle" });
+    await page.locator("main h1").first().waitFor();
     await page.keyboard.press("Tab");
     await expect(page.evaluate(() => document.activeElement?.textContent ?? "")).resolves.toMatch(/Skip to the content/);
     await page.keyboard.press("Enter");
-    await expect(page.evaluate(() => document.activeElement?.id ?? "")).resolves.toBe("main");
+    await page.waitForFunction(() => document.activeElement?.id === "main", undefined, { timeout: 5000 });
     const menu = page.getByRole("button", { name: "Menu" });
     await expect(menu.getAttribute("aria-expanded")).resolves.toBe("false");
     await expect(page.getByRole("navigation", { name: "Main" }).isVisible()).resolves.toBe(false);

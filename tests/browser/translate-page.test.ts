@@ -72,8 +72,9 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     await row.waitFor();
     // Independent value: sqrt(alpha) = 4.07 km for this binary (tests/api/convert-post.test.ts derives it from physics.md's EdGB beta).
     await expect(page.getByTestId("limit-edgb").textContent()).resolves.toMatch(/4\.07\s*km/);
-    await expect(page.getByTestId("validity-edgb").textContent()).resolves.toMatch(/not valid.*body 2/);
-    await expect(page.getByTestId("comparison-edgb").textContent()).resolves.toMatch(/3\.06 times weaker than Lyu et al\. 2022/);
+    await expect(page.getByTestId("validity-edgb").textContent()).resolves.toMatch(/outside validity.*body 2/);
+    // Outside validity, the limit is not compared with published bounds (it is not a limit).
+    await expect(page.getByTestId("comparison-edgb").textContent()).resolves.toMatch(/^not compared with Yagi 2012/);
     await expect(page.getByTestId("cautions-edgb").textContent()).resolves.toMatch(/one-signed.*β < 0/i);
     await expect(page.getByTestId("not-applicable").textContent()).resolves.toMatch(/Dynamical Chern-Simons.*b = -1/);
     await row.locator(".katex").first().waitFor();
@@ -82,9 +83,8 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     await betaPlot.locator("svg").first().waitFor();
     await expect(betaPlot.locator("svg circle").count()).resolves.toBe(1);
     await expect(betaPlot.textContent()).resolves.toMatch(/edgb/);
-    const couplingPlot = page.getByTestId("coupling-plot-edgb");
-    await couplingPlot.locator("svg").first().waitFor();
-    await expect(couplingPlot.textContent()).resolves.toMatch(/Lyu et al\. 2022/);
+    // EdGB's limit is outside validity here, so it is not plotted against published bounds.
+    await expect(page.getByTestId("coupling-plot-edgb").count()).resolves.toBe(0);
     const svg = await downloaded(page, () => page.getByTestId("beta-plot-download").click());
     expect(svg.name).toBe("beta-against-b.svg");
     expect(svg.text).toMatch(/^<\?xml/);

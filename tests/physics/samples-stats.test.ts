@@ -88,6 +88,7 @@ function input(t: { entry: CatalogueTheory; mapping: CompiledMapping }, beta: Fl
     frame: "source",
     bodies: ["bh", "bh"],
     cosmology: DEFAULT_COSMOLOGY,
+    fLowHz: 20,
     columns: { deviation: beta, m1: filled(n, m1), m2: filled(n, m2) },
     names: { deviation: "beta", m1: "m1", m2: "m2" },
     prior,
@@ -166,6 +167,9 @@ describe("posterior samples: weighted credible bounds", () => {
     expect(Math.abs(a - lo) / (hi - lo)).toBeLessThan(0.01);
     expect(Math.abs(b - hi) / (hi - lo)).toBeLessThan(0.01);
     expect(r.samples.used).toBe(50_000);
+    // The in-band condition |Gdot/G| tau << 1 needs f_low and tau per sample: it is assessed, not left as NaN.
+    expect(r.conditions.length).toBeGreaterThan(0);
+    for (const c of r.conditions) expect(c.power).toBe(1);
   });
 
   it("when weights are given, then the weighted quantile interpolates the weighted CDF (derived on four points)", () => {
@@ -206,6 +210,7 @@ describe("several events: stacking", () => {
     prior: { kind: "uniform" },
     events,
     include_outside_validity: true,
+    f_low: 20,
   });
 
   it("when two events come as samples jobs, then the combined bound matches the analytic product's quantile", async () => {

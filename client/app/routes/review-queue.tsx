@@ -14,7 +14,7 @@ export function Component() {
   return (
     <RequireAuth role="editor">
       <h1 className="text-3xl mb-2">Review queue</h1>
-      <p className="mb-6 max-w-prose text-ink-soft">Submissions sent for review, sent back after changes, or being reviewed now. Open one to read it, its checks and its diff.</p>
+      <p className="mb-6 max-w-prose text-ink-soft">Submissions submitted, resubmitted after a return, or in review now. Open one to read it, its checks and its diff.</p>
       <Queue />
     </RequireAuth>
   );

@@ -11,6 +11,7 @@ import { changesFromDiff, DiffView } from "../../components/ui/diff-view.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { ScrollBox } from "../../components/ui/scroll-box.tsx";
 import { paths } from "../../lib/paths.ts";
+import { statusLabel } from "../../../common/submission-status.ts";
 
 function Review({ id }: { id: number }) {
   const { user } = useAuth();
@@ -28,7 +29,7 @@ function Review({ id }: { id: number }) {
       </h1>
       <p className="mt-1 flex flex-wrap items-center gap-3 text-sm text-ink-soft tabular-nums">
         <span>by {s.author.name}</span>
-        <Badge tone="info">{s.status.replace("_", " ")}</Badge>
+        <Badge tone="info">{statusLabel(s.status)}</Badge>
         <span>version {s.version}</span>
         <span>{s.target_slug ? `changes “${s.target_slug}” (now at revision ${s.target_revision ?? "?"})` : "a new entry"}</span>
         <CheckBadge outcome={s.checks.failures > 0 ? "failed" : s.checks.warnings > 0 ? "warning" : "ok"} title={`${s.checks.failures} failed, ${s.checks.warnings} warnings`} />

@@ -4,6 +4,7 @@ import { ExportLinks } from "../../features/sheets/components/export-links.tsx";
 import { SheetRecords } from "../../features/sheets/components/sheet-records.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { apiPaths } from "../../lib/paths.ts";
+import { formatDateTime } from "../../../common/dates.ts";
 
 /** A sheet opened through its share link: read-only, no sign-in needed. */
 export function Component() {
@@ -20,7 +21,7 @@ export function Component() {
           {sheet.name}
         </h1>
         <p className="text-sm text-ink-faint">
-          by {sheet.owner.name} · version {sheet.version} · updated {new Date(sheet.updated_at).toLocaleString()}
+          by {sheet.owner.name} · version {sheet.version} · updated {formatDateTime(sheet.updated_at)}
         </p>
         {sheet.description && <p className="max-w-3xl text-ink-soft">{sheet.description}</p>}
       </header>

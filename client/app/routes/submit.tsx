@@ -9,6 +9,7 @@ import { SubmissionForm } from "../../features/submissions/components/submission
 import { WithdrawButton } from "../../features/submissions/components/withdraw-button.tsx";
 import { Caution, ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { paths } from "../../lib/paths.ts";
+import { statusLabel } from "../../../common/submission-status.ts";
 
 /** States in which the author may still change and (re)send a submission. */
 const AUTHOR_EDITABLE = new Set(["draft", "returned"]);
@@ -57,7 +58,7 @@ function EditSubmission({ id }: { id: number }) {
         {s.name}
       </h1>
       <p className="mb-4 text-sm text-ink-soft tabular-nums">
-        Submission {s.id} by {s.author.name} · {s.status.replace("_", " ")} · version {s.version}
+        Submission {s.id} by {s.author.name} · {statusLabel(s.status)} · version {s.version}
         {s.target_slug ? ` · changes “${s.target_slug}”` : " · a new entry"}
       </p>
       <SubmissionComments id={s.id} />
@@ -69,7 +70,7 @@ function EditSubmission({ id }: { id: number }) {
       {!editable && (
         <div className="mb-4">
           <Caution title="This submission cannot be changed now">
-            It is {s.status.replace("_", " ")}. {isAuthor ? "You can change it again if an editor returns it." : "Only its author (or an editor, while it is under review) can change it."}
+            It is {statusLabel(s.status)}. {isAuthor ? "You can change it again if an editor returns it." : "Only its author (or an editor, while it is under review) can change it."}
           </Caution>
         </div>
       )}

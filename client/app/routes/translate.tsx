@@ -5,6 +5,7 @@ import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx"
 import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel.tsx";
 import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
 import { SamplesPanel } from "../../features/translate/components/samples-panel.tsx";
+import { SamplesJobPanel } from "../../features/jobs/components/samples-job-panel.tsx";
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
 import { paths } from "../../lib/paths.ts";
 
@@ -30,6 +31,7 @@ export function Component() {
         </p>
       </header>
       <TranslatePanel footer={(request) => <SaveSlot request={request} />} />
+      <SamplesJobPanel />
       <SamplesPanel />
       <EventsPanel />
       <RingdownPanel />

@@ -8,6 +8,8 @@ interface Props<Row> {
   /** Shown in place of the body when there are no rows. */
   empty?: ReactNode;
   rowTestId?: (row: Row) => string;
+  /** Shown under the first cell on narrow screens only: what must stay in view (a verdict) when the other columns scroll away. */
+  pinnedOnSmall?: (row: Row) => ReactNode;
 }
 
 // The first column (the theory, the event) stays in view while a wide table scrolls sideways.
@@ -19,7 +21,7 @@ const sortLabel = { asc: "ascending", desc: "descending" } as const;
  * Renders any TanStack table (v8 API). Sortable headers are buttons, so the keyboard reaches them,
  * and aria-sort tells screen readers the current order.
  */
-export function DataTable<Row>({ table, caption, empty, rowTestId }: Props<Row>) {
+export function DataTable<Row>({ table, caption, empty, rowTestId, pinnedOnSmall }: Props<Row>) {
   const rows = table.getRowModel().rows;
   const columns = table.getVisibleLeafColumns().length;
   return (
@@ -69,6 +71,7 @@ export function DataTable<Row>({ table, caption, empty, rowTestId }: Props<Row>)
                 {row.getVisibleCells().map((cell, i) => (
                   <td key={cell.id} className={`px-3 py-2 ${i === 0 ? `${STICKY} bg-paper` : ""}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    {i === 0 && pinnedOnSmall && <div className="mt-1 md:hidden">{pinnedOnSmall(row.original)}</div>}
                   </td>
                 ))}
               </tr>

@@ -14,12 +14,12 @@ const userView = z.object({
   last_sign_in_at: z.string().nullable(),
 });
 export const listUsersResponse = z.object({ users: z.array(userView) });
-export const setRolesBody = z.object({
+export const setRolesBody = z.strictObject({
   roles: z.array(z.enum(ROLES, { error: `must be one of ${ROLES.join(", ")}` })).max(ROLES.length * 2),
 });
 export const setRolesResponse = z.object({ user: userView });
 const loginParams = z.object({ login: z.string().min(1).max(39) });
-export const auditQuery = z.object({
+export const auditQuery = z.strictObject({
   limit: z.coerce.number().int().min(1).max(500).default(100),
   subject: z.string().min(1).max(39).optional(),
 });

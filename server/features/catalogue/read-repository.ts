@@ -12,6 +12,7 @@ import type {
 import type { Knex } from "../../db/knex.ts";
 import { listReferencesOfTheories, listTheoryReferences } from "../references/repository.ts";
 import { texToHtml } from "./tex-html.ts";
+import { searchTerms } from "./search-terms.ts";
 
 /** Reads of the accepted catalogue, from the normalised tables. Plain objects out. */
 
@@ -183,8 +184,20 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
     });
   }
   if (f.text) {
-    const like = `%${escapeLike(f.text)}%`;
-    q.where((w) => w.whereILike("t.name", like).orWhereILike("t.summary", like).orWhereILike("t.slug", like));
+    // The entry's words, and its couplings' symbols, TeX and descriptions (alpha, lambda_g, Gdot, α).
+    const likes = searchTerms(f.text).map((term) => `%${escapeLike(term)}%`);
+    q.where((w) => {
+      for (const like of likes) {
+        w.orWhereILike("t.name", like).orWhereILike("t.summary", like).orWhereILike("t.slug", like);
+        w.orWhereExists((sub) =>
+          sub
+            .select(db.raw("1"))
+            .from("couplings as c")
+            .whereRaw("c.theory_id = t.id")
+            .where((cw) => cw.whereILike("c.symbol", like).orWhereILike("c.latex", like).orWhereILike("c.quoted_symbol", like).orWhereILike("c.description", like)),
+        );
+      }
+    });
   }
   const theories = await q;
   if (!theories.length) return [];

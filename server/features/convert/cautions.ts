@@ -64,7 +64,7 @@ export function signedIntervalCaution(result: BoundedResult): Caution | undefine
   const end = (x: number | null, inf: string) => (x === null ? inf : fmt(x));
   const interval = `${s.symbol} ∈ [${end(s.lower, "−∞")}, ${end(s.upper, "+∞")}]${s.unit && s.unit !== "1" ? ` ${s.unit}` : ""}`;
   return {
-    code: "one_signed",
+    code: "signed_interval",
     message: result.signed_headline
       ? `The coupling can take either sign and the bound is one-sided: only ${interval} follows; its magnitude is not bounded.`
       : `The coupling can take either sign, so the bound maps to the signed interval ${interval}; the magnitude limit beside it is the larger end.`,

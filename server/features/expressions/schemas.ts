@@ -3,7 +3,7 @@ import { z } from "zod";
 /** Request and response shapes of the expression routes (also the source of the API document). */
 const symbolName = z.string().regex(/^[A-Za-z][A-Za-z0-9_]*$/, "must be a name like alpha or chi_s");
 
-export const couplingDeclaration = z.object({
+export const couplingDeclaration = z.strictObject({
   symbol: symbolName,
   dimension: z.number().finite(),
   /** Where GR lies for this coupling; the GR-limit check sends it there (an upside-down coupling fails). */
@@ -12,18 +12,18 @@ export const couplingDeclaration = z.object({
 });
 
 /** E^2 = p^2 + A p^alpha_md: the coefficient is A / h^(2 - alpha_md), a power of length with its sign. */
-const propagationInput = z.object({
+const propagationInput = z.strictObject({
   alpha_md: z.number().finite(),
   coefficient: z.string().min(1).max(2000),
   order: z.number().finite().optional(),
 });
 
-export const definitionDeclaration = z.object({
+export const definitionDeclaration = z.strictObject({
   symbol: symbolName,
   expression: z.string().min(1).max(2000),
 });
 
-export const checkRequest = z.object({
+export const checkRequest = z.strictObject({
   // The length cap lives in the expression guard, so its message names the position; this cap only
   // keeps absurd bodies out of the parser.
   expression: z.string().max(200_000),
@@ -34,10 +34,10 @@ export const checkRequest = z.object({
   couplings: z.array(couplingDeclaration).max(50),
   definitions: z.array(definitionDeclaration).max(50).optional(),
   derivation: z
-    .object({
-      energy: z.object({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
-      flux: z.object({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
-      frequency_drift: z.object({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
+    .strictObject({
+      energy: z.strictObject({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
+      flux: z.strictObject({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
+      frequency_drift: z.strictObject({ order: z.number().finite(), coefficient: z.string().max(2000) }).optional(),
       propagation: propagationInput.optional(),
     })
     .optional(),
@@ -56,9 +56,9 @@ export const checkResponse = z.object({
   latex: z.string().nullable(),
 });
 
-const term = z.object({ order: z.number().finite(), coefficient: z.string().min(1).max(2000) });
+const term = z.strictObject({ order: z.number().finite(), coefficient: z.string().min(1).max(2000) });
 
-export const deriveRequest = z.object({
+export const deriveRequest = z.strictObject({
   energy: term.optional(),
   flux: term.optional(),
   frequency_drift: term.optional(),

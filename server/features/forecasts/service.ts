@@ -113,25 +113,47 @@ export function forecastsService(repo: CurvesRepository, pool: ForecastPool, tra
       for (const b of theoryBs) {
         const row = network.rows.find((r) => r.b === b);
         if (!row || row.bound === null) continue;
-        const convertRequest = parseWith(
-          convertRequestSchema,
-          {
-            bound: { parameter: "ppe_beta", b, upper: row.bound, credibility: request.credibility },
-            binary: { m1: result.source.m1, m2: result.source.m2, chi1: result.source.chi1, chi2: result.source.chi2, frame: "source", z: result.source.z },
-            cosmology: result.cosmology,
-          },
-          "translation request",
-        );
-        const answer = await translator.convert(convertRequest);
-        out.push({
-          network: ni,
-          b,
-          beta_max: row.bound,
-          sides: request.sides,
-          results: answer.results,
-          not_applicable: answer.not_applicable.filter((n) => n.code !== "different_b"),
-          cautions: answer.cautions,
-        });
+        // Two-sided: |beta| < B. One-sided: the sign is the theory's, so both one-sided intervals are
+        // translated and each theory keeps the side its beta lives on (the translator says which).
+        const intervals: [number | null, number | null][] = request.sides === "two" ? [[-row.bound, row.bound]] : [[-row.bound, null], [null, row.bound]];
+        const answers = [];
+        for (const interval of intervals) {
+          const bound =
+            request.sides === "two"
+              ? { parameter: "ppe_beta", b, upper: row.bound, credibility: request.credibility }
+              : { parameter: "ppe_beta", b, interval, credibility: request.credibility };
+          const convertRequest = parseWith(
+            convertRequestSchema,
+            {
+              bound,
+              binary: { m1: result.source.m1, m2: result.source.m2, chi1: result.source.chi1, chi2: result.source.chi2, frame: "source", z: result.source.z },
+              cosmology: result.cosmology,
+            },
+            "translation request",
+          );
+          answers.push({ interval, answer: await translator.convert(convertRequest) });
+        }
+        const translatedTheories = new Set(answers.flatMap((a) => a.answer.results.map((r) => r.theory)));
+        for (const { interval, answer } of answers) {
+          out.push({
+            network: ni,
+            b,
+            beta_max: row.bound,
+            sides: request.sides,
+            interval,
+            results: answer.results,
+            // A theory limited by the other one-sided interval is not "not applicable".
+            not_applicable: answer.not_applicable.filter((n) => n.code !== "different_b" && !translatedTheories.has(n.theory)),
+            cautions: answer.cautions,
+          });
+        }
+        if (request.sides === "one" && answers.length === 2) {
+          // the same non-applicable theory would otherwise be listed once per side
+          const last = out[out.length - 1]!;
+          const first = out[out.length - 2]!;
+          const seen = new Set(first.not_applicable.map((n) => n.theory));
+          last.not_applicable = last.not_applicable.filter((n) => !seen.has(n.theory));
+        }
       }
     }
     return out;

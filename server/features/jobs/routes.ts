@@ -1,10 +1,11 @@
 import { ipKeyGenerator, rateLimit } from "express-rate-limit";
 import type { RequestHandler } from "express";
-import { jobCreatedSchema, jobIdSchema, jobViewSchema, samplesJobRequestSchema, stackJobRequestSchema } from "../../../common/jobs.ts";
+import { filePreviewSchema, jobCreatedSchema, jobIdSchema, jobViewSchema, samplesJobRequestSchema, stackJobRequestSchema } from "../../../common/jobs.ts";
 import type { Config } from "../../config.ts";
 import { TooManyRequestsError, ValidationError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import type { JobsService } from "./service.ts";
+import { previewFile } from "./preview.ts";
 import { samplesUpload, storedUpload } from "./upload.ts";
 
 /**
@@ -63,6 +64,25 @@ export function jobsRoutes(service: JobsService, config: Config): RouteSpec[] {
         } catch (err) {
           if (file) await import("node:fs/promises").then((fs) => fs.unlink(file.path)).catch(() => undefined);
           throw err;
+        }
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/jobs/preview",
+      access: access.public,
+      summary: "The column picker's preview of a samples file: its tables, each column's first rows and statistics over the first 1000 rows (nothing is stored)",
+      tags: ["jobs"],
+      response: filePreviewSchema,
+      errors: [400, 413, 429],
+      before: [limit, upload],
+      handler: async (req, res) => {
+        const file = storedUpload(req);
+        if (!file) throw new ValidationError("Invalid file: attach the samples file as the form field file", { file: "attach the samples file" });
+        try {
+          res.json(await previewFile(file));
+        } finally {
+          await import("node:fs/promises").then((fs) => fs.unlink(file.path)).catch(() => undefined);
         }
       },
     },

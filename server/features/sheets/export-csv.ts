@@ -1,3 +1,4 @@
+import { catalogueVersionText } from "../../../common/catalogue-version.ts";
 import type { Sheet } from "../../../common/sheets.ts";
 import { boundIndex, exportLines, failedConditions } from "./export-rows.ts";
 
@@ -43,8 +44,11 @@ export const CSV_COLUMNS = [
   "verdict",
   "failed_conditions",
   "reason",
-  "catalogue_revision",
+  "catalogue_version",
 ] as const;
+
+/** "15 entries, as of 2 Dec 2026, 06:30 UTC (15.21.mx5p15fd)": readable, with the exact token kept. */
+const catalogueCell = (token: string) => `${catalogueVersionText(token)} (${token})`;
 
 export function escapeCsvCell(cell: Cell): string {
   if (cell === null) return "";
@@ -100,11 +104,11 @@ export function sheetToCsv(sheet: Sheet): string {
         x.verdict,
         failedConditions(x).join("; "),
         null,
-        r.translation.catalogue_revision,
+        catalogueCell(r.translation.catalogue_revision),
       ]);
     } else {
       const n = line.item;
-      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, null, n.reason, r.translation.catalogue_revision]);
+      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, null, n.reason, catalogueCell(r.translation.catalogue_revision)]);
     }
   }
   return lines.map((cells) => cells.map(escapeCsvCell).join(",")).join("\r\n") + "\r\n";

@@ -24,7 +24,7 @@ import type { SheetsService } from "./service.ts";
 const analyst = access.roles("analyst");
 const idParams = z.object({ id: sheetIdSchema });
 const tokenParams = z.object({ token: shareTokenSchema });
-const deleteQuery = z.object({ version: dbId("version").optional() });
+const deleteQuery = z.strictObject({ version: dbId("version").optional() });
 
 function caller(req: Request): Identity {
   if (!req.identity) throw new UnauthorizedError();

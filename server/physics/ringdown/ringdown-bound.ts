@@ -11,7 +11,8 @@
 import { PhysicsInputError } from "../input-error.ts";
 import type { CompiledRingdownMapping, RingdownValidity } from "./ringdown-mapping.ts";
 
-export type ShiftBound = { readonly upper: number } | { readonly interval: readonly [number, number] };
+/** |shift| <= upper, or lo <= shift <= hi with a null end meaning unbounded on that side. */
+export type ShiftBound = { readonly upper: number } | { readonly interval: readonly [number | null, number | null] };
 
 export type Verdict = "valid" | "outside_validity" | "not_assessed";
 
@@ -51,7 +52,8 @@ export function allowedSet(bound: ShiftBound): [number, number] {
     if (!(bound.upper > 0)) throw new PhysicsInputError("bound.upper", "bound.upper must be positive: it bounds |shift|");
     return [-bound.upper, bound.upper];
   }
-  const [lo, hi] = bound.interval;
+  const lo = bound.interval[0] ?? -Infinity;
+  const hi = bound.interval[1] ?? Infinity;
   if (!(lo < hi)) throw new PhysicsInputError("bound.interval", "bound.interval must be [lo, hi] with lo < hi");
   if (lo > 0 || hi < 0) {
     throw new PhysicsInputError("bound.interval", "bound.interval excludes 0 (general relativity): that is a claimed deviation, not a bound a coupling limit can come from");

@@ -95,9 +95,9 @@ export function parseNumberBytes(buf: Uint8Array, start: number, end: number): n
 }
 
 function slow(buf: Uint8Array, s: number, e: number): number | typeof NOT_A_NUMBER {
-  const text = Buffer.from(buf.buffer, buf.byteOffset + s, e - s).toString("latin1");
-  const special = NONFINITE.get(text.toLowerCase());
-  if (special !== undefined) return special;
+  const text = Buffer.isBuffer(buf) ? (buf as Buffer & { latin1Slice(s: number, e: number): string }).latin1Slice(s, e) : Buffer.from(buf.buffer, buf.byteOffset + s, e - s).toString("latin1");
   const v = Number(text);
-  return Number.isNaN(v) ? NOT_A_NUMBER : v;
+  if (!Number.isNaN(v)) return v;
+  const special = NONFINITE.get(text.toLowerCase());
+  return special !== undefined ? special : NOT_A_NUMBER;
 }

@@ -1,13 +1,13 @@
 import type { CatalogueTheory, CompiledMapping } from "../catalogue-mapping.ts";
 import { symbolTableFor } from "../catalogue-mapping.ts";
-import { BLACK_HOLE_SCALAR_SENSITIVITY, edgbSpinFactor, type BodyKind } from "../binary.ts";
+import { BLACK_HOLE_SCALAR_SENSITIVITY, edgbSpinFactor, inBandTimeKm, type BodyKind } from "../binary.ts";
 import { validateCosmology, type Cosmology } from "../cosmology.ts";
 import { compileVectorized } from "../expr/compile.ts";
 import { expandDefinitions } from "../expr/symbols.ts";
 import { detectPowerLaw } from "../invert.ts";
 import { quotedValueOf } from "../quoted-forms.ts";
 import { gimrFactor, type GimrIndex } from "../taylorf2.ts";
-import { solarMassToKm } from "../units.ts";
+import { SPEED_OF_LIGHT_KM_S, solarMassToKm } from "../units.ts";
 import { distanceAlphaColumn, redshiftColumn } from "./distance-table.ts";
 import { SampleInputError } from "./sample-input-error.ts";
 import { effectiveSampleSize, weightedHistogram, weightedQuantiles, type Histogram } from "./weighted.ts";
@@ -48,6 +48,8 @@ export interface PipelineInput {
   frame: "source" | "detector";
   bodies: readonly [BodyKind, BodyKind];
   cosmology: Cosmology;
+  /** Lowest observed frequency of the band (Hz): the in-band time tau of the validity conditions. */
+  fLowHz: number;
   columns: SampleColumns;
   /** The file's own name for each role, for messages. */
   names: Partial<Record<ColumnRole, string>>;
@@ -238,6 +240,15 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
     sg1[i] = bodyOf(i, 1) === "bh" ? BLACK_HOLE_SCALAR_SENSITIVITY : Number.NaN;
     sg2[i] = bodyOf(i, 2) === "bh" ? BLACK_HOLE_SCALAR_SENSITIVITY : Number.NaN;
   }
+  const fLowPerKm = input.fLowHz / SPEED_OF_LIGHT_KM_S;
+  env.set("f_low", new Float64Array(n).fill(fLowPerKm));
+  const tau = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const M = km1[i]! + km2[i]!;
+    const mc = ((km1[i]! * km2[i]!) / (M * M)) ** 0.6 * M;
+    tau[i] = inBandTimeKm(mc, input.fLowHz, z && !skip[i] ? z[i]! : 0);
+  }
+  env.set("tau", tau);
   env.set("s1", s1);
   env.set("s2", s2);
   env.set("sigma1", sg1);

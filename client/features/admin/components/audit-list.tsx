@@ -1,5 +1,6 @@
 import { Empty, ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { useAudit } from "../api/get-audit.ts";
+import { formatDateTime } from "../../../../common/dates.ts";
 
 const list = (v: unknown) => (Array.isArray(v) ? (v.length ? v.join(", ") : "none") : JSON.stringify(v));
 
@@ -18,7 +19,7 @@ export function AuditList({ limit = 20 }: { limit?: number }) {
     <ol className="space-y-2 text-[0.95rem]" data-testid="audit-list">
       {audit.data.map((e) => (
         <li key={e.id} className="border-l-2 border-sea/40 pl-3">
-          <span className="text-ink-faint text-sm">{new Date(e.at).toLocaleString("en-GB")}</span>{" "}
+          <span className="text-ink-faint text-sm">{formatDateTime(e.at)}</span>{" "}
           <strong>{e.actor ?? "the configuration"}</strong> {actionWords[e.action] ?? e.action} <strong>{e.subject}</strong>:{" "}
           <span className="text-ink-soft">
             {list(e.before)} → {list(e.after)}

@@ -4,10 +4,11 @@ import { DataTable } from "../../../components/ui/data-table.tsx";
 import { ErrorNote } from "../../../components/ui/states.tsx";
 import { ADMIN_ROLE_NAMES, type AdminRole, type AdminUser } from "../api/get-users.ts";
 import { useSetRoles } from "../api/set-roles.ts";
+import { formatDate } from "../../../../common/dates.ts";
 
 const column = createColumnHelper<AdminUser>();
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString("en-GB", { year: "numeric", month: "short", day: "numeric" }) : "never");
+const when = (iso: string | null) => (iso ? formatDate(iso) : "never");
 
 const roleHint: Record<AdminRole, string> = {
   contributor: "submits theory mappings",

@@ -9,8 +9,9 @@ import { ApiError } from "../../../lib/api-client.ts";
 import { useCreateToken } from "../api/create-token.ts";
 import { useTokens } from "../api/get-tokens.ts";
 import { useRevokeToken } from "../api/revoke-token.ts";
+import { formatDateTime } from "../../../../common/dates.ts";
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" }) : "never");
+const when = (iso: string | null) => (iso ? formatDateTime(iso) : "never");
 
 /** Personal API tokens: make one (its secret is shown here once), see when each was last used, revoke. */
 export function ApiTokensPanel() {

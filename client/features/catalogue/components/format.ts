@@ -1,5 +1,6 @@
 /** Display helpers shared by the catalogue's components. */
 import { displayName } from "../../../components/ui/text-format.ts";
+import { formatDate } from "../../../../common/dates.ts";
 
 export { displayName, unitLabel } from "../../../components/ui/text-format.ts";
 
@@ -14,10 +15,9 @@ export function pnLabel(n: number | null): string {
   return `${signed(n)}PN`;
 }
 
+/** The app's one date format ("2 Dec 2026"). */
 export function shortDate(iso: string): string {
-  const d = new Date(iso);
-  if (Number.isNaN(d.getTime())) return iso;
-  return d.toISOString().slice(0, 10);
+  return formatDate(iso);
 }
 
 export function authorList(authors: readonly string[], max = 3): string {

@@ -2,7 +2,7 @@ import type { TheoryDetail } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { CheckBadge, CheckList, worstOutcome } from "../../../components/ui/check-list.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
-import { shortNumber } from "../../../components/ui/text-format.ts";
+import { thresholdText } from "../../../components/ui/text-format.ts";
 import { RetiredBadge, RetiredNote } from "./retirement.tsx";
 import { authorList, equationTex, pnLabel, signed } from "./format.ts";
 
@@ -131,7 +131,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
           <ul className="flex flex-col gap-2">
             {m.validity.map((v, i) => (
               <li key={i} className="flex flex-wrap items-center gap-x-3 gap-y-1 text-[0.95rem]" data-testid={`validity-${index}-${i}`}>
-                <MathTex tex={`\\displaystyle ${v.latex} < ${shortNumber(v.max)}`} />
+                <MathTex tex={`\\displaystyle ${v.latex} < ${thresholdText(v.max)}`} />
                 <span className="text-sm text-ink-soft">{v.label}</span>
                 <Badge tone={v.kind === "hard" ? "fail" : "neutral"}>{v.kind === "hard" ? "hard limit" : "rule of thumb"}</Badge>
                 {v.applies_to && <span className="text-xs text-ink-faint">only for {v.applies_to.join(" / ").toUpperCase()}{v.body ? `, body ${v.body}` : ""}</span>}

@@ -118,7 +118,7 @@ export function couplingPoints(result: ForecastResponse): CouplingPoint[] {
         theory: `${x.theory_name} (b = ${t.b})`,
         network: networkName(result, t.network),
         ratio,
-        valid: x.valid,
+        valid: x.verdict === "valid",
         text: `${x.coupling.symbol} ${x.coupling.side === "upper" ? "<" : ">"} ${formatPlain(x.coupling.value)} ${x.coupling.unit}`,
       });
     }
@@ -150,7 +150,7 @@ export function CouplingPlot({ result }: { result: ForecastResponse }) {
             stroke: "network",
             fill: (p: CouplingPoint) => (p.valid ? p.network : "white"),
             r: 5,
-            title: (p: CouplingPoint) => `${p.network}: ${p.text}, ${formatPlain(p.ratio)} × the published bound${p.valid ? "" : " (outside the mapping's validity)"}`,
+            title: (p: CouplingPoint) => `${p.network}: ${p.text}, ${formatPlain(p.ratio)} × the published bound${p.valid ? "" : " (not shown valid: outside validity or not assessed)"}`,
           }),
         ],
       });
@@ -163,7 +163,7 @@ export function CouplingPlot({ result }: { result: ForecastResponse }) {
       title="Theories: forecast coupling limit beside published bounds"
       filename="forecast-couplings"
       testId="forecast-coupling-plot"
-      caption="Each dot: one network's forecast limit on a theory's coupling, divided by the tightest published bound shown with the theory (the vertical line). Hollow dots: the limit lies outside the mapping's validity. Theories without a comparable published bound are only in the table."
+      caption="Each dot: one network's forecast limit on a theory's coupling, divided by the tightest published bound shown with the theory (the vertical line). Hollow dots: the limit is not shown valid (outside the mapping's validity, or not assessed). Theories without a comparable published bound are only in the table."
     />
   );
 }

@@ -3,6 +3,8 @@ import { Caution } from "../../../components/ui/states.tsx";
 import { SciNumber, unitText } from "../../translate/components/sci-number.tsx";
 import { NETWORK_COLOURS, networkName } from "./forecast-plots.tsx";
 
+const VERDICT_TEXT = { valid: "valid", outside_validity: "outside validity", not_assessed: "not assessed" } as const;
+
 const STATUS_TEXT = { ok: "", ill_conditioned: "ill-conditioned", no_constraint: "no constraint" } as const;
 
 function Hz({ f }: { f: number }) {
@@ -123,7 +125,7 @@ export function TranslationTable({ result }: { result: ForecastResponse }) {
         </thead>
         <tbody>
           {rows.map(({ t, x }) => (
-            <tr key={`${t.network}-${t.b}-${x.theory}-${x.convention}`} className="border-b border-paper-edge/60 align-top">
+            <tr key={`${t.network}-${t.b}-${t.interval.join(":")}-${x.theory}-${x.convention}`} className="border-b border-paper-edge/60 align-top">
               <td className="py-1 pr-3">
                 {x.theory_name} <span className="text-xs text-ink-faint">(b = {t.b})</span>
               </td>
@@ -133,10 +135,16 @@ export function TranslationTable({ result }: { result: ForecastResponse }) {
               </td>
               <td className="py-1 pr-3">
                 {x.coupling.symbol} {x.coupling.side === "upper" ? "<" : ">"} <SciNumber value={x.coupling.value} /> {unitText(x.coupling.unit)}
+                {t.sides === "one" && (
+                  <div className="text-xs text-ink-faint">
+                    from β {t.interval[0] !== null ? "> −" : "< "}
+                    <SciNumber value={t.beta_max} digits={2} /> (one-sided)
+                  </div>
+                )}
               </td>
-              <td className={`py-1 pr-3 ${x.valid ? "" : "text-amber"}`}>
-                {x.valid ? "valid" : "outside validity"}
-                {!x.valid && x.validity.filter((v) => !v.ok).map((v) => <div key={v.label} className="text-xs">{v.condition}</div>)}
+              <td className={`py-1 pr-3 ${x.verdict === "valid" ? "" : "text-amber"}`} data-verdict={x.verdict}>
+                {VERDICT_TEXT[x.verdict]}
+                {x.verdict === "outside_validity" && x.validity.filter((v) => !v.ok).map((v) => <div key={v.label} className="text-xs">{v.condition}</div>)}
               </td>
               <td className="py-1 pr-3 text-xs">
                 {x.reference_bounds.length === 0 ? <span className="text-ink-faint">—</span> : x.reference_bounds.map((r) => <div key={r.reference.key + r.value}>{r.sentence}</div>)}
@@ -150,7 +158,7 @@ export function TranslationTable({ result }: { result: ForecastResponse }) {
           <summary>Theories that give no limit here ({skipped.length})</summary>
           <ul className="list-disc pl-5">
             {skipped.map(({ t, x }) => (
-              <li key={`${t.network}-${t.b}-${x.theory}`}>
+              <li key={`${t.network}-${t.b}-${t.interval.join(":")}-${x.theory}`}>
                 {x.theory_name}, {networkName(result, t.network)}, b = {t.b}: {x.reason}
               </li>
             ))}

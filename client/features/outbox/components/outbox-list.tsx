@@ -2,6 +2,7 @@ import { useState } from "react";
 import type { z } from "zod";
 import type { outboxMessageSchema } from "../../../../common/catalogue.ts";
 import { Button } from "../../../components/ui/button.tsx";
+import { formatDateTime } from "../../../../common/dates.ts";
 
 type Message = z.infer<typeof outboxMessageSchema>;
 
@@ -10,7 +11,7 @@ function MessageItem({ m, index }: { m: Message; index: number }) {
   return (
     <li className="rounded border border-paper-edge bg-white/40" data-testid={`outbox-message-${index}`}>
       <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1 px-3 py-2">
-        <span className="tabular-nums text-sm text-ink-soft whitespace-nowrap">{new Date(m.date).toLocaleString("en-GB")}</span>
+        <span className="tabular-nums text-sm text-ink-soft whitespace-nowrap">{formatDateTime(m.date)}</span>
         <span className="font-semibold grow">{m.subject}</span>
         <span className="text-sm font-mono text-ink-soft">to {m.to}</span>
         <Button kind="quiet" aria-expanded={open} onClick={() => setOpen(!open)}>

@@ -4,6 +4,7 @@ import { Button } from "../../../components/ui/button.tsx";
 import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useAddComment, useComments } from "../api/comments.ts";
+import { formatDateTime } from "../../../../common/dates.ts";
 
 export function CommentsThread({ id }: { id: number }) {
   const fieldId = useId();
@@ -27,7 +28,7 @@ export function CommentsThread({ id }: { id: number }) {
           {comments.data.comments.map((c) => (
             <li key={c.id} className="rounded border border-paper-edge bg-white/40 p-3">
               <p className="text-sm text-ink-soft">
-                <span className="font-semibold text-ink">{c.author.name}</span> · <span className="tabular-nums">{new Date(c.created_at).toLocaleString("en-GB")}</span>
+                <span className="font-semibold text-ink">{c.author.name}</span> · <span className="tabular-nums">{formatDateTime(c.created_at)}</span>
                 {c.kind !== "comment" && (
                   <Badge tone={c.kind === "returned" ? "caution" : "ok"} className="ml-2">
                     {c.kind}

@@ -5,6 +5,7 @@ import { checkLabel } from "../../../components/ui/check-list.tsx";
 import { Caution, ErrorNote } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useDecide, useStartReview } from "../api/review-actions.ts";
+import { statusLabel } from "../../../../common/submission-status.ts";
 
 interface Props {
   submission: SubmissionDetail;
@@ -67,7 +68,7 @@ export function DecisionPanel({ submission: s, ownSubmission }: Props) {
     );
   }
   if (s.status !== "in_review") {
-    return <p className="text-sm text-ink-soft">This submission is {s.status.replace("_", " ")}; there is nothing to decide.</p>;
+    return <p className="text-sm text-ink-soft">This submission is {statusLabel(s.status)}; there is nothing to decide.</p>;
   }
   return (
     <div className="flex flex-col gap-3">

@@ -2,7 +2,7 @@ import { FAMILY_LABELS, type ChecksReport, type SubmissionDetail } from "../../.
 import { Badge } from "../../../components/ui/badge.tsx";
 import { CheckBadge, CheckList, worstOutcome } from "../../../components/ui/check-list.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
-import { displayName, shortNumber, unitLabel } from "../../../components/ui/text-format.ts";
+import { displayName, thresholdText, unitLabel } from "../../../components/ui/text-format.ts";
 import { useRenderedExpression } from "../api/render-expression.ts";
 
 type Entry = SubmissionDetail["theory"];
@@ -107,7 +107,7 @@ export function EntryPreview({ entry, checks }: { entry: Entry; checks: ChecksRe
                 <ul className="mt-2 text-sm text-ink-soft">
                   {(m.validity ?? []).map((v, j) => (
                     <li key={j}>
-                      valid while <span className="font-mono">{v.expression}</span> &lt; <span className="tabular-nums">{shortNumber(v.max)}</span> ({v.label})
+                      valid while <span className="font-mono">{v.expression}</span> &lt; <span className="tabular-nums">{thresholdText(v.max)}</span> ({v.label})
                     </li>
                   ))}
                 </ul>

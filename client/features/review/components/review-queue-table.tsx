@@ -6,11 +6,11 @@ import { Badge, type Tone } from "../../../components/ui/badge.tsx";
 import { CheckBadge } from "../../../components/ui/check-list.tsx";
 import { DataTable } from "../../../components/ui/data-table.tsx";
 import { paths } from "../../../lib/paths.ts";
+import { statusLabel } from "../../../../common/submission-status.ts";
 
 const col = createColumnHelper<SubmissionSummary>();
 const day = (iso: string | null) => (iso ? iso.slice(0, 10) : "—");
 const statusTone: Partial<Record<SubmissionStatus, Tone>> = { submitted: "info", resubmitted: "caution", in_review: "ok" };
-const statusLabel: Partial<Record<SubmissionStatus, string>> = { submitted: "waiting", resubmitted: "sent back by author", in_review: "in review" };
 
 const columns = [
   col.accessor("name", {
@@ -30,7 +30,7 @@ const columns = [
   col.accessor((s) => s.author.name, { id: "author", header: "Author" }),
   col.accessor("status", {
     header: "State",
-    cell: (info) => <Badge tone={statusTone[info.getValue()] ?? "neutral"}>{statusLabel[info.getValue()] ?? info.getValue()}</Badge>,
+    cell: (info) => <Badge tone={statusTone[info.getValue()] ?? "neutral"}>{statusLabel(info.getValue())}</Badge>,
   }),
   col.accessor("checks_ok", { header: "Checks", cell: (info) => <CheckBadge outcome={info.getValue() ? "ok" : "failed"} /> }),
   col.accessor("version", { header: "Version", cell: (info) => <span className="tabular-nums">{info.getValue()}</span> }),

@@ -66,7 +66,7 @@ export function RingdownPanel() {
     const bound =
       f.kind === "upper"
         ? { parameter: f.parameter, mode: f.mode, upper: num(f.upper), credibility: num(f.credibility) }
-        : { parameter: f.parameter, mode: f.mode, interval: [num(f.lo), num(f.hi)], credibility: num(f.credibility) };
+        : { parameter: f.parameter, mode: f.mode, interval: [num(f.lo) ?? null, num(f.hi) ?? null], credibility: num(f.credibility) };
     const parsed = ringdownConvertRequestSchema.safeParse({ bound, remnant: { M_f: num(f.M_f), chi_f: num(f.chi_f), frame: f.frame, ...(num(f.z) === undefined ? {} : { z: num(f.z) }) } });
     if (!parsed.success) {
       const next: Record<string, string> = {};
@@ -121,7 +121,7 @@ export function RingdownPanel() {
           </Field>
         ) : (
           <div className="grid grid-cols-2 gap-2">
-            <Field label="lo" error={shown["bound.interval"]}>
+            <Field label="lo" error={shown["bound.interval"]} hint="blank: unbounded">
               {(c) => <TextInput {...c} inputMode="decimal" value={f.lo} onChange={set("lo")} />}
             </Field>
             <Field label="hi">{(c) => <TextInput {...c} inputMode="decimal" value={f.hi} onChange={set("hi")} />}</Field>

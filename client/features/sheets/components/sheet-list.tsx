@@ -8,6 +8,7 @@ import { ApiError } from "../../../lib/api-client.ts";
 import { paths } from "../../../lib/paths.ts";
 import { useCreateSheet } from "../api/create-sheet.ts";
 import { useSheets } from "../api/get-sheets.ts";
+import { formatDate } from "../../../../common/dates.ts";
 
 /** Your sheets, newest first, and a way to start an empty one. */
 export function SheetList() {
@@ -50,7 +51,7 @@ export function SheetList() {
               </div>
               <span className="flex items-baseline gap-3 text-sm text-ink-faint">
                 {s.shared && <Badge tone="info">shared</Badge>}
-                {s.record_count} record{s.record_count === 1 ? "" : "s"} · v{s.version} · {new Date(s.updated_at).toLocaleDateString()}
+                {s.record_count} record{s.record_count === 1 ? "" : "s"} · v{s.version} · {formatDate(s.updated_at)}
               </span>
             </li>
           ))}

@@ -13,6 +13,7 @@ import { recordInput } from "../lib/record-input.ts";
 import { ExportLinks } from "./export-links.tsx";
 import { SharePanel } from "./share-panel.tsx";
 import { SheetRecords } from "./sheet-records.tsx";
+import { formatDateTime } from "../../../../common/dates.ts";
 
 function Details({ sheet }: { sheet: Sheet }) {
   const update = useUpdateSheet(sheet.id);
@@ -64,7 +65,7 @@ export function SheetManager({ id }: { id: number }) {
       <header className="flex flex-col gap-1">
         <h1 className="text-3xl">{sheet.name}</h1>
         <p className="text-sm text-ink-faint">
-          Version {sheet.version} · {sheet.records.length} record{sheet.records.length === 1 ? "" : "s"} · updated {new Date(sheet.updated_at).toLocaleString()}
+          Version {sheet.version} · {sheet.records.length} record{sheet.records.length === 1 ? "" : "s"} · updated {formatDateTime(sheet.updated_at)}
         </p>
         {sheet.description && <p className="max-w-3xl text-ink-soft">{sheet.description}</p>}
       </header>

@@ -5,6 +5,8 @@ import { Button } from "../../../components/ui/button.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { ScrollBox } from "../../../components/ui/scroll-box.tsx";
 import { sciText, unitLabel } from "../../../components/ui/text-format.ts";
+import { formatDateTime } from "../../../../common/dates.ts";
+import { catalogueVersionText } from "../../../../common/catalogue-version.ts";
 
 /** A sheet's records and their stored translations, read-only (owner and shared readers alike). */
 
@@ -143,7 +145,11 @@ export function SheetRecords({ sheet, onRemove, busy = false }: Props) {
             </details>
           )}
           <p className="mt-2 text-xs text-ink-faint">
-            Translated {new Date(r.translated_at).toLocaleString()} against catalogue revision {r.translation.catalogue_revision}; H₀ = {r.cosmology.H0}, Ωₘ = {r.cosmology.Omega_m}.
+            Translated {formatDateTime(r.translated_at)} against the catalogue of{" "}
+            <span title={`catalogue version ${r.translation.catalogue_revision}`} className="underline decoration-dotted">
+              {catalogueVersionText(r.translation.catalogue_revision)}
+            </span>
+            ; H₀ = {r.cosmology.H0}, Ωₘ = {r.cosmology.Omega_m}.
           </p>
         </li>
       ))}

@@ -1,5 +1,6 @@
 import type { SubmissionStatus } from "../../../../common/catalogue.ts";
 import { Badge, type Tone } from "../../../components/ui/badge.tsx";
+import { statusLabel } from "../../../../common/submission-status.ts";
 
 const tone: Record<SubmissionStatus, Tone> = {
   draft: "neutral",
@@ -11,16 +12,7 @@ const tone: Record<SubmissionStatus, Tone> = {
   withdrawn: "neutral",
 };
 
-const label: Record<SubmissionStatus, string> = {
-  draft: "draft",
-  submitted: "submitted",
-  resubmitted: "sent back",
-  in_review: "in review",
-  returned: "returned to author",
-  accepted: "accepted",
-  withdrawn: "withdrawn",
-};
 
 export function StatusBadge({ status }: { status: SubmissionStatus }) {
-  return <Badge tone={tone[status]}>{label[status]}</Badge>;
+  return <Badge tone={tone[status]}>{statusLabel(status)}</Badge>;
 }

@@ -6,6 +6,7 @@ import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useAddSubmissionComment } from "../api/add-comment.ts";
 import { useSubmissionComments } from "../api/get-submission.ts";
+import { formatDateTime } from "../../../../common/dates.ts";
 
 /** The editors' comments on a submission, newest last, so the author sees what to change and can answer. */
 export function SubmissionComments({ id }: { id: number }) {
@@ -20,7 +21,7 @@ export function SubmissionComments({ id }: { id: number }) {
         {comments.data.comments.map((c) => (
           <li key={c.id} className="text-[0.95rem]">
             <p className="text-sm text-ink-soft">
-              <span className="font-semibold text-ink">{c.author.name}</span>, <span className="tabular-nums">{new Date(c.created_at).toLocaleString("en-GB")}</span>
+              <span className="font-semibold text-ink">{c.author.name}</span>, <span className="tabular-nums">{formatDateTime(c.created_at)}</span>
               {c.kind !== "comment" && (
                 <Badge tone={c.kind === "returned" ? "caution" : "ok"} className="ml-2">
                   {c.kind === "returned" ? "returned for changes" : "accepted"}

@@ -16,6 +16,7 @@ import { MappingsFields } from "./mappings-fields.tsx";
 import { ReferencesFields } from "./references-fields.tsx";
 import { SavedChecks } from "./save-summary.tsx";
 import { applyServerErrors, fieldsOf, flattenErrors, type UnplacedError } from "./server-errors.ts";
+import { statusLabel } from "../../../../common/submission-status.ts";
 
 export interface SubmissionFormProps {
   id?: number | undefined;
@@ -161,7 +162,7 @@ export function SubmissionForm(props: SubmissionFormProps) {
             )}
             <span className="text-sm text-ink-soft tabular-nums" data-testid="form-status" role="status">
               {id !== undefined ? `Submission ${id}, version ${version ?? "?"}` : "Not saved yet"}
-              {props.status ? ` · ${props.status.replace("_", " ")}` : ""}
+              {props.status ? ` · ${statusLabel(props.status)}` : ""}
               {form.formState.isDirty ? " · unsaved changes" : ""}
               {notice ? ` · ${notice}` : ""}
             </span>

@@ -13,7 +13,7 @@ const codeLabel: Record<CautionCode, string> = {
   engine: "engine",
   couplings: "couplings",
   orders: "orders",
-  bodies: "bodies",
+  signed_interval: "signed interval",
 };
 
 /** Cautions stay next to the number they qualify; validity failures are shown first and in brick. */

@@ -4,6 +4,7 @@ import type { ConvertResult, ReferenceComparison } from "../../../../common/conv
 import { Badge } from "../../../components/ui/badge.tsx";
 import { DataTable } from "../../../components/ui/data-table.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
+import { thresholdText } from "../../../components/ui/text-format.ts";
 import { CautionList } from "./caution-list.tsx";
 import { SciNumber, unitText } from "./sci-number.tsx";
 
@@ -70,7 +71,7 @@ function Validity({ r, id }: { r: ConvertResult; id: string }) {
       <VerdictBadge verdict={r.verdict} />
       {failing.map((v) => (
         <span key={v.label} className="text-brick" data-testid={`failing-${id}`}>
-          fails ×{fmtFactor(v.factor)}: {v.label} (<SciNumber value={v.value ?? NaN} /> &gt; {Number(v.max.toPrecision(3))})
+          fails ×{fmtFactor(v.factor)}: {v.label} (<SciNumber value={v.value ?? NaN} /> &gt; {thresholdText(v.max)})
         </span>
       ))}
       {stretched.map((v) => (
@@ -160,5 +161,18 @@ export function ResultsTable({ results, onConvention }: Props) {
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
   });
-  return <DataTable table={table} caption="Limits on every applicable theory" empty="No catalogued theory enters at this b." rowTestId={(r) => `result-${rowKey(r, multi)}`} />;
+  return (
+    <DataTable
+      table={table}
+      caption="Limits on every applicable theory"
+      empty="No catalogued theory enters at this b."
+      rowTestId={(r) => `result-${rowKey(r, multi)}`}
+      // On phones the validity column scrolls out of view: the verdict stays beside the theory's name.
+      pinnedOnSmall={(r) => (
+        <span data-testid={`verdict-small-${rowKey(r, multi)}`}>
+          <VerdictBadge verdict={r.verdict} />
+        </span>
+      )}
+    />
+  );
 }

@@ -1,5 +1,7 @@
-import { useCallback, useMemo, useState, type ReactNode } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from "react";
+import { useSearchParams } from "react-router-dom";
 import type { ConvertRequest, ConvertResponse, ConvertTableRequest, ConvertTableResponse } from "../../../../common/convert.ts";
+import { announce } from "../../../components/ui/live-region.tsx";
 import { ErrorNote } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useConvert } from "../api/convert-bound.ts";
@@ -11,6 +13,8 @@ import { comparableQuantity, CouplingPlot } from "./coupling-plot.tsx";
 import { NotApplicableList } from "./not-applicable-list.tsx";
 import { ResultsTable } from "./results-table.tsx";
 import { TableOverB } from "./table-over-b.tsx";
+import { RequestSummary } from "./request-summary.tsx";
+import { formSnapshot, readRequestParam, rememberedRequest, rememberRequest, REQUEST_PARAM, requestParam } from "../lib/request-url.ts";
 
 /** Every theory the catalogue knows, at the b values it enters at, from whichever answer is at hand. */
 export function theoryMarks(response: ConvertResponse | undefined, table: ConvertTableResponse | undefined): TheoryMark[] {
@@ -41,15 +45,66 @@ interface Props {
 
 /** The translate page's working area: the form, the results with their cautions, the plots, the table over b. */
 export function TranslatePanel({ footer }: Props) {
-  const [request, setRequest] = useState<ConvertRequest | undefined>();
+  // The request lives in the address (?q=…): a link reproduces the result, back and forward walk
+  // through earlier ones, and the tab remembers the last one for when the person comes back.
+  const [searchParams, setSearchParams] = useSearchParams();
+  const fromUrl = useMemo(() => readRequestParam(searchParams.get(REQUEST_PARAM)), [searchParams]);
+  const request = fromUrl.kind === "ok" ? fromUrl.request : undefined;
+  const urlText = fromUrl.kind === "ok" ? fromUrl.text : null;
+  useEffect(() => {
+    if (fromUrl.kind === "none") {
+      const remembered = rememberedRequest();
+      if (remembered && readRequestParam(remembered).kind === "ok") setSearchParams({ [REQUEST_PARAM]: remembered }, { replace: true });
+    } else if (urlText) rememberRequest(urlText);
+  }, [fromUrl.kind, urlText, setSearchParams]);
+  const setRequest = useCallback(
+    (next: ConvertRequest, how: { replace?: boolean } = {}) => setSearchParams({ [REQUEST_PARAM]: requestParam(next) }, { replace: how.replace ?? false }),
+    [setSearchParams],
+  );
+
   const [tableRequest, setTableRequest] = useState<ConvertTableRequest | undefined>();
   const convert = useConvert(request);
   const table = useConvertTable(tableRequest);
-  const response = convert.data;
 
-  const onConvention = useCallback((theory: string, convention: string) => {
-    setRequest((r) => (r ? { ...r, conventions: { ...r.conventions, [theory]: convention } } : r));
-  }, []);
+  // A result is stale once the form no longer shows the inputs it was made from; a submit the
+  // form refuses (a field error) withdraws the result, so an error never sits above an old number.
+  const formBox = useRef<HTMLDivElement>(null);
+  const madeFrom = useRef<string | null>(null);
+  // Staleness belongs to the result of one address: a new request starts fresh.
+  const [staleFor, setStaleFor] = useState<string | null>(null);
+  const stale = staleFor !== null && staleFor === urlText;
+  const [refused, setRefused] = useState(false);
+  const resultsHeading = useRef<HTMLHeadingElement>(null);
+  const focusResults = useRef(false);
+  const currentForm = () => formBox.current?.querySelector("form");
+  useEffect(() => {
+    // After the form shows the request of the address (a submit, a link, back/forward), it is the reference.
+    madeFrom.current = formSnapshot(currentForm());
+  }, [urlText]);
+  const onFormEdit = () => {
+    if (madeFrom.current !== null) setStaleFor(formSnapshot(currentForm()) !== madeFrom.current ? urlText : null);
+  };
+
+  const response = convert.error || refused ? undefined : convert.data;
+  const shownFor = response && !convert.isPlaceholderData ? response : undefined;
+  useEffect(() => {
+    if (!shownFor) return;
+    announce(`${shownFor.results.length} ${shownFor.results.length === 1 ? "limit" : "limits"} translated; ${shownFor.not_applicable.length} theories not constrained by this bound.`);
+    if (focusResults.current) {
+      focusResults.current = false;
+      resultsHeading.current?.focus();
+    }
+  }, [shownFor]);
+  useEffect(() => {
+    if (convert.error) announce(`The bound could not be translated: ${convert.error.message}`);
+  }, [convert.error]);
+
+  const onConvention = useCallback(
+    (theory: string, convention: string) => {
+      if (request) setRequest({ ...request, conventions: { ...request.conventions, [theory]: convention } }, { replace: true });
+    },
+    [request, setRequest],
+  );
   const marks = useMemo(() => theoryMarks(response, table.data), [response, table.data]);
   const points = useMemo(() => betaPoints(response, table.data), [response, table.data]);
   const withReferences = (response?.results ?? []).filter((r) => comparableQuantity(r) !== undefined);
@@ -57,23 +112,61 @@ export function TranslatePanel({ footer }: Props) {
 
   return (
     <div className="flex flex-col gap-10">
-      <BoundForm onSubmit={(r) => setRequest({ ...r, ...(request?.conventions ? { conventions: request.conventions } : {}) })} serverError={convert.error} busy={convert.isFetching} />
+      {fromUrl.kind === "bad" && (
+        <p role="alert" className="rounded border border-brick/40 bg-brick-wash px-3 py-2 text-sm text-brick">
+          This link's inputs could not be used ({fromUrl.message}); the form shows the worked example instead.
+        </p>
+      )}
+      <div
+        ref={formBox}
+        onInput={onFormEdit}
+        onChange={onFormEdit}
+        onSubmitCapture={() => {
+          setRefused(true);
+          focusResults.current = true;
+        }}
+      >
+        <BoundForm
+          key={urlText ?? "example"}
+          {...(request ? { initial: request } : {})}
+          onSubmit={(r) => {
+            setRefused(false);
+            const next = { ...r, ...(request?.conventions ? { conventions: request.conventions } : {}) };
+            if (urlText === requestParam(next)) {
+              // The same inputs again: the address does not change, so re-run and clear the marks here.
+              setStaleFor(null);
+              void convert.refetch();
+            } else setRequest(next);
+          }}
+          serverError={convert.error}
+          busy={convert.isFetching}
+        />
+      </div>
 
       {convert.error && !fieldError && <ErrorNote error={convert.error} title="The bound could not be translated." />}
+      {refused && !convert.error && convert.data && <p className="text-sm text-brick">The form holds an error (marked above); the previous result was withdrawn.</p>}
 
       {response && (
-        <section aria-labelledby="results-title" className="flex flex-col gap-4" data-testid="results">
-          <h2 id="results-title" className="text-2xl">
+        <section aria-labelledby="results-title" className="flex flex-col gap-4" data-testid="results" data-stale={stale}>
+          <h2 id="results-title" ref={resultsHeading} tabIndex={-1} className="text-2xl focus:outline-none">
             Limits on the catalogued theories
           </h2>
+          {stale && (
+            <p role="status" className="rounded border border-amber/50 bg-amber-wash px-3 py-2 text-sm font-semibold text-amber" data-testid="stale-note">
+              Out of date: the inputs above changed after this result was made. Translate again to update it.
+            </p>
+          )}
+          {/* An out-of-date result stays readable but visibly faded, under the note that says why. */}
+          <div className={`flex flex-col gap-4 ${stale ? "opacity-50" : ""}`}>
+          {request && <RequestSummary request={request} cosmology={response.cosmology} catalogueVersion={response.catalogue_revision} />}
           <p className="text-sm text-ink-soft">
-            {response.bound.b === null ? "This bound has no single ppE exponent." : `At b = ${response.bound.b}, |β| ≤ ${response.bound.beta_max?.toPrecision(3)} in the exp(+iΨ) convention`}
-            {`, ${Math.round(response.bound.credibility * 1000) / 10}% credibility; cosmology H₀ = ${response.cosmology.H0}, Ωₘ = ${response.cosmology.Omega_m}; catalogue revision ${response.catalogue_revision}.`}
+            {response.bound.b === null ? "This bound has no single ppE exponent." : `As translated: |β| ≤ ${response.bound.beta_max?.toPrecision(3)} at b = ${response.bound.b} in the exp(+iΨ) convention.`}
           </p>
           <CautionList cautions={response.cautions} testId="bound-cautions" />
           <ResultsTable results={response.results} onConvention={onConvention} />
           <NotApplicableList items={response.not_applicable} />
           {request && footer?.(request, response)}
+          </div>
         </section>
       )}
 

@@ -1,0 +1,94 @@
+import request from "supertest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { convertResponseSchema, type ConvertResponse, type ConvertResult } from "../../common/convert.ts";
+import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
+import { buildTestApp } from "../helpers/app.ts";
+import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+
+/**
+ * POST /api/v1/convert through the second batch of entries: each limit against a formula written
+ * here from the entry's source or derivation, with the constants typed in again.
+ */
+
+// IAU 2015 B3 nominal (G M)_sun and exact c: G M_sun / c^2 in km.
+const KM_PER_MSUN = 1.3271244e20 / 299_792_458 ** 2 / 1000;
+const rel = (a: number, b: number) => Math.abs(a / b - 1);
+
+describe("POST /api/v1/convert with the second batch of entries", () => {
+  let tdb: TestDatabase;
+  let app: ReturnType<typeof buildTestApp>;
+
+  beforeAll(async () => {
+    tdb = await createTestDatabase();
+    await tdb.db.transaction(async (trx) => {
+      await catalogueSeed.run(trx);
+      await catalogueWave2Seed.run(trx);
+    });
+    app = buildTestApp(tdb, { RATE_LIMIT_PER_MINUTE: "1000" });
+  }, 120_000);
+  afterAll(async () => {
+    await tdb?.drop();
+  });
+
+  async function convert(body: object): Promise<ConvertResponse> {
+    const res = await request(app).post("/api/v1/convert").send(body);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    return convertResponseSchema.parse(res.body);
+  }
+  const resultFor = (r: ConvertResponse, theory: string): ConvertResult => {
+    const found = r.results.find((x) => x.theory === theory);
+    if (!found) throw new Error(`no result for ${theory}; not applicable: ${JSON.stringify(r.not_applicable.find((n) => n.theory === theory))}`);
+    return found;
+  };
+
+  const m1 = 10 * KM_PER_MSUN;
+  const m2 = 5 * KM_PER_MSUN;
+  const M = m1 + m2;
+  const eta = (m1 * m2) / M ** 2;
+  const binary = { m1: 10, m2: 5, chi1: 0.4, chi2: 0.2, bodies: ["bh", "bh"], frame: "source" };
+
+  it("when a -1PN bound is given, then the vector-charge difference follows the Larmor dipole: |dq| = sqrt(beta_max / ((5/3584) eta^(2/5)))", async () => {
+    const r = await convert({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary, theories: ["vector-charges", "scalar-charges"] });
+    // beta = -(5/3584) eta^(2/5) dq^2 (dipole flux (2/3) eta^2 v^8 dq^2, derived); the scalar one has half the flux.
+    expect(rel(resultFor(r, "vector-charges").coupling.value, Math.sqrt(1e-3 / ((5 / 3584) * eta ** 0.4)))).toBeLessThan(1e-9);
+    expect(rel(resultFor(r, "scalar-charges").coupling.value, Math.sqrt(1e-3 / ((5 / 7168) * eta ** 0.4)))).toBeLessThan(1e-9);
+    expect(resultFor(r, "vector-charges").side_used).toBe("lower");
+  });
+
+  it("when a 5PN bound is given, then the mimickers' common tidal deformability follows the Lambda-tilde phase", async () => {
+    const r = await convert({ bound: { parameter: "ppe_beta", b: 5, upper: 0.5, credibility: 0.9 }, binary, theories: ["eco-tidal-deformability"] });
+    // beta = -(117/256) Lambda-tilde / eta^2, Lambda-tilde = (16/13) Lambda [(m1 + 12 m2) m1^4 + (m2 + 12 m1) m2^4] / M^5 (value from memory).
+    const perLambda = ((117 / 256) * (16 / 13) * ((m1 + 12 * m2) * m1 ** 4 + (m2 + 12 * m1) * m2 ** 4)) / (M ** 5 * eta ** 2);
+    const res = resultFor(r, "eco-tidal-deformability");
+    expect(rel(res.coupling.value, 0.5 / perLambda)).toBeLessThan(1e-9);
+    expect(res.signed_interval?.lower).toBeCloseTo(-0.5 / perLambda, 9);
+  });
+
+  it("when a -2PN bound is given, then the Yukawa binding of a massive graviton gives a lower bound on lambda_g (derived)", async () => {
+    const r = await convert({ bound: { parameter: "ppe_beta", b: -9, upper: 1e-4, credibility: 0.9 }, binary, theories: ["massive-graviton-yukawa"] });
+    // beta = -(5/576) eta^(4/5) M^2 / lambda_g^2 (our own derivation from -(M/r) exp(-r/lambda_g)).
+    const res = resultFor(r, "massive-graviton-yukawa");
+    expect(res.b).toBe(-9);
+    expect(res.canonical.symbol).toBe("lambda_g");
+    expect(rel(res.canonical.value, Math.sqrt(((5 / 576) * eta ** 0.8 * M ** 2) / 1e-4))).toBeLessThan(1e-9);
+  });
+
+  it("when spins are given at 2PN, then the spin-induced quadrupole deviation follows the quadrupole-monopole coefficient", async () => {
+    const r = await convert({ bound: { parameter: "ppe_beta", b: -1, upper: 0.2, credibility: 0.9 }, binary, theories: ["spin-induced-quadrupole", "quasi-kerr-quadrupole"] });
+    // d phi_4 = -50 dkappa sum (m_i/M)^2 chi_i^2, beta = (3/128) eta^(-4/5) d phi_4 (Krishnendu, Arun & Mishra 2017; value from memory).
+    const perKappa = (3 / 128) * eta ** -0.8 * 50 * ((m1 / M) ** 2 * 0.16 + (m2 / M) ** 2 * 0.04);
+    expect(rel(resultFor(r, "spin-induced-quadrupole").coupling.value, 0.2 / perKappa)).toBeLessThan(1e-9);
+    const perEps = (3 / 128) * eta ** -0.8 * 50 * ((m1 / M) ** 2 + (m2 / M) ** 2);
+    expect(rel(resultFor(r, "quasi-kerr-quadrupole").coupling.value, 0.2 / perEps)).toBeLessThan(1e-9);
+  });
+
+  it("when a bound at b = 3 is asked for, then no limit comes back: a constant speed of GWs is degenerate with the coalescence time", async () => {
+    const res = await request(app).post("/api/v1/convert").send({ bound: { parameter: "ppe_beta", b: 3, upper: 1, credibility: 0.9 }, binary, theories: ["gw-speed"] });
+    // Yunes & Pretorius 2009: b = 3 (4PN) is degenerate with t_c; the entry documents the term and cites the GW-EM bound instead.
+    expect(res.status).toBe(200);
+    const r = convertResponseSchema.parse(res.body);
+    expect(r.results.filter((x) => x.theory === "gw-speed")).toEqual([]);
+    expect(r.not_applicable.find((n) => n.theory === "gw-speed")).toMatchObject({ code: "degenerate_b" });
+  });
+});
