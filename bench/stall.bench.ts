@@ -1,0 +1,176 @@
+// Run with: npx tsx bench/stall.bench.ts (npm run bench runs it). Starts the real server in a child
+// process on a throw-away database, sends it hostile expressions, crafted definition expressions and
+// 200 000-sample bodies while polling /api/health, and prints the server's event-loop delay
+// (perf_hooks monitorEventLoopDelay, measured inside the server process) and the health latency,
+// against a baseline measured in the same run with health polling alone. Nothing here asserts.
+import { execFileSync, fork, type ChildProcess } from "node:child_process";
+import { createDb, migrateLatest } from "../server/db/knex.ts";
+import { catalogueSeed } from "../seeds/catalogue.ts";
+import { craftedDefinitionChecks, hostileCorpus } from "../tests/helpers/hostile-corpus.ts";
+
+// The benchmarks' throw-away cluster (as bench/http-load.bench.ts): BENCH_PGPORT, .data/pg-bench.
+const PGPORT = process.env.BENCH_PGPORT ?? "54359";
+const pgEnv = { ...process.env, PGPORT, PGDATA_DIR: ".data/pg-bench", PG_DATABASES: "dragoman_bench", PG_THROWAWAY: "1" };
+const wasRunning = (() => {
+  try {
+    execFileSync("bash", ["scripts/pg.sh", "status"], { env: pgEnv, stdio: "ignore" });
+    return true;
+  } catch {
+    return false;
+  }
+})();
+const DB = "dragoman_bench_stall";
+const SAMPLES = 200_000;
+
+type Report = { max: number; p99: number; mean: number };
+
+function quantile(xs: number[], q: number): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.floor(q * s.length))] ?? Number.NaN;
+}
+
+async function database(): Promise<string> {
+  const base = execFileSync("bash", ["scripts/pg.sh", "start"], {
+    env: pgEnv,
+    encoding: "utf8",
+    stdio: ["ignore", "pipe", "inherit"],
+  }).trim();
+  const admin = createDb(`${base}postgres`, { max: 1 });
+  await admin.raw(`drop database if exists "${DB}" with (force)`);
+  await admin.raw(`create database "${DB}"`);
+  await admin.destroy();
+  const db = createDb(`${base}${DB}`, { max: 2 });
+  await migrateLatest(db);
+  await db.transaction((trx) => catalogueSeed.run(trx));
+  await db.destroy();
+  return `${base}${DB}`;
+}
+
+function startServer(databaseUrl: string): Promise<{ child: ChildProcess; url: string }> {
+  const child = fork("bench/stall-server.ts", [], {
+    execArgv: ["--import", "tsx"],
+    env: { ...process.env, DATABASE_URL: databaseUrl, PORT: "0", LOG_LEVEL: "silent", NODE_ENV: "development", RATE_LIMIT_PER_MINUTE: "1000000", CLIENT_DIST: "dist" },
+    stdio: ["ignore", "inherit", "inherit", "ipc"],
+  });
+  return new Promise((resolve, reject) => {
+    child.once("error", reject);
+    child.once("exit", (code) => reject(new Error(`server exited with ${code}`)));
+    child.on("message", (m: { type: string; url?: string }) => {
+      if (m.type === "listening" && m.url) resolve({ child, url: m.url });
+    });
+  });
+}
+
+function ask<T>(child: ChildProcess, type: string): Promise<T> {
+  return new Promise((resolve) => {
+    const on = (m: { type: string }) => {
+      if (m.type !== type) return;
+      child.off("message", on);
+      resolve(m as T);
+    };
+    child.on("message", on);
+    child.send({ type });
+  });
+}
+
+/** Polls /api/health one request after another until `until` resolves; returns each latency (ms). */
+async function pollHealth(url: string, until: Promise<unknown>): Promise<{ latencies: number[]; statuses: Map<number, number> }> {
+  let done = false;
+  void until.then(() => (done = true));
+  const latencies: number[] = [];
+  const statuses = new Map<number, number>();
+  while (!done) {
+    const t0 = performance.now();
+    const res = await fetch(`${url}/api/health`);
+    await res.arrayBuffer();
+    latencies.push(performance.now() - t0);
+    statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
+    await new Promise((r) => setTimeout(r, 10));
+  }
+  return { latencies, statuses };
+}
+
+function samplesBody(n: number, spoil: boolean): string {
+  let seed = 12345;
+  const rnd = () => {
+    seed = (seed * 48271) % 2147483647;
+    return seed / 2147483647;
+  };
+  const col = (lo: number, hi: number) => Array.from({ length: n }, () => lo + (hi - lo) * rnd());
+  const m1 = col(10, 40);
+  const columns: Record<string, unknown[]> = { beta: col(-1e-3, 1e-3), m1, m2: m1.map((m) => m * (0.3 + 0.6 * rnd())), chi1: col(-0.5, 0.5), chi2: col(-0.5, 0.5), z: col(0.05, 0.3) };
+  // The audit's case: a body that is read and walked in full, then refused for its last value.
+  if (spoil) (columns.m1 as unknown[])[n - 1] = "x";
+  return JSON.stringify({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", columns });
+}
+
+async function post(url: string, path: string, body: string, counts: Map<string, number>): Promise<void> {
+  try {
+    const res = await fetch(`${url}${path}`, { method: "POST", headers: { "content-type": "application/json" }, body });
+    await res.arrayBuffer();
+    const key = `${path} ${res.status}`;
+    counts.set(key, (counts.get(key) ?? 0) + 1);
+  } catch (err) {
+    const key = `${path} error ${err instanceof Error ? err.message : String(err)}`;
+    counts.set(key, (counts.get(key) ?? 0) + 1);
+  }
+}
+
+async function attack(url: string, counts: Map<string, number>): Promise<void> {
+  const corpus = hostileCorpus(300);
+  const crafted = craftedDefinitionChecks();
+  const base = { target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 2 }], definitions: [{ symbol: "zeta", expression: "16*pi*alpha^2/M^4" }] };
+  const bigBodies = [samplesBody(SAMPLES, false), samplesBody(SAMPLES, true)];
+  const lane = async (items: Array<[string, string]>) => {
+    for (const [path, body] of items) await post(url, path, body, counts);
+  };
+  const hostile: Array<[string, string]> = corpus.map((e) => ["/api/v1/expressions/check", JSON.stringify({ ...base, expression: e })]);
+  const craftedItems: Array<[string, string]> = Array.from({ length: 60 }, (_, k) => ["/api/v1/expressions/check", JSON.stringify(crafted[k % crafted.length]?.body)]);
+  const samples: Array<[string, string]> = Array.from({ length: 4 }, (_, k) => ["/api/v1/convert/samples", bigBodies[k % 2] as string]);
+  const split = <T,>(xs: T[], n: number): T[][] => Array.from({ length: n }, (_, i) => xs.filter((_, k) => k % n === i));
+  // STALL_PARTS=expressions or samples sends only that part (to see which one stalls).
+  const parts = process.env.STALL_PARTS ?? "all";
+  const expressions = parts === "samples" ? [] : [...split(hostile, 3), ...split(craftedItems, 2)];
+  const bodies = parts === "expressions" ? [] : split(samples, 2);
+  await Promise.all([...expressions, ...bodies].map(lane));
+}
+
+function line(label: string, health: number[], loop: Report): string {
+  const f = (x: number) => x.toFixed(1).padStart(7);
+  return `${label.padEnd(26)} health n=${String(health.length).padStart(4)}  p50 ${f(quantile(health, 0.5))} ms  p99 ${f(quantile(health, 0.99))} ms  max ${f(Math.max(...health))} ms | event-loop delay max ${f(loop.max)} ms  p99 ${f(loop.p99)} ms`;
+}
+
+const databaseUrl = await database();
+const { child, url } = await startServer(databaseUrl);
+try {
+  // Warm-up: the first check starts the workers, the first conversion compiles the catalogue.
+  await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), new Map());
+  await new Promise((r) => setTimeout(r, 1500));
+
+  await ask(child, "reset");
+  const quiet = await pollHealth(url, new Promise((r) => setTimeout(r, 3000)));
+  const quietLoop = await ask<Report>(child, "report");
+
+  await ask(child, "reset");
+  const counts = new Map<string, number>();
+  const t0 = performance.now();
+  const attackDone = attack(url, counts);
+  const loud = await pollHealth(url, attackDone);
+  const seconds = (performance.now() - t0) / 1000;
+  const loudLoop = await ask<Report>(child, "report");
+
+  console.log(`stall benchmark, parts: ${process.env.STALL_PARTS ?? "all"} (${SAMPLES} samples per body; hostile corpus of 300, crafted definition expressions x60, 4 samples bodies; ${seconds.toFixed(1)} s of attack)`);
+  console.log(line("baseline (health alone)", quiet.latencies, quietLoop));
+  console.log(line("under attack", loud.latencies, loudLoop));
+  console.log(`ratio under attack / baseline: health max x${(Math.max(...loud.latencies) / Math.max(...quiet.latencies)).toFixed(1)}, event-loop max x${(loudLoop.max / quietLoop.max).toFixed(1)}`);
+  console.log(`health statuses under attack: ${[...loud.statuses].map(([s, n]) => `${s} x${n}`).join(", ")}`);
+  console.log(`attack answers: ${[...counts].map(([k, n]) => `${k} x${n}`).join(", ")}`);
+  console.log(`goal: max health latency under 100 ms -> ${Math.max(...loud.latencies) < 100 ? "met" : "NOT met"}`);
+} finally {
+  child.send({ type: "stop" });
+  await new Promise((r) => child.once("exit", r));
+  const admin = createDb(databaseUrl.replace(/[^/]+$/, "postgres"), { max: 1 });
+  await admin.raw(`drop database if exists "${DB}" with (force)`);
+  await admin.destroy();
+  if (!wasRunning) execFileSync("bash", ["scripts/pg.sh", "stop"], { env: pgEnv, stdio: "ignore" });
+}
