@@ -48,7 +48,7 @@ describe("browser: posterior samples and several events", () => {
 
     const events = page.locator("section", { has: page.getByRole("heading", { name: "Several events" }) });
     await events.getByTestId("events-theory").selectOption("edgb");
-    await events.getByLabel("Event 2 bound").fill("5e-4");
+    await events.getByLabel("Event 2 bound").fill("1e-5");
     await events.getByRole("button", { name: "Translate and combine" }).click();
     await expect(events.getByTestId("events-combined").textContent({ timeout: 20_000 })).resolves.toMatch(/Combined \(3 events\)\s*≤/);
     await expect(events.getByTestId("events-table").textContent()).resolves.toMatch(/tightest/);

@@ -98,7 +98,8 @@ describe("plots", () => {
       />,
     );
     const figure = screen.getByTestId("beta-plot");
-    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull());
+    // The plotting library is loaded on demand: give the import time on a loaded machine.
+    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull(), { timeout: 15_000 });
     const svg = figure.querySelector("svg")!;
     expect(svg.querySelectorAll("circle")).toHaveLength(2);
     expect(svg.textContent).toMatch(/massive-graviton/);
@@ -113,7 +114,8 @@ describe("plots", () => {
     expect(comparableQuantity(mg)?.quantity.symbol).toBe("m_g");
     render(<CouplingPlot result={mg} />);
     const figure = screen.getByTestId("coupling-plot-massive-graviton");
-    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull());
+    // The plotting library is loaded on demand: give the import time on a loaded machine.
+    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull(), { timeout: 15_000 });
     expect(figure.textContent).toMatch(/LIGO-Virgo 2016/);
     expect(figure.querySelectorAll("svg circle")).toHaveLength(3);
   });

@@ -70,7 +70,8 @@ describe("<SamplesResult>", () => {
     const cautions = screen.getByTestId("samples-cautions");
     expect([...cautions.querySelectorAll("li")].map((li) => li.getAttribute("data-caution"))).toEqual(expect.arrayContaining(["validity", "prior", "leading_pn"]));
     const figure = screen.getByTestId("samples-histogram");
-    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull());
+    // The plotting library is loaded on demand: give the import time on a loaded machine.
+    await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull(), { timeout: 15_000 });
     // Two occupied bins (1e-7 and 1e-3 give two sqrt(alpha) values a factor 10 apart), among the 40 drawn.
     expect(figure.querySelectorAll("svg rect").length).toBeGreaterThanOrEqual(2);
   });
