@@ -63,6 +63,35 @@ describe("POST /api/v1/convert/table", () => {
     expect(table.rows[0]!.cautions.map((c) => c.code)).toContain("sign_convention");
   });
 
+  it("when a CSV gives signed intervals in lo and hi columns (one side empty for a one-sided bound), then each row is translated as that interval", async () => {
+    const csv = "b,lo,hi,upper,label\n-7,-2e-3,1e-3,,interval\n-7,-5e-4,,,one-sided\n-3,,,2e-2,symmetric\n";
+    const res = await request(app)
+      .post("/api/v1/convert/table")
+      .field("binary", JSON.stringify(binary))
+      .field("credibility", "0.9")
+      .attach("file", Buffer.from(csv), { filename: "bounds.csv", contentType: "text/csv" });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const table = convertTableResponseSchema.parse(res.body);
+    expect(table.rows.map((r) => [r.label, r.input.interval ?? null, r.input.upper ?? null])).toEqual([
+      ["interval", [-2e-3, 1e-3], null],
+      ["one-sided", [-5e-4, null], null],
+      ["symmetric", null, 0.02],
+    ]);
+    // EdGB gives beta < 0 (one-signed): only the lower end bounds it, so the interval row equals the
+    // single-bound answer for the interval [-2e-3, 1e-3], which is the same as |beta| <= 2e-3 on that side.
+    const single = await request(app).post("/api/v1/convert").send({ bound: { parameter: "ppe_beta", b: -7, interval: [-2e-3, 1e-3], credibility: 0.9 }, binary });
+    const one = convertResponseSchema.parse(single.body).results.find((r) => r.theory === "edgb")!;
+    expect(table.rows[0]!.results.find((r) => r.theory === "edgb")!.coupling.value).toBe(one.coupling.value);
+    const both = await request(app)
+      .post("/api/v1/convert/table")
+      .field("binary", JSON.stringify(binary))
+      .field("credibility", "0.9")
+      .attach("file", Buffer.from("b,upper,lo,hi\n-7,1e-3,-1e-3,1e-3\n"), "bounds.csv");
+    expect(both.status).toBe(400);
+    expect(Object.keys(both.body.error.fields)[0]).toMatch(/^rows\.0\./);
+    expect(Object.values(both.body.error.fields)[0]).toMatch(/either upper .* or interval.*CSV line 2/);
+  });
+
   it("when a CSV cell is not a number, then 400 names the row field and the CSV line", async () => {
     const res = await request(app)
       .post("/api/v1/convert/table")

@@ -127,6 +127,11 @@ describe("the table over b", () => {
     expect(parsed.problems).toEqual([]);
     expect(parsed.rows).toEqual([{ b: -7, upper: 1e-3, label: "dipole" }, { b: -3, upper: "lots" }]);
     expect((await parseBoundsCsv("x,y\n1,2\n")).problems[0]).toMatch(/b \(or k\) and upper/);
+    // Signed intervals from lo and hi columns; an empty cell leaves that side open.
+    expect((await parseBoundsCsv("b,lo,hi\n-7,-2e-3,1e-3\n-7,-5e-4,\n")).rows).toEqual([
+      { b: -7, interval: [-2e-3, 1e-3] },
+      { b: -7, interval: [-5e-4, null] },
+    ]);
   });
 
   it("when a cell is bad, then the CSV line is named and nothing is sent; when good, the request carries the form's binary", async () => {

@@ -2,7 +2,8 @@ import Papa from "papaparse";
 import { ValidationError } from "../../errors.ts";
 
 /**
- * Reads a table-over-b upload: a header row naming the columns b (or k), upper and optionally label,
+ * Reads a table-over-b upload: a header row naming the columns b (or k), the bound as upper (|x| <= U)
+ * or as lo and hi (a signed interval; leave one empty for a one-sided bound), and optionally label,
  * then one bound per line. Cells stay text here; the table schema checks them, so a bad cell is
  * reported as rows.<i>.<column> exactly as it would be for a JSON body. The message adds the CSV
  * line, which is what a person fixing the file looks for.
@@ -11,10 +12,12 @@ export interface CsvRow {
   b?: number | string;
   k?: number | string;
   upper?: number | string;
+  /** [lo, hi] from the lo and hi columns; an empty cell is an open side (null). */
+  interval?: [number | string | null, number | string | null];
   label?: string;
 }
 
-const KNOWN = new Set(["b", "k", "upper", "label"]);
+const KNOWN = new Set(["b", "k", "upper", "lo", "hi", "label"]);
 
 /** "-7" -> -7, "1e-3" -> 0.001; "5l" and other text stay text for the schema to judge. */
 function cell(value: string | undefined): number | string | undefined {
@@ -33,14 +36,15 @@ export function parseBoundsCsv(text: string, field = "file"): CsvRow[] {
     transformHeader: (h) => h.trim().toLowerCase(),
   });
   const headers = parsed.meta.fields ?? [];
-  if (!headers.includes("upper") || !(headers.includes("b") || headers.includes("k"))) {
-    throw new ValidationError(`The CSV needs a header row with the columns b (or k) and upper; it has ${headers.length ? headers.join(", ") : "none"}.`, {
-      [field]: "needs a header row with columns b (or k) and upper",
+  const hasBound = headers.includes("upper") || headers.includes("lo") || headers.includes("hi");
+  if (!hasBound || !(headers.includes("b") || headers.includes("k"))) {
+    throw new ValidationError(`The CSV needs a header row with the columns b (or k) and upper (or lo and hi); it has ${headers.length ? headers.join(", ") : "none"}.`, {
+      [field]: "needs a header row with columns b (or k) and upper (or lo and hi)",
     });
   }
   const unknown = headers.filter((h) => h !== "" && !KNOWN.has(h));
   if (unknown.length > 0) {
-    throw new ValidationError(`The CSV has columns Dragoman does not read: ${unknown.join(", ")} (use b or k, upper, label).`, {
+    throw new ValidationError(`The CSV has columns Dragoman does not read: ${unknown.join(", ")} (use b or k, upper or lo and hi, label).`, {
       [field]: `unknown column ${unknown[0]}`,
     });
   }
@@ -58,6 +62,9 @@ export function parseBoundsCsv(text: string, field = "file"): CsvRow[] {
     if (b !== undefined) row.b = b;
     if (k !== undefined) row.k = k;
     if (upper !== undefined) row.upper = upper;
+    const lo = cell(r.lo);
+    const hi = cell(r.hi);
+    if (lo !== undefined || hi !== undefined) row.interval = [lo ?? null, hi ?? null];
     const label = r.label?.trim();
     if (label) row.label = label;
     return row;

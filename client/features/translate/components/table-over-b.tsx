@@ -71,7 +71,7 @@ export function TableOverB({ base, onRequest, data, error, busy }: Props) {
         A table over b
       </h2>
       <p className="text-sm text-ink-soft">
-        Paste or upload bounds, one per line, with the columns <code>b</code> (or <code>k</code>), <code>upper</code> and optionally <code>label</code>. Each row is
+        Paste or upload bounds, one per line, with the columns <code>b</code> (or <code>k</code>), <code>upper</code> (or <code>lo</code> and <code>hi</code> for a signed interval, one left empty for a one-sided bound) and optionally <code>label</code>. Each row is
         translated for the binary, cosmology and credibility of the form above.
       </p>
       <div className="grid gap-4 sm:grid-cols-[2fr_1fr]">

@@ -1,10 +1,12 @@
 /**
- * Reads pasted or uploaded CSV (header row: b or k, upper, optional label) into raw rows. Cells are
+ * Reads pasted or uploaded CSV (header row: b or k; upper, or lo and hi for a signed interval with an
+ * empty cell for an open side; optional label) into raw rows. Cells are
  * turned into numbers where they are numbers and kept as text otherwise; the shared table schema then
  * judges them, so a bad cell is reported exactly as the server would. papaparse loads on first use.
  */
+type Cell = number | string;
 export interface ParsedCsv {
-  rows: Record<string, number | string>[];
+  rows: Record<string, Cell | [Cell | null, Cell | null]>[];
   problems: string[];
 }
 
@@ -25,8 +27,9 @@ export async function parseBoundsCsv(text: string): Promise<ParsedCsv> {
   });
   const headers = parsed.meta.fields ?? [];
   const problems: string[] = [];
-  if (!headers.includes("upper") || !(headers.includes("b") || headers.includes("k"))) {
-    problems.push(`The first line must name the columns b (or k) and upper; it names ${headers.length ? headers.join(", ") : "nothing"}.`);
+  const hasBound = headers.includes("upper") || headers.includes("lo") || headers.includes("hi");
+  if (!hasBound || !(headers.includes("b") || headers.includes("k"))) {
+    problems.push(`The first line must name the columns b (or k) and upper (or lo and hi); it names ${headers.length ? headers.join(", ") : "nothing"}.`);
     return { rows: [], problems };
   }
   for (const e of parsed.errors) {
@@ -34,11 +37,14 @@ export async function parseBoundsCsv(text: string): Promise<ParsedCsv> {
     problems.push(`line ${(e.row ?? 0) + 2}: ${e.message}`);
   }
   const rows = parsed.data.map((r) => {
-    const row: Record<string, number | string> = {};
+    const row: ParsedCsv["rows"][number] = {};
     for (const key of ["b", "k", "upper"] as const) {
       const v = cell(r[key]);
       if (v !== undefined) row[key] = v;
     }
+    const lo = cell(r.lo);
+    const hi = cell(r.hi);
+    if (lo !== undefined || hi !== undefined) row.interval = [lo ?? null, hi ?? null];
     const label = r.label?.trim();
     if (label) row.label = label;
     return row;
