@@ -196,5 +196,11 @@ describe("POST /api/v1/convert/samples", () => {
     const noZ = await request(app).post("/api/v1/convert/samples").send({ theory: "massive-graviton", parameter: "ppe_beta", b: -3, credibility: 0.9, frame: "source", columns });
     expect(noZ.status).toBe(400);
     expect(noZ.body.error.fields["columns.z"]).toMatch(/redshift.*add a z column/);
+    // Black-hole mass loss answers only for black holes (a neutron star does not lose mass into the bulk), as for a single bound.
+    const ns = await request(app)
+      .post("/api/v1/convert/samples")
+      .send({ theory: "extra-dimension", coupling: "Mdot_loss", parameter: "ppe_beta", b: -13, credibility: 0.9, frame: "source", bodies: ["ns", "ns"], columns: { beta: [1e-3], m1: [1.4], m2: [1.3] } });
+    expect(ns.status, JSON.stringify(ns.body)).toBe(400);
+    expect(ns.body.error.fields.bodies).toMatch(/only for bh bodies/);
   });
 });

@@ -18,7 +18,15 @@ export interface Target {
   b: number;
 }
 
-type Selecting = { theory: string; coupling?: string | undefined; parameter: "ppe_beta" | "gimr_dphi"; b?: number | undefined; k?: number | string | undefined };
+type Selecting = {
+  theory: string;
+  coupling?: string | undefined;
+  parameter: "ppe_beta" | "gimr_dphi";
+  b?: number | undefined;
+  k?: number | string | undefined;
+  /** The bodies the samples describe, when known: a mapping derived only for some kinds refuses the others. */
+  bodies?: readonly ("bh" | "ns")[] | undefined;
+};
 
 export function selectTarget(catalogue: CompiledCatalogue, request: Selecting): Target {
   const theory = catalogue.bySlug.get(request.theory);
@@ -48,6 +56,12 @@ export function selectTarget(catalogue: CompiledCatalogue, request: Selecting): 
   } else if (atB.length > 1) {
     const message = `${theory.theory.name} has ${atB.length} couplings at b = ${b} (${symbols.join(", ")}): name one in coupling`;
     throw new ValidationError(`Invalid coupling: ${message}`, { coupling: message });
+  }
+  // The same body rule as a single bound (mass loss answers only for black holes): refused before any sample is read.
+  const onlyFor = ready.compiled.onlyFor;
+  if (onlyFor && request.bodies && request.bodies.some((k) => !onlyFor.bodies.includes(k))) {
+    const message = `${theory.theory.name}'s mapping holds only for ${onlyFor.bodies.join("/")} bodies (${onlyFor.description}); these samples are ${request.bodies.join("-")}`;
+    throw new ValidationError(`Invalid bodies: ${message}`, { bodies: message });
   }
   return { theory, ready, b };
 }
