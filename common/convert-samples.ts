@@ -20,7 +20,11 @@ import {
  * The translate page's panels validate with these same schemas.
  */
 
-export const MAX_SAMPLES = 200_000;
+/**
+ * The in-request route is for small posteriors: it runs on the web process. Larger files go to the
+ * posterior-file jobs (POST /api/v1/jobs/samples), which a worker process translates.
+ */
+export const MAX_SAMPLES = 20_000;
 export const MAX_EVENTS = 50;
 export const HISTOGRAM_BINS = 40;
 
@@ -33,7 +37,7 @@ export type SampleColumn = (typeof SAMPLE_COLUMNS)[number];
 
 // Columns are checked row by row in one pass (not one zod issue per cell): a 200 000-row column with
 // a bad cell answers with the column and its first bad row, e.g. fields["columns.m1.1532"].
-const column = z.array(z.unknown()).max(MAX_SAMPLES, `at most ${MAX_SAMPLES} samples`);
+const column = z.array(z.unknown()).max(MAX_SAMPLES, `at most ${MAX_SAMPLES} samples in one request; send larger posteriors as a file to the background jobs (POST /api/v1/jobs/samples)`);
 
 /** Which coupling of the entry, when it has several at the bound's b (Johannsen's eps3 and alpha13). */
 const couplingChoice = z.string().regex(/^[A-Za-z][A-Za-z0-9_]*$/, "coupling must be a coupling symbol of the entry").max(40).optional();

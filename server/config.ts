@@ -60,7 +60,7 @@ export const configSchema = z
     // Largest CSV accepted by POST /api/v1/convert/table (bytes); 256 kB is some thousand rows.
     CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),
     // Largest body (JSON columns or CSV upload) accepted by POST /api/v1/convert/samples (bytes); 32 MiB holds 200 000 samples of six columns.
-    CONVERT_SAMPLES_MAX_BYTES: z.coerce.number().int().positive().default(33_554_432),
+    CONVERT_SAMPLES_MAX_BYTES: z.coerce.number().int().positive().default(4_194_304),
     // Background jobs (docs/samples-jobs.md). Signed-in callers get the large limits, anonymous ones the small.
     JOBS_MAX_BYTES: z.coerce.number().int().positive().default(536_870_912),
     JOBS_MAX_SAMPLES: z.coerce.number().int().positive().default(10_000_000),

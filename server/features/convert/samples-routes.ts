@@ -54,7 +54,7 @@ export function samplesRoutes(service: ConvertService, config: Config): RouteSpe
       response: samplesResponseSchema,
       errors: [400, 429],
       before: [limit, csvUpload],
-      // Posterior samples arrive as long JSON columns (up to 200 000 rows): this route gets its own, larger limit.
+      // Posterior samples arrive as JSON columns (up to MAX_SAMPLES rows): this route has its own limit; larger posteriors go to the jobs.
       bodyLimit: config.CONVERT_SAMPLES_MAX_BYTES,
       handler: async (req, res) => {
         const fromUpload = Boolean(req.is("multipart/form-data"));

@@ -62,7 +62,7 @@ function columnField(field: string): SampleColumn | null {
   return null;
 }
 
-/** Samples converted between two yields to the event loop: a 200 000-row upload takes about a second, and health checks and other requests must still be answered meanwhile. */
+/** Samples converted between two yields to the event loop: a 20 000-row request takes about a tenth of a second, and health checks and other requests must still be answered meanwhile. */
 const YIELD_EVERY = 2048;
 
 export async function convertSamples(catalogue: CompiledCatalogue, request: SamplesRequest): Promise<SamplesResponse> {

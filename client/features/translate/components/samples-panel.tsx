@@ -76,7 +76,7 @@ export function SamplesForm({ theories, theoriesLoading, deviation, onDeviation,
     <div className="flex flex-col gap-4">
       <DeviationFields idPrefix="samples" value={deviation} onChange={onDeviation} theories={theories} theoriesLoading={theoriesLoading} errors={all} />
       <div className="grid gap-4 sm:grid-cols-[2fr_1fr]">
-        <Field label="Posterior samples (CSV)" hint="Header row: beta (or δφ_k), m1, m2, and optionally chi1, chi2, z; one sample per line, up to 200 000.">
+        <Field label="Posterior samples (CSV)" hint="Header row: beta (or δφ_k), m1, m2, and optionally chi1, chi2, z; one sample per line, up to 20 000 here; larger posteriors go to “Posterior files” below, as a background job.">
           {(c) => <TextArea {...c} rows={7} value={csv} onChange={(e) => setCsv(e.target.value)} data-testid="samples-csv" />}
         </Field>
         <div className="flex flex-col gap-3">
