@@ -158,7 +158,8 @@ describe("browser: every route at 375 px and 1366 px", () => {
     await expect(menu.getAttribute("aria-expanded")).resolves.toBe("true");
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Translate" }).click();
     await page.waitForURL(/\/translate$/);
-    await expect(menu.getAttribute("aria-expanded")).resolves.toBe("false");
+    // The menu closes once the new page has rendered (its module loads on demand): poll, do not race it.
+    await expect.poll(() => menu.getAttribute("aria-expanded"), { timeout: 15_000 }).toBe("false");
     await expect(page.title()).resolves.toMatch(/^Translate a bound · Dragoman$/);
     await page.close();
   });
