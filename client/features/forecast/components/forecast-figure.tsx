@@ -1,6 +1,6 @@
-import { useEffect, useMemo, useRef, useState } from "react";
 import { Button } from "../../../components/ui/button.tsx";
-import { downloadSvg, loadPlot, svgOf, type PlotModule } from "../../../lib/plot.ts";
+import { downloadSvg, svgOf, type PlotModule } from "../../../lib/plot.ts";
+import { usePlot } from "../../../lib/use-plot.ts";
 import { downloadPng } from "../lib/png.ts";
 
 interface Props {
@@ -13,50 +13,19 @@ interface Props {
 
 /** A plot with its title, caption and SVG / PNG downloads of exactly what is shown. */
 export function ForecastFigure({ build, title, filename, testId, caption }: Props) {
-  const host = useRef<HTMLDivElement>(null);
-  const [plot, setPlot] = useState<PlotModule | undefined>();
-  const [failure, setFailure] = useState<string | undefined>();
-
-  useEffect(() => {
-    let live = true;
-    loadPlot().then(
-      (m) => live && setPlot(m),
-      (e: unknown) => live && setFailure(e instanceof Error ? e.message : String(e)),
-    );
-    return () => {
-      live = false;
-    };
-  }, []);
-
-  const rendered = useMemo((): { node?: Element; error?: string } => {
-    if (!plot) return {};
-    try {
-      return { node: build(plot) };
-    } catch (e) {
-      return { error: e instanceof Error ? e.message : String(e) };
-    }
-  }, [plot, build]);
-
-  useEffect(() => {
-    const el = host.current;
-    if (!el || !rendered.node) return;
-    el.replaceChildren(rendered.node);
-    return () => el.replaceChildren();
-  }, [rendered]);
-
+  const { host, loaded, drawn, problem, setFailure } = usePlot(build);
   const svg = () => (host.current ? svgOf(host.current) : null);
-  const problem = failure ?? rendered.error;
   return (
     <figure className="flex flex-col gap-2 rounded border border-paper-edge bg-white/60 p-3" data-testid={testId}>
       <div className="flex flex-wrap items-baseline justify-between gap-3">
         <figcaption className="font-semibold">{title}</figcaption>
         <div className="flex gap-2">
-          <Button kind="quiet" disabled={!rendered.node} onClick={() => { const s = svg(); if (s) downloadSvg(s, filename); }} data-testid={`${testId}-svg`}>
+          <Button kind="quiet" disabled={!drawn} onClick={() => { const s = svg(); if (s) downloadSvg(s, filename); }} data-testid={`${testId}-svg`}>
             SVG
           </Button>
           <Button
             kind="quiet"
-            disabled={!rendered.node}
+            disabled={!drawn}
             onClick={() => {
               const s = svg();
               if (s) downloadPng(s, filename).catch((e: unknown) => setFailure(e instanceof Error ? e.message : String(e)));
@@ -67,7 +36,7 @@ export function ForecastFigure({ build, title, filename, testId, caption }: Prop
           </Button>
         </div>
       </div>
-      {!plot && !problem && <p className="text-sm text-ink-faint">Loading the plotting library…</p>}
+      {!loaded && !problem && <p className="text-sm text-ink-faint">Loading the plotting library…</p>}
       {problem && <p className="text-sm text-brick">The plot could not be drawn: {problem}</p>}
       <div ref={host} className="overflow-x-auto" />
       {caption && <p className="text-xs text-ink-faint">{caption}</p>}
