@@ -6,7 +6,7 @@ import { catalogueSeed } from "../../seeds/catalogue.ts";
  * Shared inputs for the catalogue and review tests (not a test file itself).
  *
  * The toy entry is a scalar-dipole mapping with the EdGB normalisation of the project's physics
- * primer (physics.md section 2): beta = -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^(18/5)),
+ * form (Yagi 2012, PRD 86 081504): beta = -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^(18/5)),
  * zeta = 16 pi alpha^2 / M^4, b = -7 at -1PN. It passes every engine check.
  */
 export function toyEntry(overrides: Partial<TheoryEntryInput> = {}): TheoryEntryInput {

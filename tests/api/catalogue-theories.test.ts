@@ -79,7 +79,7 @@ describe("GET /api/v1/theories/:slug", () => {
     expect(new Date(t.revision.published_at).getTime()).not.toBeNaN();
     const alpha = t.couplings[0];
     expect(alpha).toMatchObject({ symbol: "alpha", dimension: 2, unit: "km^2", quoted: { form: "sqrt", symbol: "sqrt_alpha", unit: "km" } });
-    // physics.md 2.1: conventions A, SZ (alpha/sqrt(8 pi)) and JB (alpha/sqrt(16 pi)).
+    // EdGB normalisations: conventions A, SZ (alpha/sqrt(8 pi)) and JB (alpha/sqrt(16 pi)).
     expect(alpha?.conventions.map((c) => c.name)).toEqual(["A", "SZ", "JB"]);
     expect(alpha?.conventions[1]?.factor).toBeCloseTo(1 / Math.sqrt(8 * Math.PI), 12);
     expect(alpha?.conventions[2]?.factor).toBeCloseTo(1 / Math.sqrt(16 * Math.PI), 12);

@@ -11,7 +11,7 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * constants typed in again rather than imported from the engine.
  */
 
-// Constants (physics.md section 4): IAU 2015 B3 nominal (G M)_sun, exact c, exact h, IAU parsec.
+// Constants (IAU 2015 Resolution B3; CODATA exact SI constants): IAU 2015 B3 nominal (G M)_sun, exact c, exact h, IAU parsec.
 const C_M_S = 299_792_458;
 const KM_PER_MSUN = 1.3271244e20 / C_M_S ** 2 / 1000;
 const HC_EV_M = 6.62607015e-34 * C_M_S / 1.602176634e-19;
@@ -24,7 +24,7 @@ function masses(m1: number, m2: number) {
   return { M, eta, Mc: eta ** 0.6 * M, dm: (m1 - m2) / M };
 }
 
-/** EdGB charge factor as written in physics.md (Yagi 2012 form), not the engine's rewritten one. */
+/** EdGB charge factor as printed in the Yagi 2012 form, not the engine's rewritten one. */
 const sOf = (chi: number) => (chi === 0 ? 1 : (2 * (Math.sqrt(1 - chi * chi) - 1 + chi * chi)) / (chi * chi));
 
 /** Composite Simpson rule with n (even) panels: our own quadrature for the distance integral. */
@@ -110,7 +110,7 @@ describe("POST /api/v1/convert", () => {
     const m1 = 12 * KM_PER_MSUN;
     const m2 = 7 * KM_PER_MSUN;
     const { M, eta } = masses(m1, m2);
-    // s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2 (Yagi 2012 / physics.md EdGB details).
+    // s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2 (Yagi 2012).
     const perZeta = (5 / 7168) * (m1 ** 2 * sOf(-0.3) - m2 ** 2 * sOf(0.6)) ** 2 / (M ** 4 * eta ** 3.6);
     const alpha = Math.sqrt(((2e-3 / perZeta) * M ** 4) / (16 * Math.PI));
     expect(rel(resultFor(r, "edgb").coupling.value, Math.sqrt(alpha))).toBeLessThan(1e-9);
@@ -120,7 +120,7 @@ describe("POST /api/v1/convert", () => {
     const r = await convert({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary: { m1: 20, m2: 20, frame: "source" } });
     expect(r.results.find((x) => x.theory === "edgb")).toBeUndefined();
     const na = r.not_applicable.find((n) => n.theory === "edgb");
-    // Common practice (physics.md 2): equal masses and spins emit no scalar dipole, beta = 0.
+    // Common practice: equal masses and spins emit no scalar dipole, beta = 0.
     expect(na).toMatchObject({ code: "vanishing_mapping", b: [-7] });
     expect(na?.reason).toMatch(/vanishes|constrains nothing/);
   });
@@ -130,7 +130,7 @@ describe("POST /api/v1/convert", () => {
     const chi2 = 0.3;
     const r = await convert({ bound: { parameter: "ppe_beta", b: -1, upper: 0.5, credibility: 0.9 }, binary: { m1: 10, m2: 8, chi1, chi2, frame: "source" } });
     const dcs = resultFor(r, "dcs");
-    // Yagi, Stein, Yunes & Tanaka 2012, Phys. Rev. D 85, 064022 (and erratum), as in physics.md section 2:
+    // Yagi, Stein, Yunes & Tanaka 2012, Phys. Rev. D 85, 064022 (and erratum):
     // beta = (1549225/11812864) (zeta / eta^(14/5)) [(1 - 231808 eta/61969) chi_s^2 + (1 - 16068 eta/61969) chi_a^2 - 2 dm chi_s chi_a].
     const m1 = 10 * KM_PER_MSUN;
     const m2 = 8 * KM_PER_MSUN;
@@ -158,7 +158,7 @@ describe("POST /api/v1/convert", () => {
     expect(mg.coupling.symbol).toBe("lambda_g");
     expect(mg.coupling.side).toBe("lower");
     expect(rel(mg.coupling.value, lambda)).toBeLessThan(1e-7);
-    // m_g c^2 = h c / lambda_g (physics.md 2.3): an upper bound on the mass.
+    // m_g c^2 = h c / lambda_g (derived): an upper bound on the mass.
     const also = mg.also.find((a) => a.symbol === "m_g");
     expect(also).toMatchObject({ unit: "eV", side: "upper" });
     expect(rel(also!.value, HC_EV_M / (lambda * 1000))).toBeLessThan(1e-7);
@@ -180,7 +180,7 @@ describe("POST /api/v1/convert", () => {
   it("when a -4PN bound is given, then Gdot/G follows beta = -(275/851968)(Gdot/G) Mc", async () => {
     const r = await convert({ bound: { parameter: "ppe_beta", b: -13, upper: 1e-5, credibility: 0.9 }, binary: { m1: 1.4, m2: 1.3, bodies: ["ns", "ns"], frame: "source" } });
     const g = resultFor(r, "varying-g");
-    // physics.md section 2 [derived]; general form with sensitivities: Tahura & Yagi 2018 (Phys. Rev. D 98, 084042).
+    // Derived; general form with sensitivities: Tahura & Yagi 2018 (Phys. Rev. D 98, 084042).
     const { Mc } = masses(1.4 * KM_PER_MSUN, 1.3 * KM_PER_MSUN);
     const perKm = (1e-5 * 851968) / (275 * Mc);
     expect(g.coupling.unit).toBe("1/yr");
@@ -191,7 +191,7 @@ describe("POST /api/v1/convert", () => {
     const binary = { m1: 10, m2: 5, frame: "source" };
     const dphi = 0.05;
     const { eta } = masses(10, 5);
-    // physics.md 1.2: for the absolute k = -2, beta = (3/128) eta^(-k/5) dphi_k.
+    // Derived (gIMR/ppE relation, Yunes & Pretorius 2009; Agathos et al. 2014): for the absolute k = -2, beta = (3/128) eta^(-k/5) dphi_k.
     const beta = (3 / 128) * eta ** 0.4 * dphi;
     const viaGimr = await convert({ bound: { parameter: "gimr_dphi", k: -2, upper: dphi, credibility: 0.9 }, binary });
     const viaBeta = await convert({ bound: { parameter: "ppe_beta", b: -7, upper: beta, credibility: 0.9 }, binary });
@@ -205,7 +205,7 @@ describe("POST /api/v1/convert", () => {
     const dphi = 0.1;
     const { eta } = masses(30, 25);
     // Buonanno, Iyer, Ochsner, Pan & Sathyaprakash 2009 (Phys. Rev. D 80, 084043, Eq. 3.18): phi_2 = 3715/756 + 55 eta / 9;
-    // physics.md 1.2: beta = (3/128) phi_k eta^(-k/5) dphi_k at b = k - 5.
+    // Derived (gIMR/ppE relation): beta = (3/128) phi_k eta^(-k/5) dphi_k at b = k - 5.
     const beta = (3 / 128) * (3715 / 756 + (55 / 9) * eta) * eta ** -0.4 * dphi;
     const viaGimr = await convert({ bound: { parameter: "gimr_dphi", k: 2, upper: dphi, credibility: 0.9 }, binary });
     const viaBeta = await convert({ bound: { parameter: "ppe_beta", b: -3, upper: beta, credibility: 0.9 }, binary });
@@ -233,7 +233,7 @@ describe("POST /api/v1/convert", () => {
     expect(a.convention).toBe("A");
     expect(jb.convention).toBe("JB");
     expect(jb.conventions_available).toEqual(["A", "SZ", "JB"]);
-    // physics.md 2.1: alpha_A = alpha_JB / sqrt(16 pi); Sanger et al. 2024 (arXiv:2406.03568) quote l_GB = 0.51 M_sun (JB) with sqrt(alpha_A) = 0.28 km.
+    // EdGB normalisations: alpha_A = alpha_JB / sqrt(16 pi); Sanger et al. 2024 (arXiv:2406.03568) quote l_GB = 0.51 M_sun (JB) with sqrt(alpha_A) = 0.28 km.
     expect(rel(jb.coupling.value / a.coupling.value, (16 * Math.PI) ** 0.25)).toBeLessThan(1e-12);
     expect(rel(jb.coupling.value / a.coupling.value, (0.51 * KM_PER_MSUN) / 0.28)).toBeLessThan(0.02);
   });

@@ -14,7 +14,7 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * mapping, validity fractions, and every refusal naming its column and row.
  */
 
-// IAU 2015 B3 nominal (G M)_sun and the exact c (physics.md section 4).
+// IAU 2015 B3 nominal (G M)_sun and the exact c (IAU 2015 Resolution B3; CODATA exact SI constants).
 const KM_PER_MSUN = 1.3271244e20 / 299_792_458 ** 2 / 1000;
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 const repeat = <T,>(v: T, n: number): T[] => Array.from({ length: n }, () => v);
@@ -87,7 +87,7 @@ describe("POST /api/v1/convert/samples", () => {
     // Stratified uniform samples: beta_i = B (i + 1/2) / n.
     const beta = Array.from({ length: n }, (_, i) => (B * (i + 0.5)) / n);
     const r = await samples({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: c, frame: "source", columns: { beta, m1: repeat(10, n), m2: repeat(5, n) } });
-    // physics.md section 2 (Yagi 2012 form): |beta| = (5/7168) zeta (m1^2 - m2^2)^2 / (M^4 eta^(18/5)) for non-spinning BHs,
+    // Yagi 2012 form: |beta| = (5/7168) zeta (m1^2 - m2^2)^2 / (M^4 eta^(18/5)) for non-spinning BHs,
     // zeta = 16 pi alpha^2 / M^4, so sqrt(alpha) grows as |beta|^(1/4) and its c-quantile is the inversion at beta = c B.
     const m1 = 10 * KM_PER_MSUN;
     const m2 = 5 * KM_PER_MSUN;

@@ -40,7 +40,7 @@ describe("POST /api/v1/convert/table", () => {
     const single = await request(app).post("/api/v1/convert").send({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary });
     const one = convertResponseSchema.parse(single.body).results.find((r) => r.theory === "edgb")!;
     expect(table.rows[0]!.results.find((r) => r.theory === "edgb")!.coupling.value).toBe(one.coupling.value);
-    // physics.md 1.2: dphi_-2 = 0.05 is beta = (3/128) eta^(2/5) 0.05 at b = -7.
+    // Derived (gIMR/ppE relation): dphi_-2 = 0.05 is beta = (3/128) eta^(2/5) 0.05 at b = -7.
     const eta = 50 / 225;
     expect(table.rows[1]!.beta_max).toBeCloseTo((3 / 128) * eta ** 0.4 * 0.05, 14);
   });

@@ -14,7 +14,7 @@ const EDGB = {
   couplings: [{ symbol: "alpha", dimension: 2 }],
   definitions: [{ symbol: "zeta", expression: "16*pi*alpha^2/M^4" }],
 };
-// EdGB dipole term, physics.md table (normalisation derived; Yagi 2012, PRD 86 081504).
+// EdGB dipole term (normalisation derived; Yagi 2012, PRD 86 081504).
 const EDGB_BETA = "-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))";
 
 let tdb: TestDatabase;
@@ -129,7 +129,7 @@ describe("POST /api/v1/expressions/derive", () => {
   });
 
   it("when the EdGB dipole flux change is given, then b = -7 and beta equals the EdGB term at a point", async () => {
-    // B = (5/96) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^4): physics.md section 2.3 (derived).
+    // B = (5/96) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^4) (derived).
     const res = await request(app)
       .post("/api/v1/expressions/derive")
       .send({

@@ -13,7 +13,7 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * entry's revision and the outbox holds both e-mails.
  *
  * The mapping is the scalar-dipole phase term at -1PN, beta = -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 /
- * (M^4 eta^(18/5)) with zeta = 16 pi alpha^2 / M^4 (physics.md section 2, the EdGB row; normalisation
+ * (M^4 eta^(18/5)) with zeta = 16 pi alpha^2 / M^4 (Yagi 2012 EdGB dipole term; normalisation
  * derived there from the dipole flux). The deliberate error writes alpha (a length^2) where the
  * dimensionless zeta belongs.
  */
@@ -87,7 +87,7 @@ describe("browser: a mapping goes from a contributor's form through review into 
     const allRows = await page.locator('tbody tr[data-testid^="theory-row-"]').count();
     expect(allRows).toBeGreaterThanOrEqual(8);
 
-    // b = -13: the time-varying G and mass-loss entries (physics.md section 2 table).
+    // b = -13: the time-varying G and mass-loss entries (Yunes, Yagi & Pretorius 2016, Table I).
     await page.getByLabel("ppE exponent b").selectOption("-13");
     await page.waitForURL(/[?&]b=-13\b/);
     // The previous rows stay on screen until the filtered answer arrives; wait for it to replace them.
@@ -159,7 +159,7 @@ describe("browser: a mapping goes from a contributor's form through review into 
     await page.screenshot({ path: screenshotPath("catalogue-review-2-fixed") });
 
     // The same beta, derived from the dipole flux F = F_GR [1 + B v^-2] with B = (5/96) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^4)
-    // (physics.md section 2.3, worked check: the k = -1 formula gives -(3/224) eta^(2/5) B, the EdGB beta).
+    // (worked check, derived: the k = -1 formula gives -(3/224) eta^(2/5) B, the EdGB beta).
     await mapping.getByText("Derive β from an energy or flux change").click();
     const derive = page.getByTestId("derive-0");
     await derive.getByLabel("k (PN order)").fill("-1");

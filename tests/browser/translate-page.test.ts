@@ -70,7 +70,7 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
 
     const row = page.getByTestId("result-edgb");
     await row.waitFor();
-    // Independent value: sqrt(alpha) = 4.07 km for this binary (tests/api/convert-post.test.ts derives it from physics.md's EdGB beta).
+    // Independent value: sqrt(alpha) = 4.07 km for this binary (tests/api/convert-post.test.ts derives it from the published EdGB beta).
     await expect(page.getByTestId("limit-edgb").textContent()).resolves.toMatch(/4\.07\s*km/);
     await expect(page.getByTestId("validity-edgb").textContent()).resolves.toMatch(/outside validity.*body 2/);
     // Outside validity, the limit is not compared with published bounds (it is not a limit).
@@ -91,7 +91,7 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     expect(svg.text).toContain('xmlns="http://www.w3.org/2000/svg"');
     expect(svg.text).toMatch(/<circle/);
 
-    // Convention JB: sqrt(alpha) grows by (16 pi)^(1/4) = 2.663 (physics.md 2.1), 4.072 km -> 10.84 km.
+    // Convention JB: sqrt(alpha) grows by (16 pi)^(1/4) = 2.663 (EdGB normalisation conventions), 4.072 km -> 10.84 km.
     await page.getByLabel(/Convention for Einstein-dilaton/).selectOption("JB");
     await expect.poll(() => page.getByTestId("limit-edgb").textContent()).toMatch(/10\.8\s*km/);
 

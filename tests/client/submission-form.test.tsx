@@ -14,7 +14,7 @@ import { createQueryClient } from "../../client/lib/query-client.ts";
  * a stale save shows the newer version without losing the typed values, and the engine's verdict
  * appears under the expression as it is typed.
  *
- * The entry is the scalar-dipole phase term at -1PN (physics.md section 2, the EdGB row):
+ * The entry is the scalar-dipole phase term at -1PN (Yagi 2012 EdGB dipole term):
  * beta = -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^(18/5)), zeta = 16 pi alpha^2 / M^4.
  */
 function validInput(): SubmissionFormInput {

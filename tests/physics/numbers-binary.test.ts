@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { binarySymbols, edgbSpinFactor, makeBinary } from "../../server/physics/binary.ts";
 import { PhysicsInputError } from "../../server/physics/input-error.ts";
 
-/** The printed EdGB black-hole charge factor (physics.md 2, EdGB details). */
+/** The printed EdGB black-hole charge factor (Yagi 2012). */
 const printedS = (chi: number) => (2 * (Math.sqrt(1 - chi * chi) - 1 + chi * chi)) / (chi * chi);
 
 function fieldOf(f: () => unknown): string | undefined {
@@ -26,7 +26,7 @@ describe("binary", () => {
     expect(b.s1).toBeCloseTo(printedS(0.7), 14);
   });
 
-  it("derives M, eta, Mc, dm, q, chi_s, chi_a from their definitions (physics.md notation)", () => {
+  it("derives M, eta, Mc, dm, q, chi_s, chi_a from their definitions (standard notation)", () => {
     const b = makeBinary({ m1: 36, m2: 29, chi1: 0.3, chi2: -0.1, frame: "source" });
     expect(b.M).toBe(65);
     expect(b.eta).toBeCloseTo((36 * 29) / 65 ** 2, 15);

@@ -1,6 +1,6 @@
 /**
  * Every seeded mapping, compiled from its stored expression, checked against the formulas
- * of physics.md section 2 (typed again here), inversion round trips, frames, and catalogue shape.
+ * of the published formulas (typed again here), inversion round trips, frames, and catalogue shape.
  */
 import katex from "katex";
 import { describe, expect, it } from "vitest";
@@ -75,7 +75,7 @@ describe("frames: detector-frame input with z gives the source-frame limit, for 
   }
 });
 
-describe("stored expressions equal the published formulas (physics.md section 2)", () => {
+describe("stored expressions equal the published formulas (published forms)", () => {
   const b = makeBinary(NSBH);
   const env = { ...binarySymbols(b), D_0: distanceAlphaKm(0.1, 0) };
   const { m1, m2, M, Mc } = b.km;
@@ -83,13 +83,13 @@ describe("stored expressions equal the published formulas (physics.md section 2)
   const first = (slug: string, index = 0) => compileTheoryMappings(theoryBySlug(slug)!)[index]!;
   const envFor = (m: CompiledMapping) => createConversionContext(NSBH).envFor(m);
 
-  it("EdGB: -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^(18/5)), zeta = 16 pi alpha^2 / M^4 (physics.md 2; printed form from memory)", () => {
+  it("EdGB: -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^(18/5)), zeta = 16 pi alpha^2 / M^4 (printed form from memory)", () => {
     const a = 3.7;
     const zeta = (16 * PI * a * a) / M ** 4;
     expect(first("edgb").evaluate(a, env) / ((-(5 / 7168) * zeta * (m1 ** 2 * s2 - m2 ** 2 * s1) ** 2) / (M ** 4 * eta ** 3.6))).toBeCloseTo(1, 12);
   });
 
-  it("dCS: Yagi, Stein, Yunes & Tanaka 2012 (Phys. Rev. D 85, 064022 and erratum), as in physics.md 2", () => {
+  it("dCS: Yagi, Stein, Yunes & Tanaka 2012 (Phys. Rev. D 85, 064022 and erratum)", () => {
     const a = 2.1;
     const zeta = (16 * PI * a * a) / M ** 4;
     const printed =
@@ -98,16 +98,16 @@ describe("stored expressions equal the published formulas (physics.md section 2)
     expect(first("dcs").evaluate(a, env) / printed).toBeCloseTo(1, 12);
   });
 
-  it("Brans-Dicke: -(5/3584) eta^(2/5) (s1 - s2)^2 / (2 + omega_BD) with BH sensitivity 1/2 (physics.md 2, memory)", () => {
+  it("Brans-Dicke: -(5/3584) eta^(2/5) (s1 - s2)^2 / (2 + omega_BD) with BH sensitivity 1/2 (value from memory)", () => {
     expect(first("brans-dicke").evaluate(100, env) / ((-(5 / 3584) * eta ** 0.4 * 0.3 ** 2) / 102)).toBeCloseTo(1, 12);
   });
 
-  it("massive graviton: -pi^2 D_0 Mc / lambda_g^2, Mc source frame (physics.md 2; Will 1998)", () => {
+  it("massive graviton: -pi^2 D_0 Mc / lambda_g^2, Mc source frame (Will 1998)", () => {
     const l = 3e13;
     expect(first("massive-graviton").evaluate(l, env) / ((-(PI ** 2) * env.D_0 * Mc) / l ** 2)).toBeCloseTo(1, 12);
   });
 
-  it("modified dispersion: pi^(2-a) D_a Mc^(1-a) / ((a - 1) lambda^(2-a)) (physics.md 2; Mirshekari, Yunes & Will 2012)", () => {
+  it("modified dispersion: pi^(2-a) D_a Mc^(1-a) / ((a - 1) lambda^(2-a)) (Mirshekari, Yunes & Will 2012)", () => {
     for (const a of [0.5, 1.5, 2.5, 3, 4]) {
       const m = first(`dispersion-a${String(a).replace(".", "p")}`);
       const e = envFor(m);
@@ -125,11 +125,11 @@ describe("stored expressions equal the published formulas (physics.md section 2)
     expect(first("massive-graviton").evaluate(l, env) / generic).toBeCloseTo(1, 12);
   });
 
-  it("varying G: -(275/851968) (Gdot/G) Mc (physics.md 2, derived)", () => {
+  it("varying G: -(275/851968) (Gdot/G) Mc (derived)", () => {
     expect(first("varying-g").evaluate(1e-20, env) / (-(275 / 851968) * 1e-20 * Mc)).toBeCloseTo(1, 12);
   });
 
-  it("BH mass loss: (25/851968) Mdot (3 - 26 eta + 34 eta^2) / (eta^(2/5) (1 - 2 eta)), Mdot = -|Mdot| (physics.md 2)", () => {
+  it("BH mass loss: (25/851968) Mdot (3 - 26 eta + 34 eta^2) / (eta^(2/5) (1 - 2 eta)), Mdot = -|Mdot| (derived)", () => {
     const shape = (3 - 26 * eta + 34 * eta ** 2) / (eta ** 0.4 * (1 - 2 * eta));
     expect(first("extra-dimension").evaluate(1e-15, env) / ((25 / 851968) * -1e-15 * shape)).toBeCloseTo(1, 12);
     // RS-II rate per hole, mdot_i = -2.8e-7 (M_sun/m_i)^2 (ell/10 um)^2 M_sun/yr (Emparan, Garcia-Bellido & Kaloper 2003;
@@ -138,16 +138,16 @@ describe("stored expressions equal the published formulas (physics.md section 2)
     expect(first("extra-dimension", 1).evaluate(2e-8, env) / ((25 / 851968) * -mdot * shape)).toBeCloseTo(1, 8);
   });
 
-  it("noncommutative: -(75/256) eta^(-4/5) (2 eta - 1) Lambda^2 (physics.md 2, memory: Kobakhidze, Lagger & Manning 2016)", () => {
+  it("noncommutative: -(75/256) eta^(-4/5) (2 eta - 1) Lambda^2 (value from memory: Kobakhidze, Lagger & Manning 2016)", () => {
     expect(first("noncommutative").evaluate(0.3, env) / (-(75 / 256) * eta ** -0.8 * (2 * eta - 1) * 0.3)).toBeCloseTo(1, 12);
   });
 
-  it("Johannsen: (75/64) (epsilon_3 - 2 alpha_13) eta^(-4/5), one parameter at a time (physics.md 2, derived)", () => {
+  it("Johannsen: (75/64) (epsilon_3 - 2 alpha_13) eta^(-4/5), one parameter at a time (derived)", () => {
     expect(first("johannsen", 0).evaluate(0.01, env) / ((75 / 64) * -0.02 * eta ** -0.8)).toBeCloseTo(1, 12);
     expect(first("johannsen", 1).evaluate(0.01, env) / ((75 / 64) * 0.01 * eta ** -0.8)).toBeCloseTo(1, 12);
   });
 
-  it("EdGB derivation input: the -1PN flux B gives -(3/224) eta^(2/5) B = the EdGB beta (physics.md 2.3, derived)", () => {
+  it("EdGB derivation input: the -1PN flux B gives -(3/224) eta^(2/5) B = the EdGB beta (derived)", () => {
     const entry = theoryBySlug("edgb")!;
     const mapping = entry.mappings[0]!;
     const table = createSymbolTable({ couplings: [{ symbol: "alpha", dimension: 2 }], definitions: entry.definitions ?? [] });
@@ -155,7 +155,7 @@ describe("stored expressions equal the published formulas (physics.md section 2)
     const a = 1.9;
     const values = table.primitives.map((n) => (n === "alpha" ? a : (env as Record<string, number>)[n] ?? Number.NaN));
     expect((-(3 / 224) * eta ** 0.4 * B(values)) / first("edgb").evaluate(a, env)).toBeCloseTo(1, 12);
-    // gIMR form: beta = (3/128) eta^(2/5) dphi_-2 (physics.md 1.2 and 2).
+    // gIMR form: beta = (3/128) eta^(2/5) dphi_-2 (derived).
     const dphi = compileExpression(expandDefinitions(mapping.gimr_equivalent!.expression, table), table.primitives);
     expect(((3 / 128) * eta ** 0.4 * dphi(values)) / first("edgb").evaluate(a, env)).toBeCloseTo(1, 12);
   });
@@ -187,14 +187,14 @@ describe("catalogue content", () => {
     }
   });
 
-  it("EdGB carries the A, SZ and JB conventions with alpha_A = factor x alpha_other (physics.md 2.1)", () => {
+  it("EdGB carries the A, SZ and JB conventions with alpha_A = factor x alpha_other (EdGB normalisation conventions)", () => {
     const conventions = theoryBySlug("edgb")!.couplings[0]!.conventions!;
     expect(conventions.map((c) => c.name)).toEqual(["A", "SZ", "JB"]);
     expect(conventions[1]!.factor).toBeCloseTo(1 / Math.sqrt(8 * PI), 15);
     expect(conventions[2]!.factor).toBeCloseTo(1 / Math.sqrt(16 * PI), 15);
   });
 
-  it("the reference bounds of physics.md 2.3 are present", () => {
+  it("the published EdGB reference bounds are present", () => {
     const edgbBounds = theoryBySlug("edgb")!.reference_bounds!.map((r) => r.value);
     expect(edgbBounds).toEqual([1.9, 1.7, 1.33]);
     expect(theoryBySlug("massive-graviton")!.reference_bounds!.map((r) => r.value)).toContain(1.27e-23);

@@ -1,6 +1,6 @@
 /**
  * The conversion core against hand-written mappings (plain functions typed from the printed
- * formulas of physics.md section 2), independent of the expression compiler.
+ * published formulas), independent of the expression compiler.
  */
 import { describe, expect, it } from "vitest";
 import { makeBinary } from "../../server/physics/binary.ts";
@@ -32,7 +32,7 @@ const edgb: MappingSpec = {
       { name: "JB", factor: 1 / Math.sqrt(16 * PI) },
     ],
   },
-  // Yunes, Yagi & Pretorius 2016 Table I form as given in physics.md 2 (printed form: value from memory).
+  // Yunes, Yagi & Pretorius 2016 Table I form (printed form: value from memory).
   evaluate: (a, e) => {
     const zeta = (16 * PI * a * a) / e.M! ** 4;
     return (-(5 / 7168) * zeta * (e.m1! ** 2 * e.s2! - e.m2! ** 2 * e.s1!) ** 2) / (e.M! ** 4 * e.eta! ** 3.6);
@@ -79,7 +79,7 @@ function bounded(r: ConversionResult): BoundedResult {
 
 const bbh = { m1: 10, m2: 5, frame: "source" } as const;
 
-describe("EdGB worked numbers (physics.md 2.1, 2.3)", () => {
+describe("EdGB worked numbers (derived)", () => {
   it("m1 = 10, m2 = 5 non-spinning BHs, |beta| <= 1e-3 at b = -7: sqrt(alpha) from the printed formula", () => {
     const r = bounded(convertToCoupling({ kind: "ppe", b: -7, beta_max: 1e-3 }, bbh, edgb));
     // Independent inversion of beta = -(5/7168) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^(18/5)), s = 1.
@@ -176,7 +176,7 @@ describe("frames", () => {
     const det = bounded(convertToCoupling(bound, { m1: 36, m2: 30, frame: "detector", z: 0.2 }, massiveGraviton));
     expect(det.coupling.value / src.coupling.value).toBeCloseTo(1, 12);
     expect(src.side).toBe("lower");
-    // Independent inversion of beta = -pi^2 D_0 Mc / lambda_g^2 (physics.md 2; Will 1998).
+    // Independent inversion of beta = -pi^2 D_0 Mc / lambda_g^2 (Will 1998).
     const b = makeBinary({ m1: 30, m2: 25, frame: "source", z: 0.2 });
     const lambda = PI * Math.sqrt((distanceAlphaKm(0.2, 0) * b.km.Mc) / 0.05);
     expect(src.coupling.value / lambda).toBeCloseTo(1, 12);
@@ -237,7 +237,7 @@ describe("numeric inversion", () => {
 });
 
 describe("bound handling", () => {
-  it("b = 0 and b = 3 are degenerate: no bound (physics.md 1)", () => {
+  it("b = 0 and b = 3 are degenerate: no bound (Yunes & Pretorius 2009: b = 0 and b = 3 are absorbed by phi_c and t_c)", () => {
     for (const b of [0, 3]) {
       const r = convertToCoupling({ kind: "ppe", b, beta_max: 1 }, bbh, { ...edgb, b });
       expect(r.status === "no_constraint" && r.code).toBe("degenerate_b");

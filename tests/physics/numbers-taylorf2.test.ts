@@ -129,7 +129,7 @@ describe("aligned-spin terms", () => {
   });
 });
 
-describe("gIMR dphi_k <-> ppE beta (physics.md 1.2, derived)", () => {
+describe("gIMR dphi_k <-> ppE beta (derived)", () => {
   it("beta u^(k-5) reproduces the phase shift 3/(128 eta) phi_k dphi_k v^(k-5) at any velocity", () => {
     const eta = 0.2;
     for (const k of [-2, 0, 1, 2, 3, 4, 6, 7] as const) {
@@ -162,7 +162,7 @@ describe("gIMR dphi_k <-> ppE beta (physics.md 1.2, derived)", () => {
     expect(k0.cautions.join(" ")).toMatch(/chirp mass/);
   });
 
-  it("a beta recorded with exp(-i Psi) flips sign (physics.md 1, confirmed)", () => {
+  it("a beta recorded with exp(-i Psi) flips sign (Yunes & Pretorius 2009 convention)", () => {
     expect(normaliseSign(-2.5e-3, "minus")).toBe(2.5e-3);
     expect(normaliseSign(-2.5e-3, "plus")).toBe(-2.5e-3);
   });

@@ -81,22 +81,22 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "alpha",
           values: { alpha: 3.1 },
-          // Printed form: physics.md section 2 table (normalisation [derived]; Yunes, Yagi & Pretorius 2016, PRD 94 084002, Table I, value from memory).
+          // Printed form (normalisation [derived]; Yunes, Yagi & Pretorius 2016, PRD 94 084002, Table I, value from memory).
           expected: ({ alpha }) => {
             const zeta = (16 * Math.PI * alpha! ** 2) / M ** 4;
             return (-(5 / 7168) * zeta * (POINT.m1! ** 2 * POINT.s2! - POINT.m2! ** 2 * POINT.s1!) ** 2) / (M ** 4 * eta ** 3.6);
           },
-          source: "physics.md 2 / Yunes, Yagi & Pretorius 2016 Table I",
+          source: "Yunes, Yagi & Pretorius 2016 Table I",
         },
         {
           coupling: "alpha",
           values: { alpha: 3.1 },
-          // Independent route: dipole flux B = (5/96) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^4) into beta = -(3/224) eta^(2/5) B (physics.md 1.1 and 2.3, derived).
+          // Independent route: dipole flux B = (5/96) zeta (m1^2 s2 - m2^2 s1)^2 / (M^4 eta^4) into beta = -(3/224) eta^(2/5) B.
           expected: ({ alpha }) => {
             const zeta = (16 * Math.PI * alpha! ** 2) / M ** 4;
             return dipoleFluxBeta(((5 / 96) * zeta * (POINT.m1! ** 2 * POINT.s2! - POINT.m2! ** 2 * POINT.s1!) ** 2) / (M ** 4 * eta ** 4));
           },
-          source: "physics.md 1.1 (energy balance, k = -1) with the EdGB dipole flux of 2.3",
+          source: "derived: energy balance at k = -1 with the EdGB dipole flux",
         },
       ];
     case "dcs":
@@ -104,7 +104,7 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "alpha",
           values: { alpha: 9.5 },
-          // Yagi, Stein, Yunes & Tanaka 2012, PRD 85 064022 (and the 2016 erratum), beta of the quadratic-gravity inspiral; as quoted in physics.md 2.
+          // Yagi, Stein, Yunes & Tanaka 2012, PRD 85 064022 (and the 2016 erratum), beta of the quadratic-gravity inspiral.
           expected: ({ alpha }) => {
             const zeta = (16 * Math.PI * alpha! ** 2) / M ** 4;
             return (1549225 / 11812864) * (zeta / eta ** 2.8) * ((1 - (231808 * eta) / 61969) * chiS ** 2 + (1 - (16068 * eta) / 61969) * chiA ** 2 - 2 * dm * chiS * chiA);
@@ -117,9 +117,9 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "omega_BD",
           values: { omega_BD: 40000 },
-          // physics.md 2 (value from memory, cross-checked by the dipole route): -(5/3584) eta^(2/5) (s1 - s2)^2 / (2 + omega_BD), sensitivities sigma_i.
+          // Value from memory (cross-checked by the dipole route): -(5/3584) eta^(2/5) (s1 - s2)^2 / (2 + omega_BD), sensitivities sigma_i.
           expected: ({ omega_BD }) => (-(5 / 3584) * eta ** 0.4 * (POINT.sigma1! - POINT.sigma2!) ** 2) / (2 + omega_BD!),
-          source: "physics.md 2, Brans-Dicke row (value from memory)",
+          source: "Brans-Dicke dipole term (value from memory)",
         },
       ];
     case "scalar-dipole":
@@ -127,9 +127,9 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "B_dip",
           values: { B_dip: 2.4e-3 },
-          // physics.md 1.1: a -1PN flux change F = F_GR [1 + B v^-2] gives beta = -(3/224) eta^(2/5) B (derived).
+          // Derived: a -1PN flux change F = F_GR [1 + B v^-2] gives beta = -(3/224) eta^(2/5) B.
           expected: ({ B_dip }) => dipoleFluxBeta(B_dip!),
-          source: "physics.md 1.1, dipole case",
+          source: "derived: energy balance, dipole case",
         },
       ];
     case "massive-graviton":
@@ -137,7 +137,7 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "lambda_g",
           values: { lambda_g: 1.6e13 },
-          // Will 1998, PRD 57 2061: beta = -pi^2 D_0 Mc / lambda_g^2 with the source-frame chirp mass (physics.md 2, derived).
+          // Will 1998, PRD 57 2061: beta = -pi^2 D_0 Mc / lambda_g^2 with the source-frame chirp mass (derived).
           expected: ({ lambda_g }) => (-(Math.PI ** 2) * POINT.D_0! * Mc) / lambda_g! ** 2,
           source: "Will 1998, PRD 57 2061",
         },
@@ -147,9 +147,9 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "Gdot",
           values: { Gdot: 3.0e-19 },
-          // physics.md 2 (derived; general form with sensitivities in Tahura & Yagi 2018, PRD 98 084042): -(275/851968) (Gdot/G) Mc when both rates are equal.
+          // Derived (general form with sensitivities in Tahura & Yagi 2018, PRD 98 084042): -(275/851968) (Gdot/G) Mc when both rates are equal.
           expected: ({ Gdot }) => -(275 / 851968) * Gdot! * Mc,
-          source: "physics.md 2 / Tahura & Yagi 2018",
+          source: "derived; Tahura & Yagi 2018",
         },
       ];
     case "extra-dimension": {
@@ -159,9 +159,9 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "Mdot_loss",
           values: { Mdot_loss: 1.0e-12 },
-          // physics.md 2 (derived): beta = (25/851968) Mdot (3 - 26 eta + 34 eta^2) / [eta^(2/5) (1 - 2 eta)], Mdot = -|Mdot| for mass loss.
+          // Derived: beta = (25/851968) Mdot (3 - 26 eta + 34 eta^2) / [eta^(2/5) (1 - 2 eta)], Mdot = -|Mdot| for mass loss.
           expected: ({ Mdot_loss }) => (25 / 851968) * -Mdot_loss! * shape,
-          source: "physics.md 2, mass-loss row",
+          source: "derived: black-hole mass loss",
         },
         {
           coupling: "ell",
@@ -177,7 +177,7 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: "Lambda2",
           values: { Lambda2: 0.7 },
-          // Kobakhidze, Lagger & Manning 2016, PRD 94 064033 (value from memory, physics.md 2): -(75/256) eta^(-4/5) (2 eta - 1) Lambda^2.
+          // Kobakhidze, Lagger & Manning 2016, PRD 94 064033 (value from memory): -(75/256) eta^(-4/5) (2 eta - 1) Lambda^2.
           expected: ({ Lambda2 }) => -(75 / 256) * eta ** -0.8 * (2 * eta - 1) * Lambda2!,
           source: "Kobakhidze, Lagger & Manning 2016",
         },
@@ -186,9 +186,9 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
       return ["alpha13", "eps3"].map((coupling) => ({
         coupling,
         values: coupling === "alpha13" ? { alpha13: 0.3, eps3: 0 } : { alpha13: 0, eps3: 0.3 },
-        // physics.md 2 (derived test-body estimate): beta = (75/64) (epsilon_3 - 2 alpha_13) eta^(-4/5).
+        // Derived test-body estimate: beta = (75/64) (epsilon_3 - 2 alpha_13) eta^(-4/5).
         expected: ({ alpha13, eps3 }) => (75 / 64) * (eps3! - 2 * alpha13!) * eta ** -0.8,
-        source: "physics.md 2, Johannsen row",
+        source: "derived test-body estimate, Johannsen metric",
       }));
     default: {
       const a = /^dispersion-a(\d+(?:p\d+)?)$/.exec(slug);
@@ -199,7 +199,7 @@ function handChecks(slug: string, t: TheoryDetail): HandCheck[] {
         {
           coupling: symbol,
           values: { [symbol]: 4.2e11 },
-          // Mirshekari, Yunes & Will 2012, PRD 85 024041 (physics.md 2, derived), A > 0:
+          // Mirshekari, Yunes & Will 2012, PRD 85 024041 (derived), A > 0:
           // beta = pi^(2 - a) D_a Mc^(1 - a) / [(a - 1) lambda_A^(2 - a)].
           expected: (v) => (Math.PI ** (2 - alphaMd) * POINT.D_alpha! * Mc ** (1 - alphaMd)) / ((alphaMd - 1) * (v[symbol] as number) ** (2 - alphaMd)),
           source: "Mirshekari, Yunes & Will 2012",
@@ -268,7 +268,7 @@ describe("the seeded catalogue (seeds/data/theories.ts, published through the ac
     expect(uncovered).toEqual([]);
   });
 
-  it("when the EdGB binary has equal masses and charges, then beta vanishes (physics.md 2: no dipole, no constraint)", () => {
+  it("when the EdGB binary has equal masses and charges, then beta vanishes (derived: no dipole, no constraint)", () => {
     const t = details.get("edgb") as TheoryDetail;
     const table = createSymbolTable({ couplings: [{ symbol: "alpha", dimension: 2 }], definitions: t.definitions });
     const expanded = expandDefinitions(t.mappings[0]?.expression as string, table);
