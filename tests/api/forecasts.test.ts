@@ -172,6 +172,59 @@ describe("forecast curves", () => {
   });
 });
 
+describe("POST /api/v1/forecasts/curves (multipart file)", () => {
+  const design = builtInCurve("aligo-design")!;
+  const freqs = Array.from({ length: 40 }, (_, i) => 10 * 300 ** (i / 39));
+  const upload = (file: string | Buffer, fields: Record<string, string> = {}, name = "curve.csv") => {
+    let r = request(app).post("/api/v1/forecasts/curves").set("Authorization", auth["t-fc-1"]!);
+    for (const [k, v] of Object.entries({ name: "Uploaded", kind: "psd", convention: "l_shaped", ...fields })) r = r.field(k, v);
+    return r.attach("file", Buffer.isBuffer(file) ? file : Buffer.from(file), name);
+  };
+
+  it("when a PSD file with a comment, a header row and CRLF line ends is uploaded, then 201 and the stored PSD is the file's", async () => {
+    const text = ["% Tabulated design curve, invented for this test", "# second comment", "frequency_Hz, psd_per_Hz", ...freqs.map((f) => `${f}, ${design.psd(f, 4)}`)].join("\r\n");
+    const res = await upload(text, { space: "false" });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const curve = curveInfoSchema.parse(res.body);
+    expect(curve).toMatchObject({ custom: true, points: 40, f_min: 10, convention: "l_shaped", space: false });
+    const stored = await tdb.db("forecast_curves").where({ id: Number(curve.id.split(":")[1]) }).first();
+    expect(stored.uploaded_kind).toBe("psd");
+    expect(stored.psd[7] / design.psd(freqs[7]!, 4)).toBeCloseTo(1, 12);
+  });
+
+  it("when a file is bad, then 400 naming the line and the column at fault, and nothing is stored", async () => {
+    const before = Number((await tdb.db("forecast_curves").count("id as n"))[0]!.n);
+    const cases: [string, RegExp, number | undefined, number | null][] = [
+      ["f,psd\n10,1e-46\n20,1e-46\n15,1e-46", /line 4, column 1 \(frequency\): frequencies must increase strictly/, 4, 1],
+      ["10 1e-46\n20 0", /line 2, column 2 \(PSD\): the PSD must be positive/, 2, 2],
+      ["10 1e-46\n20 abc", /line 2, column 2 \(PSD\): "abc" is not a number/, 2, 2],
+      ["10 1e-46\nx 1e-46", /line 2, column 1 \(frequency\): "x" is not a number/, 2, 1],
+      ["10 1e-46 3", /line 1: expected two columns/, 1, null],
+      ["# only one row\n10 1e-46", /too few rows: at least 2/, undefined, null],
+    ];
+    for (const [text, pattern, line, column] of cases) {
+      const res = await upload(text);
+      expect(res.status, text).toBe(400);
+      expect(Object.keys(res.body.error.fields)).toEqual(["file"]);
+      expect(res.body.error.fields.file, text).toMatch(pattern);
+      expect(res.body.error.details?.line).toBe(line);
+      if (column !== null) expect(res.body.error.details?.column).toBe(column);
+    }
+    const asd = await upload("10 1e-23\n20 -2e-23", { kind: "asd" });
+    expect(asd.body.error.fields.file).toMatch(/column 2 \(ASD\)/);
+    const unknown = await upload("10 1e-46\n20 1e-46", { colour: "red" });
+    expect(unknown.status).toBe(400);
+    expect(JSON.stringify(unknown.body.error)).toMatch(/colour/);
+    const noFile = await request(app).post("/api/v1/forecasts/curves").set("Authorization", auth["t-fc-1"]!).field("name", "x").field("kind", "psd").field("convention", "l_shaped");
+    expect(noFile.status).toBe(400);
+    expect(Object.keys(noFile.body.error.fields)).toEqual(["file"]);
+    const binary = await upload(Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x10]));
+    expect(binary.status).toBe(400);
+    expect(binary.body.error.fields.file).toMatch(/UTF-8/);
+    expect(Number((await tdb.db("forecast_curves").count("id as n"))[0]!.n)).toBe(before);
+  });
+});
+
 describe("POST /api/v1/forecasts/combine", () => {
   it("when per-detector matrices from a forecast are uploaded (one as JSON, one as CSV), then the combined bound equals the forecast's network bound", async () => {
     const fc = forecastResponseSchema.parse(

@@ -56,7 +56,8 @@ export function builtInCurveInfo(): CurveInfoDto[] {
 
 export interface ForecastsService {
   curves(who: Identity | undefined): Promise<CurveInfoDto[]>;
-  uploadCurve(who: Identity, upload: CurveUpload): Promise<CurveInfoDto>;
+  /** `field` names where the table came in (the multipart `file` or the JSON `data`), for the 400. */
+  uploadCurve(who: Identity, upload: CurveUpload, field?: "file" | "data"): Promise<CurveInfoDto>;
   deleteCurve(who: Identity, id: number): Promise<void>;
   forecast(who: Identity | undefined, request: ForecastRequest): Promise<ForecastResponse>;
   combine(request: CombineRequest): CombineResponse;
@@ -92,8 +93,8 @@ export function forecastsService(repo: CurvesRepository, pool: ForecastPool, tra
       return [...builtInCurveInfo(), ...custom];
     },
 
-    async uploadCurve(who, upload) {
-      const table = parseCurveTable(upload.data, upload.kind);
+    async uploadCurve(who, upload, field = "data") {
+      const table = parseCurveTable(upload.data, upload.kind, field);
       if ((await repo.countByOwner(who.id)) >= MAX_CURVES_PER_USER) {
         throw new ValidationError(`Invalid request body: you already have ${MAX_CURVES_PER_USER} curves; delete one first`, { name: `at most ${MAX_CURVES_PER_USER} curves per user` });
       }
