@@ -135,6 +135,8 @@ export const forecastBandSchema = z.object({
   low_cut: z.string(),
   high_cut: z.string(),
   extrapolated: z.boolean(),
+  /** The curve's convention is still to be checked against its source (see the curve list). */
+  to_confirm: z.string().nullable(),
   years_observed: z.number().nullable(),
   years_before_merger: z.number().nullable(),
   snr: z.number(),
@@ -202,6 +204,8 @@ export const curveInfoSchema = z.object({
   source: z.string(),
   convention: z.enum(CURVE_CONVENTIONS),
   convention_note: z.string(),
+  /** What of the curve's convention is still to be checked against its source; null when nothing is. */
+  to_confirm: z.string().nullable(),
   f_min: z.number(),
   f_max: z.number(),
   default_f_low: z.number(),

@@ -119,7 +119,17 @@ describe("forecast curves", () => {
     expect(res.status).toBe(200);
     const { curves } = curveListSchema.parse(res.body);
     expect(curves.map((c) => c.id)).toEqual(["aligo-design", "aligo-o1", "et-b", "lisa", "tianqin", "decigo", "b-decigo"]);
-    expect(curves.find((c) => c.id === "lisa")).toMatchObject({ convention: "response_averaged", space: true, f_max: 1 });
+    expect(curves.find((c) => c.id === "lisa")).toMatchObject({ convention: "response_averaged", space: true, f_max: 1, to_confirm: null });
+    // the DECIGO channel convention is our own derivation, not yet checked against Yagi & Seto 2011 section II
+    for (const id of ["decigo", "b-decigo"]) expect(curves.find((c) => c.id === id)!.to_confirm).toMatch(/^source to be confirmed/);
+  });
+
+  it("when a forecast uses DECIGO, then its band and the cautions say the curve's convention is to be confirmed", async () => {
+    const res = await request(app).post("/api/v1/forecasts").send({ source: SOURCE, detectors: [{ curve: "decigo" }], networks: [[0]], b: [-7], translate: false });
+    expect(res.status).toBe(200);
+    const body = forecastResponseSchema.parse(res.body);
+    expect(body.detectors[0]!.to_confirm).toMatch(/source to be confirmed/);
+    expect(body.cautions.join(" ")).toMatch(/DECIGO.*source to be confirmed/);
   });
 
   it("when a user uploads an ASD table, then 201, it is stored as a PSD, listed for them only, usable as custom:<id> and deletable", async () => {
