@@ -28,18 +28,21 @@ function sideDto(s: SideLimit | null): RingdownSideLimit | null {
   };
 }
 
-/** The same validity cautions as an inspiral row (stretched or failing conditions), per side. */
-function sideCautions(side: "lower" | "upper", s: SideLimit | null): Caution[] {
-  if (s === null) return [];
-  const which = side === "lower" ? "negative-side" : "positive-side";
-  const out = validityCautions(s).map((c) => ({ ...c, message: `At the ${which} limit: ${c.message}` }));
-  if (s.unassessed.length > 0) {
-    out.push({
-      code: "validity",
-      message: `At the ${which} limit, not assessed: ${s.unassessed.map((u) => `“${u.label}” (${u.reason}; give the binary rather than the remnant)`).join(", ")}.`,
-    });
-  }
-  return out;
+/** The validity cautions of an inspiral row (stretched or failing conditions), said once when both sides agree. */
+function sideCautions(lower: SideLimit | null, upper: SideLimit | null): Caution[] {
+  const of = (s: SideLimit | null): Caution[] => {
+    if (s === null) return [];
+    const out = validityCautions(s);
+    if (s.unassessed.length > 0) {
+      out.push({ code: "validity", message: `Not assessed: ${s.unassessed.map((u) => `“${u.label}” (${u.reason}; give the binary rather than the remnant)`).join(", ")}.` });
+    }
+    return out;
+  };
+  const lo = of(lower);
+  const hi = of(upper);
+  const same = lo.length === hi.length && lo.every((c, i) => c.message === hi[i]?.message);
+  if (same) return lower && upper ? lo.map((c) => ({ ...c, message: `At both limits: ${c.message}` })) : [...lo, ...hi];
+  return [...lo.map((c) => ({ ...c, message: `At the negative-side limit: ${c.message}` })), ...hi.map((c) => ({ ...c, message: `At the positive-side limit: ${c.message}` }))];
 }
 
 /** Physics refusals (a remnant outside the fits, an unknown theory) are 400s naming the request field. */
@@ -102,7 +105,7 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
           continue;
         }
         if (m.coupling.range !== "any_sign") cautions.push({ code: "one_signed", message: `The coupling is ${m.coupling.range === "positive" ? "positive" : "non-negative"}: only x > 0 is searched.` });
-        cautions.unshift(...sideCautions("lower", tr.lower), ...sideCautions("upper", tr.upper));
+        cautions.unshift(...sideCautions(tr.lower, tr.upper));
         results.push({ ...base, ...described, status: "bounded", lower: sideDto(tr.lower), upper: sideDto(tr.upper), unconstrained: tr.unconstrained, verdict: tr.verdict, cautions });
       } catch (err) {
         if (!(err instanceof PhysicsInputError)) throw err;

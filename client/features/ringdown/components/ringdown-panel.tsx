@@ -47,7 +47,7 @@ function Row({ r }: { r: RingdownResult }) {
             {u.side} side: {u.reason}
           </p>
         ))}
-        <CautionList cautions={r.cautions} compact />
+        {r.cautions.length > 0 && <CautionList cautions={r.cautions} compact />}
       </td>
     </tr>
   );
