@@ -204,3 +204,6 @@ export const WAVE2_REFS = {
     details_from_memory: true,
   },
 } satisfies Record<string, ReferenceInput>;
+
+/** Every reference the second batch may cite, for `defineEntry`. */
+export const WAVE2_LIBRARY = [...Object.values(FIRST), ...Object.values(WAVE2_REFS)];
