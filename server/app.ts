@@ -20,6 +20,7 @@ import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
 import { createCheckRunner } from "./features/expressions/check-runner.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
+import { forecastJobRoutes } from "./features/forecasts/job-routes.ts";
 import { getForecastPool } from "./features/forecasts/pool.ts";
 import { curvesRepository } from "./features/forecasts/repository.ts";
 import { forecastsRoutes } from "./features/forecasts/routes.ts";
@@ -128,7 +129,9 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
   table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
-  table.mount(api, "/api", forecastsRoutes(forecastsService(curvesRepository(db), getForecastPool(), translator), config));
+  const forecasts = forecastsService(curvesRepository(db), getForecastPool(), translator);
+  table.mount(api, "/api", forecastsRoutes(forecasts, config));
+  table.mount(api, "/api", forecastJobRoutes(db, config, jobQueue, forecasts));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));
   app.use("/api", api);
