@@ -153,7 +153,7 @@ const HAND: Record<string, HandCheck[]> = {
     // Tensor speed: c_T^2 = 1/(1 - c13), (c_T - c)/c = c13/2; Mirshekari, Yunes & Will 2012 at alpha = 2 with A = -2 (c_T - c)/c: beta = D_2 A / Mc.
     { b: 3, values: { c13: 1e-15 }, expected: (1.7e22 * -1e-15) / Mc, source: "Mirshekari, Yunes & Will 2012 at alpha = 2, c_T from c13 (derived)" },
   ],
-  "massive-scalar-tensor": (() => {
+  "massive-scalar-tensor": ((): HandCheck[] => {
     const s2 = (0.5 - 0.12) ** 2;
     const bd = (5 / 48) * s2;
     // d/dx (1 - x)^(3/2) at x = 0 (the massive dipole's suppression factor, derived from omega k^3 |d|^2, k^2 = omega^2 - m^2),
