@@ -121,13 +121,14 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", catalogueApiRoutes({ db, config, clock: deps.clock ?? (() => new Date()), mailQueued: mailOutbox.kick, checks }));
   // One translator per app: its compiled catalogue is shared by the convert and sheets routes.
   const translator = convertService(dbCatalogueReader(db));
-  table.mount(api, "/api", convertRoutes(translator, config));
+  const ringdown = ringdownCatalogue(db);
+  const ringdownTranslator = ringdownService(ringdown);
+  table.mount(api, "/api", convertRoutes(translator, config, ringdownTranslator));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
   table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
-  const ringdown = ringdownCatalogue(db);
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
-  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
+  table.mount(api, "/api", ringdownRoutes(ringdownTranslator, config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   const forecasts = forecastsService(curvesRepository(db), getForecastPool(), translator);
   table.mount(api, "/api", forecastsRoutes(forecasts, config));
