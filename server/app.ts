@@ -1,7 +1,7 @@
 import { existsSync } from "node:fs";
 import path from "node:path";
 import compression from "compression";
-import express, { type Express } from "express";
+import express, { type Express, type RequestHandler } from "express";
 import { pinoHttp } from "pino-http";
 import type { Config } from "./config.ts";
 import type { Knex } from "./db/knex.ts";
@@ -29,6 +29,7 @@ import { createJobQueue, type JobQueue } from "./features/jobs/queue.ts";
 import { jobsRoutes } from "./features/jobs/routes.ts";
 import { jobsService } from "./features/jobs/service.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
+import { precompressedAssets } from "./http/precompressed.ts";
 import { redactUrl } from "./http/redact-url.ts";
 import { RouteTable } from "./http/route.ts";
 import { textGuard } from "./http/text-guard.ts";
@@ -76,6 +77,7 @@ export function createApp(deps: AppDeps): DragomanApp {
     timeoutMs: config.CHECK_TIMEOUT_MS,
     perClient: config.CHECK_IN_FLIGHT_PER_CLIENT,
     maxQueue: config.CHECK_QUEUE_MAX,
+    nice: config.WORKER_NICE,
     ...(symbolicPool ? { symbolic: () => symbolicPool } : {}),
   });
   app.locals.checkPool = checkPool;
@@ -141,6 +143,8 @@ export function createApp(deps: AppDeps): DragomanApp {
 
 /**
  * Serves the built client and falls back to index.html for client routes.
+ * Files under /assets/ that the build precompressed go out as their .br or .gz twin to clients that
+ * accept it (server/http/precompressed.ts); the others are compressed on the fly.
  * Caching: files under /assets/ carry a content hash in their names (Vite), so they are cached for a
  * year and never revalidated; a missing one is a 404 (an old page asking for a chunk of a previous
  * build), never index.html. index.html is revalidated on every load (no-cache), so a new build is seen
@@ -149,10 +153,12 @@ export function createApp(deps: AppDeps): DragomanApp {
 function mountClient(app: Express, config: Config): void {
   const dist = path.resolve(config.CLIENT_DIST);
   const index = path.join(dist, "index.html");
-  app.use("/assets", express.static(path.join(dist, "assets"), { index: false, maxAge: "1y", immutable: true, fallthrough: true }));
-  app.use("/assets", (req, res) => {
+  const missing: RequestHandler = (req, res) => {
     res.status(404).type("text/plain").set("Cache-Control", "no-store").send(`No such client file: /assets${req.path}. Reload the page to get the current build.`);
-  });
+  };
+  app.use("/assets", precompressedAssets(path.join(dist, "assets"), missing));
+  app.use("/assets", express.static(path.join(dist, "assets"), { index: false, maxAge: "1y", immutable: true, fallthrough: true }));
+  app.use("/assets", missing);
   app.use(
     express.static(dist, {
       index: false,
