@@ -4,6 +4,7 @@ import compression from "compression";
 import express, { type Express, type RequestHandler } from "express";
 import { pinoHttp } from "pino-http";
 import type { Config } from "./config.ts";
+import { attachBreaker, type DbBreaker } from "./db/breaker.ts";
 import type { Knex } from "./db/knex.ts";
 import { installAuth } from "./auth/install-auth.ts";
 import { accountsRoutes } from "./features/accounts/routes.ts";
@@ -57,7 +58,7 @@ export interface AppDeps {
 }
 
 export interface DragomanApp extends Express {
-  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue; checkPool: CheckPool };
+  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue; checkPool: CheckPool; dbBreaker: DbBreaker };
 }
 
 /** Builds the Express application. No listen here: server/index.ts and the tests do that. */
@@ -66,6 +67,12 @@ export function createApp(deps: AppDeps): DragomanApp {
   const app = express() as DragomanApp;
   const table = new RouteTable();
   app.locals.routeTable = table;
+  // Fail fast while PostgreSQL is unreachable: 503 at once, a background probe closes the breaker.
+  app.locals.dbBreaker = attachBreaker(db, {
+    probeIntervalMs: config.DB_PROBE_INTERVAL_MS,
+    onOpen: (reason) => logger.warn({ reason }, "database unreachable: answering 503 at once until a probe answers"),
+    onClose: (openForMs) => logger.info({ openForMs }, "database reachable again"),
+  });
   // The outbox route and the local mail sink exist together; config refuses DEV_OUTBOX in production.
   table.devRoutesEnabled = config.DEV_OUTBOX;
   const mailOutbox = createMailOutbox({ db, config, logger, mailer: deps.mailer });
