@@ -330,6 +330,7 @@ export const cautionCodeSchema = z.enum([
   "orders",
   "signed_interval",
   "amplitude",
+  "remnant",
 ]);
 export type CautionCode = z.infer<typeof cautionCodeSchema>;
 

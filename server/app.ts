@@ -20,6 +20,7 @@ import { samplesRoutes } from "./features/convert/samples-routes.ts";
 import { convertService } from "./features/convert/service.ts";
 import { createCheckRunner } from "./features/expressions/check-runner.ts";
 import { expressionRoutes } from "./features/expressions/routes.ts";
+import { forecastJobRoutes } from "./features/forecasts/job-routes.ts";
 import { getForecastPool } from "./features/forecasts/pool.ts";
 import { curvesRepository } from "./features/forecasts/repository.ts";
 import { forecastsRoutes } from "./features/forecasts/routes.ts";
@@ -120,15 +121,18 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", catalogueApiRoutes({ db, config, clock: deps.clock ?? (() => new Date()), mailQueued: mailOutbox.kick, checks }));
   // One translator per app: its compiled catalogue is shared by the convert and sheets routes.
   const translator = convertService(dbCatalogueReader(db));
-  table.mount(api, "/api", convertRoutes(translator, config));
+  const ringdown = ringdownCatalogue(db);
+  const ringdownTranslator = ringdownService(ringdown);
+  table.mount(api, "/api", convertRoutes(translator, config, ringdownTranslator));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
   table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
-  const ringdown = ringdownCatalogue(db);
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
-  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
+  table.mount(api, "/api", ringdownRoutes(ringdownTranslator, config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
-  table.mount(api, "/api", forecastsRoutes(forecastsService(curvesRepository(db), getForecastPool(), translator), config));
+  const forecasts = forecastsService(curvesRepository(db), getForecastPool(), translator);
+  table.mount(api, "/api", forecastsRoutes(forecasts, config));
+  table.mount(api, "/api", forecastJobRoutes(db, config, jobQueue, forecasts));
   // Reads the table at request time, so routes mounted above or below are all in the document.
   table.mount(api, "/api", openApiRoutes(table));
   app.use("/api", api);

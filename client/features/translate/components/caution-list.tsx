@@ -15,6 +15,7 @@ const codeLabel: Record<CautionCode, string> = {
   orders: "orders",
   signed_interval: "signed interval",
   amplitude: "amplitude",
+  remnant: "remnant",
 };
 
 /** Cautions stay next to the number they qualify; validity failures are shown first and in brick. */
