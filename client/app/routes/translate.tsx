@@ -1,4 +1,4 @@
-import type { ConvertRequest } from "../../../common/convert.ts";
+import { isPhaseBound, type ConvertRequest } from "../../../common/convert.ts";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel.tsx";
 import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
@@ -7,12 +7,16 @@ import { SamplesJobPanel } from "../../features/jobs/components/samples-job-pane
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
 
 function SaveSlot({ request }: { request: ConvertRequest }) {
+  const bound = request.bound;
+  if (!isPhaseBound(bound)) {
+    return <p className="text-sm text-ink-faint">Sheets hold phase bounds (β at b, δφ_k) for now: amplitude and distance-ratio translations cannot be saved to a sheet yet.</p>;
+  }
   return (
     <SaveToSheet
       what="this translation"
       payload={{
         kind: "translation",
-        bound: request.bound,
+        bound,
         binary: request.binary,
         ...(request.cosmology ? { cosmology: request.cosmology } : {}),
         ...(request.conventions ? { conventions: request.conventions } : {}),
