@@ -247,6 +247,7 @@ export const cautionCodeSchema = z.enum([
   "couplings",
   "orders",
   "signed_interval",
+  "remnant",
 ]);
 export type CautionCode = z.infer<typeof cautionCodeSchema>;
 

@@ -37,7 +37,6 @@ export const apiPaths = {
   consistencyCoupling: () => "/api/v1/consistency/coupling",
   consistencyJob: () => "/api/v1/jobs/consistency",
   job: (id: string) => `/api/v1/jobs/${encodeURIComponent(id)}`,
-  convertRingdown: () => "/api/v1/convert/ringdown",
   me: () => "/api/v1/me",
   session: () => "/api/v1/session",
   csrf: () => "/api/v1/csrf",

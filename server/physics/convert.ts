@@ -20,15 +20,14 @@ import type {
   NoConstraintResult,
   SignedInterval,
   ValidityResult,
-  Verdict,
 } from "./convert-types.ts";
-import { RULE_OF_THUMB_STRETCH } from "../../common/convert.ts";
 import { distanceAlphaKm, PLANCK_2018, validateCosmology, type Cosmology } from "./cosmology.ts";
 import { PhysicsInputError, requireFinite } from "./input-error.ts";
 import { detectPowerLaw, fractionString, solveMagnitude } from "./invert.ts";
 import { formatLatexNumber, unitLatex } from "./latex-format.ts";
 import { presentLimit, type QuotedValue, type Side } from "./quoted-forms.ts";
 import { degeneracyOfB, gimrFactor, normaliseSign } from "./taylorf2.ts";
+import { judgeCondition, verdictOf } from "./verdict.ts";
 
 export type * from "./convert-types.ts";
 
@@ -440,37 +439,12 @@ function evaluateValidity(mapping: MappingSpec, x: number, env: Env, binary: Bin
   const out: ValidityResult[] = [];
   for (const c of mapping.validity ?? []) {
     if (c.body && c.appliesTo && !c.appliesTo.includes(binary.bodies[c.body - 1]!)) continue;
-    const value = c.evaluate(x, env);
-    const ok = Number.isFinite(value) && value <= c.max;
-    const factor = c.max > 0 && Number.isFinite(value) ? value / c.max : Number.NaN;
-    const status = ok ? "ok" : c.kind === "rule_of_thumb" && factor <= RULE_OF_THUMB_STRETCH ? "stretched" : "fails";
-    out.push({
-      label: c.label,
-      condition: c.condition,
-      value,
-      max: c.max,
-      ok,
-      kind: c.kind,
-      factor,
-      status,
-      ...(c.reference ? { reference: c.reference } : {}),
-    });
+    out.push(judgeCondition(c, c.evaluate(x, env)));
   }
   return out;
 }
 
-/**
- * valid: every condition holds (a rule of thumb exceeded by at most RULE_OF_THUMB_STRETCH counts as
- * holding, stretched); outside_validity: a hard condition fails, or a rule of thumb by more than
- * that factor; not_assessed: no condition applies to this binary. The worst failure is reported.
- */
-export function verdictOf(validity: readonly ValidityResult[]): { verdict: Verdict; failing: ValidityResult | null } {
-  if (validity.length === 0) return { verdict: "not_assessed", failing: null };
-  const failures = validity.filter((v) => v.status === "fails");
-  if (failures.length === 0) return { verdict: "valid", failing: null };
-  const worst = failures.reduce((a, v) => (!(a.factor >= v.factor) ? v : a));
-  return { verdict: "outside_validity", failing: worst };
-}
+export { verdictOf };
 
 function limitLatex(
   spec: CouplingSpec,

@@ -1,5 +1,5 @@
 import type { BoundRequest, Caution, ConvertResult, QuotedValueDto } from "../../../common/convert.ts";
-import type { BoundedResult } from "../../physics/convert.ts";
+import type { BoundedResult, ValidityResult } from "../../physics/convert.ts";
 import { formatLatexNumber, unitLatex } from "../../physics/latex-format.ts";
 import { engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, signedIntervalCaution, validityCautions } from "./cautions.ts";
 import type { AcceptedTheory } from "./catalogue-snapshot.ts";
@@ -27,6 +27,32 @@ const plain = (q: { symbol: string; latex: string; value: number; unit: string; 
   unit: q.unit,
   side: q.side,
 });
+
+/** A condition at a limit as the API states it (non-finite numbers become null). Shared by every bound kind. */
+export function validityItemDto(v: ValidityResult): ConvertResult["validity"][number] {
+  return {
+    label: v.label,
+    condition: v.condition,
+    value: Number.isFinite(v.value) ? v.value : null,
+    max: v.max,
+    ok: v.ok,
+    kind: v.kind,
+    factor: Number.isFinite(v.factor) ? v.factor : null,
+    status: v.status,
+    ...(v.reference ? { reference: v.reference } : {}),
+  };
+}
+
+export function failingDto(v: ValidityResult): NonNullable<ConvertResult["failing"]> {
+  return {
+    label: v.label,
+    condition: v.condition,
+    value: Number.isFinite(v.value) ? v.value : null,
+    max: v.max,
+    factor: Number.isFinite(v.factor) ? v.factor : null,
+    kind: v.kind,
+  };
+}
 
 export function buildResult({ theory, ready, result, bound, requestedConvention, propagation }: ResultInput): ConvertResult {
   const spec = ready.compiled.coupling;
@@ -105,28 +131,9 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
     signed_interval: result.signed_interval ? { ...result.signed_interval } : null,
     method: result.method,
     verdict: result.verdict,
-    failing: result.failing
-      ? {
-          label: result.failing.label,
-          condition: result.failing.condition,
-          value: Number.isFinite(result.failing.value) ? result.failing.value : null,
-          max: result.failing.max,
-          factor: Number.isFinite(result.failing.factor) ? result.failing.factor : null,
-          kind: result.failing.kind,
-        }
-      : null,
+    failing: result.failing ? failingDto(result.failing) : null,
     valid: result.verdict === "valid",
-    validity: result.validity.map((v) => ({
-      label: v.label,
-      condition: v.condition,
-      value: Number.isFinite(v.value) ? v.value : null,
-      max: v.max,
-      ok: v.ok,
-      kind: v.kind,
-      factor: Number.isFinite(v.factor) ? v.factor : null,
-      status: v.status,
-      ...(v.reference ? { reference: v.reference } : {}),
-    })),
+    validity: result.validity.map(validityItemDto),
     closed_form_latex: closedForm,
     mapping_latex: ready.notes.latex,
     reference_bounds: referenceBounds,

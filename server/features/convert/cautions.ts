@@ -9,7 +9,7 @@ import type { BoundedResult } from "../../physics/convert.ts";
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(3)).toString() : String(x));
 
-export function validityCautions(result: BoundedResult): Caution[] {
+export function validityCautions(result: Pick<BoundedResult, "validity">): Caution[] {
   return result.validity
     .filter((v) => !v.ok)
     .map((v) => ({

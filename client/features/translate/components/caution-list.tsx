@@ -14,6 +14,7 @@ const codeLabel: Record<CautionCode, string> = {
   couplings: "couplings",
   orders: "orders",
   signed_interval: "signed interval",
+  remnant: "remnant",
 };
 
 /** Cautions stay next to the number they qualify; validity failures are shown first and in brick. */
