@@ -61,6 +61,8 @@ export const mappingSummarySchema = z.object({
   a: z.number().nullable(),
   pn_order: z.number().nullable(),
   retired: z.boolean(),
+  /** Where the formula comes from: read in its paper, re-derived, or recalled (source to be confirmed). */
+  source_status: z.enum(SOURCE_STATUSES),
 });
 
 export const theorySummarySchema = z.object({
@@ -304,6 +306,19 @@ export const submissionDetailSchema = submissionSummarySchema.extend({
   diff: entryDiffSchema.nullable(),
   /** Everyone who wrote a version so far (the author, and editors who saved a change), first contribution first. */
   authors: z.array(personSchema),
+  /**
+   * For a submission an editor has returned: the version they returned (the latest return), and the
+   * diff from that version to the current one, i.e. what the author changed since. The diff is null
+   * when that version was saved before versions were kept. Null when the submission was never returned.
+   */
+  since_returned: z
+    .object({
+      version: z.number().int(),
+      returned_at: z.string(),
+      returned_by: personSchema.nullable(),
+      diff: entryDiffSchema.nullable(),
+    })
+    .nullable(),
 });
 export type SubmissionDetail = z.infer<typeof submissionDetailSchema>;
 

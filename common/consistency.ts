@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { failingConditionSchema, validityItemSchema, verdictSchema } from "./convert.ts";
 
 /**
  * Request and response shapes of the inspiral-merger-ringdown consistency test
@@ -93,17 +94,6 @@ export const couplingExclusionRequestSchema = z
 export type CouplingExclusionRequest = z.output<typeof couplingExclusionRequestSchema>;
 export type CouplingExclusionRequestInput = z.input<typeof couplingExclusionRequestSchema>;
 
-const outcome = z.object({
-  label: z.string(),
-  condition: z.string(),
-  value: z.number().nullable(),
-  max: z.number(),
-  kind: z.enum(["hard", "rule_of_thumb"]),
-  factor: z.number().nullable(),
-  ok: z.boolean().nullable(),
-  reason: z.string().optional(),
-});
-
 export const couplingExclusionResponseSchema = z.object({
   theory: z.object({ slug: z.string(), name: z.string(), revision: z.number() }),
   coupling: z.object({ symbol: z.string(), latex: z.string(), unit: z.string() }),
@@ -121,8 +111,11 @@ export const couplingExclusionResponseSchema = z.object({
       reason: z.string().optional(),
       /** Where the linear and exact readings part by more than 10 %. */
       linear_breaks_at: z.number().nullable(),
-      verdict: z.enum(["valid", "outside_validity", "not_assessed"]),
-      conditions: z.array(outcome),
+      /** The translator's verdict rule at the limit (common/convert.ts): stretched rules of thumb stay valid. */
+      verdict: verdictSchema,
+      failing: failingConditionSchema.nullable(),
+      validity: z.array(validityItemSchema),
+      unassessed: z.array(z.object({ label: z.string(), condition: z.string(), reason: z.string() })),
     }),
   ),
   /** The expected deviation against the coupling, for drawing over the contours. */

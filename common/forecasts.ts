@@ -10,6 +10,8 @@ import { cautionSchema, convertResultSchema, notApplicableSchema } from "./conve
 const num = (what: string) => z.number({ error: (i) => (i.input === undefined ? `${what} is required` : `${what} must be a number`) });
 const positive = (what: string, unit: string) => num(what).positive(`${what} must be positive (${unit})`);
 
+export const COALESCENCE_OPTIONS = ["shared", "phi_c_per_detector", "phi_c_t_c_per_detector"] as const;
+
 export const BUILT_IN_CURVE_IDS = ["aligo-design", "aligo-o1", "et-b", "lisa", "tianqin", "decigo", "b-decigo"] as const;
 export const CURVE_CONVENTIONS = ["l_shaped", "triangle", "two_channel_triangle", "response_averaged"] as const;
 export type CurveConventionDto = (typeof CURVE_CONVENTIONS)[number];
@@ -47,8 +49,8 @@ export const MAX_FORECAST_DETECTORS = 8;
 export const MAX_FORECAST_NETWORKS = 12;
 export const MAX_FORECAST_B = 40;
 
-export const forecastRequestSchema = z.strictObject({
-  source: forecastSourceSchema,
+/** Everything a forecast asks for besides the source (shared by single forecasts and grids). */
+const forecastSettingsShape = {
   cosmology: z
     .strictObject({
       H0: positive("H0", "km/s/Mpc").default(67.66),
@@ -66,12 +68,40 @@ export const forecastRequestSchema = z.strictObject({
   sides: z.enum(["one", "two"], { error: 'sides must be "one" or "two"' }).default("two"),
   /** "isco" (inspiral only) or an extrapolation of TaylorF2 to the PhenomA merger frequency, labelled so. */
   upper_cut: z.enum(["isco", "merger_extrapolated"], { error: 'upper_cut must be "isco" or "merger_extrapolated"' }).default("isco"),
+  /**
+   * One phi_c and t_c for all detectors of a network ("shared", phase-coherent), or one phi_c (and
+   * t_c) per detector, for detectors that are not phase-coherent (a space and a ground detector years apart).
+   */
+  coalescence: z.enum(COALESCENCE_OPTIONS, { error: `coalescence must be one of ${COALESCENCE_OPTIONS.join(", ")}` }).default("shared"),
   /** Translate each network's bound into the catalogue's theories (default true). */
   translate: z.boolean({ error: "translate must be true or false" }).default(true),
   include_matrices: z.boolean({ error: "include_matrices must be true or false" }).default(false),
+};
+
+export const forecastRequestSchema = z.strictObject({
+  source: forecastSourceSchema,
+  ...forecastSettingsShape,
 });
 export type ForecastRequest = z.output<typeof forecastRequestSchema>;
 export type ForecastRequestInput = z.input<typeof forecastRequestSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Forecast grids as background jobs (POST /api/v1/jobs/forecast)
+
+export const MAX_GRID_SOURCES = 60;
+export const MAX_GRID_B = 200;
+
+/**
+ * A heavy forecast: several sources (e.g. a grid of masses) and up to 200 values of b, every other
+ * setting as in POST /forecasts. Runs on the job queue; its result is one forecast answer per source.
+ */
+export const forecastGridRequestSchema = z.strictObject({
+  ...forecastSettingsShape,
+  sources: z.array(forecastSourceSchema).min(1, "sources must list at least one source").max(MAX_GRID_SOURCES, `at most ${MAX_GRID_SOURCES} sources`),
+  b: z.array(num("b").min(-20, "b must lie in [-20, 10]").max(10, "b must lie in [-20, 10]")).min(1, "b must list at least one exponent").max(MAX_GRID_B, `at most ${MAX_GRID_B} values of b`),
+});
+export type ForecastGridRequest = z.output<typeof forecastGridRequestSchema>;
+export type ForecastGridRequestInput = z.input<typeof forecastGridRequestSchema>;
 
 const statusSchema = z.enum(["ok", "ill_conditioned", "no_constraint"]);
 
@@ -105,6 +135,8 @@ export const forecastBandSchema = z.object({
   low_cut: z.string(),
   high_cut: z.string(),
   extrapolated: z.boolean(),
+  /** The curve's convention is still to be checked against its source (see the curve list). */
+  to_confirm: z.string().nullable(),
   years_observed: z.number().nullable(),
   years_before_merger: z.number().nullable(),
   snr: z.number(),
@@ -144,6 +176,7 @@ export const forecastResponseSchema = z.object({
   sides: z.enum(["one", "two"]),
   multiplier: z.number(),
   upper_cut: z.enum(["isco", "merger_extrapolated"]),
+  coalescence: z.enum(COALESCENCE_OPTIONS),
   detectors: z.array(forecastBandSchema),
   networks: z.array(forecastNetworkSchema),
   cautions: z.array(z.string()),
@@ -152,6 +185,15 @@ export const forecastResponseSchema = z.object({
   catalogue_revision: z.string().nullable(),
 });
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
+
+/** A finished forecast grid job: one answer per source, in the order of the request. */
+export const forecastGridResultSchema = z.object({
+  kind: z.literal("forecast_grid"),
+  forecasts: z.array(forecastResponseSchema),
+  /** Seconds of computation in the worker. */
+  seconds: z.number(),
+});
+export type ForecastGridResult = z.infer<typeof forecastGridResultSchema>;
 
 // ---------------------------------------------------------------------------------------------
 // Curves
@@ -162,6 +204,8 @@ export const curveInfoSchema = z.object({
   source: z.string(),
   convention: z.enum(CURVE_CONVENTIONS),
   convention_note: z.string(),
+  /** What of the curve's convention is still to be checked against its source; null when nothing is. */
+  to_confirm: z.string().nullable(),
   f_min: z.number(),
   f_max: z.number(),
   default_f_low: z.number(),
@@ -176,15 +220,29 @@ export const curveListSchema = z.object({ curves: z.array(curveInfoSchema) });
 export const MAX_CURVE_POINTS = 20_000;
 export const MAX_CURVE_BYTES = 1_000_000;
 
-export const curveUploadSchema = z.strictObject({
+const curveUploadFields = {
   name: z.string({ error: "name is required" }).trim().min(1, "name is required").max(80, "name must be at most 80 characters"),
   /** What the second column holds: amplitude (1/sqrt(Hz)) or power (1/Hz) spectral density. */
   kind: z.enum(["asd", "psd"], { error: 'kind must be "asd" or "psd": say what the second column holds' }),
   convention: z.enum(CURVE_CONVENTIONS, { error: `convention must be one of ${CURVE_CONVENTIONS.join(", ")}` }),
+};
+
+/** JSON form (API clients): the table as text in `data`. */
+export const curveUploadSchema = z.strictObject({
+  ...curveUploadFields,
   /** True for a detector in space: its band comes from the observing window before merger. */
   space: z.boolean({ error: "space must be true or false" }).default(false),
-  /** Two columns: frequency (Hz) and ASD or PSD; commas, tabs or spaces; # comments and one header line allowed. */
+  /** Two columns: frequency (Hz) and ASD or PSD; commas, tabs or spaces; # comments and header lines allowed. */
   data: z.string({ error: "data is required: the two-column table as text" }).min(1, "data is required").max(MAX_CURVE_BYTES, `data must be at most ${MAX_CURVE_BYTES} characters`),
+});
+
+/** Multipart form (the page): the table is the form field `file`; these are the text fields beside it. */
+export const curveFileFieldsSchema = z.strictObject({
+  ...curveUploadFields,
+  space: z
+    .enum(["true", "false"], { error: 'space must be "true" or "false"' })
+    .default("false")
+    .transform((v) => v === "true"),
 });
 export type CurveUpload = z.output<typeof curveUploadSchema>;
 export type CurveUploadInput = z.input<typeof curveUploadSchema>;

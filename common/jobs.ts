@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { consistencyResultSchema } from "./consistency.ts";
+import { forecastGridResultSchema } from "./forecasts.ts";
 import { bodyKindSchema, cautionSchema, cosmologySchema, fLowSchema, gimrKSchema, signConventionSchema, theorySlugSchema } from "./convert.ts";
 
 /**
@@ -10,7 +11,7 @@ import { bodyKindSchema, cautionSchema, cosmologySchema, fLowSchema, gimrKSchema
 
 export const JOB_STATUSES = ["queued", "running", "done", "failed", "cancelled"] as const;
 export type JobStatus = (typeof JOB_STATUSES)[number];
-export const JOB_KINDS = ["samples", "stack", "consistency"] as const;
+export const JOB_KINDS = ["samples", "stack", "consistency", "forecast"] as const;
 export type JobKind = (typeof JOB_KINDS)[number];
 
 /** 144 random bits, base64url (24 characters). */
@@ -197,7 +198,7 @@ export const jobViewSchema = z.object({
   finished_at: z.string().nullable(),
   expires_at: z.string().nullable(),
   file: z.object({ name: z.string(), bytes: z.number().int(), sha256: z.string(), format: z.string() }).nullable(),
-  result: z.union([samplesJobResultSchema, stackJobResultSchema, consistencyResultSchema]).optional(),
+  result: z.union([samplesJobResultSchema, stackJobResultSchema, consistencyResultSchema, forecastGridResultSchema]).optional(),
   error: jobErrorSchema.optional(),
 });
 export type JobView = z.infer<typeof jobViewSchema>;

@@ -9,6 +9,8 @@ import * as retirement from "./20261202000500_retirement.ts";
 import * as forecastCurves from "./20261202001200_forecast_curves.ts";
 import * as couplingRange from "./20261202001300_coupling_range.ts";
 import * as analysisJobs from "./20261202003000_analysis_jobs.ts";
+import * as submissionVersions from "./20261202004000_submission_versions.ts";
+import * as sheetRecordKinds from "./20261202004100_sheet_record_kinds.ts";
 import * as jobBlobsStorage from "./20261202004500_job_blobs_storage.ts";
 
 /**
@@ -26,5 +28,7 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261202001200_forecast_curves": forecastCurves,
   "20261202001300_coupling_range": couplingRange,
   "20261202003000_analysis_jobs": analysisJobs,
+  "20261202004000_submission_versions": submissionVersions,
+  "20261202004100_sheet_record_kinds": sheetRecordKinds,
   "20261202004500_job_blobs_storage": jobBlobsStorage,
 };

@@ -14,7 +14,9 @@ import type { SeedStep } from "./index.ts";
  *   - demo-theorist proposes a change to EdGB, now in review with a short exchange of comments;
  *   - a fictional phenomenologist's change to the massive graviton was returned with comments;
  *   - a fictional postdoc's change to the noncommutative entry waits in the editors' queue;
- *   - demo-theorist has a draft for dCS whose new validity condition still fails a check.
+ *   - demo-theorist has a draft for dCS whose new validity condition still fails a check;
+ *   - the postdoc's change to Brans-Dicke was returned, revised and resubmitted, so a reviewer sees
+ *     what changed since the returned version beside the change against the published revision.
  * The people, institutions and wording are fictional.
  */
 
@@ -128,5 +130,32 @@ export const demoScenarioSeed: SeedStep = {
         })),
       },
     });
+
+    // 5. Resubmitted: returned once for a missing range, revised, sent again.
+    const bd = await current("brans-dicke");
+    const resubmitted = await service.create(postdoc, {
+      target_slug: "brans-dicke",
+      theory: { ...bd, assumptions: [...bd.assumptions, "neutron-star sensitivities from a stiff equation of state"] },
+    });
+    clock.advance(3);
+    await service.submit(resubmitted.id, postdoc);
+    clock.advance(20);
+    await service.startReview(resubmitted.id, admin);
+    clock.advance(1);
+    await service.decide(resubmitted.id, admin, {
+      decision: "return",
+      comment: "Which stiff equations of state, and what sensitivity range do they give for a 1.4 solar-mass star? State the range so readers can tell how much the bound depends on it.",
+    });
+    clock.advance(30);
+    const revised = await service.update(resubmitted.id, postdoc, {
+      version: 1,
+      theory: {
+        ...bd,
+        assumptions: [...bd.assumptions, "neutron-star sensitivity between 0.1 and 0.3 for a 1.4 solar-mass star, the span of the stiff equations of state considered (an input; our own reading)"],
+      },
+    });
+    clock.advance(1);
+    await service.addComment(resubmitted.id, postdoc, `Version ${revised.version} states the sensitivity range instead of naming the equation of state.`);
+    await service.submit(resubmitted.id, postdoc);
   },
 };

@@ -14,6 +14,7 @@ import { AppError } from "../errors.ts";
 import { JobCancelled, SampleInputError } from "../physics/samples/sample-input-error.ts";
 import { consistencyJobRequestSchema } from "../../common/consistency.ts";
 import { CONSISTENCY_FILES, runConsistencyJob } from "./consistency-job.ts";
+import { runForecastJob, type ForecastJobInput } from "./forecast-job.ts";
 import { readStackValues, runSamplesJob } from "./samples-job.ts";
 import { runStackJob } from "./stack-job.ts";
 
@@ -85,6 +86,9 @@ export async function startWorker(deps: { config: Config; db: Knex; logger: Logg
           files[name] = blob.toString("utf8");
         }
         const out = await runConsistencyJob({ request: consistencyJobRequestSchema.parse(row.request), files, onProgress });
+        await repo.finish(id, out, config.JOBS_RETENTION_HOURS, []);
+      } else if (row.kind === "forecast") {
+        const out = await runForecastJob({ request: row.request as ForecastJobInput["request"], catalogue: (row.request as { translate?: boolean }).translate === false ? null : catalogue, onProgress });
         await repo.finish(id, out, config.JOBS_RETENTION_HOURS, []);
       } else {
         const load = async (jobId: string) => {

@@ -37,8 +37,10 @@ export function submittedMessages(
   s: MailSubmission,
   author: MailPerson,
   editors: MailPerson[],
-  resubmitted: boolean,
+  /** The version an editor returned, when this is a resubmission; null for a first submission. */
+  returnedVersion: number | null,
 ): QueuedMail[] {
+  const resubmitted = returnedVersion !== null;
   const verb = resubmitted ? "resubmitted" : "submitted";
   return editors
     .filter((e) => e.email && e.login !== author.login)
@@ -50,7 +52,9 @@ export function submittedMessages(
         `Hello ${e.name},`,
         "",
         `${author.name} (${author.login}) has ${verb} ${what(s)} for review (submission #${s.id}, version ${s.version}).`,
-        resubmitted ? "It was returned earlier; the comment thread shows what changed and why." : "",
+        resubmitted
+          ? `It was returned at version ${returnedVersion}. The review page shows what changed since that version beside the changes against the published revision, and the comment thread says why.`
+          : "",
         "",
         `Review it here: ${site}${reviewPath(s.id)}`,
         "",

@@ -273,6 +273,46 @@ describe("the review process", () => {
     expect((await act("t-editor", id, "start-review")).body.status).toBe("in_review");
   });
 
+  it("when a returned change is revised and resubmitted, then the editor reads the diff since the returned version beside the diff against the published revision", async () => {
+    const current = (await request(app).get("/api/v1/theories/brans-dicke/revisions/1")).body.entry as TheoryEntryInput;
+    const first = { ...current, assumptions: [...(current.assumptions ?? []), "stiff equation of state"] };
+    const id = await draft("t-theorist", first, "brans-dicke");
+    const neverReturned = await request(app).get(`/api/v1/submissions/${id}`).set(auth("t-editor"));
+    expect(neverReturned.body.since_returned).toBeNull();
+    // Saved twice before submitting: the returned version is 2, not 1.
+    const v2 = { ...first, summary: `${current.summary} Tidied.` };
+    expect((await request(app).patch(`/api/v1/submissions/${id}`).set(auth("t-theorist")).send({ version: 1, theory: v2 })).body.version).toBe(2);
+    await act("t-theorist", id, "submit");
+    await act("t-editor", id, "start-review");
+    await act("t-editor", id, "decision", { decision: "return", comment: "State the sensitivity range." });
+    const atReturn = await request(app).get(`/api/v1/submissions/${id}`).set(auth("t-theorist"));
+    expect(atReturn.body.since_returned).toMatchObject({ version: 2, returned_by: { login: "t-editor" }, diff: { added: [], removed: [], changed: [] } });
+
+    const n = current.assumptions?.length ?? 0;
+    const v3 = { ...v2, assumptions: [...(current.assumptions ?? []), "sensitivity 0.1 to 0.3"] };
+    expect((await request(app).patch(`/api/v1/submissions/${id}`).set(auth("t-theorist")).send({ version: 2, theory: v3 })).body.version).toBe(3);
+    expect((await act("t-theorist", id, "submit")).body.status).toBe("resubmitted");
+
+    const detail = await request(app).get(`/api/v1/submissions/${id}`).set(auth("t-editor2"));
+    expect(detail.status).toBe(200);
+    expect(submissionDetailSchema.parse(detail.body)).toBeTruthy();
+    expect(detail.body.version).toBe(3);
+    // Since the returned version 2: only the reworded assumption.
+    expect(detail.body.since_returned).toMatchObject({ version: 2, returned_by: { login: "t-editor" } });
+    expect(detail.body.since_returned.returned_at).toEqual(expect.any(String));
+    expect(detail.body.since_returned.diff).toEqual({ added: [], removed: [], changed: [{ path: `assumptions.${n}`, before: "stiff equation of state", after: "sensitivity 0.1 to 0.3" }] });
+    // Against the published revision: the summary and the added assumption.
+    expect(detail.body.diff.changed).toEqual([{ path: "summary", before: current.summary, after: v3.summary }]);
+    expect(detail.body.diff.added).toEqual([{ path: `assumptions.${n}`, after: "sensitivity 0.1 to 0.3" }]);
+    // Every version is kept as it was saved.
+    const versions = await tdb.db("submission_versions").where({ submission_id: id }).orderBy("version").select("version", "entry");
+    expect(versions.map((v: { version: number; entry: TheoryEntryInput }) => [v.version, v.entry.assumptions?.[n]])).toEqual([
+      [1, "stiff equation of state"],
+      [2, "stiff equation of state"],
+      [3, "sensitivity 0.1 to 0.3"],
+    ]);
+  });
+
   it("when the author withdraws a returned submission, then withdrawn, and nothing more can happen to it", async () => {
     const id = await draft();
     await act("t-theorist", id, "submit");

@@ -92,7 +92,9 @@ describe("browser: every route at 375 px and 1366 px", () => {
     params[":token"] = String(share.body.token);
     params[":slug"] = "edgb";
     params["submit/:id"] = String(submission?.id ?? 1);
-    params["review/:id"] = String(submission?.id ?? 1);
+    // The resubmission: its review page carries both diffs (since the returned version, against the published revision).
+    const resubmission = await tdb.db("submissions").where({ status: "resubmitted" }).first<{ id: number } | undefined>("id");
+    params["review/:id"] = String(resubmission?.id ?? submission?.id ?? 1);
     browser = await launchBrowser();
     const page = await browser.newPage();
     await page.goto(`${stack.baseUrl}/auth/github?login_hint=demo-admin&return_to=/`, { waitUntil: "networkidle" });

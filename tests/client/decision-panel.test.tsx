@@ -40,6 +40,7 @@ function inReview(results: SubmissionDetail["checks"]["results"]): SubmissionDet
     target_revision: null,
     diff: null,
   authors: [],
+  since_returned: null,
   };
 }
 

@@ -5,11 +5,10 @@ import { useReviewSubmission } from "../../features/review/api/get-review-submis
 import { CommentsThread } from "../../features/review/components/comments-thread.tsx";
 import { DecisionPanel } from "../../features/review/components/decision-panel.tsx";
 import { EntryPreview } from "../../features/review/components/entry-preview.tsx";
+import { ReviewDiffs } from "../../features/review/components/review-diffs.tsx";
 import { Badge } from "../../components/ui/badge.tsx";
 import { CheckBadge } from "../../components/ui/check-list.tsx";
-import { changesFromDiff, DiffView } from "../../components/ui/diff-view.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
-import { ScrollBox } from "../../components/ui/scroll-box.tsx";
 import { paths } from "../../lib/paths.ts";
 import { statusLabel } from "../../../common/submission-status.ts";
 
@@ -37,16 +36,11 @@ function Review({ id }: { id: number }) {
           <Link to={paths.editSubmission(s.id)}>edit it</Link>
         ) : null}
       </p>
-      <div className="mt-8 grid gap-10 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <div className="mt-8">
+        <ReviewDiffs submission={s} />
+      </div>
+      <div className="mt-10 grid gap-10 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <div className="flex flex-col gap-10 min-w-0">
-          {s.diff && (
-            <section>
-              <h2 className="text-xl mb-2">Changes against revision {s.target_revision}</h2>
-              <ScrollBox label={`Changes against revision ${s.target_revision}`} className="rounded border border-paper-edge bg-white/40 p-3">
-                <DiffView changes={changesFromDiff(s.diff)} testId="review-diff" />
-              </ScrollBox>
-            </section>
-          )}
           <section>
             <h2 className="text-xl mb-2">The submitted entry</h2>
             <EntryPreview entry={s.theory} checks={s.checks} />

@@ -4,6 +4,7 @@ import { couplingExclusion, testCovarianceAtGr } from "../../physics/ringdown/co
 import { summaryCovariance } from "../../physics/ringdown/gaussian-consistency.ts";
 import { remnantFromBinary } from "../../physics/ringdown/remnant.ts";
 import { assessValidity } from "../../physics/ringdown/ringdown-bound.ts";
+import { failingDto, validityItemDto } from "../convert/build-result.ts";
 import type { RingdownCatalogue } from "../ringdown/catalogue.ts";
 import { resolveRemnant } from "../ringdown/remnant-input.ts";
 
@@ -60,7 +61,9 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
         ...(s.reason ? { reason: s.reason } : {}),
         linear_breaks_at: s.linear_breaks_at,
         verdict: v?.verdict ?? "not_assessed",
-        conditions: v?.outcomes ?? [],
+        failing: v?.failing ? failingDto(v.failing) : null,
+        validity: (v?.validity ?? []).map(validityItemDto),
+        unassessed: v?.unassessed ?? [],
       };
     }),
     track: exact.track,

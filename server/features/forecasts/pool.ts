@@ -1,11 +1,16 @@
 import { Worker } from "node:worker_threads";
+import type { ForecastRequest, ForecastResponse } from "../../../common/forecasts.ts";
 import { ServiceUnavailableError, ValidationError } from "../../errors.ts";
-import type { CustomCurveData, ForecastInput, ForecastResult } from "../../physics/forecast/forecast.ts";
+import type { CustomCurveData } from "../../physics/forecast/forecast.ts";
+import type { CompiledCatalogue } from "../convert/compiled-catalogue.ts";
+import type { CatalogueSnapshot } from "../convert/catalogue-snapshot.ts";
 
 /**
  * One warm worker thread runs the forecasts, one at a time, so the event loop never does the
- * arithmetic. A job that overruns its deadline has the worker terminated and replaced; a queue that
- * grows too long is refused with 503 rather than letting requests pile up.
+ * arithmetic: the Fisher computation and the translation into every theory (run.ts). The thread
+ * compiles the catalogue itself and keeps it per revision; the snapshot crosses only when the
+ * revision changes. A job that overruns its deadline has the worker terminated and replaced; a queue
+ * that grows too long is refused with 503 rather than letting requests pile up.
  */
 export interface ForecastPoolOptions {
   readonly timeoutMs?: number;
@@ -14,16 +19,17 @@ export interface ForecastPoolOptions {
 
 interface Job {
   readonly id: number;
-  readonly input: ForecastInput;
+  readonly request: ForecastRequest;
   readonly curves: readonly CustomCurveData[];
-  readonly resolve: (r: ForecastResult) => void;
+  readonly catalogue: CompiledCatalogue | null;
+  readonly resolve: (r: ForecastResponse) => void;
   readonly reject: (e: Error) => void;
 }
 
 type WorkerMessage =
   | { ready: true }
-  | { id: number; ok: true; result: ForecastResult }
-  | { id: number; ok: false; name: string; field: string | null; message: string };
+  | { id: number; ok: true; result: ForecastResponse }
+  | { id: number; ok: false; name: string; fields: Record<string, string> | null; message: string };
 
 const WORKER_URL = new URL("./forecast-worker.mjs", import.meta.url);
 
@@ -33,6 +39,8 @@ export class ForecastPool {
   private readonly queue: Job[] = [];
   private running: { job: Job; timer: NodeJS.Timeout } | undefined;
   private nextId = 1;
+  /** The catalogue revision the current thread holds (null: none yet). */
+  private workerRevision: string | null = null;
   private closed = false;
   private readonly timeoutMs: number;
   private readonly maxQueue: number;
@@ -42,11 +50,11 @@ export class ForecastPool {
     this.maxQueue = options.maxQueue ?? 20;
   }
 
-  run(input: ForecastInput, curves: readonly CustomCurveData[]): Promise<ForecastResult> {
+  run(request: ForecastRequest, curves: readonly CustomCurveData[], catalogue: CompiledCatalogue | null): Promise<ForecastResponse> {
     if (this.closed) return Promise.reject(new ServiceUnavailableError("the forecast engine is shutting down"));
     if (this.queue.length >= this.maxQueue) return Promise.reject(new ServiceUnavailableError("too many forecasts are waiting; try again shortly"));
     return new Promise((resolve, reject) => {
-      this.queue.push({ id: this.nextId++, input, curves, resolve, reject });
+      this.queue.push({ id: this.nextId++, request, curves, catalogue, resolve, reject });
       void this.pump();
     });
   }
@@ -68,6 +76,7 @@ export class ForecastPool {
     if (this.ready) return this.ready;
     const worker = new Worker(WORKER_URL, { resourceLimits: { maxOldGenerationSizeMb: 256 } });
     this.worker = worker;
+    this.workerRevision = null;
     worker.unref();
     this.ready = new Promise<void>((resolve, reject) => {
       worker.on("message", (msg: WorkerMessage) => {
@@ -102,10 +111,7 @@ export class ForecastPool {
     clearTimeout(current.timer);
     this.running = undefined;
     if (msg.ok) current.job.resolve(msg.result);
-    else if (msg.name === "PhysicsInputError" && msg.field) {
-      const text = msg.message.startsWith(msg.field) ? msg.message : `${msg.field}: ${msg.message}`;
-      current.job.reject(new ValidationError(`Invalid request body: ${text}`, { [msg.field]: msg.message }));
-    }
+    else if (msg.name === "ValidationError") current.job.reject(new ValidationError(msg.message, msg.fields ?? undefined));
     else current.job.reject(new Error(msg.message));
     void this.pump();
   }
@@ -125,7 +131,11 @@ export class ForecastPool {
     this.running = { job, timer };
     try {
       await this.start();
-      this.worker?.postMessage({ id: job.id, input: job.input, curves: job.curves });
+      const revision = job.catalogue?.revision ?? null;
+      const snapshot: CatalogueSnapshot | null =
+        job.catalogue && revision !== this.workerRevision ? { revision: job.catalogue.revision, theories: job.catalogue.theories.map((t) => t.theory) } : null;
+      this.worker?.postMessage({ id: job.id, request: job.request, curves: job.curves, revision, snapshot });
+      this.workerRevision = revision ?? this.workerRevision;
     } catch (err) {
       if (this.running?.job === job) {
         clearTimeout(timer);

@@ -102,7 +102,12 @@ export async function insertSubmission(
     })
     .returning<{ id: number }[]>("id");
   if (!row) throw new Error("submission insert returned no row");
+  await insertVersion(trx, { submissionId: row.id, version: 1, entry: s.entry, savedBy: s.authorId, at: s.now });
   return row.id;
+}
+
+async function insertVersion(trx: Knex.Transaction, v: { submissionId: number; version: number; entry: TheoryEntry; savedBy: number; at: Date }): Promise<void> {
+  await trx("submission_versions").insert({ submission_id: v.submissionId, version: v.version, entry: JSON.stringify(v.entry), saved_by: v.savedBy, saved_at: v.at });
 }
 
 /** Saves a new version if `expectedVersion` is still current; returns the new version, or undefined when stale. */
@@ -113,12 +118,35 @@ export async function saveVersion(
   entry: TheoryEntry,
   checks: ChecksReport,
   now: Date,
+  savedBy: number,
 ): Promise<number | undefined> {
   const [row] = await trx("submissions")
     .where({ id, version: expectedVersion })
     .update({ entry: JSON.stringify(entry), checks: JSON.stringify(checks), checks_ok: checks.ok, version: expectedVersion + 1, updated_at: now })
     .returning<{ version: number }[]>("version");
+  if (row) await insertVersion(trx, { submissionId: id, version: row.version, entry, savedBy, at: now });
   return row?.version;
+}
+
+/** The entry as it stood at `version`, or undefined for versions saved before versions were kept. */
+export async function findVersionEntry(db: Knex | Knex.Transaction, submissionId: number, version: number): Promise<TheoryEntry | undefined> {
+  const row = await db("submission_versions").where({ submission_id: submissionId, version }).first<{ entry: TheoryEntry } | undefined>("entry");
+  return row?.entry;
+}
+
+/** The latest time an editor returned the submission: the version they returned, who, and when. */
+export async function lastReturn(
+  db: Knex | Knex.Transaction,
+  submissionId: number,
+): Promise<{ version: number; at: Date; by: { id: number; login: string; name: string } | null } | undefined> {
+  const row = await db("submission_events as e")
+    .leftJoin("users as u", "u.id", "e.actor_id")
+    .where({ "e.submission_id": submissionId, "e.action": "return" })
+    .orderBy("e.at", "desc")
+    .orderBy("e.id", "desc")
+    .first<{ version: number; at: Date; id: number | null; login: string | null; name: string | null } | undefined>("e.version", "e.at", "u.id", "u.login", "u.name");
+  if (!row) return undefined;
+  return { version: row.version, at: row.at, by: row.id === null || row.login === null || row.name === null ? null : { id: row.id, login: row.login, name: row.name } };
 }
 
 export async function setStatus(

@@ -113,7 +113,8 @@ export function submissionsService(deps: SubmissionsDeps) {
       let mailed = false;
       if (action === "submit") {
         const editors = await repo.listEditors(trx);
-        const messages = submittedMessages(siteUrl, mailSubject(s), s.author, editors, status === "resubmitted");
+        const returned = status === "resubmitted" ? await repo.lastReturn(trx, id) : undefined;
+        const messages = submittedMessages(siteUrl, mailSubject(s), s.author, editors, status === "resubmitted" ? (returned?.version ?? s.version) : null);
         await enqueueMail(trx, messages);
         mailed = messages.length > 0;
       }
@@ -160,6 +161,8 @@ export function submissionsService(deps: SubmissionsDeps) {
       const s = await load(id, who);
       const current = s.target_theory_id === null ? undefined : await latestRevisionEntryOf(db, s.target_theory_id);
       const authors = await repo.listVersionAuthors(db, id, s.version);
+      const returned = await repo.lastReturn(db, id);
+      const returnedEntry = returned ? await repo.findVersionEntry(db, id, returned.version) : undefined;
       return {
         ...summary(s),
         theory: s.entry,
@@ -167,6 +170,14 @@ export function submissionsService(deps: SubmissionsDeps) {
         target_revision: current?.number ?? null,
         diff: current ? diffEntries(current.entry, s.entry) : null,
         authors: authors.map(({ id: personId, login, name }) => ({ id: personId, login, name })),
+        since_returned: returned
+          ? {
+              version: returned.version,
+              returned_at: returned.at.toISOString(),
+              returned_by: returned.by,
+              diff: returnedEntry ? diffEntries(returnedEntry, s.entry) : null,
+            }
+          : null,
       };
     },
 
@@ -189,7 +200,7 @@ export function submissionsService(deps: SubmissionsDeps) {
             { current_version: s.version, your_version: body.version },
           );
         }
-        const version = await repo.saveVersion(trx, id, body.version, body.theory, checks, now);
+        const version = await repo.saveVersion(trx, id, body.version, body.theory, checks, now, who.id);
         if (version === undefined) throw new ConflictError(`Submission #${id} changed while saving; reload and try again.`, { your_version: body.version });
         await repo.recordEvent(trx, { submissionId: id, actorId: who.id, action: "save", from: s.status, to: s.status, version, at: now });
         return { id, status: s.status, version, checks };

@@ -22,7 +22,7 @@ import {
 } from "./amplitude.ts";
 import { builtInCurve, tabulatedPsd, type CurveConvention, type NoiseCurve } from "./curves.ts";
 import { invertFisher, type InversionStatus } from "./linalg.ts";
-import { BETA_INDEX, N_PARAMS, PARAMETER_NAMES, phaseDerivatives, phaseModel, type PhaseModel } from "./phase.ts";
+import { BETA_INDEX, N_PARAMS, PARAMETER_NAMES, PHI_C_INDEX, T_C_INDEX, phaseDerivatives, phaseModel, type PhaseModel } from "./phase.ts";
 import { boundMultiplier } from "./stats.ts";
 
 export interface ForecastSourceInput {
@@ -55,6 +55,15 @@ export const DEFAULT_PRIORS: PriorWidths = Object.freeze({ phi_c: Math.PI, chi_s
 
 export type UpperCut = "isco" | "merger_extrapolated";
 
+/**
+ * How the coalescence phase and time are shared in a network. "shared": one phi_c and t_c for every
+ * detector (phase-coherent detectors). "phi_c_per_detector" and "phi_c_t_c_per_detector": each detector
+ * of a network gets its own phi_c (and t_c), as is common practice when the detectors are not
+ * phase-coherent (a space and a ground detector years apart); this can only loosen a bound.
+ */
+export const COALESCENCE_OPTIONS = ["shared", "phi_c_per_detector", "phi_c_t_c_per_detector"] as const;
+export type Coalescence = (typeof COALESCENCE_OPTIONS)[number];
+
 export interface ForecastInput {
   source: ForecastSourceInput;
   cosmology?: Cosmology;
@@ -65,6 +74,7 @@ export interface ForecastInput {
   credibility?: number;
   sides?: "one" | "two";
   upper_cut?: UpperCut;
+  coalescence?: Coalescence;
   include_matrices?: boolean;
   grid_points?: number;
 }
@@ -90,6 +100,7 @@ export interface DetectorBand {
   low_cut: string;
   high_cut: string;
   extrapolated: boolean;
+  to_confirm: string | null;
   years_observed: number | null;
   years_before_merger: number | null;
   snr: number;
@@ -133,6 +144,7 @@ export interface ForecastResult {
   sides: "one" | "two";
   multiplier: number;
   upper_cut: UpperCut;
+  coalescence: Coalescence;
   detectors: DetectorBand[];
   networks: NetworkResult[];
   cautions: string[];
@@ -334,6 +346,9 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
   if (!(credibility > 0 && credibility < 1)) throw new PhysicsInputError("credibility", "credibility must lie strictly between 0 and 1");
   const sides = input.sides ?? "two";
   const multiplier = boundMultiplier(credibility, sides);
+  const coalescence: Coalescence = input.coalescence ?? "shared";
+  if (!COALESCENCE_OPTIONS.includes(coalescence)) throw new PhysicsInputError("coalescence", `coalescence must be one of ${COALESCENCE_OPTIONS.join(", ")}`);
+  const separate: number[] = coalescence === "shared" ? [] : coalescence === "phi_c_per_detector" ? [PHI_C_INDEX] : [PHI_C_INDEX, T_C_INDEX];
   const points = input.grid_points ?? DEFAULT_GRID_POINTS;
   if (!Number.isInteger(points) || points < 100 || points > 200_000) {
     throw new PhysicsInputError("grid_points", "grid_points must be an integer between 100 and 200000");
@@ -366,21 +381,40 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
     if (new Set(net).size !== net.length) throw new PhysicsInputError(`networks.${ni}`, `networks.${ni} lists a detector twice`);
     const perDetector = net.map((d) => bands[d]!.snr);
     const total = Math.sqrt(perDetector.reduce((s, x) => s + x * x, 0));
+    // With separate coalescence parameters, detector j > 0 of the network gets its own copies of
+    // phi_c (and t_c), appended after the eight shared parameters.
+    const split = net.length > 1 ? separate : [];
     const cautions: string[] = [];
     if (total < LOW_SNR) {
       cautions.push(
         `network SNR ${total.toFixed(1)} is below ${LOW_SNR}: a Fisher estimate is not trustworthy there (common practice; Vallisneri 2008, Phys. Rev. D 77, 042001)`,
       );
     }
+    if (split.length > 0) {
+      cautions.push(`each detector has its own ${split.length === 1 ? "coalescence phase" : "coalescence phase and time"} (not phase-coherent): ${net.length - 1} × ${split.length} more parameter(s) marginalised`);
+    }
     if (net.some((d) => bands[d]!.extrapolated)) cautions.push("TaylorF2 is extrapolated past the ISCO in this network: the numbers lean on an inspiral model beyond its range");
+    const size = N_PARAMS + split.length * (net.length - 1);
+    const slot = (j: number, p: number) => {
+      const k = split.indexOf(p);
+      return j === 0 || k < 0 ? p : N_PARAMS + (j - 1) * split.length + k;
+    };
+    const netNames: string[] = [...names];
+    for (let j = 1; j < net.length; j++) for (const p of split) netNames.push(`${names[p]!}[${bands[net[j]!]!.label}]`);
     const rows = input.b.map((b, bi): ForecastRow => {
-      const gamma = Array.from({ length: N_PARAMS }, () => new Array<number>(N_PARAMS).fill(0));
-      for (const d of net) {
+      const gamma = Array.from({ length: size }, () => new Array<number>(size).fill(0));
+      net.forEach((d, j) => {
         const g = perB[bi]![d]!;
-        for (let r = 0; r < N_PARAMS; r++) for (let c = 0; c < N_PARAMS; c++) gamma[r]![c]! += g[r]![c]!;
-      }
+        for (let r = 0; r < N_PARAMS; r++) {
+          const sr = slot(j, r);
+          for (let c = 0; c < N_PARAMS; c++) gamma[sr]![slot(j, c)]! += g[r]![c]!;
+        }
+      });
+      // The phi_c prior stays on the first detector's phase; the other detectors' phases are left free.
+      // A Gaussian prior on every copy would add information a periodic phase does not carry, and
+      // could then tighten the bound (docs/forecasts.md).
       addPriors(gamma, priors);
-      const inv = invertFisher(gamma, names);
+      const inv = invertFisher(gamma, netNames);
       const condition = Number.isFinite(inv.condition) ? inv.condition : null;
       const degenerate = degeneracyOfB(b);
       if (degenerate) return { b, sigma_beta: null, bound: null, condition_number: condition, status: "no_constraint", note: degenerate };
@@ -402,6 +436,10 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
     `restricted TaylorF2 inspiral (3.5PN, aligned spins), sky-averaged unless stated; upper cut ${upperCut === "isco" ? `at the ISCO of the detector-frame total mass (${formatHz(fIsco)})` : `extrapolated to the PhenomA merger frequency (${formatHz(fTop)}), past the ISCO (${formatHz(fIsco)})`}`,
     `Gaussian priors: ${(["phi_c", "chi_s", "chi_a"] as const).map((k) => `${k} ${priors[k] === null ? "none" : `sigma = ${Number(priors[k]!.toPrecision(4))}`}`).join(", ")}`,
   ];
+  for (const band of bands) if (band.to_confirm) cautions.push(`${band.label}: ${band.to_confirm}`);
+  if (coalescence !== "shared") {
+    cautions.push(`networks of several detectors give each detector its own ${coalescence === "phi_c_per_detector" ? "coalescence phase phi_c" : "coalescence phase phi_c and time t_c"} (the prior on phi_c applies to the first detector's phase only; the others are free)`);
+  }
   if (model.massParameter === "delta") cautions.push("near-equal masses: the mass ratio enters the Fisher matrix as delta = (m1 - m2)/M instead of ln eta");
   if (givenD !== undefined && givenZ !== undefined) cautions.push("distance and redshift were both given: they are used as given, not related through the cosmology");
 
@@ -426,6 +464,7 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
     sides,
     multiplier,
     upper_cut: upperCut,
+    coalescence,
     detectors: bands,
     networks,
     cautions,
@@ -510,6 +549,7 @@ function planDetector(det: ForecastDetectorInput, i: number, custom: CustomCurve
       low_cut: lowCut,
       high_cut: top.why,
       extrapolated,
+      to_confirm: curve.toConfirm ?? null,
       years_observed: yearsObserved,
       years_before_merger: yearsBefore,
     },

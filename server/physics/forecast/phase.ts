@@ -16,6 +16,8 @@ export const PARAMETER_NAMES = ["ln_A", "phi_c", "t_c", "ln_Mc", "ln_eta", "chi_
 export type ParameterName = (typeof PARAMETER_NAMES)[number] | "delta";
 export const N_PARAMS = 8;
 export const BETA_INDEX = 7;
+export const PHI_C_INDEX = 1;
+export const T_C_INDEX = 2;
 
 export interface PhaseModel {
   readonly massParameter: MassRatioParameter;

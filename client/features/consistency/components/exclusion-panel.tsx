@@ -38,12 +38,12 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
             <td>{s.linear_breaks_at === null ? "not reached" : sig(s.linear_breaks_at)}</td>
             <td>
               <Badge tone={VERDICT_TONE[s.verdict]}>{VERDICT_LABEL[s.verdict]}</Badge>
-              {s.conditions
-                .filter((c) => c.ok === false)
+              {s.validity
+                .filter((c) => c.status !== "ok")
                 .map((c) => (
-                  <p key={c.label} className="text-xs text-brick">
+                  <p key={c.label} className={`text-xs ${c.status === "fails" ? "text-brick" : "text-amber"}`}>
                     {c.label}: {sig(c.value ?? 0)} vs {c.max}
-                    {c.factor === null ? "" : ` (× ${sig(c.factor)})`}
+                    {c.factor === null ? "" : ` (× ${sig(c.factor)}${c.status === "stretched" ? ", stretched: kept as valid" : ""})`}
                   </p>
                 ))}
             </td>
