@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
-import { curveInfoSchema, curveListSchema, forecastResponseSchema, type CurveUploadInput, type ForecastRequestInput } from "../../../../common/forecasts.ts";
+import { curveInfoSchema, curveListSchema, forecastResponseSchema, type CurveConventionDto, type ForecastRequestInput } from "../../../../common/forecasts.ts";
 import { apiRequest } from "../../../lib/api-client.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 
@@ -28,10 +28,29 @@ export function useRunForecast() {
   });
 }
 
+export interface CurveFileUpload {
+  file: File;
+  name: string;
+  kind: "asd" | "psd";
+  convention: CurveConventionDto;
+  space: boolean;
+}
+
+/** The table goes up as the file itself (multipart); the server parses it and names a bad line and column. */
+export function uploadCurveFile(upload: CurveFileUpload) {
+  const form = new FormData();
+  form.append("name", upload.name);
+  form.append("kind", upload.kind);
+  form.append("convention", upload.convention);
+  form.append("space", String(upload.space));
+  form.append("file", upload.file);
+  return apiRequest(apiPaths.forecastCurves(), curveInfoSchema, { method: "POST", form });
+}
+
 export function useUploadCurve() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (upload: CurveUploadInput) => apiRequest(apiPaths.forecastCurves(), curveInfoSchema, { method: "POST", body: upload }),
+    mutationFn: uploadCurveFile,
     onSuccess: async () => {
       await qc.invalidateQueries({ queryKey: [...forecastKeys.all, "curves"] });
     },
