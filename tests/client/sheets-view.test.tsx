@@ -1,7 +1,7 @@
 // @vitest-environment jsdom
 import { cleanup, fireEvent, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { convertRequestSchema } from "../../common/convert.ts";
+import { boundSchema, convertRequestSchema } from "../../common/convert.ts";
 import { sheetRecordInputSchema, type Sheet } from "../../common/sheets.ts";
 import { ExportLinks } from "../../client/features/sheets/components/export-links.tsx";
 import { SheetRecords } from "../../client/features/sheets/components/sheet-records.tsx";
@@ -32,7 +32,7 @@ function sheetWithOneRecord(): Sheet {
         analysis_method: "ppE",
         data_link: "https://data.osprey-teal.example/OT-1",
         notes: "",
-        bound: req.bound,
+        bound: boundSchema.parse(req.bound),
         binary: req.binary,
         cosmology: { H0: 67.66, Omega_m: 0.3111 },
         conventions: {},

@@ -1,5 +1,5 @@
 import { Link } from "react-router-dom";
-import type { ConvertRequest } from "../../../common/convert.ts";
+import { isPhaseBound, type ConvertRequest } from "../../../common/convert.ts";
 import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel.tsx";
@@ -11,7 +11,11 @@ import { paths } from "../../lib/paths.ts";
 
 function SaveSlot({ request }: { request: ConvertRequest }) {
   const { user, hasRole } = useAuth();
-  if (hasRole("analyst")) return <SaveToSheet request={request} />;
+  const bound = request.bound;
+  if (!isPhaseBound(bound)) {
+    return <p className="text-sm text-ink-faint">Sheets hold phase bounds (β at b, δφ_k) for now: amplitude and distance-ratio translations cannot be saved to a sheet yet.</p>;
+  }
+  if (hasRole("analyst")) return <SaveToSheet request={{ ...request, bound }} />;
   return (
     <p className="text-sm text-ink-faint">
       {user ? "Saving translations to sheets needs the analyst role." : <>Sign in with the analyst role to save translations to a sheet (<Link to={paths.signIn({ returnTo: paths.translate() })}>sign in</Link>).</>}

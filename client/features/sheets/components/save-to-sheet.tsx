@@ -3,7 +3,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { Link } from "react-router-dom";
 import { z } from "zod";
-import type { ConvertRequest } from "../../../../common/convert.ts";
+import type { PhaseConvertRequest } from "../../../../common/convert.ts";
 import { sheetRecordInputSchema, type Sheet } from "../../../../common/sheets.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
@@ -24,7 +24,7 @@ type ProvenanceInput = z.input<typeof provenanceSchema>;
 type Provenance = z.output<typeof provenanceSchema>;
 
 /** Saves the translated bound, with where it came from, into one of your sheets (or a new one). */
-export function SaveToSheet({ request }: { request: ConvertRequest }) {
+export function SaveToSheet({ request }: { request: PhaseConvertRequest }) {
   const sheets = useSheets();
   const append = useAppendRecord();
   const create = useCreateSheet();
