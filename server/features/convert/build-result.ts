@@ -1,7 +1,7 @@
-import type { BoundRequest, Caution, ConvertResult, QuotedValueDto } from "../../../common/convert.ts";
+import type { Caution, Channel, ConvertBoundRequest, ConvertResult, QuotedValueDto } from "../../../common/convert.ts";
 import type { BoundedResult, ValidityResult } from "../../physics/convert.ts";
 import { formatLatexNumber, unitLatex } from "../../physics/latex-format.ts";
-import { engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, signedIntervalCaution, validityCautions } from "./cautions.ts";
+import { amplitudeMappingCaution, engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, signedIntervalCaution, validityCautions } from "./cautions.ts";
 import type { AcceptedTheory } from "./catalogue-snapshot.ts";
 import type { ReadyMapping } from "./compiled-catalogue.ts";
 import { compareWithBound, shortCitation } from "./reference-compare.ts";
@@ -15,9 +15,11 @@ export interface ResultInput {
   theory: AcceptedTheory;
   ready: ReadyMapping;
   result: BoundedResult;
-  bound: BoundRequest;
+  bound: ConvertBoundRequest;
   requestedConvention: string | undefined;
   propagation?: { z: number; alphaMd: number; mpc: number };
+  /** Default "phase". */
+  channel?: Channel;
 }
 
 const plain = (q: { symbol: string; latex: string; value: number; unit: string; side: "upper" | "lower" }): QuotedValueDto => ({
@@ -54,7 +56,7 @@ export function failingDto(v: ValidityResult): NonNullable<ConvertResult["failin
   };
 }
 
-export function buildResult({ theory, ready, result, bound, requestedConvention, propagation }: ResultInput): ConvertResult {
+export function buildResult({ theory, ready, result, bound, requestedConvention, propagation, channel = "phase" }: ResultInput): ConvertResult {
   const spec = ready.compiled.coupling;
   const conventionList = result.conventions;
   const defaultName = spec.convention ?? conventionList.find((c) => c.factor === 1)?.name ?? "canonical";
@@ -90,7 +92,7 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
   }
 
   const cautions: Caution[] = [...validityCautions(result)];
-  cautions.push(leadingPnCaution(ready.notes.pnOrder));
+  cautions.push(channel === "phase" ? leadingPnCaution(ready.notes.pnOrder) : amplitudeMappingCaution(channel, ready.notes.pnOrder));
   cautions.push(priorCaution(coupling.symbol));
   const oneSigned = oneSignedCaution(result, bound);
   if (oneSigned) {
@@ -123,6 +125,7 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
     also,
     canonical: { symbol: result.coupling.symbol, latex: result.coupling.latex, value: result.coupling.value, unit: result.coupling.unit },
     coupling_symbol: result.coupling.symbol,
+    channel,
     b: result.b,
     beta_max: result.beta_max,
     beta_interval: [...result.beta_interval],

@@ -72,7 +72,7 @@ export const deriveResponse = z.object({
   terms: z.array(
     z.object({ b: z.number(), pn_order: z.number(), beta: z.string(), beta_latex: z.string(), value: z.number().optional(), source: z.enum(["energy_flux", "frequency_drift", "propagation"]) }),
   ),
-  amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string(), value: z.number().optional() })).optional(),
+  amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string(), value: z.number().optional(), note: z.string().optional() })).optional(),
   steps: z.array(z.string()),
   notes: z.array(z.string()),
 });

@@ -5,6 +5,7 @@ import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { thresholdText } from "../../../components/ui/text-format.ts";
 import { RetiredBadge, RetiredNote } from "./retirement.tsx";
 import { authorList, equationTex, pnLabel, signed } from "./format.ts";
+import { SourceStatusBadge } from "./source-status.tsx";
 
 type StoredMapping = TheoryDetail["mappings"][number];
 
@@ -30,17 +31,6 @@ function exponentTex(m: StoredMapping): string | undefined {
   return undefined;
 }
 
-function SourceBadge({ status }: { status: StoredMapping["source_status"] }) {
-  if (status === "memory")
-    return (
-      <Badge tone="caution" title="The formula was recalled, not read in its paper; an editor must confirm it before relying on it.">
-        source to be confirmed
-      </Badge>
-    );
-  if (status === "derived") return <Badge tone="info" title="Re-derived from the stated assumptions.">derived</Badge>;
-  return <Badge tone="ok" title="Seen in the cited source.">source confirmed</Badge>;
-}
-
 function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
   const all = [...m.checks, ...m.validity.flatMap((v) => v.checks)];
   const outcome = worstOutcome(all);
@@ -53,7 +43,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
         {m.pn_order !== null && <span className="text-sm text-ink-soft tabular-nums">{pnLabel(m.pn_order)}</span>}
         <span className="ml-auto flex gap-2">
           {m.retired && <RetiredBadge retired={m.retired} />}
-          <SourceBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
+          <SourceStatusBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
           <CheckBadge outcome={outcome} title={`${all.length} engine checks`} />
         </span>
       </header>

@@ -14,6 +14,7 @@ const codeLabel: Record<CautionCode, string> = {
   couplings: "couplings",
   orders: "orders",
   signed_interval: "signed interval",
+  amplitude: "amplitude",
   remnant: "remnant",
 };
 
