@@ -243,6 +243,22 @@ describe("the second batch of catalogue entries (seed step catalogue-wave2)", ()
     }
   });
 
+  it("when a published bound is shown, then it carries its credibility, or a note saying why it has none", () => {
+    let without = 0;
+    for (const [slug, t] of details) {
+      for (const b of t.reference_bounds) {
+        if (b.credibility !== null) {
+          expect(b.credibility, `${slug} ${b.coupling}`).toBeGreaterThan(0);
+          continue;
+        }
+        without++;
+        expect(b.note ?? "", `${slug} ${b.coupling} ${b.value}: a bound without a credibility says why`).toMatch(/no credib/i);
+      }
+    }
+    // The GW170817 speed interval (gw-speed, and c13 of einstein-aether), EdGB's X-ray-binary and GWTC stacking bounds, noncommutative: on purpose.
+    expect(without).toBeGreaterThan(0);
+  });
+
   it("when sensitivities vanish, then the varying-G entry reduces to -(275/851968) (Gdot/G) Mc (the varying-g entry)", () => {
     const t = details.get("varying-g-sensitivities") as TheoryDetail;
     const saved = { ...POINT };

@@ -7,6 +7,7 @@ import { ConsistencyResultView } from "../../features/consistency/components/con
 import { ExclusionPanel } from "../../features/consistency/components/exclusion-panel.tsx";
 import { SamplesForm } from "../../features/consistency/components/samples-form.tsx";
 import { SummariesForm } from "../../features/consistency/components/summaries-form.tsx";
+import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 
 /** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
 export function Component() {
@@ -49,9 +50,17 @@ export function Component() {
             </p>
           )}
           {result.data && <ConsistencyResultView result={result.data} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}
+          {result.data && request && <SaveToSheet what="this consistency result" payload={{ kind: "consistency", summaries: request }} defaults={{ analysis_method: "IMR consistency, Gaussian remnant estimates" }} />}
         </>
       ) : (
-        <SamplesForm>{(r) => <ConsistencyResultView result={r} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}</SamplesForm>
+        <SamplesForm>
+          {(r, jobId) => (
+            <>
+              <ConsistencyResultView result={r} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />
+              <SaveToSheet what="this consistency result" payload={{ kind: "consistency", job: jobId }} defaults={{ analysis_method: "IMR consistency, posterior samples" }} />
+            </>
+          )}
+        </SamplesForm>
       )}
       <ExclusionPanel test={request} onTrack={setExclusion} />
     </article>

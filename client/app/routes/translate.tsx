@@ -1,25 +1,27 @@
-import { Link } from "react-router-dom";
 import { isPhaseBound, type ConvertRequest } from "../../../common/convert.ts";
-import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel.tsx";
 import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
 import { SamplesPanel } from "../../features/translate/components/samples-panel.tsx";
 import { SamplesJobPanel } from "../../features/jobs/components/samples-job-panel.tsx";
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
-import { paths } from "../../lib/paths.ts";
 
 function SaveSlot({ request }: { request: ConvertRequest }) {
-  const { user, hasRole } = useAuth();
   const bound = request.bound;
   if (!isPhaseBound(bound)) {
     return <p className="text-sm text-ink-faint">Sheets hold phase bounds (β at b, δφ_k) for now: amplitude and distance-ratio translations cannot be saved to a sheet yet.</p>;
   }
-  if (hasRole("analyst")) return <SaveToSheet request={{ ...request, bound }} />;
   return (
-    <p className="text-sm text-ink-faint">
-      {user ? "Saving translations to sheets needs the analyst role." : <>Sign in with the analyst role to save translations to a sheet (<Link to={paths.signIn({ returnTo: paths.translate() })}>sign in</Link>).</>}
-    </p>
+    <SaveToSheet
+      what="this translation"
+      payload={{
+        kind: "translation",
+        bound,
+        binary: request.binary,
+        ...(request.cosmology ? { cosmology: request.cosmology } : {}),
+        ...(request.conventions ? { conventions: request.conventions } : {}),
+      }}
+    />
   );
 }
 
