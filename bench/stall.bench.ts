@@ -6,7 +6,7 @@
 import { execFileSync, fork, type ChildProcess } from "node:child_process";
 import { createDb, migrateLatest } from "../server/db/knex.ts";
 import { catalogueSeed } from "../seeds/catalogue.ts";
-import { craftedDefinitionChecks, hostileCorpus } from "../tests/helpers/hostile-corpus.ts";
+import { ACCEPTED_SAMPLES, post, SAMPLES } from "./stall-common.ts";
 
 // The benchmarks' throw-away cluster (as bench/http-load.bench.ts): BENCH_PGPORT, .data/pg-bench.
 const PGPORT = process.env.BENCH_PGPORT ?? "54359";
@@ -20,9 +20,6 @@ const wasRunning = (() => {
   }
 })();
 const DB = "dragoman_bench_stall";
-/** The audit's body size (refused with 413 before it is read) and the largest the in-request route accepts. */
-const SAMPLES = 200_000;
-const ACCEPTED_SAMPLES = 20_000;
 
 type Report = { max: number; p99: number; mean: number };
 
@@ -64,6 +61,17 @@ function startServer(databaseUrl: string, env: Record<string, string>): Promise<
   });
 }
 
+/** The attacking client, in its own process, once it has prepared every request. */
+function startAttacker(url: string): Promise<ChildProcess> {
+  const child = fork("bench/stall-attacker.ts", [], { execArgv: ["--import", "tsx"], env: { ...process.env, STALL_URL: url }, stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  return new Promise((resolve, reject) => {
+    child.once("error", reject);
+    child.on("message", (m: { type: string }) => {
+      if (m.type === "ready") resolve(child);
+    });
+  });
+}
+
 function ask<T>(child: ChildProcess, type: string): Promise<T> {
   return new Promise((resolve) => {
     const on = (m: { type: string }) => {
@@ -93,51 +101,6 @@ async function pollHealth(url: string, until: Promise<unknown>): Promise<{ laten
   return { latencies, statuses };
 }
 
-function samplesBody(n: number, spoil: boolean): string {
-  let seed = 12345;
-  const rnd = () => {
-    seed = (seed * 48271) % 2147483647;
-    return seed / 2147483647;
-  };
-  const col = (lo: number, hi: number) => Array.from({ length: n }, () => lo + (hi - lo) * rnd());
-  const m1 = col(10, 40);
-  const columns: Record<string, unknown[]> = { beta: col(-1e-3, 1e-3), m1, m2: m1.map((m) => m * (0.3 + 0.6 * rnd())), chi1: col(-0.5, 0.5), chi2: col(-0.5, 0.5), z: col(0.05, 0.3) };
-  // The audit's case: a body that is read and walked in full, then refused for its last value.
-  if (spoil) (columns.m1 as unknown[])[n - 1] = "x";
-  return JSON.stringify({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", columns });
-}
-
-async function post(url: string, path: string, body: string, counts: Map<string, number>): Promise<void> {
-  try {
-    const res = await fetch(`${url}${path}`, { method: "POST", headers: { "content-type": "application/json" }, body });
-    await res.arrayBuffer();
-    const key = `${path} ${res.status}`;
-    counts.set(key, (counts.get(key) ?? 0) + 1);
-  } catch (err) {
-    const key = `${path} error ${err instanceof Error ? err.message : String(err)}`;
-    counts.set(key, (counts.get(key) ?? 0) + 1);
-  }
-}
-
-async function attack(url: string, counts: Map<string, number>): Promise<void> {
-  const corpus = hostileCorpus(300);
-  const crafted = craftedDefinitionChecks();
-  const base = { target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 2 }], definitions: [{ symbol: "zeta", expression: "16*pi*alpha^2/M^4" }] };
-  const bigBodies = [samplesBody(SAMPLES, false), samplesBody(SAMPLES, true), samplesBody(ACCEPTED_SAMPLES, false), samplesBody(ACCEPTED_SAMPLES, true)];
-  const lane = async (items: Array<[string, string]>) => {
-    for (const [path, body] of items) await post(url, path, body, counts);
-  };
-  const hostile: Array<[string, string]> = corpus.map((e) => ["/api/v1/expressions/check", JSON.stringify({ ...base, expression: e })]);
-  const craftedItems: Array<[string, string]> = Array.from({ length: 60 }, (_, k) => ["/api/v1/expressions/check", JSON.stringify(crafted[k % crafted.length]?.body)]);
-  const samples: Array<[string, string]> = Array.from({ length: 8 }, (_, k) => ["/api/v1/convert/samples", bigBodies[k % 4] as string]);
-  const split = <T,>(xs: T[], n: number): T[][] => Array.from({ length: n }, (_, i) => xs.filter((_, k) => k % n === i));
-  // STALL_PARTS=expressions or samples sends only that part (to see which one stalls).
-  const parts = process.env.STALL_PARTS ?? "all";
-  const expressions = parts === "samples" ? [] : [...split(hostile, 3), ...split(craftedItems, 2)];
-  const bodies = parts === "expressions" ? [] : split(samples, 2);
-  await Promise.all([...expressions, ...bodies].map(lane));
-}
-
 function line(label: string, health: number[], loop: Report): string {
   const f = (x: number) => x.toFixed(1).padStart(7);
   return `${label.padEnd(26)} health n=${String(health.length).padStart(4)}  p50 ${f(quantile(health, 0.5))} ms  p99 ${f(quantile(health, 0.99))} ms  max ${f(Math.max(...health))} ms | event-loop delay max ${f(loop.max)} ms  p99 ${f(loop.p99)} ms`;
@@ -155,11 +118,17 @@ async function round(label: string, databaseUrl: string, env: Record<string, str
     const quiet = await pollHealth(url, new Promise((r) => setTimeout(r, 3000)));
     const quietLoop = await ask<Report>(child, "report");
 
+    const attacker = await startAttacker(url);
     await ask(child, "reset");
-    const counts = new Map<string, number>();
     const t0 = performance.now();
-    const attackDone = attack(url, counts);
+    const attackDone = new Promise<Map<string, number>>((resolve) => {
+      attacker.on("message", (m: { type: string; counts?: Array<[string, number]> }) => {
+        if (m.type === "done") resolve(new Map(m.counts));
+      });
+    });
+    attacker.send({ type: "go" });
     const loud = await pollHealth(url, attackDone);
+    const counts = await attackDone;
     const seconds = (performance.now() - t0) / 1000;
     const loudLoop = await ask<Report>(child, "report");
 

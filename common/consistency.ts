@@ -99,6 +99,8 @@ export const couplingExclusionResponseSchema = z.object({
   coupling: z.object({ symbol: z.string(), latex: z.string(), unit: z.string() }),
   remnant: z.object({ M_f: z.number(), chi_f: z.number(), frame: massFrameSchema, chi_f_alternative: z.number() }),
   credibility: z.number(),
+  /** Which of the theory's effects entered: QNM shifts of the mode, shifts of the true remnant, the inspiral's bias. */
+  model: z.object({ qnm_frequency: z.boolean(), qnm_damping: z.boolean(), remnant_mass: z.boolean(), remnant_spin: z.boolean(), inspiral_bias: z.boolean() }),
   /** Covariance of (dM_f/M_f, dchi_f/chi_f) of the test at the GR point. */
   covariance: z.tuple([point, point]),
   sides: z.array(

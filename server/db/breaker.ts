@@ -4,9 +4,9 @@ import { isDatabaseUnavailable } from "../http/db-unavailable.ts";
 
 /**
  * A circuit breaker in front of the database: once a connection to PostgreSQL fails as "cannot be
- * reached" (refused, reset, connection time-out, shutting down; server/http/db-unavailable.ts), every
- * later query fails at once with DatabaseUnavailableError, so each request answers 503 with
- * Retry-After at once instead of waiting for its own connection time-out. Meanwhile one probe at a
+ * reached" (refused, reset, connection time-out, shutting down; server/http/db-unavailable.ts; a full
+ * pool does not count), every later query fails at once with DatabaseUnavailableError, so each
+ * request answers 503 with Retry-After at once instead of waiting for its own connection time-out. Meanwhile one probe at a
  * time (`select 1`, the only query let through) runs every `probeIntervalMs`; the first answer closes
  * the breaker. A probe that gets an answer other than "cannot be reached" (a refused login, say) closes
  * it too: the database is there, and requests should see the real error.
@@ -77,6 +77,9 @@ export class DbBreaker {
   observe(err: unknown): void {
     if (this.stopped || this.openSince !== undefined || probing.getStore() === true) return;
     if (err instanceof DatabaseUnavailableError || !isDatabaseUnavailable(err)) return;
+    // A full pool (knex's acquisition time-out) is load, not an outage: that request gets its 503, the
+    // others keep their turn. (An unreachable server fails the connection itself, within its 3 s.)
+    if ((err as { name?: string }).name === "KnexTimeoutError") return;
     this.openSince = Date.now();
     this.reason = err instanceof Error ? err.message.slice(0, 200) : String(err);
     this.trips += 1;

@@ -252,4 +252,26 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
     expect(badRho.status).toBe(400);
     expect(Object.keys(badRho.body.error.fields)).toContain("test.inspiral.rho");
   });
+  it("POST /api/v1/consistency/coupling: when a theory shifts only the remnant, then the excluded shift follows from the deviation variables alone", async () => {
+    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 } };
+    const res = await request(app).post("/api/v1/consistency/coupling").send({ theory: "remnant-deviation", binary: { m1: 39, m2: 32, frame: "detector", z: 0.09 }, test, credibility: 0.9 });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const body = res.body;
+    expect(body.coupling.symbol).toBe("dMf_rem");
+    expect(body.model).toEqual({ qnm_frequency: false, qnm_damping: false, remnant_mass: true, remnant_spin: false, inspiral_bias: false });
+    // With unshifted modes the ringdown reads the shifted remnant exactly: M_R = M (1 + x), chi_R = chi, and the
+    // deviation is dM = 2 (M - M_R)/(M + M_R) = -2x/(2 + x), dchi = 0 (Ghosh et al. 2016 variables; derived).
+    // With mu = (dM, 0): d^2 = dM^2 (Sigma^-1)_MM = dM^2 Sigma_chichi / det Sigma, and Q_GR = 1 - exp(-d^2/2) = 0.9
+    // gives |dM| = sqrt(-2 ln 0.1 det Sigma / Sigma_chichi).
+    const cov = body.covariance;
+    const det = cov[0][0] * cov[1][1] - cov[0][1] ** 2;
+    const edge = Math.sqrt((-2 * Math.log(0.1) * det) / cov[1][1]);
+    const up = body.sides.find((s: { side: string }) => s.side === "positive");
+    const down = body.sides.find((s: { side: string }) => s.side === "negative");
+    // -2x/(2 + x) = -edge  =>  x = 2 edge/(2 - edge); and 2x/(2 + x) = edge for x < 0  =>  x = -2 edge/(2 + edge).
+    expect(up.x).toBeCloseTo((2 * edge) / (2 - edge), 5);
+    expect(down.x).toBeCloseTo((-2 * edge) / (2 + edge), 5);
+    expect(up.validity[0].label).toMatch(/remnant mass/);
+    expect(body.cautions.join(" ")).toMatch(/no remnant-spin mapping/);
+  });
 });

@@ -27,7 +27,7 @@ export const checkRequest = z.strictObject({
   // The length cap lives in the expression guard, so its message names the position; this cap only
   // keeps absurd bodies out of the parser.
   expression: z.string().max(200_000),
-  target: z.enum(["ppe_phase", "ppe_amplitude", "ringdown_frequency", "ringdown_damping", "validity"]),
+  target: z.enum(["ppe_phase", "ppe_amplitude", "ringdown_frequency", "ringdown_damping", "remnant_mass", "remnant_spin", "validity"]),
   b: z.number().finite().optional(),
   a: z.number().finite().optional(),
   pn_order: z.number().finite().optional(),

@@ -14,6 +14,8 @@ const kindLabel: Record<StoredMapping["kind"], string> = {
   inspiral_amplitude: "Inspiral amplitude (ppE α)",
   ringdown_frequency: "Ringdown frequency shift",
   ringdown_damping: "Ringdown damping-time shift",
+  remnant_mass: "Remnant mass shift",
+  remnant_spin: "Remnant spin shift",
 };
 
 /** The deviation parameter each kind of mapping gives, for expressions stored without their left-hand side. */
@@ -22,6 +24,8 @@ const lhsTex: Record<StoredMapping["kind"], string> = {
   inspiral_amplitude: "\\alpha_{\\rm ppE}",
   ringdown_frequency: "\\delta\\omega/\\omega",
   ringdown_damping: "\\delta\\tau/\\tau",
+  remnant_mass: "\\delta M_f/M_f",
+  remnant_spin: "\\delta\\chi_f/\\chi_f",
 };
 
 function exponentTex(m: StoredMapping): string | undefined {

@@ -63,7 +63,7 @@ interface Props {
 /** "What coupling would this test exclude": a theory's ringdown shifts against the test's widths. */
 export function ExclusionPanel({ test, onTrack }: Props) {
   const theories = useTheories({});
-  const ringdownTheories = (theories.data?.theories ?? []).filter((t) => t.mappings.some((m) => m.kind === "ringdown_frequency" || m.kind === "ringdown_damping"));
+  const ringdownTheories = (theories.data?.theories ?? []).filter((t) => t.mappings.some((m) => m.kind === "ringdown_frequency" || m.kind === "ringdown_damping" || m.kind === "remnant_mass" || m.kind === "remnant_spin"));
   const [slug, setSlug] = useState("");
   const [binary, setBinary] = useState({ m1: "39", m2: "32", chi1: "0", chi2: "0", z: "0.09" });
   const [frame, setFrame] = useState<"detector" | "source">("detector");
