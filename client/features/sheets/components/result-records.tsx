@@ -122,7 +122,7 @@ export function StackRecordBody({ r }: { r: StackRecord }) {
       <ul className="mt-1 text-sm">
         {x.events.map((e, i) => (
           <li key={i} className={e.used ? "" : "text-ink-faint"}>
-            {e.label} ({e.kind === "summary" ? "quick estimate from a summary" : "samples"}){e.bound !== null && <>: bound {num(e.bound)}</>}
+            {e.label} ({e.kind === "summary" ? "quick estimate from a summary" : "samples"}){e.interval ? <>: interval [{num(e.interval[0])}, {num(e.interval[1])}]</> : e.bound !== null && <>: bound {num(e.bound)}</>}
             {e.verdict && <>, {e.verdict === "valid" ? "valid" : e.verdict === "outside_validity" ? "not valid" : "not assessed"}</>}
             {!e.used && <> — not used: {e.reason ?? "excluded"}</>}
             {r.event_files[i]?.file && <span className="text-xs text-ink-soft"> · {r.event_files[i]!.file!.name}</span>}
