@@ -100,7 +100,7 @@ export function StackResultView({ id, data }: { id: string; data: StackJobResult
         </div>
         <CautionList cautions={data.cautions} testId="stack-cautions" />
       </div>
-      <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+      <div className="relative overflow-x-auto rounded border border-paper-edge bg-white/40">
         <table className="w-full border-collapse text-[0.95rem]" data-testid="stack-events">
           <caption className="sr-only">Each event's own bound and whether it entered the combination</caption>
           <thead className="bg-paper-deep text-left text-sm">

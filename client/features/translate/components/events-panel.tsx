@@ -124,7 +124,7 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
   return (
     <div className="flex flex-col gap-4">
       <DeviationFields idPrefix="events" value={deviation} onChange={onDeviation} theories={theories} theoriesLoading={theoriesLoading} errors={all} />
-      <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+      <div className="relative overflow-x-auto rounded border border-paper-edge bg-white/40">
         <table className="border-collapse text-sm" data-testid="events-input">
           <caption className="sr-only">Events: one bound and one binary each</caption>
           <thead className="bg-paper-deep text-left">
@@ -221,7 +221,7 @@ export function EventsResult({ data }: { data: EventsResponse }) {
   const unit = unitText(data.coupling.unit);
   return (
     <div className="flex flex-col gap-3" data-testid="events-result">
-      <div className="overflow-x-auto rounded border border-paper-edge bg-white/40">
+      <div className="relative overflow-x-auto rounded border border-paper-edge bg-white/40">
         <table className="w-full border-collapse text-[0.95rem]" data-testid="events-table">
           <caption className="sr-only">Each event's limit and the combined limit</caption>
           <thead className="bg-paper-deep text-left text-sm">
