@@ -1,11 +1,14 @@
 import { catalogueVersionText } from "../../../common/catalogue-version.ts";
+import { sciText } from "../../../common/number-text.ts";
 import type { Sheet } from "../../../common/sheets.ts";
+import { symbolText } from "../../../common/symbol-text.ts";
 import { boundIndex, exportLines, failedConditions } from "./export-rows.ts";
 
 /**
  * CSV (RFC 4180: comma-separated, CRLF line ends, fields quoted when they hold a comma, quote or line
  * break). Text cells that a spreadsheet would run as a formula (=, +, -, @ first) get a leading
- * apostrophe; numbers are written as numbers, so a negative b stays a number.
+ * apostrophe; numbers are written as numbers, so a negative b stays a number. `symbol` is the
+ * coupling as a physicist writes it (√α, λ_g); `coupling_id` is the identifier of the same quantity, for scripts.
  */
 type Cell = string | number | boolean | null;
 
@@ -36,6 +39,7 @@ export const CSV_COLUMNS = [
   "status",
   "convention",
   "symbol",
+  "coupling_id",
   "side",
   "value",
   "unit",
@@ -95,11 +99,12 @@ export function sheetToCsv(sheet: Sheet): string {
         x.theory,
         "bounded",
         x.convention,
+        symbolText(x.coupling.symbol, x.coupling.latex),
         x.coupling.symbol,
         x.coupling.side,
         x.coupling.value,
         x.coupling.unit,
-        x.also.map((a) => `${a.symbol} ${a.side === "upper" ? "<=" : ">="} ${a.value} ${a.unit}`).join("; "),
+        x.also.map((a) => `${symbolText(a.symbol, a.latex)} ${a.side === "upper" ? "≤" : "≥"} ${sciText(a.value, 4)} ${a.unit}`).join("; "),
         x.valid,
         x.verdict,
         failedConditions(x).join("; "),
@@ -108,7 +113,7 @@ export function sheetToCsv(sheet: Sheet): string {
       ]);
     } else {
       const n = line.item;
-      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, null, n.reason, catalogueCell(r.translation.catalogue_revision)]);
+      lines.push([...common, n.theory, "not_applicable", null, null, null, null, null, null, null, null, null, null, n.reason, catalogueCell(r.translation.catalogue_revision)]);
     }
   }
   return lines.map((cells) => cells.map(escapeCsvCell).join(",")).join("\r\n") + "\r\n";

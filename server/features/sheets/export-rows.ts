@@ -1,4 +1,5 @@
 import type { ConvertResult, NotApplicable } from "../../../common/convert.ts";
+import { sciText, thresholdText } from "../../../common/number-text.ts";
 import type { Sheet, SheetRecord } from "../../../common/sheets.ts";
 
 /**
@@ -25,7 +26,7 @@ export function boundIndex(record: SheetRecord): { b: number | null; k: number |
   return record.bound.parameter === "ppe_beta" ? { b: record.bound.b, k: null } : { b: record.translation.bound.b, k: record.bound.k };
 }
 
-/** The conditions that failed at the limit, as "label: value > max". */
+/** The conditions that failed at the limit, as "label: value > max", the threshold as people write it (1/6). */
 export function failedConditions(result: ConvertResult): string[] {
-  return result.validity.filter((v) => !v.ok).map((v) => `${v.label}: ${v.value === null ? "not a number" : v.value.toPrecision(3)} > ${v.max}`);
+  return result.validity.filter((v) => !v.ok).map((v) => `${v.label}: ${v.value === null ? "not a number" : sciText(v.value, 3)} > ${thresholdText(v.max)}`);
 }
