@@ -1,9 +1,11 @@
 import tailwindcss from "@tailwindcss/vite";
 import react from "@vitejs/plugin-react";
 import { defineConfig } from "vite";
+import { precompressAssets } from "./scripts/precompress.ts";
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  // precompressAssets: .br and .gz beside each hashed asset, served as they are (server/http/precompressed.ts).
+  plugins: [react(), tailwindcss(), precompressAssets()],
   server: {
     host: "127.0.0.1",
     port: 5173,

@@ -6,7 +6,7 @@
 import { execFileSync, fork, type ChildProcess } from "node:child_process";
 import { createDb, migrateLatest } from "../server/db/knex.ts";
 import { catalogueSeed } from "../seeds/catalogue.ts";
-import { craftedDefinitionChecks, hostileCorpus } from "../tests/helpers/hostile-corpus.ts";
+import { ACCEPTED_SAMPLES, post, SAMPLES } from "./stall-common.ts";
 
 // The benchmarks' throw-away cluster (as bench/http-load.bench.ts): BENCH_PGPORT, .data/pg-bench.
 const PGPORT = process.env.BENCH_PGPORT ?? "54359";
@@ -20,9 +20,6 @@ const wasRunning = (() => {
   }
 })();
 const DB = "dragoman_bench_stall";
-/** The audit's body size (refused with 413 before it is read) and the largest the in-request route accepts. */
-const SAMPLES = 200_000;
-const ACCEPTED_SAMPLES = 20_000;
 
 type Report = { max: number; p99: number; mean: number };
 
@@ -48,10 +45,11 @@ async function database(): Promise<string> {
   return `${base}${DB}`;
 }
 
-function startServer(databaseUrl: string): Promise<{ child: ChildProcess; url: string }> {
+function startServer(databaseUrl: string, env: Record<string, string>): Promise<{ child: ChildProcess; url: string }> {
   const child = fork("bench/stall-server.ts", [], {
-    execArgv: ["--import", "tsx"],
-    env: { ...process.env, DATABASE_URL: databaseUrl, PORT: "0", LOG_LEVEL: "silent", NODE_ENV: "development", RATE_LIMIT_PER_MINUTE: "1000000", CLIENT_DIST: "dist" },
+    // STALL_CPU_PROF=<dir> writes V8 CPU profiles of the server (main thread and workers) there.
+    execArgv: ["--import", "tsx", ...(process.env.STALL_CPU_PROF ? ["--cpu-prof", `--cpu-prof-dir=${process.env.STALL_CPU_PROF}`] : [])],
+    env: { ...process.env, DATABASE_URL: databaseUrl, PORT: "0", LOG_LEVEL: "silent", NODE_ENV: "development", RATE_LIMIT_PER_MINUTE: "1000000", CLIENT_DIST: "dist", ...env },
     stdio: ["ignore", "inherit", "inherit", "ipc"],
   });
   return new Promise((resolve, reject) => {
@@ -59,6 +57,17 @@ function startServer(databaseUrl: string): Promise<{ child: ChildProcess; url: s
     child.once("exit", (code) => reject(new Error(`server exited with ${code}`)));
     child.on("message", (m: { type: string; url?: string }) => {
       if (m.type === "listening" && m.url) resolve({ child, url: m.url });
+    });
+  });
+}
+
+/** The attacking client, in its own process, once it has prepared every request. */
+function startAttacker(url: string): Promise<ChildProcess> {
+  const child = fork("bench/stall-attacker.ts", [], { execArgv: ["--import", "tsx"], env: { ...process.env, STALL_URL: url }, stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  return new Promise((resolve, reject) => {
+    child.once("error", reject);
+    child.on("message", (m: { type: string }) => {
+      if (m.type === "ready") resolve(child);
     });
   });
 }
@@ -92,89 +101,77 @@ async function pollHealth(url: string, until: Promise<unknown>): Promise<{ laten
   return { latencies, statuses };
 }
 
-function samplesBody(n: number, spoil: boolean): string {
-  let seed = 12345;
-  const rnd = () => {
-    seed = (seed * 48271) % 2147483647;
-    return seed / 2147483647;
-  };
-  const col = (lo: number, hi: number) => Array.from({ length: n }, () => lo + (hi - lo) * rnd());
-  const m1 = col(10, 40);
-  const columns: Record<string, unknown[]> = { beta: col(-1e-3, 1e-3), m1, m2: m1.map((m) => m * (0.3 + 0.6 * rnd())), chi1: col(-0.5, 0.5), chi2: col(-0.5, 0.5), z: col(0.05, 0.3) };
-  // The audit's case: a body that is read and walked in full, then refused for its last value.
-  if (spoil) (columns.m1 as unknown[])[n - 1] = "x";
-  return JSON.stringify({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", columns });
-}
-
-async function post(url: string, path: string, body: string, counts: Map<string, number>): Promise<void> {
-  try {
-    const res = await fetch(`${url}${path}`, { method: "POST", headers: { "content-type": "application/json" }, body });
-    await res.arrayBuffer();
-    const key = `${path} ${res.status}`;
-    counts.set(key, (counts.get(key) ?? 0) + 1);
-  } catch (err) {
-    const key = `${path} error ${err instanceof Error ? err.message : String(err)}`;
-    counts.set(key, (counts.get(key) ?? 0) + 1);
-  }
-}
-
-async function attack(url: string, counts: Map<string, number>): Promise<void> {
-  const corpus = hostileCorpus(300);
-  const crafted = craftedDefinitionChecks();
-  const base = { target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 2 }], definitions: [{ symbol: "zeta", expression: "16*pi*alpha^2/M^4" }] };
-  const bigBodies = [samplesBody(SAMPLES, false), samplesBody(SAMPLES, true), samplesBody(ACCEPTED_SAMPLES, false), samplesBody(ACCEPTED_SAMPLES, true)];
-  const lane = async (items: Array<[string, string]>) => {
-    for (const [path, body] of items) await post(url, path, body, counts);
-  };
-  const hostile: Array<[string, string]> = corpus.map((e) => ["/api/v1/expressions/check", JSON.stringify({ ...base, expression: e })]);
-  const craftedItems: Array<[string, string]> = Array.from({ length: 60 }, (_, k) => ["/api/v1/expressions/check", JSON.stringify(crafted[k % crafted.length]?.body)]);
-  const samples: Array<[string, string]> = Array.from({ length: 8 }, (_, k) => ["/api/v1/convert/samples", bigBodies[k % 4] as string]);
-  const split = <T,>(xs: T[], n: number): T[][] => Array.from({ length: n }, (_, i) => xs.filter((_, k) => k % n === i));
-  // STALL_PARTS=expressions or samples sends only that part (to see which one stalls).
-  const parts = process.env.STALL_PARTS ?? "all";
-  const expressions = parts === "samples" ? [] : [...split(hostile, 3), ...split(craftedItems, 2)];
-  const bodies = parts === "expressions" ? [] : split(samples, 2);
-  await Promise.all([...expressions, ...bodies].map(lane));
-}
-
 function line(label: string, health: number[], loop: Report): string {
   const f = (x: number) => x.toFixed(1).padStart(7);
   return `${label.padEnd(26)} health n=${String(health.length).padStart(4)}  p50 ${f(quantile(health, 0.5))} ms  p99 ${f(quantile(health, 0.99))} ms  max ${f(Math.max(...health))} ms | event-loop delay max ${f(loop.max)} ms  p99 ${f(loop.p99)} ms`;
 }
 
+/** One server, one baseline, one attack; prints the figures and whether the goal is met. */
+async function round(label: string, databaseUrl: string, env: Record<string, string>): Promise<{ healthMax: number; loopMax: number }> {
+  const { child, url } = await startServer(databaseUrl, env);
+  try {
+    // Warm-up: the first check starts the workers, the first conversion compiles the catalogue.
+    await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), new Map());
+    await new Promise((r) => setTimeout(r, 1500));
+
+    await ask(child, "reset");
+    const quiet = await pollHealth(url, new Promise((r) => setTimeout(r, 3000)));
+    const quietLoop = await ask<Report>(child, "report");
+
+    const attacker = await startAttacker(url);
+    await ask(child, "reset");
+    const t0 = performance.now();
+    const attackDone = new Promise<Map<string, number>>((resolve) => {
+      attacker.on("message", (m: { type: string; counts?: Array<[string, number]> }) => {
+        if (m.type === "done") resolve(new Map(m.counts));
+      });
+    });
+    attacker.send({ type: "go" });
+    const loud = await pollHealth(url, attackDone);
+    const counts = await attackDone;
+    const seconds = (performance.now() - t0) / 1000;
+    const loudLoop = await ask<Report>(child, "report");
+
+    console.log(`-- ${label}: ${seconds.toFixed(1)} s of attack`);
+    console.log(line("baseline (health alone)", quiet.latencies, quietLoop));
+    console.log(line("under attack", loud.latencies, loudLoop));
+    console.log(`ratio under attack / baseline: health max x${(Math.max(...loud.latencies) / Math.max(...quiet.latencies)).toFixed(1)}, event-loop max x${(loudLoop.max / quietLoop.max).toFixed(1)}`);
+    console.log(`health statuses under attack: ${[...loud.statuses].map(([s, n]) => `${s} x${n}`).join(", ")}`);
+    console.log(`attack answers: ${[...counts].map(([k, n]) => `${k} x${n}`).join(", ")}`);
+    console.log(`goal: max health latency under 100 ms -> ${Math.max(...loud.latencies) < 100 ? "met" : "NOT met"}`);
+    return { healthMax: Math.max(...loud.latencies), loopMax: loudLoop.max };
+  } finally {
+    child.send({ type: "stop" });
+    // A connection the attack left half-open can keep the server from closing: give it five seconds, then end it.
+    const exited = child.exitCode !== null || child.signalCode !== null ? Promise.resolve() : new Promise((r) => child.once("exit", r));
+    const stopTimer = setTimeout(() => child.kill("SIGKILL"), 5000);
+    await exited;
+    clearTimeout(stopTimer);
+  }
+}
+
+// Each round runs both settings, the comparison first, so the two share the machine's load of the moment.
+// STALL_ROUNDS repeats them (default 2); STALL_COMPARE=0 runs the default settings only.
+const settings: Array<[string, Record<string, string>]> = [
+  ...(process.env.STALL_COMPARE === "0" ? [] : [["workers at normal priority (WORKER_NICE=0)", { WORKER_NICE: "0" }] as [string, Record<string, string>]]),
+  ["default settings (WORKER_NICE=10)", {}],
+];
+const rounds = Number(process.env.STALL_ROUNDS ?? 2);
 const databaseUrl = await database();
-const { child, url } = await startServer(databaseUrl);
+const summary = new Map<string, Array<{ healthMax: number; loopMax: number }>>();
 try {
-  // Warm-up: the first check starts the workers, the first conversion compiles the catalogue.
-  await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), new Map());
-  await new Promise((r) => setTimeout(r, 1500));
-
-  await ask(child, "reset");
-  const quiet = await pollHealth(url, new Promise((r) => setTimeout(r, 3000)));
-  const quietLoop = await ask<Report>(child, "report");
-
-  await ask(child, "reset");
-  const counts = new Map<string, number>();
-  const t0 = performance.now();
-  const attackDone = attack(url, counts);
-  const loud = await pollHealth(url, attackDone);
-  const seconds = (performance.now() - t0) / 1000;
-  const loudLoop = await ask<Report>(child, "report");
-
-  console.log(`stall benchmark, parts: ${process.env.STALL_PARTS ?? "all"} (samples bodies of ${SAMPLES} (over the route's limit) and ${ACCEPTED_SAMPLES} rows, 8 in all; hostile corpus of 300, crafted definition expressions x60; ${seconds.toFixed(1)} s of attack)`);
-  console.log(line("baseline (health alone)", quiet.latencies, quietLoop));
-  console.log(line("under attack", loud.latencies, loudLoop));
-  console.log(`ratio under attack / baseline: health max x${(Math.max(...loud.latencies) / Math.max(...quiet.latencies)).toFixed(1)}, event-loop max x${(loudLoop.max / quietLoop.max).toFixed(1)}`);
-  console.log(`health statuses under attack: ${[...loud.statuses].map(([s, n]) => `${s} x${n}`).join(", ")}`);
-  console.log(`attack answers: ${[...counts].map(([k, n]) => `${k} x${n}`).join(", ")}`);
-  console.log(`goal: max health latency under 100 ms -> ${Math.max(...loud.latencies) < 100 ? "met" : "NOT met"}`);
+  console.log(`stall benchmark, parts: ${process.env.STALL_PARTS ?? "all"} (samples bodies of ${SAMPLES} (over the route's limit) and ${ACCEPTED_SAMPLES} rows, 8 in all; hostile corpus of 300, crafted definition expressions x60)`);
+  for (let r = 0; r < rounds; r += 1) {
+    for (const [label, env] of settings) {
+      const got = await round(`round ${r + 1}, ${label}`, databaseUrl, env);
+      summary.set(label, [...(summary.get(label) ?? []), got]);
+    }
+  }
+  for (const [label, runs] of summary) {
+    const f = (xs: number[]) => xs.map((x) => x.toFixed(0)).join(" / ");
+    console.log(`summary, ${label}: health max ${f(runs.map((x) => x.healthMax))} ms; event-loop delay max ${f(runs.map((x) => x.loopMax))} ms`);
+  }
 } finally {
-  child.send({ type: "stop" });
-  // A connection the attack left half-open can keep the server from closing: give it five seconds, then end it.
-  const exited = child.exitCode !== null || child.signalCode !== null ? Promise.resolve() : new Promise((r) => child.once("exit", r));
-  const stopTimer = setTimeout(() => child.kill("SIGKILL"), 5000);
-  await exited;
-  clearTimeout(stopTimer);
   const admin = createDb(databaseUrl.replace(/[^/]+$/, "postgres"), { max: 1 });
   await admin.raw(`drop database if exists "${DB}" with (force)`);
   await admin.destroy();

@@ -61,6 +61,8 @@ export const mappingSummarySchema = z.object({
   a: z.number().nullable(),
   pn_order: z.number().nullable(),
   retired: z.boolean(),
+  /** Where the formula comes from: read in its paper, re-derived, or recalled (source to be confirmed). */
+  source_status: z.enum(SOURCE_STATUSES),
 });
 
 export const theorySummarySchema = z.object({

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { failingConditionSchema, validityItemSchema, verdictSchema } from "./convert.ts";
 
 /**
  * Request and response shapes of the inspiral-merger-ringdown consistency test
@@ -32,6 +33,16 @@ export const levelsSchema = z
 
 export const massFrameSchema = z.enum(["detector", "source"], { error: 'frame must be "detector" or "source"' });
 
+/**
+ * The remnant predicted from the full-signal estimate (same frame as the two estimates): Ghosh et al.
+ * 2016, 2018 split the data at twice the orbital frequency of its ISCO. When absent, the split
+ * frequency is computed from the inspiral estimate's remnant, and the answer says so.
+ */
+export const fullSignalRemnantSchema = z.strictObject({
+  M_f: num("M_f").positive("M_f must be positive (solar masses)"),
+  chi_f: num("chi_f").gt(-1, "|chi_f| must be below 1 (a Kerr black hole)").lt(1, "|chi_f| must be below 1 (a Kerr black hole)"),
+});
+
 export const consistencyRequestSchema = z.strictObject({
   inspiral: remnantSummarySchema,
   merger_ringdown: remnantSummarySchema,
@@ -39,6 +50,7 @@ export const consistencyRequestSchema = z.strictObject({
   /** Redshift; with source-frame masses it lets the split frequency be given in the detector frame. */
   z: num("z").min(0, "z must be >= 0").optional(),
   levels: levelsSchema,
+  full_signal: fullSignalRemnantSchema.optional(),
 });
 export type ConsistencyRequest = z.output<typeof consistencyRequestSchema>;
 export type ConsistencyRequestInput = z.input<typeof consistencyRequestSchema>;
@@ -56,8 +68,18 @@ export const consistencyResultSchema = z.object({
   gr_quantile: z.number(),
   /** Credible regions, each a list of closed rings [[dM, dchi], ...]. */
   contours: z.array(z.object({ level: z.number(), paths: z.array(z.array(point)) })),
-  /** Split frequency (Hz, detector frame) computed from the mean of the two estimates, when the frame allows. */
+  /** Split frequency (Hz, detector frame), when the frame allows; the same as split.frequency_hz. */
   split_frequency_hz: z.number().optional(),
+  /** The split frequency and the remnant it was computed from (full-signal estimate, or the inspiral estimate's). */
+  split: z
+    .object({
+      frequency_hz: z.number(),
+      from: z.enum(["full_signal", "inspiral"]),
+      /** Detector-frame remnant mass (solar masses) and spin the ISCO was taken at. */
+      M_f: z.number(),
+      chi_f: z.number(),
+    })
+    .optional(),
   cautions: z.array(z.string()),
 });
 export type ConsistencyResult = z.infer<typeof consistencyResultSchema>;
@@ -93,22 +115,13 @@ export const couplingExclusionRequestSchema = z
 export type CouplingExclusionRequest = z.output<typeof couplingExclusionRequestSchema>;
 export type CouplingExclusionRequestInput = z.input<typeof couplingExclusionRequestSchema>;
 
-const outcome = z.object({
-  label: z.string(),
-  condition: z.string(),
-  value: z.number().nullable(),
-  max: z.number(),
-  kind: z.enum(["hard", "rule_of_thumb"]),
-  factor: z.number().nullable(),
-  ok: z.boolean().nullable(),
-  reason: z.string().optional(),
-});
-
 export const couplingExclusionResponseSchema = z.object({
   theory: z.object({ slug: z.string(), name: z.string(), revision: z.number() }),
   coupling: z.object({ symbol: z.string(), latex: z.string(), unit: z.string() }),
   remnant: z.object({ M_f: z.number(), chi_f: z.number(), frame: massFrameSchema, chi_f_alternative: z.number() }),
   credibility: z.number(),
+  /** Which of the theory's effects entered: QNM shifts of the mode, shifts of the true remnant, the inspiral's bias. */
+  model: z.object({ qnm_frequency: z.boolean(), qnm_damping: z.boolean(), remnant_mass: z.boolean(), remnant_spin: z.boolean(), inspiral_bias: z.boolean() }),
   /** Covariance of (dM_f/M_f, dchi_f/chi_f) of the test at the GR point. */
   covariance: z.tuple([point, point]),
   sides: z.array(
@@ -121,8 +134,11 @@ export const couplingExclusionResponseSchema = z.object({
       reason: z.string().optional(),
       /** Where the linear and exact readings part by more than 10 %. */
       linear_breaks_at: z.number().nullable(),
-      verdict: z.enum(["valid", "outside_validity", "not_assessed"]),
-      conditions: z.array(outcome),
+      /** The translator's verdict rule at the limit (common/convert.ts): stretched rules of thumb stay valid. */
+      verdict: verdictSchema,
+      failing: failingConditionSchema.nullable(),
+      validity: z.array(validityItemSchema),
+      unassessed: z.array(z.object({ label: z.string(), condition: z.string(), reason: z.string() })),
     }),
   ),
   /** The expected deviation against the coupling, for drawing over the contours. */
@@ -139,5 +155,6 @@ export const consistencyJobRequestSchema = z.strictObject({
   frame: massFrameSchema,
   z: num("z").min(0, "z must be >= 0").optional(),
   levels: levelsSchema,
+  full_signal: fullSignalRemnantSchema.optional(),
 });
 export type ConsistencyJobRequest = z.output<typeof consistencyJobRequestSchema>;

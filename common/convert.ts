@@ -126,12 +126,92 @@ export const gimrBoundSchema = z
   })
   .superRefine((v, ctx) => checkBoundValue(v, ctx));
 
-/** A bound as every route takes it (exported for reuse: samples jobs, forecasts, ringdown). */
+/** A bound on the inspiral phase as every route takes it (exported for reuse: samples jobs, forecasts, sheets, events). */
 export const boundSchema = z.discriminatedUnion("parameter", [ppeBoundSchema, gimrBoundSchema], {
   error: 'parameter must be "ppe_beta" or "gimr_dphi"',
 });
 export type BoundRequest = z.output<typeof boundSchema>;
 export type BoundRequestInput = z.input<typeof boundSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Amplitude bounds (POST /convert only).
+//
+// ppe_alpha: the ppE amplitude correction h = h_GR (1 + alpha u^a) (Yunes & Pretorius 2009,
+// arXiv:0909.3328), a bound on alpha at the exponent a, in the same bound model as beta. The
+// exp(+/- i Psi) sign convention does not touch the amplitude, so there is no sign_convention.
+//
+// distance_ratio: the ratio d_L^GW / d_L^EM of the luminosity distance read from the wave's amplitude
+// to the electromagnetic one of the same source (a counterpart or host galaxy), at the source's
+// redshift z. GR gives 1, so the interval must contain 1; both ends are positive.
+
+export const ppeAlphaBoundSchema = z
+  .strictObject({
+    parameter: z.literal("ppe_alpha"),
+    a: finite("a"),
+    ...boundValueFields,
+  })
+  .superRefine((v, ctx) => checkBoundValue(v, ctx));
+
+/** GR's value of d_L^GW / d_L^EM. */
+export const GR_DISTANCE_RATIO = 1;
+
+export const distanceRatioBoundSchema = z
+  .strictObject({
+    parameter: z.literal("distance_ratio"),
+    interval: intervalSchema,
+    /** The source's redshift, at which the ratio was measured. */
+    z: finite("z").positive("z must be positive: the ratio is measured at the source's redshift").max(20, "z must be at most 20"),
+    credibility,
+    f_low: fLowSchema,
+  })
+  .superRefine((v, ctx) => {
+    const [lo, hi] = v.interval;
+    if (lo === null && hi === null) {
+      ctx.addIssue({ code: "custom", path: ["interval"], message: "a one-sided bound needs its finite side: give [lo, null] or [null, hi]" });
+      return;
+    }
+    for (const [i, end] of [lo, hi].entries()) {
+      if (end !== null && !(Number.isFinite(end) && end > 0)) {
+        ctx.addIssue({ code: "custom", path: ["interval", i], message: "each end of a distance-ratio interval must be a positive number (d_L^GW / d_L^EM > 0) or null" });
+        return;
+      }
+    }
+    if (lo !== null && hi !== null && !(lo < hi)) {
+      ctx.addIssue({ code: "custom", path: ["interval"], message: `interval must have lo < hi (got [${lo}, ${hi}])` });
+      return;
+    }
+    if ((lo !== null && lo > GR_DISTANCE_RATIO) || (hi !== null && hi < GR_DISTANCE_RATIO)) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["interval"],
+        message: `GR itself (d_L^GW / d_L^EM = 1) is outside the interval [${lo ?? 0}, ${hi ?? "inf"}]: it reports a deviation rather than a bound, and nothing was translated`,
+      });
+    }
+  });
+
+/**
+ * The bound of POST /convert: a phase bound (ppe_beta, gimr_dphi) or an amplitude bound
+ * (ppe_alpha, distance_ratio). Other routes take the phase bounds only (boundSchema).
+ */
+export const convertBoundSchema = z.discriminatedUnion("parameter", [ppeBoundSchema, gimrBoundSchema, ppeAlphaBoundSchema, distanceRatioBoundSchema], {
+  error: 'parameter must be "ppe_beta", "gimr_dphi", "ppe_alpha" or "distance_ratio"',
+});
+export type ConvertBoundRequest = z.output<typeof convertBoundSchema>;
+export type AmplitudeBoundRequest = z.output<typeof ppeAlphaBoundSchema> | z.output<typeof distanceRatioBoundSchema>;
+
+/** Which part of the waveform a bound constrains. */
+export const CHANNELS = ["phase", "amplitude", "distance_ratio"] as const;
+export const channelSchema = z.enum(CHANNELS);
+export type Channel = z.infer<typeof channelSchema>;
+
+export function channelOf(bound: { parameter: ConvertBoundRequest["parameter"] }): Channel {
+  return bound.parameter === "ppe_alpha" ? "amplitude" : bound.parameter === "distance_ratio" ? "distance_ratio" : "phase";
+}
+
+/** True for the phase bounds that the other routes (tables, events, sheets) also take. */
+export function isPhaseBound(bound: ConvertBoundRequest): bound is BoundRequest {
+  return bound.parameter === "ppe_beta" || bound.parameter === "gimr_dphi";
+}
 
 export const bodyKindSchema = z.enum(["bh", "ns"], { error: 'each body must be "bh" or "ns"' });
 
@@ -172,7 +252,7 @@ export type CosmologyRequest = z.output<typeof cosmologySchema>;
 export const theorySlugSchema = z.string().regex(/^[a-z0-9][a-z0-9-]{0,63}$/, "name a catalogue entry by its short name, as in its address: lower-case letters, digits and dashes (edgb, massive-graviton)");
 
 export const convertRequestSchema = z.strictObject({
-  bound: boundSchema,
+  bound: convertBoundSchema,
   binary: binarySchema,
   cosmology: cosmologySchema.optional(),
   theories: z.array(theorySlugSchema).min(1, "theories, when given, must name at least one theory").max(100).optional(),
@@ -181,6 +261,8 @@ export const convertRequestSchema = z.strictObject({
 });
 export type ConvertRequest = z.output<typeof convertRequestSchema>;
 export type ConvertRequestInput = z.input<typeof convertRequestSchema>;
+/** A /convert request with a phase bound: what sheets, tables and events take. */
+export type PhaseConvertRequest = Omit<ConvertRequest, "bound"> & { bound: BoundRequest };
 
 // ---------------------------------------------------------------------------------------------
 // Answers
@@ -247,6 +329,8 @@ export const cautionCodeSchema = z.enum([
   "couplings",
   "orders",
   "signed_interval",
+  "amplitude",
+  "remnant",
 ]);
 export type CautionCode = z.infer<typeof cautionCodeSchema>;
 
@@ -298,6 +382,8 @@ export const convertResultSchema = z.object({
   canonical: z.object({ symbol: z.string(), latex: z.string(), value: z.number(), unit: z.string() }),
   /** Which coupling of the entry this row bounds (an entry with several couplings gives one row each). */
   coupling_symbol: z.string().default(""),
+  /** phase: b, beta_max and beta_interval are the phase bound; amplitude: they hold a, |alpha| and the alpha interval; distance_ratio: b is 0 and they hold d_L^GW/d_L^EM - 1. */
+  channel: channelSchema.default("phase"),
   b: z.number(),
   beta_max: z.number(),
   /** The bound as stated, in the exp(+i Psi) convention: [lo, hi] (null = unbounded side). */
@@ -339,6 +425,8 @@ export const notApplicableCodeSchema = z.enum([
   "evaluation_failed",
   "unreachable_side",
   "bodies_not_covered",
+  "different_a",
+  "different_channel",
 ]);
 
 export const notApplicableSchema = z.object({
@@ -354,12 +442,20 @@ export type NotApplicable = z.infer<typeof notApplicableSchema>;
 export const convertResponseSchema = z.object({
   /** The bound as translated: b, and |beta| <= beta_max in the exp(+i Psi) convention. */
   bound: z.object({
+    /** Which part of the waveform the bound constrains; for amplitude and distance_ratio, b and beta_* are null and the fields below say what was translated. */
+    channel: channelSchema.default("phase"),
     b: z.number().nullable(),
     beta_max: z.number().nullable(),
     /** The bound in the exp(+i Psi) convention, as [lo, hi] on beta (null = unbounded side). */
     beta_interval: z.tuple([z.number().nullable(), z.number().nullable()]).default([null, null]),
     credibility: z.number(),
     f_low: z.number().default(DEFAULT_F_LOW_HZ),
+    /** Amplitude: the exponent a of alpha u^a. */
+    a: z.number().nullable().default(null),
+    /** Amplitude: the bound on alpha as [lo, hi]; distance_ratio: on d_L^GW/d_L^EM - 1 (null = unbounded side). */
+    deviation_interval: z.tuple([z.number().nullable(), z.number().nullable()]).nullable().default(null),
+    /** distance_ratio: the source's redshift. */
+    z: z.number().nullable().default(null),
   }),
   cosmology: z.object({ H0: z.number(), Omega_m: z.number() }),
   catalogue_revision: z.string(),

@@ -135,6 +135,8 @@ export const forecastBandSchema = z.object({
   low_cut: z.string(),
   high_cut: z.string(),
   extrapolated: z.boolean(),
+  /** The curve's convention is still to be checked against its source (see the curve list). */
+  to_confirm: z.string().nullable(),
   years_observed: z.number().nullable(),
   years_before_merger: z.number().nullable(),
   snr: z.number(),
@@ -202,6 +204,8 @@ export const curveInfoSchema = z.object({
   source: z.string(),
   convention: z.enum(CURVE_CONVENTIONS),
   convention_note: z.string(),
+  /** What of the curve's convention is still to be checked against its source; null when nothing is. */
+  to_confirm: z.string().nullable(),
   f_min: z.number(),
   f_max: z.number(),
   default_f_low: z.number(),
@@ -216,15 +220,29 @@ export const curveListSchema = z.object({ curves: z.array(curveInfoSchema) });
 export const MAX_CURVE_POINTS = 20_000;
 export const MAX_CURVE_BYTES = 1_000_000;
 
-export const curveUploadSchema = z.strictObject({
+const curveUploadFields = {
   name: z.string({ error: "name is required" }).trim().min(1, "name is required").max(80, "name must be at most 80 characters"),
   /** What the second column holds: amplitude (1/sqrt(Hz)) or power (1/Hz) spectral density. */
   kind: z.enum(["asd", "psd"], { error: 'kind must be "asd" or "psd": say what the second column holds' }),
   convention: z.enum(CURVE_CONVENTIONS, { error: `convention must be one of ${CURVE_CONVENTIONS.join(", ")}` }),
+};
+
+/** JSON form (API clients): the table as text in `data`. */
+export const curveUploadSchema = z.strictObject({
+  ...curveUploadFields,
   /** True for a detector in space: its band comes from the observing window before merger. */
   space: z.boolean({ error: "space must be true or false" }).default(false),
-  /** Two columns: frequency (Hz) and ASD or PSD; commas, tabs or spaces; # comments and one header line allowed. */
+  /** Two columns: frequency (Hz) and ASD or PSD; commas, tabs or spaces; # comments and header lines allowed. */
   data: z.string({ error: "data is required: the two-column table as text" }).min(1, "data is required").max(MAX_CURVE_BYTES, `data must be at most ${MAX_CURVE_BYTES} characters`),
+});
+
+/** Multipart form (the page): the table is the form field `file`; these are the text fields beside it. */
+export const curveFileFieldsSchema = z.strictObject({
+  ...curveUploadFields,
+  space: z
+    .enum(["true", "false"], { error: 'space must be "true" or "false"' })
+    .default("false")
+    .transform((v) => v === "true"),
 });
 export type CurveUpload = z.output<typeof curveUploadSchema>;
 export type CurveUploadInput = z.input<typeof curveUploadSchema>;

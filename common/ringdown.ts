@@ -1,5 +1,14 @@
 import { z } from "zod";
-import { checkBoundValue, intervalSchema } from "./convert.ts";
+import {
+  cautionSchema,
+  checkBoundValue,
+  convertRequestSchema,
+  convertResponseSchema,
+  failingConditionSchema,
+  intervalSchema,
+  validityItemSchema,
+  verdictSchema,
+} from "./convert.ts";
 
 /**
  * Ringdown-only bounds (POST /api/v1/convert/ringdown): a bound on the fractional shift of one
@@ -64,20 +73,23 @@ export const ringdownConvertRequestSchema = z
 export type RingdownConvertRequest = z.output<typeof ringdownConvertRequestSchema>;
 export type RingdownConvertRequestInput = z.input<typeof ringdownConvertRequestSchema>;
 
-export const VERDICTS = ["valid", "outside_validity", "not_assessed"] as const;
+/** A condition the engine could not evaluate at the limit (it needs the binary, or has no finite value there). */
+const unassessedSchema = z.object({ label: z.string(), condition: z.string(), reason: z.string() });
 
-const conditionSchema = z.object({
-  label: z.string(),
-  condition: z.string(),
-  value: z.number().nullable(),
-  max: z.number(),
-  kind: z.enum(["hard", "rule_of_thumb"]),
-  factor: z.number().nullable(),
-  ok: z.boolean().nullable(),
-  reason: z.string().optional(),
+/**
+ * One side's limit, judged by the translator's verdict rule (common/convert.ts): each condition ok,
+ * stretched (a rule of thumb exceeded by at most RULE_OF_THUMB_STRETCH, kept as valid with a caution)
+ * or failing; the worst failure named.
+ */
+const sideLimitSchema = z.object({
+  value: z.number(),
+  shift: z.number(),
+  verdict: verdictSchema,
+  failing: failingConditionSchema.nullable(),
+  validity: z.array(validityItemSchema),
+  unassessed: z.array(unassessedSchema),
 });
-
-const sideLimitSchema = z.object({ value: z.number(), shift: z.number(), verdict: z.enum(VERDICTS), conditions: z.array(conditionSchema) });
+export type RingdownSideLimit = z.infer<typeof sideLimitSchema>;
 
 export const ringdownResultSchema = z.object({
   slug: z.string(),
@@ -91,12 +103,15 @@ export const ringdownResultSchema = z.object({
   lower: sideLimitSchema.nullable(),
   upper: sideLimitSchema.nullable(),
   unconstrained: z.array(z.object({ side: z.enum(["negative", "positive"]), reason: z.string() })),
-  verdict: z.enum(VERDICTS),
-  cautions: z.array(z.string()),
+  verdict: verdictSchema,
+  cautions: z.array(cautionSchema),
 });
 export type RingdownResult = z.infer<typeof ringdownResultSchema>;
 
 export const ringdownConvertResponseSchema = z.object({
+  /** Tells a ringdown answer of POST /convert from an inspiral one. */
+  kind: z.literal("ringdown"),
+  bound: z.object({ parameter: z.enum(RINGDOWN_PARAMETERS), mode: z.enum(QNM_MODE_KEYS), interval: z.tuple([z.number().nullable(), z.number().nullable()]), credibility: z.number() }),
   remnant: z.object({
     /** Source-frame remnant mass (solar masses) and spin used for the mappings. */
     M_f_source: z.number(),
@@ -110,6 +125,22 @@ export const ringdownConvertResponseSchema = z.object({
   /** The Kerr mode at that remnant (detector frame when z is known, else source frame). */
   qnm: z.object({ mode: z.string(), frequency_hz: z.number(), damping_time_s: z.number(), frame: z.enum(["detector", "source"]) }),
   results: z.array(ringdownResultSchema),
-  cautions: z.array(z.string()),
+  cautions: z.array(cautionSchema),
 });
 export type RingdownConvertResponse = z.infer<typeof ringdownConvertResponseSchema>;
+
+/**
+ * POST /api/v1/convert takes either bound family: an inspiral bound (ppE, gIMR, ...) with a binary,
+ * or a ringdown bound (qnm_dfreq, qnm_dtau) with a remnant or a binary. The route picks the schema
+ * by bound.parameter, so each family's 400 names its own fields.
+ */
+export const convertAnyRequestSchema = z.union([convertRequestSchema, ringdownConvertRequestSchema]);
+export const convertAnyResponseSchema = z.union([convertResponseSchema, ringdownConvertResponseSchema]);
+
+export function isRingdownBody(body: unknown): boolean {
+  if (typeof body !== "object" || body === null) return false;
+  const bound = (body as { bound?: unknown }).bound;
+  if (typeof bound !== "object" || bound === null) return false;
+  const parameter = (bound as { parameter?: unknown }).parameter;
+  return typeof parameter === "string" && (RINGDOWN_PARAMETERS as readonly string[]).includes(parameter);
+}

@@ -37,7 +37,12 @@ export const FAMILY_LABELS: Record<TheoryFamily, string> = {
 /** A theory with an action, or a parameterized spacetime given by its metric. */
 export const ENTRY_KINDS = ["theory", "parameterized_spacetime"] as const;
 
-export const MAPPING_KINDS = ["inspiral_phase", "inspiral_amplitude", "ringdown_frequency", "ringdown_damping"] as const;
+/**
+ * remnant_mass / remnant_spin: the fractional shift of the remnant black hole's mass or spin,
+ * dM_f/M_f or dchi_f/chi_f, that the theory causes for a given binary (used by the IMR consistency
+ * forecast together with the ringdown shifts).
+ */
+export const MAPPING_KINDS = ["inspiral_phase", "inspiral_amplitude", "ringdown_frequency", "ringdown_damping", "remnant_mass", "remnant_spin"] as const;
 export type MappingKind = (typeof MAPPING_KINDS)[number];
 
 /** How the quoted quantity is formed from the canonical coupling (sqrt(alpha) for a length^2 coupling). */

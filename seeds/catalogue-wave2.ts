@@ -4,7 +4,7 @@ import { ConflictError } from "../server/errors.ts";
 import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
 import { publishEntry } from "../server/features/catalogue/publish.ts";
 import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
-import { THEORIES_WAVE2 } from "./data/theories-wave2.ts";
+import { THEORIES_WAVE2, THEORIES_WAVE2_B, THEORIES_WAVE2_C } from "./data/theories-wave2.ts";
 import type { SeedStep } from "./index.ts";
 
 /**
@@ -21,21 +21,33 @@ export async function publishWave2Entry(trx: Knex.Transaction, input: TheoryEntr
   return publishEntry(trx, entry, checks, { targetSlug: null, submissionId: null, authorId: null, acceptedBy, now });
 }
 
-export const catalogueWave2Seed: SeedStep = {
-  name: "catalogue-wave2",
-  run: async (trx) => {
-    const editor = await trx("users").where({ login: "demo-editor" }).first<{ id: number } | undefined>("id");
-    const now = new Date();
-    for (const input of THEORIES_WAVE2) {
-      const taken = await trx("theories").where({ slug: input.slug }).first<{ id: number } | undefined>("id");
-      if (taken) continue;
-      try {
-        await publishWave2Entry(trx, input, editor?.id ?? null, now);
-      } catch (err) {
-        // A refused entry must not take the demo down; tests/physics/seeded-wave2.test.ts fails on it instead.
-        if (!(err instanceof ConflictError)) throw err;
-        process.stderr.write(`catalogue seed (wave 2): left out "${input.slug}": ${err.message}\n`);
+/**
+ * A seed step publishing a batch of entries once. A batch written after databases already ran an earlier
+ * step gets a step (and name) of its own, so those databases gain it on their next start.
+ */
+export function catalogueBatchSeed(name: string, entries: readonly TheoryEntryInput[]): SeedStep {
+  return {
+    name,
+    run: async (trx) => {
+      const editor = await trx("users").where({ login: "demo-editor" }).first<{ id: number } | undefined>("id");
+      const now = new Date();
+      for (const input of entries) {
+        const taken = await trx("theories").where({ slug: input.slug }).first<{ id: number } | undefined>("id");
+        if (taken) continue;
+        try {
+          await publishWave2Entry(trx, input, editor?.id ?? null, now);
+        } catch (err) {
+          // A refused entry must not take the demo down; the seeded-* tests of tests/physics fail on it instead.
+          if (!(err instanceof ConflictError)) throw err;
+          process.stderr.write(`catalogue seed (${name}): left out "${input.slug}": ${err.message}\n`);
+        }
       }
-    }
-  },
-};
+    },
+  };
+}
+
+export const catalogueWave2Seed: SeedStep = catalogueBatchSeed("catalogue-wave2", THEORIES_WAVE2);
+/** Einstein-aether and massive scalar-tensor gravity, added after "catalogue-wave2" had run on existing databases. */
+export const catalogueWave2bSeed: SeedStep = catalogueBatchSeed("catalogue-wave2-b", THEORIES_WAVE2_B);
+/** Massive dark-photon charges, added after "catalogue-wave2-b" had run. */
+export const catalogueWave2cSeed: SeedStep = catalogueBatchSeed("catalogue-wave2-c", THEORIES_WAVE2_C);

@@ -5,7 +5,7 @@ import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/
 import { publishEntry } from "../server/features/catalogue/publish.ts";
 import { latestRevisionEntryOf } from "../server/features/catalogue/revision-repository.ts";
 import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
-import { johannsenPsaltis, johannsenRingdownMappings, RINGDOWN_REFS, ringdownDeviation } from "./data/theories-ringdown.ts";
+import { johannsenPsaltis, johannsenRingdownMappings, remnantDeviation, RINGDOWN_REFS, ringdownDeviation } from "./data/theories-ringdown.ts";
 import type { SeedStep } from "./index.ts";
 
 /**
@@ -44,6 +44,7 @@ export const ringdownCatalogueSeed: SeedStep = {
     const now = new Date();
     const steps: [TheoryEntryInput | null, string | null][] = [
       [ringdownDeviation, null],
+      [remnantDeviation, null],
       [johannsenPsaltis, null],
       [await johannsenWithRingdown(trx), "johannsen"],
     ];

@@ -1,9 +1,10 @@
 import { existsSync } from "node:fs";
 import path from "node:path";
 import compression from "compression";
-import express, { type Express } from "express";
+import express, { type Express, type RequestHandler } from "express";
 import { pinoHttp } from "pino-http";
 import type { Config } from "./config.ts";
+import { attachBreaker, type DbBreaker } from "./db/breaker.ts";
 import type { Knex } from "./db/knex.ts";
 import { installAuth } from "./auth/install-auth.ts";
 import { accountsRoutes } from "./features/accounts/routes.ts";
@@ -30,6 +31,7 @@ import { createJobQueue, type JobQueue } from "./features/jobs/queue.ts";
 import { jobsRoutes } from "./features/jobs/routes.ts";
 import { jobsService } from "./features/jobs/service.ts";
 import { apiNotFound, errorMiddleware } from "./http/error-middleware.ts";
+import { precompressedAssets } from "./http/precompressed.ts";
 import { redactUrl } from "./http/redact-url.ts";
 import { RouteTable } from "./http/route.ts";
 import { textGuard } from "./http/text-guard.ts";
@@ -57,7 +59,7 @@ export interface AppDeps {
 }
 
 export interface DragomanApp extends Express {
-  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue; checkPool: CheckPool };
+  locals: Express["locals"] & { routeTable: RouteTable; mailOutbox: MailDispatcher; jobQueue: JobQueue; checkPool: CheckPool; dbBreaker: DbBreaker };
 }
 
 /** Builds the Express application. No listen here: server/index.ts and the tests do that. */
@@ -66,6 +68,12 @@ export function createApp(deps: AppDeps): DragomanApp {
   const app = express() as DragomanApp;
   const table = new RouteTable();
   app.locals.routeTable = table;
+  // Fail fast while PostgreSQL is unreachable: 503 at once, a background probe closes the breaker.
+  app.locals.dbBreaker = attachBreaker(db, {
+    probeIntervalMs: config.DB_PROBE_INTERVAL_MS,
+    onOpen: (reason) => logger.warn({ reason }, "database unreachable: answering 503 at once until a probe answers"),
+    onClose: (openForMs) => logger.info({ openForMs }, "database reachable again"),
+  });
   // The outbox route and the local mail sink exist together; config refuses DEV_OUTBOX in production.
   table.devRoutesEnabled = config.DEV_OUTBOX;
   const mailOutbox = createMailOutbox({ db, config, logger, mailer: deps.mailer });
@@ -77,6 +85,7 @@ export function createApp(deps: AppDeps): DragomanApp {
     timeoutMs: config.CHECK_TIMEOUT_MS,
     perClient: config.CHECK_IN_FLIGHT_PER_CLIENT,
     maxQueue: config.CHECK_QUEUE_MAX,
+    nice: config.WORKER_NICE,
     ...(symbolicPool ? { symbolic: () => symbolicPool } : {}),
   });
   app.locals.checkPool = checkPool;
@@ -121,13 +130,14 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", catalogueApiRoutes({ db, config, clock: deps.clock ?? (() => new Date()), mailQueued: mailOutbox.kick, checks }));
   // One translator per app: its compiled catalogue is shared by the convert and sheets routes.
   const translator = convertService(dbCatalogueReader(db));
-  table.mount(api, "/api", convertRoutes(translator, config));
+  const ringdown = ringdownCatalogue(db);
+  const ringdownTranslator = ringdownService(ringdown);
+  table.mount(api, "/api", convertRoutes(translator, config, ringdownTranslator));
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
   table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
-  const ringdown = ringdownCatalogue(db);
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
-  table.mount(api, "/api", ringdownRoutes(ringdownService(ringdown), config));
+  table.mount(api, "/api", ringdownRoutes(ringdownTranslator, config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   const forecasts = forecastsService(curvesRepository(db), getForecastPool(), translator);
   table.mount(api, "/api", forecastsRoutes(forecasts, config));
@@ -144,6 +154,8 @@ export function createApp(deps: AppDeps): DragomanApp {
 
 /**
  * Serves the built client and falls back to index.html for client routes.
+ * Files under /assets/ that the build precompressed go out as their .br or .gz twin to clients that
+ * accept it (server/http/precompressed.ts); the others are compressed on the fly.
  * Caching: files under /assets/ carry a content hash in their names (Vite), so they are cached for a
  * year and never revalidated; a missing one is a 404 (an old page asking for a chunk of a previous
  * build), never index.html. index.html is revalidated on every load (no-cache), so a new build is seen
@@ -152,10 +164,12 @@ export function createApp(deps: AppDeps): DragomanApp {
 function mountClient(app: Express, config: Config): void {
   const dist = path.resolve(config.CLIENT_DIST);
   const index = path.join(dist, "index.html");
-  app.use("/assets", express.static(path.join(dist, "assets"), { index: false, maxAge: "1y", immutable: true, fallthrough: true }));
-  app.use("/assets", (req, res) => {
+  const missing: RequestHandler = (req, res) => {
     res.status(404).type("text/plain").set("Cache-Control", "no-store").send(`No such client file: /assets${req.path}. Reload the page to get the current build.`);
-  });
+  };
+  app.use("/assets", precompressedAssets(path.join(dist, "assets"), missing));
+  app.use("/assets", express.static(path.join(dist, "assets"), { index: false, maxAge: "1y", immutable: true, fallthrough: true }));
+  app.use("/assets", missing);
   app.use(
     express.static(dist, {
       index: false,

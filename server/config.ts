@@ -47,6 +47,8 @@ export const configSchema = z
     MAIL_RETRY_MAX_MS: z.coerce.number().int().min(0).default(3_600_000),
     MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(10),
     MAIL_SWEEP_MS: z.coerce.number().int().min(100).default(30_000),
+    // While the database cannot be reached, queries fail at once and a probe runs this often (server/db/breaker.ts).
+    DB_PROBE_INTERVAL_MS: z.coerce.number().int().min(50).default(1000),
     RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(120),
     // Expression checks run in worker threads (server/physics/checks/check-pool.ts): how many, the hard
     // time limit of one job, the requests one client (address or account) may have in flight, and how
@@ -57,6 +59,9 @@ export const configSchema = z
     CHECK_TIMEOUT_MS: z.coerce.number().int().min(100).default(8000),
     CHECK_IN_FLIGHT_PER_CLIENT: z.coerce.number().int().min(1).default(2),
     CHECK_QUEUE_MAX: z.coerce.number().int().min(1).default(32),
+    // Scheduling priority (Linux nice, 0-19) of the check and symbolic worker threads: above 0 the
+    // threads that answer requests (and PostgreSQL) get the cores first when checks keep them busy.
+    WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
     // Largest CSV accepted by POST /api/v1/convert/table (bytes); 256 kB is some thousand rows.
     CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),
     // Largest body (JSON columns or CSV upload) accepted by POST /api/v1/convert/samples (bytes); 32 MiB holds 200 000 samples of six columns.

@@ -4,7 +4,7 @@ import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
 import { createLogger } from "./logger.ts";
 import { closeForecastPool } from "./features/forecasts/pool.ts";
-import { closeSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
+import { closeSymbolicPool, configureSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
 
 export interface RunningServer {
   server: Server;
@@ -34,6 +34,7 @@ export function createHttpServer(app: RequestListener, config: Pick<Config, "REQ
 /** Starts the HTTP server. Used by scripts/stack.ts (npm start) and by production (node --import tsx server/index.ts). */
 export async function startServer(config: Config, extra: Partial<AppDeps> = {}): Promise<RunningServer> {
   const logger = extra.logger ?? createLogger(config);
+  configureSymbolicPool({ nice: config.WORKER_NICE });
   const db = extra.db ?? createDb(config.DATABASE_URL);
   const app = createApp({ db, config, logger, ...extra });
   const server = await new Promise<Server>((resolve, reject) => {
@@ -65,7 +66,10 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
       await app.locals.jobQueue.stop();
       await closeSymbolicPool();
       await closeForecastPool();
-      if (!extra.db) await db.destroy();
+      if (!extra.db) {
+        app.locals.dbBreaker.stop();
+        await db.destroy();
+      }
     })());
   return { server, url, close };
 }

@@ -116,7 +116,7 @@ export const edgb: TheoryEntry = {
       reference: REFS.yagi2012.key,
       source_status: "memory",
       convention: "A",
-      note: "orbital decay of a low-mass X-ray binary",
+      note: "orbital decay of a low-mass X-ray binary (A0620-00). No credibility: the abstract calls it a conservative bound and states no credible level.",
     },
     {
       coupling: "alpha",
@@ -127,7 +127,7 @@ export const edgb: TheoryEntry = {
       reference: REFS.perkins2021.key,
       source_status: "confirmed",
       convention: "A",
-      note: "stacking GWTC-1/2 events",
+      note: "stacking GWTC-1/2 events. No credibility yet: the abstract states the value without its credible level; to be read in the paper.",
     },
     {
       coupling: "alpha",
@@ -285,7 +285,8 @@ export const bransDicke: TheoryEntry = {
       side: "lower",
       reference: REFS.bertottiIessTortora2003.key,
       source_status: "memory",
-      note: "Shapiro delay of the Cassini radio link (Solar System, not a GW bound)",
+      credibility: 0.95,
+      note: "Shapiro delay of the Cassini radio link (Solar System, not a GW bound). 95 %: Alsing, Berti, Will & Zaglauer 2012 (arXiv:1112.4903) quote omega_BD > 40000 to 95 % confidence in their abstract (the massless limit of their theory); it is the 2-sigma end of gamma - 1 = (2.1 +- 2.3) x 10^-5 (value from memory), since 1 - gamma = 1/(2 + omega_BD).",
     },
   ],
   needs_source_confirmation: true,

@@ -46,6 +46,16 @@ export const RINGDOWN_REFS = {
     note: "Fractional shifts of the QNM frequencies and damping times as free parameters.",
     details_from_memory: true,
   },
+  ghosh2016: {
+    key: "ghosh-et-al-2016",
+    arxiv: "1602.02453",
+    authors: ["A. Ghosh", "A. Ghosh", "N. K. Johnson-McDaniel", "C. K. Mishra", "P. Ajith", "W. Del Pozzo", "D. A. Nichols", "Y. Chen", "A. B. Nielsen", "C. P. L. Berry", "L. London"],
+    title: "Testing general relativity using golden black-hole binaries",
+    year: 2016,
+    journal: "Phys. Rev. D 94, 021101",
+    note: "Deviation variables of the remnant's mass and spin between the inspiral and merger-ringdown estimates.",
+    details_from_memory: true,
+  },
   johannsenPsaltis2011: {
     key: "johannsen-psaltis-2011",
     authors: ["T. Johannsen", "D. Psaltis"],
@@ -101,6 +111,54 @@ export const ringdownDeviation: TheoryEntryInput = {
     }),
   ],
   references: [RINGDOWN_REFS.gossan2012, RINGDOWN_REFS.bertiCardosoWill2006],
+  needs_source_confirmation: true,
+};
+
+/**
+ * The remnant counterpart of ringdown-deviation: a theory's shift of the true remnant's mass and spin,
+ * as free parameters. With it the consistency page can ask which remnant shift a test would exclude,
+ * and a theory's remnant mappings have a theory-agnostic reference point.
+ */
+export const remnantDeviation: TheoryEntryInput = {
+  slug: "remnant-deviation",
+  name: "Parameterised remnant deviation (theory-agnostic)",
+  kind: "theory",
+  family: "other",
+  summary:
+    "Fractional shifts of the remnant black hole's mass and spin away from the values general relativity predicts for the same binary, M_f = M_f,GR (1 + dMf_rem), chi_f = chi_f,GR (1 + dchif_rem). Not a theory: the entry lets the consistency page ask which remnant shift an inspiral-merger-ringdown test would exclude.",
+  assumptions: [
+    "the remnant is still a Kerr black hole (its modes are Kerr modes at the shifted mass and spin)",
+    "small shifts, read against the GR remnant fits for the same binary",
+  ],
+  couplings: [
+    { symbol: "dMf_rem", latex: "\\delta\\hat M_f", dimension: 0, unit: "1", range: "any_sign", gr_value: "zero", description: "fractional shift of the remnant mass" },
+    { symbol: "dchif_rem", latex: "\\delta\\hat\\chi_f", dimension: 0, unit: "1", range: "any_sign", gr_value: "zero", description: "fractional shift of the remnant spin" },
+  ],
+  mappings: [
+    {
+      kind: "remnant_mass",
+      coupling: "dMf_rem",
+      expression: "dMf_rem",
+      latex: "\\delta M_f/M_f = \\delta\\hat M_f",
+      held_fixed: { dchif_rem: 0 },
+      validity: [{ expression: "abs(dMf_rem)", max: 0.3, label: "shift small against the remnant mass", kind: "rule_of_thumb", reference: "project choice" }],
+      source_status: "confirmed",
+      references: ["ghosh-et-al-2016"],
+      notes: "Identity mapping: the coupling is the shift.",
+    },
+    {
+      kind: "remnant_spin",
+      coupling: "dchif_rem",
+      expression: "dchif_rem",
+      latex: "\\delta\\chi_f/\\chi_f = \\delta\\hat\\chi_f",
+      held_fixed: { dMf_rem: 0 },
+      validity: [{ expression: "abs(dchif_rem)", max: 0.3, label: "shift small against the remnant spin", kind: "rule_of_thumb", reference: "project choice" }],
+      source_status: "confirmed",
+      references: ["ghosh-et-al-2016"],
+      notes: "Identity mapping: the coupling is the shift.",
+    },
+  ],
+  references: [RINGDOWN_REFS.ghosh2016],
   needs_source_confirmation: true,
 };
 

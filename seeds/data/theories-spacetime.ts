@@ -57,7 +57,7 @@ export const noncommutative: TheoryEntry = {
       side: "upper",
       reference: REFS.kobakhidzeLaggerManning2016.key,
       source_status: "confirmed",
-      note: "GW150914: sqrt(Lambda) < 3.5 (abstract), i.e. Lambda^2 < 3.5^4 = 150",
+      note: "GW150914: sqrt(Lambda) < 3.5 (abstract), i.e. Lambda^2 < 3.5^4 = 150. No credibility: the abstract writes the bound as sqrt(Lambda) of order 3.5 or less and states no credible level.",
     },
   ],
   needs_source_confirmation: true,

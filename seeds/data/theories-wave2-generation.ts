@@ -11,18 +11,10 @@
  * d phi_4 gives beta = (3/128) eta^(-4/5) d phi_4 at b = -1.
  */
 import type { TheoryEntryInput } from "../../common/catalogue.ts";
-import { FIRST, WAVE2_REFS } from "./references-wave2.ts";
+import { defineEntry, dipoleAtLowEnd, dipoleMapping, QM_PREFACTOR, ruleOfThumb } from "./entry-parts.ts";
+import { FIRST, WAVE2_LIBRARY, WAVE2_REFS } from "./references-wave2.ts";
 
-/** Dipole-to-quadrupole flux ratio B v^-2 at the band's low end, v = (pi M f_low)^(1/3). */
-const dipoleAtLowEnd = (B: string) => ({
-  expression: `${B}*(pi*M*f_low)^(-2/3)`,
-  max: 0.1,
-  label: "dipole flux small against the quadrupole flux over the band: B v^-2 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
-  kind: "rule_of_thumb" as const,
-  reference: "project choice: 0.1 stands for 'much less than 1'",
-});
-
-export const varyingGSensitivities: TheoryEntryInput = {
+export const varyingGSensitivities: TheoryEntryInput = defineEntry({
   slug: "varying-g-sensitivities",
   name: "Time-varying Newton constant with body sensitivities",
   family: "varying-constants",
@@ -69,13 +61,9 @@ export const varyingGSensitivities: TheoryEntryInput = {
         },
       ],
       validity: [
-        {
-          expression: "abs(Gdot)*tau",
-          max: 0.1,
-          label: "G changes little while the signal is in band: |Gdot/G| tau below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)",
-          kind: "rule_of_thumb",
+        ruleOfThumb("abs(Gdot)*tau", "G changes little while the signal is in band: |Gdot/G| tau below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)", {
           reference: "in-band time at leading order (common practice); project choice: 0.1 stands for 'much less than 1'",
-        },
+        }),
       ],
       source_status: "derived",
       references: [WAVE2_REFS.nordtvedt1990.key, FIRST.tahuraYagi.key, FIRST.yps2010.key],
@@ -83,7 +71,6 @@ export const varyingGSensitivities: TheoryEntryInput = {
         "Our own derivation under the stated assumptions; Tahura & Yagi 2018 give a general form with sensitivities that an editor should compare (value from memory that it exists). For two black holes (s = 1/2): 11 - 21 + 3.5 = -6.5, the opposite sign to the no-sensitivity case.",
     },
   ],
-  references: [WAVE2_REFS.nordtvedt1990, FIRST.tahuraYagi, FIRST.yps2010, FIRST.will1994, WAVE2_REFS.hofmannMuller2018],
   reference_bounds: [
     {
       coupling: "Gdot",
@@ -99,9 +86,51 @@ export const varyingGSensitivities: TheoryEntryInput = {
     },
   ],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);
 
-export const vectorCharges: TheoryEntryInput = {
+/** The difference of the bodies' vector charge-to-mass ratios, shared by the massless and massive vector-charge entries. */
+export const DQ_COUPLING = {
+  symbol: "dq",
+  latex: "|q_1 - q_2|",
+  dimension: 0,
+  unit: "1",
+  description: "difference of the bodies' charge-to-mass ratios (a property of the binary)",
+  quoted: { form: "identity", symbol: "dq", latex: "|q_1 - q_2|", unit: "1" },
+  range: "non_negative",
+  gr_value: "zero",
+} as const;
+
+/** The -1PN Larmor dipole of vector charges, (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10, with its body rule and validity. */
+export function larmorDipole(fields: { references: string[]; notes: string; caution?: string }) {
+  return dipoleMapping({
+    coupling: "dq",
+    expression: "-(5/3584)*eta^(2/5)*dq^2",
+    latex: "\\beta = -\\frac{5}{3584}\\,\\eta^{2/5}\\,(q_1 - q_2)^2",
+    B: "(5/48)*dq^2",
+    flux_note: "F_dip = (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/48)(q1 - q2)^2 (our own derivation; Larmor formula)",
+    body_rules: [
+      {
+        kind: "charge",
+        description: "any body may carry a charge (black holes keep a gauge charge); astrophysical black holes are expected to be nearly neutral electrically, so the electric case mostly tests exotic charging",
+        bodies: ["bh", "ns"],
+      },
+    ],
+    validity: [
+      dipoleAtLowEnd("(5/48)*dq^2"),
+      {
+        expression: "dq/2",
+        max: 1,
+        label: "each black hole below extremality: |q_i| <= 1, so |q1 - q2| <= 2",
+        kind: "hard",
+        reference: "Reissner-Nordstrom extremality (common practice)",
+      },
+    ],
+    source_status: "derived",
+    ...fields,
+  });
+}
+
+export const vectorCharges: TheoryEntryInput = defineEntry({
   slug: "vector-charges",
   name: "Massless vector charges (electric or dark U(1)) on compact bodies",
   family: "other",
@@ -112,59 +141,17 @@ export const vectorCharges: TheoryEntryInput = {
     "the Coulomb-like force changes Kepler's law by (1 - q1 q2) at 0PN, which the measured chirp mass absorbs; corrections to the dipole of order q1 q2 (q1 - q2)^2 are dropped",
     "dipole flux (2/3) mu^2 (q1 - q2)^2 (M/r^2)^2 (Larmor), twice the scalar dipole flux for the same charges",
   ],
-  couplings: [
-    {
-      symbol: "dq",
-      latex: "|q_1 - q_2|",
-      dimension: 0,
-      unit: "1",
-      description: "difference of the bodies' charge-to-mass ratios (a property of the binary)",
-      quoted: { form: "identity", symbol: "dq", latex: "|q_1 - q_2|", unit: "1" },
-      range: "non_negative",
-      gr_value: "zero",
-    },
-  ],
+  couplings: [DQ_COUPLING],
   mappings: [
-    {
-      kind: "inspiral_phase",
-      pn_order: -1,
-      b: -7,
-      expression: "-(5/3584)*eta^(2/5)*dq^2",
-      latex: "\\beta = -\\frac{5}{3584}\\,\\eta^{2/5}\\,(q_1 - q_2)^2",
-      derivation: {
-        kind: "energy_flux",
-        order: -1,
-        A: "0",
-        B: "(5/48)*dq^2",
-        note: "F_dip = (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/48)(q1 - q2)^2 (our own derivation; Larmor formula)",
-      },
-      body_rules: [
-        {
-          kind: "charge",
-          description: "any body may carry a charge (black holes keep a gauge charge); astrophysical black holes are expected to be nearly neutral electrically, so the electric case mostly tests exotic charging",
-          bodies: ["bh", "ns"],
-        },
-      ],
-      validity: [
-        dipoleAtLowEnd("(5/48)*dq^2"),
-        {
-          expression: "dq/2",
-          max: 1,
-          label: "each black hole below extremality: |q_i| <= 1, so |q1 - q2| <= 2",
-          kind: "hard",
-          reference: "Reissner-Nordstrom extremality (common practice)",
-        },
-      ],
-      source_status: "derived",
+    larmorDipole({
       references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
       notes: "The coupling is the charge difference of the binary analysed: a limit holds for that binary, not for a universal charge.",
-    },
+    }),
   ],
-  references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016, FIRST.yyp2016],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY, [FIRST.yyp2016]);
 
-export const scalarGaussBonnetGeneral: TheoryEntryInput = {
+export const scalarGaussBonnetGeneral: TheoryEntryInput = defineEntry({
   slug: "sgb-general",
   name: "Scalar-Gauss-Bonnet gravity with a general coupling function f(phi)",
   family: "quadratic-gravity",
@@ -192,19 +179,11 @@ export const scalarGaussBonnetGeneral: TheoryEntryInput = {
   ],
   definitions: [{ symbol: "zeta", expression: "16*pi*alpha_f^2/M^4", latex: "\\zeta = 16\\pi\\,[\\alpha f'(\\phi_0)]^2/M^4" }],
   mappings: [
-    {
-      kind: "inspiral_phase",
-      pn_order: -1,
-      b: -7,
+    dipoleMapping({
       expression: "-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))",
       latex: "\\beta = -\\frac{5}{7168}\\,\\zeta\\,\\frac{(m_1^2 s_2 - m_2^2 s_1)^2}{M^4\\,\\eta^{18/5}}",
-      derivation: {
-        kind: "energy_flux",
-        order: -1,
-        A: "0",
-        B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
-        note: "scalar dipole flux of the black holes' charges, as in the linear theory with alpha -> alpha f'(phi_0)",
-      },
+      B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
+      flux_note: "scalar dipole flux of the black holes' charges, as in the linear theory with alpha -> alpha f'(phi_0)",
       body_rules: [
         {
           kind: "charge",
@@ -212,21 +191,14 @@ export const scalarGaussBonnetGeneral: TheoryEntryInput = {
           bodies: ["bh", "ns"],
         },
       ],
-      validity: ([1, 2] as const).map((i) => ({
-        expression: `16*pi*alpha_f^2/m${i}^4`,
-        max: 0.1,
-        label: `small coupling on body ${i}: 16 pi (alpha f')^2 / m${i}^4 well below 1`,
-        kind: "rule_of_thumb" as const,
-        reference: "project choice: 0.1 stands for 'much less than 1'",
-        body: i,
-        applies_to: ["bh" as const],
-      })),
+      validity: ([1, 2] as const).map((i) =>
+        ruleOfThumb(`16*pi*alpha_f^2/m${i}^4`, `small coupling on body ${i}: 16 pi (alpha f')^2 / m${i}^4 well below 1`, { body: i, applies_to: ["bh"] }),
+      ),
       source_status: "derived",
       references: [WAVE2_REFS.julieBerti2019.key, FIRST.yyp2016.key],
       notes: "Equal-mass, equal-spin black holes give beta = 0 (no constraint). Higher orders in alpha depend on f''(phi_0) and beyond.",
-    },
+    }),
   ],
-  references: [WAVE2_REFS.julieBerti2019, FIRST.yyp2016, FIRST.lyu2022],
   reference_bounds: [
     {
       coupling: "alpha_f",
@@ -243,12 +215,9 @@ export const scalarGaussBonnetGeneral: TheoryEntryInput = {
     },
   ],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);
 
-/** beta of a 2PN change d phi_4 of the phase coefficient: (3/128) eta^(-4/5) d phi_4. */
-const QM_PREFACTOR = "-(75/64)*eta^(-4/5)";
-
-export const spinInducedQuadrupole: TheoryEntryInput = {
+export const spinInducedQuadrupole: TheoryEntryInput = defineEntry({
   slug: "spin-induced-quadrupole",
   name: "Spin-induced quadrupole moment (black-hole mimickers)",
   kind: "parameterized_spacetime",
@@ -281,13 +250,10 @@ export const spinInducedQuadrupole: TheoryEntryInput = {
       latex: "\\beta = -\\frac{75}{64}\\,\\eta^{-4/5}\\,\\delta\\kappa_s\\,\\frac{m_1^2\\chi_1^2 + m_2^2\\chi_2^2}{M^2}",
       body_rules: [{ kind: "derived_for", description: "compact objects whose quadrupole follows their spin; Kerr black holes have dkappa = 0", bodies: ["bh", "ns"] }],
       validity: [
-        {
-          expression: "50*abs(dkappa_s)*(m1^2*chi1^2 + m2^2*chi2^2)/(36*M^2)",
-          max: 0.1,
-          label: "the deviation stays a perturbation of the phase at the ISCO: 50 |dkappa| sum (m_i chi_i / M)^2 v^4 below 0.1 at v^2 = 1/6",
-          kind: "rule_of_thumb",
-          reference: "project choice: 0.1 stands for 'much less than 1'",
-        },
+        ruleOfThumb(
+          "50*abs(dkappa_s)*(m1^2*chi1^2 + m2^2*chi2^2)/(36*M^2)",
+          "the deviation stays a perturbation of the phase at the ISCO: 50 |dkappa| sum (m_i chi_i / M)^2 v^4 below 0.1 at v^2 = 1/6",
+        ),
       ],
       source_status: "derived",
       references: [WAVE2_REFS.krishnendu2017.key, WAVE2_REFS.poisson1998.key],
@@ -295,11 +261,10 @@ export const spinInducedQuadrupole: TheoryEntryInput = {
         "From the 2PN coefficient phi_4 = ... - sum_i (50 kappa_i + 5/8) (m_i/M)^2 chi_i^2 (aligned spins): d phi_4 = -50 dkappa sum_i (m_i/M)^2 chi_i^2 and beta = (3/128) eta^(-4/5) d phi_4. Non-spinning binaries give beta = 0 (no constraint).",
     },
   ],
-  references: [WAVE2_REFS.krishnendu2017, WAVE2_REFS.poisson1998],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);
 
-export const quasiKerrQuadrupole: TheoryEntryInput = {
+export const quasiKerrQuadrupole: TheoryEntryInput = defineEntry({
   slug: "quasi-kerr-quadrupole",
   name: "Quasi-Kerr quadrupole deviation (bumpy black holes)",
   kind: "parameterized_spacetime",
@@ -330,26 +295,17 @@ export const quasiKerrQuadrupole: TheoryEntryInput = {
       expression: `${QM_PREFACTOR}*eps_Q*(m1^2 + m2^2)/M^2`,
       latex: "\\beta = -\\frac{75}{64}\\,\\eta^{-4/5}\\,\\epsilon\\,\\frac{m_1^2 + m_2^2}{M^2}",
       body_rules: [{ kind: "derived_for", description: "deformed black holes (each with its own quadrupole deviation epsilon m_i^3)", bodies: ["bh"] }],
-      validity: [
-        {
-          expression: "abs(eps_Q)",
-          max: 1,
-          label: "small deformation: |epsilon| below 1",
-          kind: "rule_of_thumb",
-          reference: "project choice",
-        },
-      ],
+      validity: [ruleOfThumb("abs(eps_Q)", "small deformation: |epsilon| below 1", { max: 1, reference: "project choice" })],
       source_status: "derived",
       references: [WAVE2_REFS.glampedakisBabak2006.key, WAVE2_REFS.poisson1998.key],
       notes:
         "The quadrupole-monopole term of phi_4 is -50 (-Q_i / m_i^3)(m_i/M)^2 per body; with -Q_i/m_i^3 = chi_i^2 + epsilon the epsilon part is d phi_4 = -50 epsilon (m1^2 + m2^2)/M^2, so beta = (3/128) eta^(-4/5) d phi_4 (our own derivation).",
     },
   ],
-  references: [WAVE2_REFS.glampedakisBabak2006, WAVE2_REFS.poisson1998],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);
 
-export const scalarizedNeutronStar: TheoryEntryInput = {
+export const scalarizedNeutronStar: TheoryEntryInput = defineEntry({
   slug: "scalarized-neutron-star",
   name: "Scalar-tensor theory with a scalarized neutron star (neutron-star - black-hole binaries)",
   family: "scalar-tensor",
@@ -375,19 +331,11 @@ export const scalarizedNeutronStar: TheoryEntryInput = {
     },
   ],
   mappings: [
-    {
-      kind: "inspiral_phase",
-      pn_order: -1,
-      b: -7,
+    dipoleMapping({
       expression: "-(5/7168)*eta^(2/5)*alpha_NS^2",
       latex: "\\beta = -\\frac{5}{7168}\\,\\eta^{2/5}\\,\\alpha_A^2",
-      derivation: {
-        kind: "energy_flux",
-        order: -1,
-        A: "0",
-        B: "(5/96)*alpha_NS^2",
-        note: "F_dip = (1/3) eta^2 v^8 alpha_A^2 against (32/5) eta^2 v^10: B = (5/96) alpha_A^2 (derived from the dipole flux)",
-      },
+      B: "(5/96)*alpha_NS^2",
+      flux_note: "F_dip = (1/3) eta^2 v^8 alpha_A^2 against (32/5) eta^2 v^10: B = (5/96) alpha_A^2 (derived from the dipole flux)",
       body_rules: [
         { kind: "derived_for", description: "a neutron star with a black-hole companion (alpha_BH = 0); for two neutron stars the difference alpha_A - alpha_B enters instead", bodies: ["bh", "ns"] },
       ],
@@ -395,13 +343,12 @@ export const scalarizedNeutronStar: TheoryEntryInput = {
       source_status: "derived",
       references: [WAVE2_REFS.damourEspositoFarese1996.key, WAVE2_REFS.damourEspositoFarese1993.key],
       notes: "The same flux normalisation as the Brans-Dicke entry, where alpha_A = (1 - 2 s_A)/sqrt(2 omega_BD + 3).",
-    },
+    }),
   ],
-  references: [WAVE2_REFS.damourEspositoFarese1993, WAVE2_REFS.damourEspositoFarese1996, FIRST.will1994],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY, [FIRST.will1994]);
 
-export const ecoTidal: TheoryEntryInput = {
+export const ecoTidal: TheoryEntryInput = defineEntry({
   slug: "eco-tidal-deformability",
   name: "Tidal deformability of black-hole mimickers (exotic compact objects)",
   family: "other",
@@ -439,25 +386,16 @@ export const ecoTidal: TheoryEntryInput = {
         note: "tidal binding energy -9 (m_j/m_i) Lambda_i (m_i/M)^5 v^10 and flux 6 (1 + 2 m_j/M)(m_i/M)^4 Lambda_i v^10 per deformed body (Flanagan & Hinderer 2008; Vines, Flanagan & Hinderer 2011; values from memory); they reproduce the -(39/2) Lambda-tilde v^10 phase coefficient",
       },
       body_rules: [{ kind: "derived_for", description: "horizonless compact objects of one kind; a black hole has Lambda = 0", bodies: ["bh", "ns"] }],
-      validity: [
-        {
-          expression: "(39/2)*abs(Lambda_eco)/6^5",
-          max: 0.1,
-          label: "the tidal term stays a correction at the ISCO: (39/2) |Lambda| v^10 below 0.1 at v^2 = 1/6",
-          kind: "rule_of_thumb",
-          reference: "project choice: 0.1 stands for 'much less than 1'",
-        },
-      ],
+      validity: [ruleOfThumb("(39/2)*abs(Lambda_eco)/6^5", "the tidal term stays a correction at the ISCO: (39/2) |Lambda| v^10 below 0.1 at v^2 = 1/6")],
       source_status: "memory",
       references: [WAVE2_REFS.flanaganHinderer2008.key, WAVE2_REFS.vinesFlanaganHinderer2011.key, WAVE2_REFS.cardosoEtAl2017.key],
       notes: "For equal masses Lambda-tilde = Lambda. A neutron star is such an object too, but its Lambda depends on its mass: use a tidal analysis for neutron stars.",
     },
   ],
-  references: [WAVE2_REFS.flanaganHinderer2008, WAVE2_REFS.vinesFlanaganHinderer2011, WAVE2_REFS.cardosoEtAl2017],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);
 
-export const scalarCharges: TheoryEntryInput = {
+export const scalarCharges: TheoryEntryInput = defineEntry({
   slug: "scalar-charges",
   name: "Massless scalar charges (dark scalar fifth force) on compact bodies",
   family: "scalar-tensor",
@@ -481,25 +419,16 @@ export const scalarCharges: TheoryEntryInput = {
     },
   ],
   mappings: [
-    {
-      kind: "inspiral_phase",
-      pn_order: -1,
-      b: -7,
+    dipoleMapping({
       expression: "-(5/7168)*eta^(2/5)*dqs^2",
       latex: "\\beta = -\\frac{5}{7168}\\,\\eta^{2/5}\\,(q^{s}_1 - q^{s}_2)^2",
-      derivation: {
-        kind: "energy_flux",
-        order: -1,
-        A: "0",
-        B: "(5/96)*dqs^2",
-        note: "F_dip = (1/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/96)(q1 - q2)^2 (derived)",
-      },
+      B: "(5/96)*dqs^2",
+      flux_note: "F_dip = (1/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/96)(q1 - q2)^2 (derived)",
       body_rules: [{ kind: "charge", description: "any body may carry a scalar charge in such a theory; Kerr black holes of GR carry none", bodies: ["bh", "ns"] }],
       validity: [dipoleAtLowEnd("(5/96)*dqs^2")],
       source_status: "derived",
       references: [FIRST.will1994.key, FIRST.yyp2016.key],
       notes: "The coupling is the charge difference of the binary analysed: a limit holds for that binary. Brans-Dicke is the case q_i = (1 - 2 s_i)/sqrt(2 omega_BD + 3).",
-    },
+    }),
   ],
-  references: [FIRST.will1994, FIRST.yyp2016],
-};
+}, WAVE2_LIBRARY);

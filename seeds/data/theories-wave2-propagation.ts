@@ -11,12 +11,20 @@
  * u, so no ppE bound at one b constrains it (the engine's derivation refuses it and says so).
  */
 import type { TheoryEntryInput } from "../../common/catalogue.ts";
-import { FIRST, WAVE2_REFS } from "./references-wave2.ts";
+import { defineEntry, intervalBounds, ruleOfThumb } from "./entry-parts.ts";
+import { FIRST, WAVE2_LIBRARY, WAVE2_REFS } from "./references-wave2.ts";
+
+/**
+ * The GW170817 speed interval has no credibility on purpose: it is not a credible interval but the range
+ * allowed by the 1.74 s delay and an assumed emission delay of 0 to 10 s, asymmetric for that reason.
+ */
+const GW170817_SPEED_NOTE =
+  "no credibility on purpose: not a credible interval, but the range allowed by the 1.74 s delay between the signals and an assumed emission delay of 0 to 10 s (hence asymmetric)";
 
 const FRAME_NOTE =
   "Mc is the source-frame chirp mass and D_alpha carries the (1+z) factors (Mirshekari, Yunes & Will 2012); the converter derives source-frame masses from detector-frame input, so both inputs agree.";
 
-export const dispersionA35: TheoryEntryInput = {
+export const dispersionA35: TheoryEntryInput = defineEntry({
   slug: "dispersion-a3p5",
   name: "Modified dispersion relation, α = 3.5",
   family: "lorentz-violating",
@@ -56,23 +64,20 @@ export const dispersionA35: TheoryEntryInput = {
         note: "A / h^(2 - alpha) = sgn(lambda_A) |lambda_A|^(alpha - 2) = sgn(lambda_A) |lambda_A|^1.5; the engine re-derives beta from the dispersion relation",
       },
       validity: [
-        {
-          expression: "(abs(lambda_A35)/(6^(3/2)*pi*M))^(1.5)",
-          max: 0.01,
-          label: "A p^(alpha - 2) << 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest (alpha > 2)",
-          kind: "rule_of_thumb",
-          reference: "project choice: 0.01 stands for 'much less than 1'",
-        },
+        ruleOfThumb(
+          "(abs(lambda_A35)/(6^(3/2)*pi*M))^(1.5)",
+          "A p^(alpha - 2) << 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest (alpha > 2)",
+          { max: 0.01 },
+        ),
       ],
       source_status: "derived",
       references: [FIRST.mirshekari.key],
       notes: "Upper bound on |lambda_A| and on |A|; a signed interval on beta maps to a signed interval on A.",
     },
   ],
-  references: [FIRST.mirshekari, FIRST.lvkGwtc3],
-};
+}, WAVE2_LIBRARY, [FIRST.lvkGwtc3]);
 
-export const gwSpeed: TheoryEntryInput = {
+export const gwSpeed: TheoryEntryInput = defineEntry({
   slug: "gw-speed",
   name: "Speed of gravitational waves (frequency independent)",
   family: "lorentz-violating",
@@ -110,49 +115,29 @@ export const gwSpeed: TheoryEntryInput = {
         A: "-2*delta_cg",
         note: "E^2 = (1 + A) p^2 gives v = 1 - A/2, so A = -2 (c_g - c)/c at alpha = 2; the engine re-derives beta and notes the degeneracy",
       },
-      validity: [
-        {
-          expression: "abs(delta_cg)",
-          max: 0.01,
-          label: "|c_g - c| << c",
-          kind: "rule_of_thumb",
-          reference: "project choice: 0.01 stands for 'much less than 1'",
-        },
-      ],
+      validity: [ruleOfThumb("abs(delta_cg)", "|c_g - c| << c", { max: 0.01 })],
       source_status: "derived",
       references: [FIRST.mirshekari.key],
       notes: "b = 3 is degenerate with the coalescence time: this mapping documents the term, and the translator gives no limit from a phase bound. Use the GW-EM arrival-time bound.",
     },
   ],
-  references: [FIRST.mirshekari, WAVE2_REFS.gw170817Grb],
-  reference_bounds: [
+  reference_bounds: intervalBounds(
     {
       coupling: "delta_cg",
       quoted_symbol: "delta_cg",
-      value: 7e-16,
       unit: "1",
-      side: "upper",
       data: "GW170817 and GRB 170817A arrival times, emission delay 0-10 s assumed",
       reference: WAVE2_REFS.gw170817Grb.key,
       source_status: "memory",
-      note: "not a credible interval: the range follows from the 1.74 s delay and an assumed emission delay of 0 to 10 s",
+      note: GW170817_SPEED_NOTE,
     },
-    {
-      coupling: "delta_cg",
-      quoted_symbol: "delta_cg",
-      value: -3e-15,
-      unit: "1",
-      side: "lower",
-      data: "GW170817 and GRB 170817A arrival times, emission delay 0-10 s assumed",
-      reference: WAVE2_REFS.gw170817Grb.key,
-      source_status: "memory",
-      note: "not a credible interval: the range follows from the 1.74 s delay and an assumed emission delay of 0 to 10 s",
-    },
-  ],
+    -3e-15,
+    7e-16,
+  ),
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);
 
-export const massiveGravitonTwoOrders: TheoryEntryInput = {
+export const massiveGravitonTwoOrders: TheoryEntryInput = defineEntry({
   slug: "massive-graviton-yukawa",
   name: "Massive graviton at two orders: propagation and Yukawa binding",
   family: "massive-gravity",
@@ -186,15 +171,7 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = {
       latex: "\\beta_{-3} = -\\frac{\\pi^2 D_0\\,\\mathcal{M}}{\\lambda_g^2}",
       frame_note: FRAME_NOTE,
       derivation: { kind: "propagation", order: 1, A: "1/lambda_g^2", note: "A = m_g^2 = (h/lambda_g)^2 at alpha = 0 (Will 1998)" },
-      validity: [
-        {
-          expression: "1/(f_low*lambda_g)",
-          max: 0.01,
-          label: "h f >> m_g c^2 over the band: the GW wavelength at f_low far below lambda_g",
-          kind: "rule_of_thumb",
-          reference: "project choice: 0.01 stands for 'much less than 1'",
-        },
-      ],
+      validity: [ruleOfThumb("1/(f_low*lambda_g)", "h f >> m_g c^2 over the band: the GW wavelength at f_low far below lambda_g", { max: 0.01 })],
       source_status: "derived",
       references: [FIRST.will1998.key],
       notes: "The same term as the 'massive-graviton' entry, listed here beside the binding term of the same coupling.",
@@ -212,22 +189,13 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = {
         B: "-(2/3)*M^2/lambda_g^2",
         note: "Potential -(M/r)(1 + r^2/(2 lambda_g^2)) up to a constant: omega^2 = (M/r^3)(1 - x/2), x = r^2/lambda_g^2; then M/r = v^2 (1 + x/6), E = -(1/2) mu v^2 [1 + (5/3) x] and the quadrupole flux (32/5) eta^2 v^10 [1 - (2/3) x], x = M^2 v^-4 / lambda_g^2 (our own derivation)",
       },
-      validity: [
-        {
-          expression: "M*(pi*M*f_low)^(-2/3)/lambda_g",
-          max: 0.1,
-          label: "orbit well inside the Yukawa range: r/lambda_g small at the band's low end, r = M (pi M f_low)^(-2/3)",
-          kind: "rule_of_thumb",
-          reference: "project choice: 0.1 stands for 'much less than 1'",
-        },
-      ],
+      validity: [ruleOfThumb("M*(pi*M*f_low)^(-2/3)/lambda_g", "orbit well inside the Yukawa range: r/lambda_g small at the band's low end, r = M (pi M f_low)^(-2/3)")],
       source_status: "derived",
       references: [WAVE2_REFS.deRham2017.key, FIRST.will1998.key],
       notes:
         "Our own derivation from a pure Yukawa potential. Applies only to massive-gravity theories without screening: in dRGT-type theories the Vainshtein mechanism suppresses this term. A ppE bound at b = -9 constrains it alone, the b = -3 term is left out (and vice versa); the propagation term is the usual GW bound.",
     },
   ],
-  references: [FIRST.will1998, WAVE2_REFS.deRham2017, WAVE2_REFS.bernus2019],
   reference_bounds: [
     {
       coupling: "lambda_g",
@@ -243,4 +211,4 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = {
     },
   ],
   needs_source_confirmation: true,
-};
+}, WAVE2_LIBRARY);

@@ -3,7 +3,9 @@
  * the error middleware answers 503 with Retry-After (try again shortly) instead of a 500 (our bug).
  * Covers: connection refused/reset/timed out (node-postgres), knex's pool acquisition timeout, a
  * connection the server ended (shutdown, crash, restart), and PostgreSQL's own "connection exception"
- * (class 08) and "operator intervention" (class 57P) codes.
+ * (class 08) and "operator intervention" (class 57P) codes, node-postgres's own connection time-out
+ * ("timeout expired": the server accepted the connection but never answered), and the circuit
+ * breaker's refusal while the database is known to be unreachable (server/db/breaker.ts).
  */
 const NETWORK_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "EHOSTUNREACH", "ENETUNREACH", "ENOTFOUND", "EAI_AGAIN"]);
 const MESSAGES = [
@@ -11,6 +13,7 @@ const MESSAGES = [
   /^Connection terminated/,
   /^Connection ended unexpectedly/,
   /^timeout exceeded when trying to connect/,
+  /^timeout expired$/,
   /terminating connection due to/,
   /the database system is (starting up|shutting down|in recovery mode)/,
   /^Client has encountered a connection error/,
@@ -19,7 +22,7 @@ const MESSAGES = [
 export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
   if (typeof err !== "object" || err === null || depth > 3) return false;
   const e = err as { name?: string; code?: unknown; message?: unknown; cause?: unknown; errors?: unknown };
-  if (e.name === "KnexTimeoutError") return true;
+  if (e.name === "KnexTimeoutError" || e.name === "DatabaseUnavailableError") return true;
   if (typeof e.code === "string") {
     if (NETWORK_CODES.has(e.code)) return true;
     if (/^08/.test(e.code) || /^57P0[1-3]$/.test(e.code)) return true;

@@ -7,7 +7,7 @@
  * rows), so the server does not import seed data.
  */
 import type { BodyKind } from "./binary.ts";
-import type { CouplingSpec, Env, MappingSpec, ValidityCondition } from "./convert.ts";
+import type { CouplingSpec, Env, MappingChannel, MappingSpec, ValidityCondition } from "./convert.ts";
 import { compileExpression } from "./expr/compile.ts";
 import { guardExpression } from "./expr/guard.ts";
 import { createSymbolTable, expandDefinitions, type SymbolTable } from "./expr/symbols.ts";
@@ -45,6 +45,8 @@ export interface CatalogueValidity {
 export interface CatalogueMapping {
   readonly kind: string;
   readonly b: number;
+  /** ppE amplitude exponent (inspiral_amplitude). */
+  readonly a?: number;
   readonly expression: string;
   readonly coupling?: string;
   readonly held_fixed?: Readonly<Record<string, number>>;
@@ -85,6 +87,13 @@ const EXTRA_INPUTS = [
 
 /** Environment symbols that come from optional inputs; a mapping using one lists it as required. */
 const OPTIONAL_INPUTS = new Set(["z", "D", "D_0", "D_alpha", "sigma1", "sigma2"]);
+// Omega_m is always in the converter's environment (from the request's cosmology).
+
+/** The mapping kinds the translator runs, and the channel each gives (the amplitude's exponent a is held in `b`). */
+const CHANNEL_OF_KIND: Readonly<Record<string, MappingChannel | undefined>> = {
+  inspiral_phase: "phase",
+  inspiral_amplitude: "amplitude",
+};
 
 /** "L^2" -> 2, "L" -> 1, "L^-1" -> -1, "1" -> 0. */
 export function lengthPower(dimension: string): number {
@@ -145,7 +154,8 @@ function couplingSpec(c: CatalogueCoupling): CouplingSpec {
 export function compileMapping(entry: CatalogueTheory, index: number): CompiledMapping {
   const mapping = entry.mappings[index];
   if (!mapping) throw new RangeError(`${entry.slug} has no mapping ${index}`);
-  if (mapping.kind !== "inspiral_phase") throw new PhysicsInputError("kind", `mapping kind "${mapping.kind}" is not an inspiral phase`);
+  const channel = CHANNEL_OF_KIND[mapping.kind];
+  if (!channel) throw new PhysicsInputError("kind", `mapping kind "${mapping.kind}" is not an inspiral phase or amplitude`);
   const couplingSymbol = mapping.coupling ?? entry.couplings[0]?.symbol;
   const coupling = entry.couplings.find((c) => c.symbol === couplingSymbol);
   if (!coupling) throw new PhysicsInputError("coupling", `${entry.slug}: mapping ${index} names no declared coupling`);
@@ -216,7 +226,8 @@ export function compileMapping(entry: CatalogueTheory, index: number): CompiledM
     expanded: main.expanded,
     ...(mapping.source_status ? { sourceStatus: mapping.source_status } : {}),
     ...(fixed.length > 0 ? { heldFixed: { ...mapping.held_fixed } } : {}),
-    b: mapping.b,
+    b: channel === "amplitude" ? (mapping.a ?? Number.NaN) : mapping.b,
+    channel,
     coupling: couplingSpec(coupling),
     evaluate: (x, env) => bind(env)(x),
     bind,

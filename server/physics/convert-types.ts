@@ -45,8 +45,17 @@ export interface ValidityCondition {
   readonly appliesTo?: readonly BodyKind[];
 }
 
+/**
+ * Which part of the waveform a mapping gives: the phase (beta at b) or the amplitude (alpha at a,
+ * held in `b`). A distance ratio d_L^GW/d_L^EM = r is the amplitude term at a = 0: alpha = 1/r - 1.
+ */
+export type MappingChannel = "phase" | "amplitude";
+
 export interface MappingSpec {
+  /** The ppE exponent: b for the phase, a for the amplitude. */
   readonly b: number;
+  /** Default "phase". */
+  readonly channel?: MappingChannel;
   readonly coupling: CouplingSpec;
   /** beta as a function of the canonical coupling and the binary's symbols. */
   readonly evaluate: (coupling: number, env: Env) => number;
@@ -75,6 +84,14 @@ export type BoundInput =
       /** ... or an interval [low, high] containing 0 (null = unbounded on that side). */
       readonly interval?: readonly [number | null, number | null];
       readonly convention?: SignConvention;
+      readonly credibility?: number;
+    }
+  | {
+      /** ppE amplitude: a bound on alpha in h = h_GR (1 + alpha u^a). */
+      readonly kind: "amplitude";
+      readonly a: number;
+      readonly alpha_max?: number;
+      readonly interval?: readonly [number | null, number | null];
       readonly credibility?: number;
     }
   | {

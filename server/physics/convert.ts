@@ -15,20 +15,20 @@ import type {
   ConvertOptions,
   CouplingSpec,
   Env,
+  MappingChannel,
   MappingSpec,
   NoConstraintCode,
   NoConstraintResult,
   SignedInterval,
   ValidityResult,
-  Verdict,
 } from "./convert-types.ts";
-import { RULE_OF_THUMB_STRETCH } from "../../common/convert.ts";
 import { distanceAlphaKm, PLANCK_2018, validateCosmology, type Cosmology } from "./cosmology.ts";
 import { PhysicsInputError, requireFinite } from "./input-error.ts";
 import { detectPowerLaw, fractionString, solveMagnitude } from "./invert.ts";
 import { formatLatexNumber, unitLatex } from "./latex-format.ts";
 import { presentLimit, type QuotedValue, type Side } from "./quoted-forms.ts";
 import { degeneracyOfB, gimrFactor, normaliseSign } from "./taylorf2.ts";
+import { judgeCondition, verdictOf } from "./verdict.ts";
 
 export type * from "./convert-types.ts";
 
@@ -46,7 +46,8 @@ export interface ConversionContext {
 export function createConversionContext(binary: Binary | BinaryInput, options: ConvertOptions = {}): ConversionContext {
   const b = isBinary(binary) ? binary : makeBinary(binary);
   const cosmology = validateCosmology(options.cosmology ?? PLANCK_2018);
-  const symbols = binarySymbols(b, options.fLowHz);
+  // Omega_m: distance-ratio mappings of friction-type theories depend on the background (flat Lambda-CDM).
+  const symbols = { ...binarySymbols(b, options.fLowHz), Omega_m: cosmology.Omega_m };
   const distances = new Map<number, number>();
   const distance = (alphaMd: number): number => {
     let d = distances.get(alphaMd);
@@ -92,6 +93,9 @@ function fieldOfSymbol(symbol: string): string {
 
 interface ResolvedBound {
   readonly b: number;
+  readonly channel: MappingChannel;
+  /** The deviation's LaTeX symbol in the closed form: beta or alpha. */
+  readonly symbol: string;
   /** [low, high] in the +Psi convention; symmetric bounds give [-beta_max, beta_max]; infinite = unbounded side. */
   readonly low: number;
   readonly high: number;
@@ -125,7 +129,19 @@ function scaleInterval(low: number, high: number, factor: number): [number, numb
   return [Math.min(a, c), Math.max(a, c)];
 }
 
+/** LaTeX of the deviation each channel bounds. */
+const DEVIATION_LATEX: Record<MappingChannel, string> = {
+  phase: "\\beta",
+  amplitude: "\\alpha",
+};
+
 function resolveBound(bound: BoundInput, binary: Binary): ResolvedBound | NoConstraintResult {
+  if (bound.kind === "amplitude") {
+    // No degenerate exponent and no sign convention: exp(-i Psi) does not touch the amplitude.
+    const a = requireFinite("a", bound.a);
+    const r = resolveInterval("alpha_max", bound.alpha_max, bound.interval);
+    return { b: a, channel: "amplitude", symbol: DEVIATION_LATEX.amplitude, low: r.low, high: r.high, symmetric: r.symmetric, cautions: [] };
+  }
   if (bound.kind === "ppe") {
     const b = requireFinite("b", bound.b);
     const degenerate = degeneracyOfB(b);
@@ -133,7 +149,7 @@ function resolveBound(bound: BoundInput, binary: Binary): ResolvedBound | NoCons
     const r = resolveInterval("beta_max", bound.beta_max, bound.interval);
     const convention = bound.convention ?? "plus";
     const [low, high] = scaleInterval(r.low, r.high, normaliseSign(1, convention));
-    return { b, low, high, symmetric: r.symmetric, cautions: [] };
+    return { b, channel: "phase", symbol: DEVIATION_LATEX.phase, low, high, symmetric: r.symmetric, cautions: [] };
   }
   const f = gimrFactor(bound.k, binary.eta, {
     includesSpin: bound.includes_spin ?? false,
@@ -142,7 +158,7 @@ function resolveBound(bound: BoundInput, binary: Binary): ResolvedBound | NoCons
   if (f.status !== "ok") return noConstraint(f.status === "degenerate" ? "degenerate_b" : "no_ppe_equivalent", f.reason);
   const r = resolveInterval("dphi_max", bound.dphi_max, bound.interval);
   const [low, high] = scaleInterval(r.low, r.high, f.factor);
-  return { b: f.b, low, high, symmetric: r.symmetric, cautions: f.cautions };
+  return { b: f.b, channel: "phase", symbol: DEVIATION_LATEX.phase, low, high, symmetric: r.symmetric, cautions: f.cautions };
 }
 
 function noConstraint(code: NoConstraintCode, reason: string, warnings: string[] = [], cautions: readonly string[] = []): NoConstraintResult {
@@ -179,9 +195,18 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   const { binary } = context;
   const resolved = resolveBound(bound, binary);
   if ("status" in resolved) return resolved;
-  if (Math.abs(resolved.b - mapping.b) > 1e-12) {
-    throw new PhysicsInputError("b", `the bound is at b = ${resolved.b} but this mapping enters at b = ${mapping.b}`);
+  const channel = mapping.channel ?? "phase";
+  if (resolved.channel !== channel) {
+    throw new PhysicsInputError("parameter", `the bound is on the ${resolved.channel} but this mapping gives the ${channel}`);
   }
+  if (Math.abs(resolved.b - mapping.b) > 1e-12) {
+    const letter = channel === "amplitude" ? "a" : "b";
+    throw new PhysicsInputError(letter, `the bound is at ${letter} = ${resolved.b} but this mapping enters at ${letter} = ${mapping.b}`);
+  }
+  const dev = resolved.symbol;
+  // The deviation in plain text for the sentences below.
+  const word = resolved.channel === "phase" ? "beta" : "alpha";
+  const sym = resolved.channel === "phase" ? "β" : "α";
   const warnings: string[] = [];
   const cautions: string[] = [...resolved.cautions, ...(mapping.cautions ?? [])];
   if (mapping.onlyFor) {
@@ -221,7 +246,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   if (all.every((v) => v === 0)) {
     return noConstraint(
       "vanishing_mapping",
-      "beta vanishes for this binary at every coupling (e.g. equal masses and spins emit no scalar dipole): this binary constrains nothing",
+      `${word} vanishes for this binary at every coupling (e.g. equal masses and spins emit no scalar dipole): this binary constrains nothing`,
       warnings,
       cautions,
     );
@@ -241,10 +266,10 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   } else {
     betaMax = Math.max(-low, high);
     sideUsed = "both";
-    if (!twoSided) warnings.push("beta changes sign with the coupling: the wider side of the interval is used (conservative)");
+    if (!twoSided) warnings.push(`${word} changes sign with the coupling: the wider side of the interval is used (conservative)`);
   }
   if (theorySign !== 0 && !Number.isFinite(betaMax)) {
-    const predicted = theorySign < 0 ? "β < 0" : "β > 0";
+    const predicted = theorySign < 0 ? `${sym} < 0` : `${sym} > 0`;
     const missing = theorySign < 0 ? "lower end" : "upper end";
     return noConstraint(
       "unreachable_side",
@@ -256,13 +281,13 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   if (betaMax === 0) {
     return noConstraint(
       "unreachable_side",
-      "the interval ends at β = 0 on the side this theory reaches: taken literally it leaves no room for any non-GR coupling; state the bound with its credible width on that side",
+      `the interval ends at ${sym} = 0 on the side this theory reaches: taken literally it leaves no room for any non-GR coupling; state the bound with its credible width on that side`,
       warnings,
       cautions,
     );
   }
   if (!twoSided && !Number.isFinite(betaMax)) {
-    return noConstraint("unreachable_side", "β takes both signs as the coupling varies and the bound is one-sided: no limit follows", warnings, cautions);
+    return noConstraint("unreachable_side", `${sym} takes both signs as the coupling varies and the bound is one-sided: no limit follows`, warnings, cautions);
   }
 
   // Signed interval for a coupling of either sign: each finite end of [low, high] maps to the coupling
@@ -317,7 +342,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
       extras: [],
       conventions: [],
       method: "numeric_root",
-      latex: `\\beta(${spec.latex}) = ${formatLatexNumber(end.beta)} \\;\\Rightarrow\\; ${q.latex} ${rel} ${formatLatexNumber(quoted.value)}${q.unit && q.unit !== "1" ? `\\,${unitLatex(q.unit)}` : ""}`,
+      latex: `${dev}(${spec.latex}) = ${formatLatexNumber(end.beta)} \\;\\Rightarrow\\; ${q.latex} ${rel} ${formatLatexNumber(quoted.value)}${q.unit && q.unit !== "1" ? `\\,${unitLatex(q.unit)}` : ""}`,
       b: mapping.b,
       beta_max: Math.abs(end.beta),
       theory_sign: 0,
@@ -336,15 +361,28 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   }
 
   let x: number;
+  /** Where validity and beta are evaluated: the limit, or for an asymmetric signed coupling the wider end itself. */
+  let at: number | undefined;
   let side: Side;
   let method: "closed_form" | "numeric_root" = "numeric_root";
   let power: number | undefined;
   let prefactor: number | undefined;
   const law = detectPowerLaw(F);
   if (law && law.power === 0) {
-    return noConstraint("coupling_independent", "beta does not depend on the coupling for this binary", warnings, cautions);
+    return noConstraint("coupling_independent", `${word} does not depend on the coupling for this binary`, warnings, cautions);
   }
-  if (law && law.prefactor > 0) {
+  // A coupling of either sign whose mapping is not odd (F(-x) != -F(x): a distance ratio, 1/r - 1) maps
+  // the two ends of the interval to couplings of different sizes: the magnitude bound is the larger of
+  // the two ends of the signed interval, not the root on the positive side of the wider end.
+  const asymmetric = twoSided && signedEnds?.lower && signedEnds.upper && Math.abs(F(1) + F(-1)) > 1e-9 * Math.max(Math.abs(F(1)), Math.abs(F(-1)));
+  if (asymmetric) {
+    const ends = [signedEnds!.lower!, signedEnds!.upper!];
+    const widest = ends.reduce((w, e) => (Math.abs(e.x) > Math.abs(w.x) ? e : w));
+    x = Math.abs(widest.x);
+    at = widest.x;
+    side = "upper";
+    betaMax = Math.abs(widest.beta);
+  } else if (law && law.prefactor > 0) {
     const candidate = (betaMax / law.prefactor) ** (1 / law.power);
     const check = Math.abs(F(candidate));
     if (Number.isFinite(candidate) && candidate > 0 && Math.abs(check / betaMax - 1) < 1e-10) {
@@ -355,7 +393,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
       prefactor = law.prefactor;
     }
   }
-  if (method === "numeric_root") {
+  if (method === "numeric_root" && !asymmetric) {
     const [lo, hi] = mapping.domain ?? [1e-60, 1e60];
     const root = solveMagnitude(F, betaMax, lo, hi);
     if (root.kind === "none") return noConstraint("out_of_range", root.reason, warnings, cautions);
@@ -368,7 +406,10 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
     }
   }
 
-  const validity = evaluateValidity(mapping, x!, env, binary);
+  // An asymmetric signed interval: a condition may depend on the sign, so each is taken at the end where it is worst.
+  const validity = asymmetric
+    ? worstOf(evaluateValidity(mapping, signedEnds!.lower!.x, env, binary), evaluateValidity(mapping, signedEnds!.upper!.x, env, binary))
+    : evaluateValidity(mapping, at ?? x!, env, binary);
   const { verdict, failing } = verdictOf(validity);
 
   const presented = presentLimit(x!, side!, mapping.coupling.quoted);
@@ -387,7 +428,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
     conventions,
     method,
     ...(power === undefined ? {} : { power, prefactor: prefactor! }),
-    latex: limitLatex(spec, side!, x!, betaMax, presented.primary, method, power, prefactor),
+    latex: limitLatex(spec, side!, x!, betaMax, presented.primary, method, power, prefactor, dev),
     b: mapping.b,
     beta_max: betaMax,
     theory_sign: theorySign,
@@ -395,7 +436,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
     side_used: sideUsed,
     signed_interval: signed,
     signed_headline: false,
-    beta_at_limit: F(x!),
+    beta_at_limit: F(at ?? x!),
     validity,
     verdict,
     failing,
@@ -440,37 +481,23 @@ function evaluateValidity(mapping: MappingSpec, x: number, env: Env, binary: Bin
   const out: ValidityResult[] = [];
   for (const c of mapping.validity ?? []) {
     if (c.body && c.appliesTo && !c.appliesTo.includes(binary.bodies[c.body - 1]!)) continue;
-    const value = c.evaluate(x, env);
-    const ok = Number.isFinite(value) && value <= c.max;
-    const factor = c.max > 0 && Number.isFinite(value) ? value / c.max : Number.NaN;
-    const status = ok ? "ok" : c.kind === "rule_of_thumb" && factor <= RULE_OF_THUMB_STRETCH ? "stretched" : "fails";
-    out.push({
-      label: c.label,
-      condition: c.condition,
-      value,
-      max: c.max,
-      ok,
-      kind: c.kind,
-      factor,
-      status,
-      ...(c.reference ? { reference: c.reference } : {}),
-    });
+    out.push(judgeCondition(c, c.evaluate(x, env)));
   }
   return out;
 }
 
-/**
- * valid: every condition holds (a rule of thumb exceeded by at most RULE_OF_THUMB_STRETCH counts as
- * holding, stretched); outside_validity: a hard condition fails, or a rule of thumb by more than
- * that factor; not_assessed: no condition applies to this binary. The worst failure is reported.
- */
-export function verdictOf(validity: readonly ValidityResult[]): { verdict: Verdict; failing: ValidityResult | null } {
-  if (validity.length === 0) return { verdict: "not_assessed", failing: null };
-  const failures = validity.filter((v) => v.status === "fails");
-  if (failures.length === 0) return { verdict: "valid", failing: null };
-  const worst = failures.reduce((a, v) => (!(a.factor >= v.factor) ? v : a));
-  return { verdict: "outside_validity", failing: worst };
+/** Condition by condition, the evaluation with the larger value (both lists come from the same conditions, in order). */
+function worstOf(a: readonly ValidityResult[], b: readonly ValidityResult[]): ValidityResult[] {
+  return a.map((v, i) => {
+    const w = b[i];
+    if (!w) return v;
+    if (!Number.isFinite(v.value)) return v;
+    if (!Number.isFinite(w.value)) return w;
+    return w.value > v.value ? w : v;
+  });
 }
+
+export { verdictOf };
 
 function limitLatex(
   spec: CouplingSpec,
@@ -481,6 +508,7 @@ function limitLatex(
   method: "closed_form" | "numeric_root",
   power: number | undefined,
   prefactor: number | undefined,
+  dev = "\\beta",
 ): string {
   const sub = side === "upper" ? "\\max" : "\\min";
   const unit = unitLatex(spec.unit);
@@ -493,10 +521,10 @@ function limitLatex(
     const raise = exponent === "1" ? "" : `^{${exponent}}`;
     const one = `${spec.latex} = 1${unitSpace}`;
     return (
-      `{${spec.latex}}_{${sub}} = \\left(\\frac{\\beta_{\\max}}{|\\beta(${one})|}\\right)${raise}` +
+      `{${spec.latex}}_{${sub}} = \\left(\\frac{${dev}_{\\max}}{|${dev}(${one})|}\\right)${raise}` +
       ` = \\left(\\frac{${formatLatexNumber(betaMax)}}{${formatLatexNumber(prefactor)}}\\right)${raise}` +
       ` = ${formatLatexNumber(x)}${unitSpace}, \\qquad ${quotedPart}`
     );
   }
-  return `|\\beta(${spec.latex})| = ${formatLatexNumber(betaMax)} \\;\\Rightarrow\\; {${spec.latex}}_{${sub}} = ${formatLatexNumber(x)}${unitSpace}, \\qquad ${quotedPart}`;
+  return `|${dev}(${spec.latex})| = ${formatLatexNumber(betaMax)} \\;\\Rightarrow\\; {${spec.latex}}_{${sub}} = ${formatLatexNumber(x)}${unitSpace}, \\qquad ${quotedPart}`;
 }

@@ -33,7 +33,7 @@ describe("GET /api/v1/theories", () => {
     }
     const edgb = body.theories.find((t) => t.slug === "edgb");
     expect(edgb).toMatchObject({ name: expect.stringContaining("Gauss-Bonnet"), family: "quadratic-gravity", revision: 1 });
-    expect(edgb?.mappings).toEqual([{ kind: "inspiral_phase", b: -7, a: null, pn_order: -1, retired: false }]);
+    expect(edgb?.mappings).toEqual([{ kind: "inspiral_phase", b: -7, a: null, pn_order: -1, retired: false, source_status: "derived" }]);
     expect(edgb?.references.map((r) => r.arxiv)).toContain("2104.11189");
   });
 
@@ -119,6 +119,20 @@ describe("GET /api/v1/theories/:slug", () => {
     }
     const dcs = await request(app).get("/api/v1/theories/dcs");
     expect(dcs.body.mappings[0].source_to_be_confirmed).toBe(dcs.body.mappings[0].source_status === "memory");
+  });
+
+  it("when the list is read, then each mapping carries the same three-way status as the entry's page, and an entry with a formula from memory says source to be confirmed", async () => {
+    const list = theoryListResponseSchema.parse((await request(app).get("/api/v1/theories")).body).theories;
+    const seen = new Set<string>();
+    for (const t of list) {
+      const detail = (await request(app).get(`/api/v1/theories/${t.slug}`)).body as { mappings: { source_status: string }[]; source_to_be_confirmed: boolean };
+      expect(t.mappings.map((m) => m.source_status), t.slug).toEqual(detail.mappings.map((m) => m.source_status));
+      expect(t.source_to_be_confirmed, t.slug).toBe(detail.source_to_be_confirmed);
+      if (t.mappings.some((m) => m.source_status === "memory")) expect(t.source_to_be_confirmed, t.slug).toBe(true);
+      for (const m of t.mappings) seen.add(m.source_status);
+    }
+    // The seeded catalogue has formulas of all three kinds (dCS confirmed, EdGB derived, noncommutative from memory).
+    expect([...seen].sort()).toEqual(["confirmed", "derived", "memory"]);
   });
 
   it("when the slug is unknown, then 404 naming it", async () => {

@@ -37,7 +37,7 @@ const schwarzschild = lightRing(
   (r) => r * r,
 );
 
-describe("POST /api/v1/convert/ringdown", () => {
+describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, which delegates)", () => {
   let tdb: TestDatabase;
   let app: ReturnType<typeof buildTestApp>;
 
@@ -54,7 +54,7 @@ describe("POST /api/v1/convert/ringdown", () => {
   });
 
   async function convert(body: object): Promise<RingdownConvertResponse> {
-    const res = await request(app).post("/api/v1/convert/ringdown").send(body);
+    const res = await request(app).post("/api/v1/convert").send(body);
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     return ringdownConvertResponseSchema.parse(res.body);
   }
@@ -103,11 +103,15 @@ describe("POST /api/v1/convert/ringdown", () => {
     expect(johannsen?.upper?.value).toBeCloseTo(27 * U, 8);
     expect(johannsen?.lower?.value).toBeCloseTo(-27 * U, 8);
     expect(johannsen?.verdict).toBe("valid");
-    // df = +eps3/54: |eps3| <= 54 U = 1.08, outside |eps3| < 1 by a factor 1.08.
+    // df = +eps3/54: |eps3| <= 54 U = 1.08, above the rule of thumb |eps3| < 1 by a factor 1.08: the
+    // translator's rule (a rule of thumb failing by 10 times or less stays valid, with a caution) applies.
     const jp = body.results.find((r) => r.slug === "johannsen-psaltis");
     expect(jp?.upper?.value).toBeCloseTo(54 * U, 8);
-    expect(jp?.verdict).toBe("outside_validity");
-    expect(jp?.upper?.conditions[0]?.factor).toBeCloseTo(1.08, 6);
+    expect(jp?.verdict).toBe("valid");
+    expect(jp?.upper?.validity[0]?.factor).toBeCloseTo(1.08, 6);
+    expect(jp?.upper?.validity[0]?.status).toBe("stretched");
+    expect(jp?.upper?.failing).toBeNull();
+    expect(jp?.cautions.find((c) => c.code === "validity")?.message).toMatch(/Stretched approximation/);
     // The theory-agnostic entry returns the bound itself.
     const generic = body.results.find((r) => r.slug === "ringdown-deviation");
     expect(generic?.upper?.value).toBeCloseTo(U, 10);
@@ -115,6 +119,33 @@ describe("POST /api/v1/convert/ringdown", () => {
     const F = 1.5251 - 1.1568 * 0.32 ** 0.1292;
     expect(body.qnm.frequency_hz).toBeCloseTo(F / (2 * Math.PI * 67.5 * 4.925490947641267e-6), 6);
     expect(body.remnant.M_f_source).toBeCloseTo(67.5 / 1.09, 10);
+  });
+
+  it("when the rule of thumb fails by more than 10 times at the limit, then the limit is outside validity with the failing condition named", async () => {
+    // eps3 = 54 U = 16.2 for U = 0.3: |eps3| < 1 exceeded 16.2 times (derived from df = eps3/54).
+    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: 0.3, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.68, frame: "source" }, theories: ["johannsen-psaltis"] });
+    const jp = body.results[0]!;
+    expect(jp.verdict).toBe("outside_validity");
+    expect(jp.upper?.failing?.factor).toBeCloseTo(16.2, 6);
+    expect(jp.upper?.validity[0]?.status).toBe("fails");
+    expect(jp.cautions.find((c) => c.code === "validity")?.message).toMatch(/more than 10 times/);
+  });
+
+  it("when the same ringdown body goes to /convert/ringdown, then the answer is the same as from /convert", async () => {
+    const body = { bound: { parameter: "qnm_dtau", upper: 0.04, credibility: 0.9 }, binary: { m1: 36, m2: 29, frame: "source" } };
+    const a = await request(app).post("/api/v1/convert").send(body);
+    const b = await request(app).post("/api/v1/convert/ringdown").send(body);
+    expect(a.status).toBe(200);
+    expect(b.status).toBe(200);
+    expect(b.body).toEqual(a.body);
+    expect(a.body.kind).toBe("ringdown");
+    expect(a.body.bound).toEqual({ parameter: "qnm_dtau", mode: "220", interval: [-0.04, 0.04], credibility: 0.9 });
+  });
+
+  it("when an inspiral bound names an unknown parameter, then the 400 lists the ringdown kinds too", async () => {
+    const res = await request(app).post("/api/v1/convert").send({ bound: { parameter: "qnm_dphase", upper: 0.1, credibility: 0.9 }, binary: { m1: 36, m2: 29, frame: "source" } });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields["bound.parameter"]).toMatch(/qnm_dfreq/);
   });
 
   it("when an interval on df is given, then a signed coupling gets a signed interval", async () => {
@@ -165,7 +196,7 @@ describe("POST /api/v1/convert/ringdown", () => {
       [{ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.7, frame: "source" }, theories: ["nope"] }, "theories"],
     ];
     for (const [body, field] of cases) {
-      const res = await request(app).post("/api/v1/convert/ringdown").send(body);
+      const res = await request(app).post("/api/v1/convert").send(body);
       expect(res.status, JSON.stringify(body)).toBe(400);
       expect(Object.keys(res.body.error.fields ?? {}), JSON.stringify(res.body)).toContain(field);
     }
@@ -207,7 +238,8 @@ describe("POST /api/v1/convert/ringdown", () => {
     for (const side of body.sides) {
       expect(side.x).not.toBeNull();
       expect(quantile(side.x)).toBeCloseTo(0.9, 3);
-      expect(side.verdict).toBe(Math.abs(side.x) <= 1 ? "valid" : "outside_validity");
+      // |alpha13| < 1 is a rule of thumb: exceeded by at most 10 times it stays valid (the translator's rule).
+      expect(side.verdict).toBe(Math.abs(side.x) <= 10 ? "valid" : "outside_validity");
     }
     expect(body.track.length).toBeGreaterThan(50);
     expect(body.cautions.join(" ")).toMatch(/inspiral bias/);
@@ -219,5 +251,27 @@ describe("POST /api/v1/convert/ringdown", () => {
       .send({ theory: "johannsen", binary: { m1: 39, m2: 32, frame: "source" }, test: { ...test, inspiral: { ...test.inspiral, rho: -1 } } });
     expect(badRho.status).toBe(400);
     expect(Object.keys(badRho.body.error.fields)).toContain("test.inspiral.rho");
+  });
+  it("POST /api/v1/consistency/coupling: when a theory shifts only the remnant, then the excluded shift follows from the deviation variables alone", async () => {
+    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 } };
+    const res = await request(app).post("/api/v1/consistency/coupling").send({ theory: "remnant-deviation", binary: { m1: 39, m2: 32, frame: "detector", z: 0.09 }, test, credibility: 0.9 });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const body = res.body;
+    expect(body.coupling.symbol).toBe("dMf_rem");
+    expect(body.model).toEqual({ qnm_frequency: false, qnm_damping: false, remnant_mass: true, remnant_spin: false, inspiral_bias: false });
+    // With unshifted modes the ringdown reads the shifted remnant exactly: M_R = M (1 + x), chi_R = chi, and the
+    // deviation is dM = 2 (M - M_R)/(M + M_R) = -2x/(2 + x), dchi = 0 (Ghosh et al. 2016 variables; derived).
+    // With mu = (dM, 0): d^2 = dM^2 (Sigma^-1)_MM = dM^2 Sigma_chichi / det Sigma, and Q_GR = 1 - exp(-d^2/2) = 0.9
+    // gives |dM| = sqrt(-2 ln 0.1 det Sigma / Sigma_chichi).
+    const cov = body.covariance;
+    const det = cov[0][0] * cov[1][1] - cov[0][1] ** 2;
+    const edge = Math.sqrt((-2 * Math.log(0.1) * det) / cov[1][1]);
+    const up = body.sides.find((s: { side: string }) => s.side === "positive");
+    const down = body.sides.find((s: { side: string }) => s.side === "negative");
+    // -2x/(2 + x) = -edge  =>  x = 2 edge/(2 - edge); and 2x/(2 + x) = edge for x < 0  =>  x = -2 edge/(2 + edge).
+    expect(up.x).toBeCloseTo((2 * edge) / (2 - edge), 5);
+    expect(down.x).toBeCloseTo((-2 * edge) / (2 + edge), 5);
+    expect(up.validity[0].label).toMatch(/remnant mass/);
+    expect(body.cautions.join(" ")).toMatch(/no remnant-spin mapping/);
   });
 });

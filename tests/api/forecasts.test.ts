@@ -119,7 +119,17 @@ describe("forecast curves", () => {
     expect(res.status).toBe(200);
     const { curves } = curveListSchema.parse(res.body);
     expect(curves.map((c) => c.id)).toEqual(["aligo-design", "aligo-o1", "et-b", "lisa", "tianqin", "decigo", "b-decigo"]);
-    expect(curves.find((c) => c.id === "lisa")).toMatchObject({ convention: "response_averaged", space: true, f_max: 1 });
+    expect(curves.find((c) => c.id === "lisa")).toMatchObject({ convention: "response_averaged", space: true, f_max: 1, to_confirm: null });
+    // the DECIGO channel convention is our own derivation, not yet checked against Yagi & Seto 2011 section II
+    for (const id of ["decigo", "b-decigo"]) expect(curves.find((c) => c.id === id)!.to_confirm).toMatch(/^source to be confirmed/);
+  });
+
+  it("when a forecast uses DECIGO, then its band and the cautions say the curve's convention is to be confirmed", async () => {
+    const res = await request(app).post("/api/v1/forecasts").send({ source: SOURCE, detectors: [{ curve: "decigo" }], networks: [[0]], b: [-7], translate: false });
+    expect(res.status).toBe(200);
+    const body = forecastResponseSchema.parse(res.body);
+    expect(body.detectors[0]!.to_confirm).toMatch(/source to be confirmed/);
+    expect(body.cautions.join(" ")).toMatch(/DECIGO.*source to be confirmed/);
   });
 
   it("when a user uploads an ASD table, then 201, it is stored as a PSD, listed for them only, usable as custom:<id> and deletable", async () => {
@@ -168,6 +178,59 @@ describe("forecast curves", () => {
     res = await send("10 1e-46\n20 1e-46", { kind: "amplitude" });
     expect(Object.keys(res.body.error.fields)).toEqual(["kind"]);
     expect((await request(app).post("/api/v1/forecasts/curves").send({ name: "x", kind: "psd", convention: "l_shaped", data: "1 1\n2 1" })).status).toBe(401);
+    expect(Number((await tdb.db("forecast_curves").count("id as n"))[0]!.n)).toBe(before);
+  });
+});
+
+describe("POST /api/v1/forecasts/curves (multipart file)", () => {
+  const design = builtInCurve("aligo-design")!;
+  const freqs = Array.from({ length: 40 }, (_, i) => 10 * 300 ** (i / 39));
+  const upload = (file: string | Buffer, fields: Record<string, string> = {}, name = "curve.csv") => {
+    let r = request(app).post("/api/v1/forecasts/curves").set("Authorization", auth["t-fc-1"]!);
+    for (const [k, v] of Object.entries({ name: "Uploaded", kind: "psd", convention: "l_shaped", ...fields })) r = r.field(k, v);
+    return r.attach("file", Buffer.isBuffer(file) ? file : Buffer.from(file), name);
+  };
+
+  it("when a PSD file with a comment, a header row and CRLF line ends is uploaded, then 201 and the stored PSD is the file's", async () => {
+    const text = ["% Tabulated design curve, invented for this test", "# second comment", "frequency_Hz, psd_per_Hz", ...freqs.map((f) => `${f}, ${design.psd(f, 4)}`)].join("\r\n");
+    const res = await upload(text, { space: "false" });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const curve = curveInfoSchema.parse(res.body);
+    expect(curve).toMatchObject({ custom: true, points: 40, f_min: 10, convention: "l_shaped", space: false });
+    const stored = await tdb.db("forecast_curves").where({ id: Number(curve.id.split(":")[1]) }).first();
+    expect(stored.uploaded_kind).toBe("psd");
+    expect(stored.psd[7] / design.psd(freqs[7]!, 4)).toBeCloseTo(1, 12);
+  });
+
+  it("when a file is bad, then 400 naming the line and the column at fault, and nothing is stored", async () => {
+    const before = Number((await tdb.db("forecast_curves").count("id as n"))[0]!.n);
+    const cases: [string, RegExp, number | undefined, number | null][] = [
+      ["f,psd\n10,1e-46\n20,1e-46\n15,1e-46", /line 4, column 1 \(frequency\): frequencies must increase strictly/, 4, 1],
+      ["10 1e-46\n20 0", /line 2, column 2 \(PSD\): the PSD must be positive/, 2, 2],
+      ["10 1e-46\n20 abc", /line 2, column 2 \(PSD\): "abc" is not a number/, 2, 2],
+      ["10 1e-46\nx 1e-46", /line 2, column 1 \(frequency\): "x" is not a number/, 2, 1],
+      ["10 1e-46 3", /line 1: expected two columns/, 1, null],
+      ["# only one row\n10 1e-46", /too few rows: at least 2/, undefined, null],
+    ];
+    for (const [text, pattern, line, column] of cases) {
+      const res = await upload(text);
+      expect(res.status, text).toBe(400);
+      expect(Object.keys(res.body.error.fields)).toEqual(["file"]);
+      expect(res.body.error.fields.file, text).toMatch(pattern);
+      expect(res.body.error.details?.line).toBe(line);
+      if (column !== null) expect(res.body.error.details?.column).toBe(column);
+    }
+    const asd = await upload("10 1e-23\n20 -2e-23", { kind: "asd" });
+    expect(asd.body.error.fields.file).toMatch(/column 2 \(ASD\)/);
+    const unknown = await upload("10 1e-46\n20 1e-46", { colour: "red" });
+    expect(unknown.status).toBe(400);
+    expect(JSON.stringify(unknown.body.error)).toMatch(/colour/);
+    const noFile = await request(app).post("/api/v1/forecasts/curves").set("Authorization", auth["t-fc-1"]!).field("name", "x").field("kind", "psd").field("convention", "l_shaped");
+    expect(noFile.status).toBe(400);
+    expect(Object.keys(noFile.body.error.fields)).toEqual(["file"]);
+    const binary = await upload(Buffer.from([0xff, 0xfe, 0x00, 0x81, 0x10]));
+    expect(binary.status).toBe(400);
+    expect(binary.body.error.fields.file).toMatch(/UTF-8/);
     expect(Number((await tdb.db("forecast_curves").count("id as n"))[0]!.n)).toBe(before);
   });
 });

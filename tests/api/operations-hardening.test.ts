@@ -1,9 +1,11 @@
-import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { get as httpGet, type IncomingHttpHeaders } from "node:http";
 import type { AddressInfo } from "node:net";
 import { connect } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { Writable } from "node:stream";
+import { brotliDecompressSync, gunzipSync } from "node:zlib";
 import { pino } from "pino";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -11,6 +13,7 @@ import { createApp } from "../../server/app.ts";
 import { ConfigError, parseConfig } from "../../server/config.ts";
 import { createHttpServer } from "../../server/index.ts";
 import { createLogger } from "../../server/logger.ts";
+import { precompressDir } from "../../scripts/precompress.ts";
 import { buildTestApp, testConfig } from "../helpers/app.ts";
 import { signInAgent, startSignInStack } from "../helpers/auth.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
@@ -179,6 +182,63 @@ describe("compression and client caching", () => {
     }
     const plain = await request(app).get("/api/v1/openapi.json").set("Accept-Encoding", "identity");
     expect(plain.headers["content-encoding"]).toBeUndefined();
+  });
+
+  it("when the build precompressed an asset, then br goes to a brotli client, gz to a gzip-only one, the plain file to the others", async () => {
+    // A second script, precompressed as the build does it (vite.config.ts -> scripts/precompress.ts).
+    const name = "chunk-Ef56Gh78.js";
+    writeFileSync(path.join(dist, "assets", name), bigScript.repeat(3));
+    const report = precompressDir(path.join(dist, "assets"));
+    expect(report.files).toBeGreaterThanOrEqual(1);
+    const plainBytes = readFileSync(path.join(dist, "assets", name));
+    const brBytes = readFileSync(path.join(dist, "assets", `${name}.br`));
+    const gzBytes = readFileSync(path.join(dist, "assets", `${name}.gz`));
+    // The twins hold the same script.
+    expect(brotliDecompressSync(brBytes).equals(plainBytes)).toBe(true);
+    expect(gunzipSync(gzBytes).equals(plainBytes)).toBe(true);
+
+    const server = createHttpServer(buildTestApp(tdb, { CLIENT_DIST: dist }), testConfig(tdb.url));
+    await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+    // Raw bytes as sent (node:http does not decode bodies), to tell a precompressed file from one compressed on the fly.
+    const raw = (accept: string | undefined, file = name) =>
+      new Promise<{ status: number; headers: IncomingHttpHeaders; body: Buffer }>((resolve, reject) => {
+        const { port } = server.address() as AddressInfo;
+        httpGet({ host: "127.0.0.1", port, path: `/assets/${file}`, headers: accept === undefined ? {} : { "accept-encoding": accept } }, (res) => {
+          const chunks: Buffer[] = [];
+          res.on("data", (c: Buffer) => chunks.push(c));
+          res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }));
+        }).on("error", reject);
+      });
+    try {
+      for (const accept of ["gzip, deflate, br, zstd", "br"]) {
+        const br = await raw(accept);
+        expect(br.status, accept).toBe(200);
+        expect(br.headers["content-encoding"], accept).toBe("br");
+        expect(br.body.equals(brBytes), `${accept}: the precompressed .br file itself`).toBe(true);
+        expect(br.headers["content-type"]).toMatch(/javascript/);
+        expect(br.headers.vary).toMatch(/Accept-Encoding/i);
+        expect(br.headers["cache-control"]).toBe("public, max-age=31536000, immutable");
+      }
+      const gz = await raw("gzip, deflate");
+      expect(gz.headers["content-encoding"]).toBe("gzip");
+      expect(gz.body.equals(gzBytes), "the precompressed .gz file itself").toBe(true);
+      expect(gz.headers["content-type"]).toMatch(/javascript/);
+      expect(gz.headers["cache-control"]).toBe("public, max-age=31536000, immutable");
+      // br refused by weight: gzip.
+      expect((await raw("br;q=0, gzip")).headers["content-encoding"]).toBe("gzip");
+      for (const accept of [undefined, "identity"]) {
+        const plain = await raw(accept);
+        expect(plain.status, String(accept)).toBe(200);
+        expect(plain.headers["content-encoding"], String(accept)).toBeUndefined();
+        expect(plain.body.equals(plainBytes), `${String(accept)}: the plain file`).toBe(true);
+        expect(plain.headers["cache-control"]).toBe("public, max-age=31536000, immutable");
+      }
+      // The twins are not files of their own, and a missing asset is still the plain 404.
+      expect((await raw("br", `${name}.br`)).status).toBe(404);
+      expect((await raw("br", "chunk-Missing1.js")).status).toBe(404);
+    } finally {
+      await new Promise((resolve) => server.close(resolve));
+    }
   });
 
   it("when hashed assets are served, then they are immutable for a year; index.html is revalidated; a missing asset is a 404", async () => {

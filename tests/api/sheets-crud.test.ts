@@ -7,6 +7,7 @@ import { sheetsSeed } from "../../seeds/sheets.ts";
 import { buildTestApp } from "../helpers/app.ts";
 import { bearerFor, ensureUser } from "../helpers/auth.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+import { translationOf } from "../helpers/sheets.ts";
 
 let tdb: TestDatabase;
 let app: ReturnType<typeof buildTestApp>;
@@ -45,12 +46,12 @@ describe("POST /api/v1/sheets", () => {
     const sheet = await createSheet("Heron-Ibis bounds", [record("HI-1"), record("HI-2", -3)]);
     expect(sheet).toMatchObject({ name: "Heron-Ibis bounds", version: 1, owner: { login: "t-analyst" }, share_token: null });
     expect(sheet.records.map((r) => r.label)).toEqual(["HI-1", "HI-2"]);
-    expect(sheet.records[0]!.translation.results.map((r) => r.theory)).toContain("edgb");
-    expect(sheet.records[1]!.translation.results.map((r) => r.theory)).toEqual(["massive-graviton"]);
+    expect(translationOf(sheet.records[0]!).results.map((r) => r.theory)).toContain("edgb");
+    expect(translationOf(sheet.records[1]!).results.map((r) => r.theory)).toEqual(["massive-graviton"]);
     const stored = await tdb.db("sheet_records").where({ sheet_id: sheet.id }).orderBy("position").select("label", "catalogue_revision", "translation");
     expect(stored.map((r) => r.label)).toEqual(["HI-1", "HI-2"]);
-    expect(stored[0].catalogue_revision).toBe(sheet.records[0]!.translation.catalogue_revision);
-    expect(stored[0].translation.results[0].coupling.value).toBe(sheet.records[0]!.translation.results[0]!.coupling.value);
+    expect(stored[0].catalogue_revision).toBe(translationOf(sheet.records[0]!).catalogue_revision);
+    expect(stored[0].translation.results[0].coupling.value).toBe(translationOf(sheet.records[0]!).results[0]!.coupling.value);
   });
 
   it("when nobody is signed in, then 401", async () => {
@@ -135,7 +136,7 @@ describe("PATCH /api/v1/sheets/:id", () => {
     const updated = sheetSchema.parse(res.body);
     expect(updated).toMatchObject({ name: "renamed", version: 2 });
     expect(updated.records.map((r) => r.label)).toEqual(["HI-9"]);
-    expect(updated.records[0]!.translation.results.map((r) => r.theory)).toEqual(["massive-graviton"]);
+    expect(translationOf(updated.records[0]!).results.map((r) => r.theory)).toEqual(["massive-graviton"]);
     const row = await tdb.db("sheets").where({ id: sheet.id }).first("name", "version");
     expect(row).toEqual({ name: "renamed", version: 2 });
   });

@@ -11,6 +11,7 @@ import { fileStem } from "../../server/features/sheets/export-stem.ts";
 import { buildTestApp } from "../helpers/app.ts";
 import { bearerFor, ensureUser } from "../helpers/auth.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+import { translationOf } from "../helpers/sheets.ts";
 
 describe("export formatting (pure)", () => {
   it("when numbers are written for LaTeX, then they read as a physicist writes them, with the requested figures", () => {
@@ -106,7 +107,7 @@ describe("GET /api/v1/sheets/:id/export", () => {
     // The bound is stated once per group, in a row spanning the table.
     expect(tex.match(/\\multicolumn\{5\}/g)).toHaveLength(2);
     expect(tex).toContain("$|\\beta| \\le 1.0 \\times 10^{-3}$ at $b = -7$");
-    const edgb = sheet.records[0]!.translation.results.find((r) => r.theory === "edgb")!;
+    const edgb = translationOf(sheet.records[0]!).results.find((r) => r.theory === "edgb")!;
     // EdGB fails its small-coupling condition at this limit (16 pi alpha^2/m^4 > 1/6): marked not valid.
     expect(edgb.valid).toBe(false);
     const edgbRow = tex.split("\n").find((l) => l.trim().startsWith("EdGB &"))!;
@@ -122,7 +123,7 @@ describe("GET /api/v1/sheets/:id/export", () => {
     // Data rows: one per limit, each with the same number of cells as the header.
     const rows = tex.split("\n").filter((l) => l.trim().endsWith("\\\\") && !l.includes("\\multicolumn"));
     expect(new Set(rows.map((l) => l.split(" & ").length))).toEqual(new Set([5]));
-    expect(rows.length - 1).toBe(sheet.records.reduce((n, r) => n + r.translation.results.length, 0));
+    expect(rows.length - 1).toBe(sheet.records.reduce((n, r) => n + translationOf(r).results.length, 0));
   });
 
   it("when the BibTeX is exported, then it parses back and holds every reference the limits cite", async () => {
@@ -130,7 +131,7 @@ describe("GET /api/v1/sheets/:id/export", () => {
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/application\/x-bibtex/);
     const entries = readBibtexFile(res.text);
-    const cited = new Set(sheet.records.flatMap((r) => r.translation.results.flatMap((x) => [...x.references.map((c) => c.key), ...x.reference_bounds.map((c) => c.reference.key)])));
+    const cited = new Set(sheet.records.flatMap((r) => translationOf(r).results.flatMap((x) => [...x.references.map((c) => c.key), ...x.reference_bounds.map((c) => c.reference.key)])));
     expect(new Set(entries.map((e) => e.key))).toEqual(cited);
     expect(cited.has("lyu-jiang-yagi-2022")).toBe(true);
     const lyuText = res.text.slice(res.text.indexOf("{lyu-jiang-yagi-2022,") - 9);
@@ -146,11 +147,11 @@ describe("GET /api/v1/sheets/:id/export", () => {
     const parsed = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
     expect(parsed.meta.fields).toEqual([...CSV_COLUMNS]);
-    const total = sheet.records.reduce((n, r) => n + r.translation.results.length + r.translation.not_applicable.length, 0);
+    const total = sheet.records.reduce((n, r) => n + translationOf(r).results.length + translationOf(r).not_applicable.length, 0);
     expect(parsed.data).toHaveLength(total);
     const edgb = parsed.data.find((r) => r.record === "EC-01_a" && r.theory === "edgb")!;
-    const expected = sheet.records[0]!.translation.results.find((r) => r.theory === "edgb")!;
-    // The symbol as a physicist writes it; the catalogue's identifier in its own column for scripts.
+    const expected = translationOf(sheet.records[0]!).results.find((r) => r.theory === "edgb")!;
+    // The symbol as a physicist writes it; the identifier of the same quantity in its own column for scripts.
     expect(edgb).toMatchObject({ status: "bounded", b: "-7", symbol: "√α", coupling_id: "sqrt_alpha", unit: "km", side: "upper", valid: "false" });
     // Thresholds as people write them (the EdGB regular-horizon condition is quoted as < 1/6), never 0.16666666666666666.
     expect(edgb.failed_conditions).toContain("> 1/6");
@@ -169,7 +170,7 @@ describe("GET /api/v1/sheets/:id/export", () => {
     const res = await exportOf("json");
     expect(res.status).toBe(200);
     const doc = JSON.parse(res.text);
-    expect(doc).toMatchObject({ format: "dragoman-sheet", format_version: 1, sheet: { id: sheet.id, name: sheet.name } });
+    expect(doc).toMatchObject({ format: "dragoman-sheet", format_version: 2, sheet: { id: sheet.id, name: sheet.name } });
     expect(doc.sheet.share_token).toBeUndefined();
     expect(doc.sheet.records[1].translation.results[0].theory).toBe("massive-graviton");
   });

@@ -1,11 +1,11 @@
 // @vitest-environment jsdom
 import { cleanup, fireEvent, render, screen } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import { convertRequestSchema } from "../../common/convert.ts";
+import { boundSchema, convertRequestSchema } from "../../common/convert.ts";
 import { sheetRecordInputSchema, type Sheet } from "../../common/sheets.ts";
+import { asTranslation } from "../helpers/sheets.ts";
 import { ExportLinks } from "../../client/features/sheets/components/export-links.tsx";
 import { SheetRecords } from "../../client/features/sheets/components/sheet-records.tsx";
-import { recordInput } from "../../client/features/sheets/lib/record-input.ts";
 import { apiPaths } from "../../client/lib/paths.ts";
 import { translate } from "../../server/features/convert/translate.ts";
 import { seedCatalogue } from "../api/convert-fixture.ts";
@@ -25,6 +25,7 @@ function sheetWithOneRecord(): Sheet {
     share_token: null,
     records: [
       {
+        kind: "translation",
         id: 11,
         position: 0,
         label: "OT-1",
@@ -32,12 +33,16 @@ function sheetWithOneRecord(): Sheet {
         analysis_method: "ppE",
         data_link: "https://data.osprey-teal.example/OT-1",
         notes: "",
-        bound: req.bound,
+        bound: boundSchema.parse(req.bound),
         binary: req.binary,
         cosmology: { H0: 67.66, Omega_m: 0.3111 },
         conventions: {},
         translation: translate(seedCatalogue(), req),
         translated_at: "2026-12-01T00:00:00.000Z",
+        saved_at: "2026-12-01T00:00:00.000Z",
+        entry_revisions: null,
+        stale: null,
+        history: [],
       },
     ],
   };
@@ -62,9 +67,35 @@ describe("<SheetRecords>", () => {
     expect(onRemove).toHaveBeenCalledWith(sheet.records[0]);
   });
 
-  it("when a stored record is turned back into input, then the shared schema accepts it unchanged", () => {
-    const input = recordInput(sheetWithOneRecord().records[0]!);
-    expect(sheetRecordInputSchema.parse(input)).toEqual(input);
+  it("when a record input names no kind, then the shared schema reads it as a translation (older clients keep working)", () => {
+    const r = asTranslation(sheetWithOneRecord().records[0]!);
+    const input = sheetRecordInputSchema.parse({ label: r.label, bound: r.bound, binary: r.binary });
+    expect(input.kind).toBe("translation");
+  });
+
+  it("when a record was translated against entries that changed since, then it is marked stale, keeps its result, and offers a re-translation", () => {
+    const sheet = sheetWithOneRecord();
+    const r = asTranslation(sheet.records[0]!);
+    sheet.records[0] = { ...r, stale: { catalogue_revision: "15.16.zz", entries: [{ theory: "edgb", name: "Einstein-dilaton-Gauss-Bonnet gravity", was: 1, now: 2 }] } };
+    const onRetranslate = vi.fn();
+    render(<SheetRecords sheet={sheet} onRetranslate={onRetranslate} />);
+    const note = screen.getByTestId("record-stale");
+    expect(note.textContent).toMatch(/Einstein-dilaton-Gauss-Bonnet gravity \(revision 1 → revision 2\)/);
+    expect(note.textContent).toMatch(/kept as it was/);
+    // The stored limit is still what is shown.
+    expect(screen.getByTestId("record-OT-1").textContent).toMatch(/sqrt_alpha ≤ 4\.07 km/);
+    fireEvent.click(screen.getByTestId("retranslate-record"));
+    expect(onRetranslate).toHaveBeenCalledWith(sheet.records[0]);
+  });
+
+  it("when a record has an earlier translation, then the history lists it with its catalogue version and limits", () => {
+    const sheet = sheetWithOneRecord();
+    const r = asTranslation(sheet.records[0]!);
+    sheet.records[0] = { ...r, history: [{ translation: r.translation, translated_at: "2026-11-30T10:00:00.000Z", entry_revisions: null, replaced_at: "2026-12-01T00:00:00.000Z" }] };
+    render(<SheetRecords sheet={sheet} />);
+    const history = screen.getByTestId("record-history");
+    expect(history.textContent).toMatch(/1 earlier translation/);
+    expect(history.textContent).toMatch(/replaced/);
   });
 });
 

@@ -11,6 +11,9 @@ export function testConfig(databaseUrl: string, overrides: Record<string, string
     LOG_LEVEL: "silent",
     // Suites send many requests from one address; a test that wants to see a 429 sets its own limit.
     RATE_LIMIT_PER_MINUTE: "100000",
+    // Workers at the normal priority: on a loaded test machine lower-priority check workers could be
+    // starved into their time limits (tests/physics/worker-priority.test.ts covers the setting itself).
+    WORKER_NICE: "0",
     ...overrides,
   });
 }

@@ -131,6 +131,21 @@ describe("checkMapping", () => {
     expect(ringdown.checks.some((c) => c.name === "pn_order")).toBe(false);
   });
 
+  it("remnant mappings: checked like ringdown ones (dimensionless, vanishing in GR, no PN order)", async () => {
+    // A fractional remnant-mass shift linear in zeta = 16 pi alpha^2 / M_f^4 (illustrative form; derived: dimensionless, 0 at alpha = 0).
+    const good = await checkMapping({ ...EDGB, expression: "zeta/10", target: "remnant_mass", b: undefined, pn_order: undefined });
+    expect(check(good, "dimension").ok).toBe(true);
+    expect(check(good, "gr_limit").ok).toBe(true);
+    expect(good.checks.some((c) => c.name === "pn_order")).toBe(false);
+    // alpha alone has dimension length^2: not a fractional shift.
+    const dimensionful = await checkMapping({ ...EDGB, expression: "alpha", target: "remnant_spin", b: undefined, pn_order: undefined });
+    expect(check(dimensionful, "dimension").ok).toBe(false);
+    expect(check(dimensionful, "dimension").message).toMatch(/remnant-spin shift/);
+    // A constant does not vanish in GR.
+    const offset = await checkMapping({ ...EDGB, expression: "0.1 + zeta", target: "remnant_mass", b: undefined, pn_order: undefined });
+    expect(check(offset, "gr_limit").ok).toBe(false);
+  });
+
   it("derivation: a wrong prefactor fails numerically; a wrong b is named", async () => {
     const derivation = { flux: { order: -1, coefficient: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)" } };
     const wrong = await checkMapping({ ...EDGB, expression: EDGB.expression.replace("7168", "3584"), derivation });

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { TheoryDetail, TheoryMapping } from "../../common/catalogue.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
-import { catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
-import { THEORIES_WAVE2 } from "../../seeds/data/theories-wave2.ts";
+import { catalogueWave2bSeed, catalogueWave2cSeed, catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
+import { THEORIES_WAVE2 as FIRST_PART, THEORIES_WAVE2_B, THEORIES_WAVE2_C } from "../../seeds/data/theories-wave2.ts";
 import { seedSteps } from "../../seeds/index.ts";
 import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
 import { catalogueService } from "../../server/features/catalogue/service.ts";
@@ -19,6 +19,10 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * or derivation.
  */
 
+/** The steps of the second batch: "catalogue-wave2", then "catalogue-wave2-b" and "-c" (each added after the one before had run). */
+const THEORIES_WAVE2 = [...FIRST_PART, ...THEORIES_WAVE2_B, ...THEORIES_WAVE2_C];
+const STEPS = [catalogueSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, catalogueWave2cSeed];
+
 let tdb: TestDatabase;
 const details = new Map<string, TheoryDetail>();
 let firstRun: string[] = [];
@@ -30,8 +34,8 @@ beforeAll(async () => {
   tdb = await createTestDatabase();
   firstRun = await seedSteps(tdb.db, [catalogueSeed, ringdownCatalogueSeed]);
   countBefore = (await catalogueService(tdb.db).list({})).length;
-  secondRun = await seedSteps(tdb.db, [catalogueSeed, ringdownCatalogueSeed, catalogueWave2Seed]);
-  thirdRun = await seedSteps(tdb.db, [catalogueSeed, ringdownCatalogueSeed, catalogueWave2Seed]);
+  secondRun = await seedSteps(tdb.db, STEPS);
+  thirdRun = await seedSteps(tdb.db, STEPS);
   const catalogue = catalogueService(tdb.db);
   for (const t of await catalogue.list({})) details.set(t.slug, await catalogue.detail(t.slug));
 }, 180_000);
@@ -142,6 +146,58 @@ const HAND: Record<string, HandCheck[]> = {
     // The same term with -Q_i/m_i^3 = chi_i^2 + epsilon (Glampedakis & Babak 2006 quadrupole; derived).
     { b: -1, values: { eps_Q: 0.2 }, expected: fromPhi4(-50 * 0.2 * ((m1 / M) ** 2 + (m2 / M) ** 2)), source: "quasi-Kerr quadrupole in the QM term" },
   ],
+  "einstein-aether": [
+    // Dipole by the definition of D_ae: F_dip = D_ae v^-2 F_GR, energy balance at k = -1 (derived) = -(3/224) eta^(2/5) D_ae.
+    { b: -7, values: { D_ae: 0.01 }, expected: energyBalance(-1, 0, 0.01), source: "dipole flux ratio, energy balance at -1PN (derived)" },
+    // Quadrupole flux (1 + dA) F_GR, energy balance at k = 0 (derived): -(3/128) dA.
+    { b: -5, values: { dA_ae: 0.02 }, expected: energyBalance(0, 0, 0.02), source: "0PN flux change, energy balance (derived)" },
+    // Tensor speed: c_T^2 = 1/(1 - c13), (c_T - c)/c = c13/2; Mirshekari, Yunes & Will 2012 at alpha = 2 with A = -2 (c_T - c)/c: beta = D_2 A / Mc.
+    { b: 3, values: { c13: 1e-15 }, expected: (1.7e22 * -1e-15) / Mc, source: "Mirshekari, Yunes & Will 2012 at alpha = 2, c_T from c13 (derived)" },
+  ],
+  "massive-scalar-tensor": ((): HandCheck[] => {
+    const s2 = (0.5 - 0.12) ** 2;
+    const bd = (5 / 48) * s2;
+    // d/dx (1 - x)^(3/2) at x = 0 (the massive dipole's suppression factor, derived from omega k^3 |d|^2, k^2 = omega^2 - m^2),
+    // by central differences with one Richardson step (error about 1e-13): -3/2.
+    const central = (h: number) => ((1 + h) ** 1.5 - (1 - h) ** 1.5) / (2 * h);
+    const slope = -(4 * central(5e-4) - central(1e-3)) / 3;
+    const xi = 2e-7;
+    return [
+      // Massless Brans-Dicke dipole (Will 1994 normalisation, as the 'brans-dicke' entry): -(3/224) eta^(2/5) B, B = (5/48)(s1 - s2)^2/(2 + omega_BD).
+      { b: -7, values: { omega_BD: 100 }, expected: energyBalance(-1, 0, bd / 102), source: "Brans-Dicke dipole, light scalar" },
+      // First mass correction: B v^-2 (1 - m^2 M^2 v^-6)^(3/2) -> slope * (5/48)(s1 - s2)^2 M^2 xi at v^-8 (k = -4), energy balance (derived).
+      { b: -13, values: { xi_ms: xi }, expected: energyBalance(-4, 0, slope * bd * M ** 2 * xi), source: "expanded massive dipole flux at -4PN (derived)" },
+    ];
+  })(),
+  "massive-vector-charges": ((): HandCheck[] => {
+    // The Yukawa binding re-derived here with numbers: potential per reduced mass V = -(M/r)(1 - y r^2/2) (M the measured mass);
+    // circular orbit omega^2 r = dV/dr, v = (M omega)^(1/3), E = r^2 omega^2/2 + V, quadrupole flux (32/5) eta^2 M^2 r^4 omega^6.
+    // A and B are read off as the first-order coefficients of v^-4 by a central difference in y (derived).
+    const y = 2e-9;
+    const r = 40 * M;
+    const orbit = (yy: number) => {
+      const omega = Math.sqrt(M / r ** 3 + (M * yy) / (2 * r));
+      const v = Math.cbrt(M * omega);
+      const E = (r ** 2 * omega ** 2) / 2 - (M / r) * (1 - (yy * r ** 2) / 2);
+      const F = (32 / 5) * eta ** 2 * M ** 2 * r ** 4 * omega ** 6;
+      return { v, e: E / (-0.5 * v ** 2) - 1, f: F / ((32 / 5) * eta ** 2 * v ** 10) - 1 };
+    };
+    // d(E/E_N - 1)/dy and d(F/F_N - 1)/dy at y = 0, times v^4 / M^2 (expected -5/3 and 2/3): central differences with
+    // y r^2 = 1e-4 and one Richardson step, so the error is about 1e-12.
+    const h = 1e-4 / r ** 2;
+    const slope = (key: "e" | "f") => {
+      const central = (step: number) => (orbit(step)[key] - orbit(-step)[key]) / (2 * step);
+      return (4 * central(h / 2) - central(h)) / 3;
+    };
+    const v0 = orbit(0).v;
+    const dA = (slope("e") * v0 ** 4) / M ** 2;
+    const dB = (slope("f") * v0 ** 4) / M ** 2;
+    return [
+      // Larmor dipole, as the 'vector-charges' entry (derived).
+      { b: -7, values: { dq: 0.3 }, expected: energyBalance(-1, 0, (5 / 48) * 0.09), source: "vector dipole flux (Larmor), energy balance" },
+      { b: -9, values: { y_V: y }, expected: energyBalance(-2, dA * y * M ** 2, dB * y * M ** 2), source: "Yukawa binding from the orbit, energy balance at -2PN (derived)" },
+    ];
+  })(),
   "eco-tidal-deformability": (() => {
     const L = 40;
     // Lambda-tilde of Favata 2014 / Wade et al. 2014 (value from memory) and the 5PN phase -(39/2) Lambda-tilde x^5 in 3/(128 eta x^(5/2)).
@@ -153,7 +209,7 @@ const HAND: Record<string, HandCheck[]> = {
 describe("the second batch of catalogue entries (seed step catalogue-wave2)", () => {
   it("when an already-seeded database starts again, then the new step runs once and adds every new entry", () => {
     expect(firstRun).toEqual(["catalogue", "ringdown-catalogue"]);
-    expect(secondRun).toEqual(["catalogue-wave2"]);
+    expect(secondRun).toEqual(["catalogue-wave2", "catalogue-wave2-b", "catalogue-wave2-c"]);
     expect(thirdRun).toEqual([]);
     expect(details.size).toBe(countBefore + THEORIES_WAVE2.length);
     expect(details.size).toBeGreaterThanOrEqual(25);
@@ -215,6 +271,22 @@ describe("the second batch of catalogue entries (seed step catalogue-wave2)", ()
         expect(Math.abs(got / c.expected - 1), `${e.slug} against ${c.source}: ${got} vs ${c.expected}`).toBeLessThan(1e-10);
       }
     }
+  });
+
+  it("when a published bound is shown, then it carries its credibility, or a note saying why it has none", () => {
+    let without = 0;
+    for (const [slug, t] of details) {
+      for (const b of t.reference_bounds) {
+        if (b.credibility !== null) {
+          expect(b.credibility, `${slug} ${b.coupling}`).toBeGreaterThan(0);
+          continue;
+        }
+        without++;
+        expect(b.note ?? "", `${slug} ${b.coupling} ${b.value}: a bound without a credibility says why`).toMatch(/no credib/i);
+      }
+    }
+    // The GW170817 speed interval (gw-speed, and c13 of einstein-aether), EdGB's X-ray-binary and GWTC stacking bounds, noncommutative: on purpose.
+    expect(without).toBeGreaterThan(0);
   });
 
   it("when sensitivities vanish, then the varying-G entry reduces to -(275/851968) (Gdot/G) Mc (the varying-g entry)", () => {

@@ -4,6 +4,7 @@ import { Link } from "react-router-dom";
 import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { useTheories, theoriesQuery } from "../../features/catalogue/api/get-theories.ts";
 import { CatalogueFilters } from "../../features/catalogue/components/catalogue-filters.tsx";
+import { SourceStatusLegend } from "../../features/catalogue/components/source-status.tsx";
 import { TheoryTable } from "../../features/catalogue/components/theory-table.tsx";
 import { useCatalogueFilters } from "../../features/catalogue/components/use-catalogue-filters.ts";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
@@ -53,10 +54,13 @@ export function Component() {
           <ErrorNote error={shown.error} retry={() => void shown.refetch()} />
         ) : (
           <>
-            <p className="mb-2 text-sm text-ink-soft tabular-nums" data-testid="theory-count">
-              {shown.data.theories.length} of {all.data?.theories.length ?? shown.data.theories.length} entries
-              {shown.isFetching && " · updating…"}
-            </p>
+            <div className="mb-2 flex flex-wrap items-baseline justify-between gap-x-6 gap-y-1">
+              <p className="text-sm text-ink-soft tabular-nums" data-testid="theory-count">
+                {shown.data.theories.length} of {all.data?.theories.length ?? shown.data.theories.length} entries
+                {shown.isFetching && " · updating…"}
+              </p>
+              <SourceStatusLegend />
+            </div>
             <TheoryTable theories={shown.data.theories} />
           </>
         )}

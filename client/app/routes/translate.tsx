@@ -1,21 +1,27 @@
-import { Link } from "react-router-dom";
-import type { ConvertRequest } from "../../../common/convert.ts";
-import { useAuth } from "../../features/auth/components/auth-context.tsx";
+import { isPhaseBound, type ConvertRequest } from "../../../common/convert.ts";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel.tsx";
 import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
 import { SamplesPanel } from "../../features/translate/components/samples-panel.tsx";
 import { SamplesJobPanel } from "../../features/jobs/components/samples-job-panel.tsx";
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
-import { paths } from "../../lib/paths.ts";
 
 function SaveSlot({ request }: { request: ConvertRequest }) {
-  const { user, hasRole } = useAuth();
-  if (hasRole("analyst")) return <SaveToSheet request={request} />;
+  const bound = request.bound;
+  if (!isPhaseBound(bound)) {
+    return <p className="text-sm text-ink-faint">Sheets hold phase bounds (β at b, δφ_k) for now: amplitude and distance-ratio translations cannot be saved to a sheet yet.</p>;
+  }
   return (
-    <p className="text-sm text-ink-faint">
-      {user ? "Saving translations to sheets needs the analyst role." : <>Sign in with the analyst role to save translations to a sheet (<Link to={paths.signIn({ returnTo: paths.translate() })}>sign in</Link>).</>}
-    </p>
+    <SaveToSheet
+      what="this translation"
+      payload={{
+        kind: "translation",
+        bound,
+        binary: request.binary,
+        ...(request.cosmology ? { cosmology: request.cosmology } : {}),
+        ...(request.conventions ? { conventions: request.conventions } : {}),
+      }}
+    />
   );
 }
 
@@ -26,8 +32,8 @@ export function Component() {
       <header className="max-w-3xl">
         <h1 className="text-4xl leading-tight">Translate a bound</h1>
         <p className="mt-3 text-lg leading-relaxed text-ink-soft">
-          Give a bound on a theory-agnostic deviation, the binary it was measured on, and the cosmology. Every accepted catalogue entry that enters at that b turns it into a
-          limit on its coupling, with the conditions of its approximation checked at the limit.
+          Give a bound on a theory-agnostic deviation, the binary it was measured on, and the cosmology. Every accepted catalogue entry that enters at that b (or, for an amplitude
+          bound, at that a) turns it into a limit on its coupling, with the conditions of its approximation checked at the limit.
         </p>
       </header>
       <TranslatePanel footer={(request) => <SaveSlot request={request} />} />

@@ -15,6 +15,8 @@ const TARGETS: Record<MappingKind, MappingTarget> = {
   inspiral_amplitude: "ppe_amplitude",
   ringdown_frequency: "ringdown_frequency",
   ringdown_damping: "ringdown_damping",
+  remnant_mass: "remnant_mass",
+  remnant_spin: "remnant_spin",
 };
 
 /** Every expression of the entry with its field path, for the guard. */

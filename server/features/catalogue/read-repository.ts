@@ -202,10 +202,10 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
   const theories = await q;
   if (!theories.length) return [];
   const ids = theories.map((t) => t.id);
-  type MappingBrief = Pick<MappingRow, "theory_id" | "kind" | "b" | "a" | "pn_order" | "retired_at">;
+  type MappingBrief = Pick<MappingRow, "theory_id" | "kind" | "b" | "a" | "pn_order" | "retired_at" | "source_status">;
   type CouplingBrief = Pick<CouplingRow, "theory_id" | "symbol" | "latex" | "unit">;
   const [mappings, couplings, refs] = await reads<[MappingBrief[], CouplingBrief[], Map<number, StoredReference[]>]>(db, [
-    () => db("mappings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<MappingBrief[]>("theory_id", "kind", "b", "a", "pn_order", "retired_at"),
+    () => db("mappings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<MappingBrief[]>("theory_id", "kind", "b", "a", "pn_order", "retired_at", "source_status"),
     () => db("couplings").whereIn("theory_id", ids).orderBy(["theory_id", "position"]).select<CouplingBrief[]>("theory_id", "symbol", "latex", "unit"),
     () => listReferencesOfTheories(db, ids),
   ]);
@@ -219,9 +219,10 @@ export async function listTheories(db: Knex, f: ListFilters): Promise<TheorySumm
       summary: t.summary,
       revision: t.current_revision,
       updated_at: t.updated_at.toISOString(),
-      source_to_be_confirmed: t.needs_source_confirmation,
+      // As on the detail: the entry's own flag, or any formula recalled from memory.
+      source_to_be_confirmed: t.needs_source_confirmation || own.some((m) => m.source_status === "memory"),
       couplings: couplings.filter((c) => c.theory_id === t.id).map(({ symbol, latex, unit }) => ({ symbol, latex, latex_html: texToHtml(latex), unit })),
-      mappings: own.map(({ kind, b, a, pn_order, retired_at }) => ({ kind, b, a, pn_order, retired: retired_at !== null })),
+      mappings: own.map(({ kind, b, a, pn_order, retired_at, source_status }) => ({ kind, b, a, pn_order, retired: retired_at !== null, source_status })),
       references: refs.get(t.id) ?? [],
       retired: retirementOf(t),
     };

@@ -4,6 +4,7 @@ import { couplingExclusion, testCovarianceAtGr } from "../../physics/ringdown/co
 import { summaryCovariance } from "../../physics/ringdown/gaussian-consistency.ts";
 import { remnantFromBinary } from "../../physics/ringdown/remnant.ts";
 import { assessValidity } from "../../physics/ringdown/ringdown-bound.ts";
+import { failingDto, validityItemDto } from "../convert/build-result.ts";
 import type { RingdownCatalogue } from "../ringdown/catalogue.ts";
 import { resolveRemnant } from "../ringdown/remnant-input.ts";
 
@@ -12,11 +13,13 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
   const theory = (await catalogue.load()).find((t) => t.slug === request.theory);
   if (!theory) throw new PhysicsInputError("theory", `unknown theory "${request.theory}"`);
   const forMode = theory.mappings.filter((m) => m.mode === request.mode);
-  const first = forMode[0];
-  if (!first) throw new PhysicsInputError("theory", `"${request.theory}" has no ringdown mapping for mode ${request.mode}`);
-  const coupling = first.coupling;
-  const freq = forMode.find((m) => m.kind === "ringdown_frequency" && m.coupling.symbol === coupling.symbol);
-  const damp = forMode.find((m) => m.kind === "ringdown_damping" && m.coupling.symbol === coupling.symbol);
+  const coupling = forMode[0]?.coupling ?? theory.remnant[0]?.coupling;
+  if (!coupling) throw new PhysicsInputError("theory", `"${request.theory}" has no ringdown mapping for mode ${request.mode} and no remnant mapping`);
+  const same = <T extends { coupling: { symbol: string } }>(m: T) => m.coupling.symbol === coupling.symbol;
+  const freq = forMode.find((m) => m.kind === "ringdown_frequency" && same(m));
+  const damp = forMode.find((m) => m.kind === "ringdown_damping" && same(m));
+  const rMass = theory.remnant.find((m) => m.kind === "remnant_mass" && same(m));
+  const rSpin = theory.remnant.find((m) => m.kind === "remnant_spin" && same(m));
 
   const remnant = resolveRemnant({ binary: request.binary });
   const b = request.binary;
@@ -29,20 +32,26 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
   const env = remnant.env;
   const shifts = { df: (x: number) => (freq ? freq.evaluate(x, env) : 0), dtau: (x: number) => (damp ? damp.evaluate(x, env) : 0) };
   const sides: (1 | -1)[] = coupling.range === "any_sign" ? [-1, 1] : [1];
-  const common = { mode: request.mode, M: inFrame.M_f, chi: inFrame.chi_f, shifts, covariance, credibility: request.credibility, sides };
+  const remnantShift = rMass || rSpin ? { dM: (x: number) => (rMass ? rMass.evaluate(x, env) : 0), dchi: (x: number) => (rSpin ? rSpin.evaluate(x, env) : 0) } : undefined;
+  const common = { mode: request.mode, M: inFrame.M_f, chi: inFrame.chi_f, shifts, ...(remnantShift ? { remnant: remnantShift } : {}), covariance, credibility: request.credibility, sides };
   const exact = couplingExclusion(common);
   const linear = couplingExclusion({ ...common, reading: "linear" });
   // The frequency and damping mappings often share a condition: assess each condition once.
-  const validity = [...(freq?.validity ?? []), ...(damp?.validity ?? [])].filter((v, i, all) => all.findIndex((w) => w.condition === v.condition && w.label === v.label) === i);
+  const used = [freq, damp, rMass, rSpin].filter((m) => m !== undefined);
+  const validity = used.flatMap((m) => m.validity).filter((v, i, all) => all.findIndex((w) => w.condition === v.condition && w.label === v.label) === i);
 
   const cautions = [
-    "Only the theory's ringdown shifts enter: the inspiral estimate is taken as the GR remnant (the inspiral bias from the theory's ppE term and any shift of the true remnant are not modelled here).",
+    remnantShift
+      ? "The inspiral estimate is taken as the GR remnant of the binary: the inspiral bias from the theory's ppE term is not modelled here."
+      : "Only the theory's ringdown shifts enter: the inspiral estimate is taken as the GR remnant (the inspiral bias from the theory's ppE term is not modelled here, and the entry has no remnant mapping, so the true remnant is taken as unshifted).",
     "The test's covariance is evaluated at the GR point and held fixed; a real analysis's widths change as the estimates move.",
     "The deviation at the bound is about two standard deviations of the test: a linear-bias picture of a template mismatch is only trustworthy to about one.",
   ];
-  if (!freq) cautions.push("The theory has no frequency mapping for this mode: its frequency shift is taken as 0.");
-  if (!damp) cautions.push("The theory has no damping-time mapping for this mode: its damping-time shift is taken as 0.");
-  if ([freq, damp].some((m) => m?.sourceStatus !== "confirmed" && m !== undefined)) cautions.push("The theory's ringdown mapping is derived or recalled, not read in a paper: see the entry.");
+  if (!freq) cautions.push(`The theory has no frequency mapping for mode ${request.mode}: its frequency shift is taken as 0.`);
+  if (!damp) cautions.push(`The theory has no damping-time mapping for mode ${request.mode}: its damping-time shift is taken as 0.`);
+  if (remnantShift && !rMass) cautions.push("The theory has a remnant-spin mapping but no remnant-mass mapping: the remnant's mass is taken as unshifted.");
+  if (remnantShift && !rSpin) cautions.push("The theory has a remnant-mass mapping but no remnant-spin mapping: the remnant's spin is taken as unshifted.");
+  if (used.some((m) => m.sourceStatus !== "confirmed")) cautions.push("Some of the theory's ringdown or remnant mappings are derived or recalled, not read in a paper: see the entry.");
   if (inFrame.chi_f_fit_spread > 0.005) cautions.push(`The two final-spin fits differ by ${inFrame.chi_f_fit_spread.toFixed(3)} for this binary: a systematic of the remnant.`);
 
   return {
@@ -50,6 +59,7 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
     coupling: { symbol: coupling.symbol, latex: coupling.latex, unit: coupling.unit },
     remnant: { M_f: inFrame.M_f, chi_f: inFrame.chi_f, frame: b.frame, chi_f_alternative: inFrame.chi_f_alternative },
     credibility: request.credibility,
+    model: { qnm_frequency: freq !== undefined, qnm_damping: damp !== undefined, remnant_mass: rMass !== undefined, remnant_spin: rSpin !== undefined, inspiral_bias: false },
     covariance,
     sides: exact.sides.map((s, i) => {
       const v = s.x === null ? null : assessValidity(validity, s.x, env);
@@ -60,7 +70,9 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
         ...(s.reason ? { reason: s.reason } : {}),
         linear_breaks_at: s.linear_breaks_at,
         verdict: v?.verdict ?? "not_assessed",
-        conditions: v?.outcomes ?? [],
+        failing: v?.failing ? failingDto(v.failing) : null,
+        validity: (v?.validity ?? []).map(validityItemDto),
+        unassessed: v?.unassessed ?? [],
       };
     }),
     track: exact.track,

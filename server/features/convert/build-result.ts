@@ -1,7 +1,7 @@
-import type { BoundRequest, Caution, ConvertResult, QuotedValueDto } from "../../../common/convert.ts";
-import type { BoundedResult } from "../../physics/convert.ts";
+import type { Caution, Channel, ConvertBoundRequest, ConvertResult, QuotedValueDto } from "../../../common/convert.ts";
+import type { BoundedResult, ValidityResult } from "../../physics/convert.ts";
 import { formatLatexNumber, unitLatex } from "../../physics/latex-format.ts";
-import { engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, signedIntervalCaution, validityCautions } from "./cautions.ts";
+import { amplitudeMappingCaution, engineCautions, leadingPnCaution, oneSignedCaution, priorCaution, signConventionCaution, signedIntervalCaution, validityCautions } from "./cautions.ts";
 import type { AcceptedTheory } from "./catalogue-snapshot.ts";
 import type { ReadyMapping } from "./compiled-catalogue.ts";
 import { compareWithBound, shortCitation } from "./reference-compare.ts";
@@ -15,9 +15,11 @@ export interface ResultInput {
   theory: AcceptedTheory;
   ready: ReadyMapping;
   result: BoundedResult;
-  bound: BoundRequest;
+  bound: ConvertBoundRequest;
   requestedConvention: string | undefined;
   propagation?: { z: number; alphaMd: number; mpc: number };
+  /** Default "phase". */
+  channel?: Channel;
 }
 
 const plain = (q: { symbol: string; latex: string; value: number; unit: string; side: "upper" | "lower" }): QuotedValueDto => ({
@@ -28,7 +30,33 @@ const plain = (q: { symbol: string; latex: string; value: number; unit: string; 
   side: q.side,
 });
 
-export function buildResult({ theory, ready, result, bound, requestedConvention, propagation }: ResultInput): ConvertResult {
+/** A condition at a limit as the API states it (non-finite numbers become null). Shared by every bound kind. */
+export function validityItemDto(v: ValidityResult): ConvertResult["validity"][number] {
+  return {
+    label: v.label,
+    condition: v.condition,
+    value: Number.isFinite(v.value) ? v.value : null,
+    max: v.max,
+    ok: v.ok,
+    kind: v.kind,
+    factor: Number.isFinite(v.factor) ? v.factor : null,
+    status: v.status,
+    ...(v.reference ? { reference: v.reference } : {}),
+  };
+}
+
+export function failingDto(v: ValidityResult): NonNullable<ConvertResult["failing"]> {
+  return {
+    label: v.label,
+    condition: v.condition,
+    value: Number.isFinite(v.value) ? v.value : null,
+    max: v.max,
+    factor: Number.isFinite(v.factor) ? v.factor : null,
+    kind: v.kind,
+  };
+}
+
+export function buildResult({ theory, ready, result, bound, requestedConvention, propagation, channel = "phase" }: ResultInput): ConvertResult {
   const spec = ready.compiled.coupling;
   const conventionList = result.conventions;
   const defaultName = spec.convention ?? conventionList.find((c) => c.factor === 1)?.name ?? "canonical";
@@ -64,7 +92,7 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
   }
 
   const cautions: Caution[] = [...validityCautions(result)];
-  cautions.push(leadingPnCaution(ready.notes.pnOrder));
+  cautions.push(channel === "phase" ? leadingPnCaution(ready.notes.pnOrder) : amplitudeMappingCaution(channel, ready.notes.pnOrder));
   cautions.push(priorCaution(coupling.symbol));
   const oneSigned = oneSignedCaution(result, bound);
   if (oneSigned) {
@@ -97,6 +125,7 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
     also,
     canonical: { symbol: result.coupling.symbol, latex: result.coupling.latex, value: result.coupling.value, unit: result.coupling.unit },
     coupling_symbol: result.coupling.symbol,
+    channel,
     b: result.b,
     beta_max: result.beta_max,
     beta_interval: [...result.beta_interval],
@@ -105,28 +134,9 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
     signed_interval: result.signed_interval ? { ...result.signed_interval } : null,
     method: result.method,
     verdict: result.verdict,
-    failing: result.failing
-      ? {
-          label: result.failing.label,
-          condition: result.failing.condition,
-          value: Number.isFinite(result.failing.value) ? result.failing.value : null,
-          max: result.failing.max,
-          factor: Number.isFinite(result.failing.factor) ? result.failing.factor : null,
-          kind: result.failing.kind,
-        }
-      : null,
+    failing: result.failing ? failingDto(result.failing) : null,
     valid: result.verdict === "valid",
-    validity: result.validity.map((v) => ({
-      label: v.label,
-      condition: v.condition,
-      value: Number.isFinite(v.value) ? v.value : null,
-      max: v.max,
-      ok: v.ok,
-      kind: v.kind,
-      factor: Number.isFinite(v.factor) ? v.factor : null,
-      status: v.status,
-      ...(v.reference ? { reference: v.reference } : {}),
-    })),
+    validity: result.validity.map(validityItemDto),
     closed_form_latex: closedForm,
     mapping_latex: ready.notes.latex,
     reference_bounds: referenceBounds,

@@ -64,6 +64,7 @@ export function acceptedTheoryOf(detail: TheoryDetail): AcceptedTheory {
     mappings: detail.mappings.map((m) => ({
       kind: m.kind,
       b: m.b ?? Number.NaN,
+      ...(m.a === null ? {} : { a: m.a }),
       expression: m.expression,
       coupling: m.coupling,
       ...(m.held_fixed ? { held_fixed: m.held_fixed } : {}),

@@ -1,4 +1,4 @@
-import { RULE_OF_THUMB_STRETCH, type BoundRequest, type Caution, type CautionCode } from "../../../common/convert.ts";
+import { RULE_OF_THUMB_STRETCH, type AmplitudeBoundRequest, type Caution, type CautionCode, type ConvertBoundRequest } from "../../../common/convert.ts";
 import type { BoundedResult } from "../../physics/convert.ts";
 
 /**
@@ -9,7 +9,7 @@ import type { BoundedResult } from "../../physics/convert.ts";
 
 const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(3)).toString() : String(x));
 
-export function validityCautions(result: BoundedResult): Caution[] {
+export function validityCautions(result: Pick<BoundedResult, "validity">): Caution[] {
   return result.validity
     .filter((v) => !v.ok)
     .map((v) => ({
@@ -31,6 +31,45 @@ export function leadingPnCaution(pnOrder: number | null): Caution {
   };
 }
 
+/**
+ * Beside every amplitude result: what the mapping leaves out. Amplitude mappings are the leading
+ * correction to the amplitude at one exponent; a distance ratio is the a = 0 term.
+ */
+export function amplitudeMappingCaution(channel: "amplitude" | "distance_ratio", pnOrder: number | null): Caution {
+  if (channel === "distance_ratio") {
+    return {
+      code: "amplitude",
+      message: "Distance ratio: the limit treats d_L^GW / d_L^EM as the amplitude correction at a = 0 (alpha = d_L^EM / d_L^GW − 1, derived); the theory's other effects on the waveform and on the background expansion are left out, and the ratio carries the uncertainty of the electromagnetic distance.",
+    };
+  }
+  const order = pnOrder === null ? "" : ` at ${pnOrder}PN relative order`;
+  return {
+    code: "amplitude",
+    message: `Leading amplitude correction${order}: the theory's higher-order amplitude terms, and any phase term the same coupling produces, are left out of this limit.`,
+  };
+}
+
+/** About an amplitude bound itself, before any theory. */
+export function amplitudeBoundCautions(bound: AmplitudeBoundRequest): Caution[] {
+  if (bound.parameter === "distance_ratio") {
+    return [
+      {
+        code: "amplitude",
+        message: `The ratio d_L^GW / d_L^EM at z = ${bound.z} was translated as the amplitude correction at a = 0, alpha = 1/r − 1 (derived): the interval on r becomes one on alpha with its ends swapped.`,
+      },
+    ];
+  }
+  if (bound.a === 0) {
+    return [
+      {
+        code: "amplitude",
+        message: "An amplitude correction at a = 0 is a constant factor, fully degenerate with the luminosity distance: it is measurable only with an independent (electromagnetic) distance, which is the distance_ratio bound.",
+      },
+    ];
+  }
+  return [];
+}
+
 export function priorCaution(symbol: string): Caution {
   return {
     code: "prior",
@@ -42,15 +81,25 @@ export function priorCaution(symbol: string): Caution {
  * Only where it is true: the theory gives one sign of beta over its coupling's physical range for this
  * binary, so only that side of the bound constrains it.
  */
-export function oneSignedCaution(result: BoundedResult, bound: BoundRequest): Caution | undefined {
+export function oneSignedCaution(result: BoundedResult, bound: ConvertBoundRequest): Caution | undefined {
   if (result.theory_sign === 0) return undefined;
-  const sign = result.theory_sign < 0 ? "β < 0" : "β > 0";
-  const what = bound.parameter === "ppe_beta" ? "β" : `δφ_${String(bound.k)}`;
+  if (bound.parameter === "distance_ratio") {
+    // alpha = 1/r - 1: alpha > 0 is a ratio below 1 (the wave looks closer than its host), alpha < 0 above 1.
+    const below = result.theory_sign > 0;
+    const [lo, hi] = bound.interval;
+    return {
+      code: "one_signed",
+      message: `For this source the theory gives d_L^GW / d_L^EM ${below ? "< 1" : "> 1"} at every value of its coupling, so only the ${below ? "lower" : "upper"} end of the ratio's interval (${below ? lo : hi}) constrains it; the other end says nothing about this theory.`,
+    };
+  }
+  const dev = bound.parameter === "ppe_alpha" ? "α" : "β";
+  const sign = result.theory_sign < 0 ? `${dev} < 0` : `${dev} > 0`;
+  const what = bound.parameter === "ppe_beta" ? "β" : bound.parameter === "ppe_alpha" ? "α" : `δφ_${String(bound.k)}`;
   const end = result.side_used === "lower" ? "lower" : "upper";
   const used =
     bound.upper !== undefined
-      ? `the symmetric |${what}| ≤ ${fmt(bound.upper)} was used as its ${end} side only (β ${result.theory_sign < 0 ? "≥" : "≤"} ${fmt(result.theory_sign < 0 ? -result.beta_max : result.beta_max)}); a one-sided bound on that side is the better input`
-      : `only the ${end} end of the interval was used (β ${result.theory_sign < 0 ? "≥" : "≤"} ${fmt(result.theory_sign < 0 ? -result.beta_max : result.beta_max)}); the other end says nothing about this theory`;
+      ? `the symmetric |${what}| ≤ ${fmt(bound.upper)} was used as its ${end} side only (${dev} ${result.theory_sign < 0 ? "≥" : "≤"} ${fmt(result.theory_sign < 0 ? -result.beta_max : result.beta_max)}); a one-sided bound on that side is the better input`
+      : `only the ${end} end of the interval was used (${dev} ${result.theory_sign < 0 ? "≥" : "≤"} ${fmt(result.theory_sign < 0 ? -result.beta_max : result.beta_max)}); the other end says nothing about this theory`;
   return {
     code: "one_signed",
     message: `For this binary the theory gives ${sign} at every value of its coupling, so only that side of the bound constrains it: ${used}.`,

@@ -1,6 +1,6 @@
 import type { Request, RequestHandler } from "express";
 import multer from "multer";
-import { convertRequestSchema, convertResponseSchema, convertTableRequestSchema, convertTableResponseSchema } from "../../../common/convert.ts";
+import { convertRequestSchema, convertTableRequestSchema, convertTableResponseSchema } from "../../../common/convert.ts";
 import type { Config } from "../../config.ts";
 import { ValidationError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
@@ -8,6 +8,8 @@ import { parseBoundsCsv, withCsvLines } from "./csv-rows.ts";
 import { convertRateLimit } from "./rate-limit.ts";
 import { formField, uploadedCsv } from "./upload-fields.ts";
 import type { ConvertService } from "./service.ts";
+import { convertAnyRequestSchema, convertAnyResponseSchema, isRingdownBody, ringdownConvertRequestSchema } from "../../../common/ringdown.ts";
+import type { RingdownService } from "../ringdown/service.ts";
 
 /**
  * POST /api/v1/convert and /api/v1/convert/table: open to anyone, rate-limited. The table route takes
@@ -31,7 +33,14 @@ function tableRequestFromUpload(req: Request): unknown {
   };
 }
 
-export function convertRoutes(service: ConvertService, config: Config): RouteSpec[] {
+/** A bound whose kind the translator does not know: the message lists the ringdown kinds too. */
+function withRingdownKinds(err: unknown): unknown {
+  if (!(err instanceof ValidationError) || !err.fields?.["bound.parameter"]) return err;
+  const message = `${err.fields["bound.parameter"]}, or "qnm_dfreq" / "qnm_dtau" for a ringdown bound`;
+  return new ValidationError(`Invalid bound.parameter: ${message}`, { ...err.fields, "bound.parameter": message });
+}
+
+export function convertRoutes(service: ConvertService, config: Config, ringdown: RingdownService): RouteSpec[] {
   const limit = convertRateLimit(config);
   const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: config.CONVERT_UPLOAD_MAX_BYTES, files: 1, fields: 12 } });
   // multer skips requests that are not multipart, so JSON bodies pass straight through.
@@ -42,14 +51,24 @@ export function convertRoutes(service: ConvertService, config: Config): RouteSpe
       method: "post",
       path: "/v1/convert",
       access: access.public,
-      summary: "Translate one bound on a ppE beta or gIMR dphi_k into limits on every applicable catalogued coupling",
+      summary:
+        "Translate one bound (ppE beta, gIMR dphi_k, or a ringdown shift qnm_dfreq / qnm_dtau of one mode) into limits on every applicable catalogued coupling, each with its verdict",
       tags: ["convert"],
-      body: convertRequestSchema,
-      response: convertResponseSchema,
+      body: convertAnyRequestSchema,
+      response: convertAnyResponseSchema,
       errors: [400, 429],
       before: [limit],
       handler: async (req, res) => {
-        const request = parseWith(convertRequestSchema, req.body);
+        if (isRingdownBody(req.body)) {
+          res.json(await ringdown.convert(parseWith(ringdownConvertRequestSchema, req.body)));
+          return;
+        }
+        let request;
+        try {
+          request = parseWith(convertRequestSchema, req.body);
+        } catch (err) {
+          throw withRingdownKinds(err);
+        }
         res.json(await service.convert(request));
       },
     },

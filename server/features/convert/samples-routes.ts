@@ -64,6 +64,9 @@ export function samplesRoutes(service: ConvertService, config: Config): RouteSpe
         } catch (err) {
           throw fromUpload && err instanceof ValidationError ? withCsvLines(err, SAMPLE_ROW) : err;
         }
+        // A turn of the event loop between validating up to 20 000 rows and converting them (which
+        // yields every few thousand samples itself), so the two never run as one stall.
+        await new Promise((resolve) => setImmediate(resolve));
         res.json(await convertSamples(await service.catalogue(), request));
       },
     },

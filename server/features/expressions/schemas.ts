@@ -27,7 +27,7 @@ export const checkRequest = z.strictObject({
   // The length cap lives in the expression guard, so its message names the position; this cap only
   // keeps absurd bodies out of the parser.
   expression: z.string().max(200_000),
-  target: z.enum(["ppe_phase", "ppe_amplitude", "ringdown_frequency", "ringdown_damping", "validity"]),
+  target: z.enum(["ppe_phase", "ppe_amplitude", "ringdown_frequency", "ringdown_damping", "remnant_mass", "remnant_spin", "validity"]),
   b: z.number().finite().optional(),
   a: z.number().finite().optional(),
   pn_order: z.number().finite().optional(),
@@ -72,7 +72,7 @@ export const deriveResponse = z.object({
   terms: z.array(
     z.object({ b: z.number(), pn_order: z.number(), beta: z.string(), beta_latex: z.string(), value: z.number().optional(), source: z.enum(["energy_flux", "frequency_drift", "propagation"]) }),
   ),
-  amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string(), value: z.number().optional() })).optional(),
+  amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string(), value: z.number().optional(), note: z.string().optional() })).optional(),
   steps: z.array(z.string()),
   notes: z.array(z.string()),
 });

@@ -27,6 +27,7 @@ function customInfo(row: CurveSummaryRow): CurveInfoDto {
     source: "uploaded by you",
     convention: row.convention,
     convention_note: `declared at upload (${row.uploaded_kind.toUpperCase()} table)`,
+    to_confirm: null,
     f_min: row.f_min,
     f_max: row.f_max,
     default_f_low: row.f_min,
@@ -44,6 +45,7 @@ export function builtInCurveInfo(): CurveInfoDto[] {
     source: c.source,
     convention: c.convention,
     convention_note: c.conventionNote,
+    to_confirm: c.toConfirm ?? null,
     f_min: c.fMin,
     f_max: c.fMax,
     default_f_low: c.defaultFLow,
@@ -56,7 +58,8 @@ export function builtInCurveInfo(): CurveInfoDto[] {
 
 export interface ForecastsService {
   curves(who: Identity | undefined): Promise<CurveInfoDto[]>;
-  uploadCurve(who: Identity, upload: CurveUpload): Promise<CurveInfoDto>;
+  /** `field` names where the table came in (the multipart `file` or the JSON `data`), for the 400. */
+  uploadCurve(who: Identity, upload: CurveUpload, field?: "file" | "data"): Promise<CurveInfoDto>;
   deleteCurve(who: Identity, id: number): Promise<void>;
   forecast(who: Identity | undefined, request: ForecastRequest): Promise<ForecastResponse>;
   combine(request: CombineRequest): CombineResponse;
@@ -92,8 +95,8 @@ export function forecastsService(repo: CurvesRepository, pool: ForecastPool, tra
       return [...builtInCurveInfo(), ...custom];
     },
 
-    async uploadCurve(who, upload) {
-      const table = parseCurveTable(upload.data, upload.kind);
+    async uploadCurve(who, upload, field = "data") {
+      const table = parseCurveTable(upload.data, upload.kind, field);
       if ((await repo.countByOwner(who.id)) >= MAX_CURVES_PER_USER) {
         throw new ValidationError(`Invalid request body: you already have ${MAX_CURVES_PER_USER} curves; delete one first`, { name: `at most ${MAX_CURVES_PER_USER} curves per user` });
       }

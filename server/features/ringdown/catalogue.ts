@@ -1,6 +1,6 @@
 import { theoryEntrySchema, type TheoryEntry } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
-import { compileRingdownMapping, type CompiledRingdownMapping } from "../../physics/ringdown/ringdown-mapping.ts";
+import { compileRemnantMapping, compileRingdownMapping, type CompiledRemnantMapping, type CompiledRingdownMapping } from "../../physics/ringdown/ringdown-mapping.ts";
 
 /**
  * The accepted catalogue as the ringdown translator sees it: each theory's current revision document
@@ -13,6 +13,8 @@ export interface RingdownTheory {
   revision: number;
   entry: TheoryEntry;
   mappings: CompiledRingdownMapping[];
+  /** Remnant mappings: the fractional shift of the remnant's mass or spin the theory causes. */
+  remnant: CompiledRemnantMapping[];
   broken: { index: number; reason: string }[];
 }
 
@@ -46,16 +48,21 @@ export function ringdownCatalogue(db: Knex): RingdownCatalogue {
         if (!parsed.success) continue;
         const entry = parsed.data;
         const mappings: CompiledRingdownMapping[] = [];
+        const remnant: CompiledRemnantMapping[] = [];
         const broken: { index: number; reason: string }[] = [];
         entry.mappings.forEach((m, i) => {
-          if (m.kind !== "ringdown_frequency" && m.kind !== "ringdown_damping") return;
+          if (m.retired) return;
+          const isRingdown = m.kind === "ringdown_frequency" || m.kind === "ringdown_damping";
+          const isRemnant = m.kind === "remnant_mass" || m.kind === "remnant_spin";
+          if (!isRingdown && !isRemnant) return;
           try {
-            mappings.push(compileRingdownMapping(entry, i));
+            if (isRingdown) mappings.push(compileRingdownMapping(entry, i));
+            else remnant.push(compileRemnantMapping(entry, i));
           } catch (err) {
             broken.push({ index: i, reason: err instanceof Error ? err.message : String(err) });
           }
         });
-        theories.push({ slug: row.slug, name: row.name, revision: row.number, entry, mappings, broken });
+        theories.push({ slug: row.slug, name: row.name, revision: row.number, entry, mappings, remnant, broken });
       }
       cached = { token: now, theories };
       return theories;

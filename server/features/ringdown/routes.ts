@@ -1,21 +1,13 @@
 import { ringdownConvertRequestSchema, ringdownConvertResponseSchema } from "../../../common/ringdown.ts";
 import type { Config } from "../../config.ts";
-import { ValidationError } from "../../errors.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
-import { PhysicsInputError } from "../../physics/input-error.ts";
 import { convertRateLimit } from "../convert/rate-limit.ts";
 import type { RingdownService } from "./service.ts";
 
-async function asValidation<T>(fn: () => Promise<T>): Promise<T> {
-  try {
-    return await fn();
-  } catch (err) {
-    if (err instanceof PhysicsInputError) throw new ValidationError(`Invalid request body: ${err.field}: ${err.message}`, { [err.field]: err.message });
-    throw err;
-  }
-}
-
-/** POST /api/v1/convert/ringdown: a bound on a QNM shift into limits on the catalogue's couplings. */
+/**
+ * POST /api/v1/convert/ringdown: kept for callers of the first ringdown release. It takes only
+ * ringdown bounds and answers exactly as POST /api/v1/convert does for them (same service).
+ */
 export function ringdownRoutes(service: RingdownService, config: Config): RouteSpec[] {
   const limit = convertRateLimit(config);
   return [
@@ -23,7 +15,7 @@ export function ringdownRoutes(service: RingdownService, config: Config): RouteS
       method: "post",
       path: "/v1/convert/ringdown",
       access: access.public,
-      summary: "Translate a bound on a fractional QNM frequency or damping-time shift into limits on every catalogued coupling with a ringdown mapping",
+      summary: "Same as POST /convert with a ringdown bound (qnm_dfreq or qnm_dtau): kept for earlier callers",
       tags: ["convert", "ringdown"],
       body: ringdownConvertRequestSchema,
       response: ringdownConvertResponseSchema,
@@ -31,7 +23,7 @@ export function ringdownRoutes(service: RingdownService, config: Config): RouteS
       before: [limit],
       handler: async (req, res) => {
         const request = parseWith(ringdownConvertRequestSchema, req.body);
-        res.json(await asValidation(() => service.convert(request)));
+        res.json(await service.convert(request));
       },
     },
   ];

@@ -12,16 +12,24 @@ export interface ExportFile {
   filename: string;
 }
 
-/** Every reference the sheet's limits cite (mapping sources and the published bounds compared with). */
+/** Every reference the sheet's limits cite (mapping sources and the published bounds compared with). Consistency results cite none. */
 export function sheetBibliography(sheet: Sheet): BibliographyEntry[] {
   const cited = new Set<string>();
   const details = new Map<string, BibliographyEntry>();
   for (const record of sheet.records) {
-    for (const r of record.translation.results) {
-      for (const c of r.references) cited.add(c.key);
-      for (const c of r.reference_bounds) cited.add(c.reference.key);
+    if (record.kind === "translation") {
+      for (const r of record.translation.results) {
+        for (const c of r.references) cited.add(c.key);
+        for (const c of r.reference_bounds) cited.add(c.reference.key);
+      }
+      for (const entry of record.translation.bibliography) if (!details.has(entry.key)) details.set(entry.key, entry);
+    } else if (record.kind === "samples_job" || record.kind === "stack") {
+      // The mapping's sources, copied from the catalogue when the result was saved.
+      for (const entry of record.references) {
+        cited.add(entry.key);
+        if (!details.has(entry.key)) details.set(entry.key, entry);
+      }
     }
-    for (const entry of record.translation.bibliography) if (!details.has(entry.key)) details.set(entry.key, entry);
   }
   return [...cited].flatMap((key) => details.get(key) ?? []).sort((a, b) => a.key.localeCompare(b.key));
 }
@@ -48,7 +56,7 @@ export function sheetToBibtex(sheet: Sheet): string {
 
 export function sheetToJson(sheet: Sheet, exportedAt: Date): string {
   const { share_token: _token, ...rest } = sheet;
-  return `${JSON.stringify({ format: "dragoman-sheet", format_version: 1, exported_at: exportedAt.toISOString(), sheet: rest }, null, 2)}\n`;
+  return `${JSON.stringify({ format: "dragoman-sheet", format_version: 2, exported_at: exportedAt.toISOString(), sheet: rest }, null, 2)}\n`;
 }
 
 export function exportSheet(sheet: Sheet, format: ExportFormat, options: { digits: number; now: Date }): ExportFile {

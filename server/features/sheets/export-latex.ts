@@ -1,8 +1,8 @@
 import type { ConvertResult } from "../../../common/convert.ts";
-import type { Sheet, SheetRecord } from "../../../common/sheets.ts";
 import { shortTheoryName } from "../../../common/theory-name.ts";
+import type { ConsistencyRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
 import { unitLatex } from "../../physics/latex-format.ts";
-import { exportLines } from "./export-rows.ts";
+import { exportLines, priorText } from "./export-rows.ts";
 import { fileStem } from "./export-stem.ts";
 
 export { shortTheoryName };
@@ -74,7 +74,7 @@ function percent(c: number): string {
   return `${Number((c * 100).toPrecision(4))}\\%`;
 }
 
-function boundLatex(record: SheetRecord, digits: number): string {
+function boundLatex(record: TranslationRecord, digits: number): string {
   const bound = record.bound;
   const symbol = bound.parameter === "ppe_beta" ? "\\beta" : `\\delta\\varphi_{${bound.k}}`;
   let text: string;
@@ -88,49 +88,113 @@ function boundLatex(record: SheetRecord, digits: number): string {
   return bound.parameter === "ppe_beta" ? `${text} at $b = ${bound.b}$` : text;
 }
 
-function quantityCell(result: ConvertResult): string {
-  const unit = unitLatex(result.coupling.unit);
-  return `$${result.coupling.latex}$${unit ? ` [$${unit}$]` : ""}`;
+function quantityCell(coupling: { latex: string; unit: string }): string {
+  const unit = unitLatex(coupling.unit);
+  return `$${coupling.latex}$${unit ? ` [$${unit}$]` : ""}`;
 }
 
-function limitCell(result: ConvertResult, digits: number): string {
-  return `$${result.coupling.side === "upper" ? "\\le" : "\\ge"} ${numberLatex(result.coupling.value, digits)}$`;
+function limitCell(coupling: { side: string; value?: number | undefined; signed_interval?: [number, number] | undefined }, digits: number): string {
+  if (coupling.signed_interval) return `$\\in [${numberLatex(coupling.signed_interval[0], digits)}, ${numberLatex(coupling.signed_interval[1], digits)}]$`;
+  return `$${coupling.side === "lower" ? "\\ge" : "\\le"} ${numberLatex(coupling.value ?? Number.NaN, digits)}$`;
 }
 
-function citeCell(result: ConvertResult): string {
-  const keys = [...new Set(result.references.map((r) => r.key))];
-  return keys.length > 0 ? `\\cite{${keys.join(",")}}` : "--";
+function citeCell(keys: string[]): string {
+  const unique = [...new Set(keys)];
+  return unique.length > 0 ? `\\cite{${unique.join(",")}}` : "--";
 }
 
-function groupHead(record: SheetRecord, digits: number, withCredibility: boolean): string {
+function groupRow(record: { label: string; detector_network: string }, what: string): string {
   const who = [record.label, record.detector_network].filter(Boolean).map(escapeLatex).join(", ");
-  const cred = withCredibility ? ` (${percent(record.bound.credibility)})` : "";
-  return `\\multicolumn{${COLUMNS}}{@{}>{\\raggedright\\arraybackslash}p{\\linewidth}@{}}{\\textit{${who}}: ${boundLatex(record, digits)}${cred}}`;
+  return `\\multicolumn{${COLUMNS}}{@{}>{\\raggedright\\arraybackslash}p{\\linewidth}@{}}{\\textit{${who}}: ${what}}`;
 }
+
+function groupHead(record: TranslationRecord, digits: number, withCredibility: boolean): string {
+  const cred = withCredibility ? ` (${percent(record.bound.credibility)})` : "";
+  return groupRow(record, `${boundLatex(record, digits)}${cred}`);
+}
+
+/** The deviation a samples or stacking result was drawn from: "$\\beta$ at $b = -7$". */
+function deviationLatex(parameter: "ppe_beta" | "gimr_dphi", b: number | undefined, k: number | string | undefined): string {
+  return parameter === "ppe_beta" ? `$\\beta$ at $b = ${b ?? "?"}$` : `$\\delta\\varphi_{${k ?? "?"}}$`;
+}
+
+function samplesHead(record: SamplesJobRecord, withCredibility: boolean): string {
+  const x = record.result;
+  const cred = withCredibility ? `, ${percent(x.credibility)}` : "";
+  return groupRow(
+    record,
+    `posterior samples of ${deviationLatex(record.request.parameter, x.b, record.request.k)} (${x.samples.used.toLocaleString("en-US").replace(/,/g, "\\,")} samples used, effective size ${Math.round(x.effective_sample_size).toLocaleString("en-US").replace(/,/g, "\\,")}; prior ${escapeLatex(priorText(x.prior))}${cred})`,
+  );
+}
+
+function stackHead(record: StackRecord, withCredibility: boolean): string {
+  const x = record.result;
+  const used = x.events.filter((e) => e.used).length;
+  const cred = withCredibility ? `, ${percent(x.credibility)}` : "";
+  return groupRow(record, `${used} of ${x.events.length} events stacked, ${deviationLatex(record.request.parameter, record.request.b, record.request.k)} (prior ${escapeLatex(priorText(x.prior))}${cred})`);
+}
+
+const samplesVerdict = (v: "valid" | "outside_validity" | "not_assessed"): LimitVerdict => (v === "valid" ? "valid" : v === "outside_validity" ? "not_valid" : "not_assessed");
 
 const COLUMNS = 5;
 
+function credibilityOf(r: Sheet["records"][number]): number | null {
+  switch (r.kind) {
+    case "translation":
+      return r.bound.credibility;
+    case "samples_job":
+    case "stack":
+      return r.result.credibility;
+    case "consistency":
+      return null;
+  }
+}
+
 export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): string {
   const digits = options.digits ?? 2;
-  const lines = exportLines(sheet).filter((l) => l.kind === "limit");
-  const creds = [...new Set(sheet.records.map((r) => r.bound.credibility))];
+  const all = exportLines(sheet);
+  const lines = all.filter((l) => l.kind !== "not_applicable" && l.kind !== "consistency");
+  const consistency = all.flatMap((l) => (l.kind === "consistency" ? [l.record] : []));
+  const creds = [...new Set(sheet.records.flatMap((r) => credibilityOf(r) ?? []))];
   const perGroupCredibility = creds.length > 1;
   const body: string[] = [];
   const seen = new Set<LimitVerdict>();
   let current: number | null = null;
-  for (const line of lines) {
-    if (line.kind !== "limit") continue;
-    const { record, result } = line;
-    if (record.id !== current) {
-      if (current !== null) body.push("    \\addlinespace");
-      body.push(`    ${groupHead(record, digits, perGroupCredibility)} \\\\`);
-      current = record.id;
-    }
-    const verdict = limitVerdict(result);
+  const head = (id: number, text: string) => {
+    if (id === current) return;
+    if (current !== null) body.push("    \\addlinespace");
+    body.push(`    ${text} \\\\`);
+    current = id;
+  };
+  const row = (theory: string, coupling: Parameters<typeof quantityCell>[0] & Parameters<typeof limitCell>[0], verdict: LimitVerdict, keys: string[]) => {
     seen.add(verdict);
-    const cells = [escapeLatex(shortTheoryName(result.theory_name, result.theory)), quantityCell(result), limitCell(result, digits), VERDICT_MARK[verdict], citeCell(result)];
-    body.push(`    ${cells.join(" & ")} \\\\`);
+    body.push(`    ${[escapeLatex(theory), quantityCell(coupling), limitCell(coupling, digits), VERDICT_MARK[verdict], citeCell(keys)].join(" & ")} \\\\`);
+  };
+  for (const line of lines) {
+    switch (line.kind) {
+      case "limit": {
+        const { record, result } = line;
+        head(record.id, groupHead(record, digits, perGroupCredibility));
+        row(shortTheoryName(result.theory_name, result.theory), result.coupling, limitVerdict(result), result.references.map((r) => r.key));
+        break;
+      }
+      case "samples_job": {
+        const { record } = line;
+        head(record.id, samplesHead(record, perGroupCredibility));
+        row(shortTheoryName(record.result.theory_name, record.result.theory), record.result.coupling, samplesVerdict(record.result.verdict), record.references.map((r) => r.key));
+        break;
+      }
+      case "stack": {
+        const { record } = line;
+        head(record.id, stackHead(record, perGroupCredibility));
+        row(shortTheoryName(record.result.theory_name, record.result.theory), record.result.coupling, samplesVerdict(record.result.verdict), record.references.map((r) => r.key));
+        break;
+      }
+      default:
+        break;
+    }
   }
+  if (body.length === 0 && consistency.length > 0) return consistencyLatex(sheet, consistency, digits);
   if (body.length === 0) body.push(`    \\multicolumn{${COLUMNS}}{@{}l}{No limits in this sheet.} \\\\`);
   const credibilityText = creds.length === 1 ? ` at ${percent(creds[0]!)} credibility` : creds.length > 1 ? " at the credibility given beside each bound" : "";
   const legend = (["valid", "caution", "not_valid", "not_assessed"] as const).filter((v) => seen.has(v)).map((v) => `${VERDICT_MARK[v]}~${VERDICT_LEGEND[v]}`);
@@ -155,6 +219,49 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
     "    Theory & Coupling & Limit & {} & Ref. \\\\",
     "    \\midrule",
     ...body,
+    "    \\bottomrule",
+    "  \\end{tabularx}",
+    "\\end{table}",
+    "",
+  ].join("\n") + (consistency.length > 0 ? `\n${consistencyLatex(sheet, consistency, digits)}` : "");
+}
+
+/** x \pm s, both with the table's significant figures. */
+function plusMinus(x: number, s: number, digits: number): string {
+  return `$${numberLatex(x, digits)} \\pm ${numberLatex(s, digits)}$`;
+}
+
+/**
+ * The IMR-consistency results in a table of their own: the deviation of the remnant's mass and spin
+ * (merger-ringdown minus inspiral, over their mean), its width, and the GR quantile.
+ */
+export function consistencyLatex(sheet: Sheet, records: ConsistencyRecord[], digits: number): string {
+  const rows = records.map((r) => {
+    const [dm, dchi] = r.result.deviation.mean;
+    const [[cmm], [, ccc]] = r.result.deviation.covariance;
+    const who = [r.label, r.detector_network].filter(Boolean).map(escapeLatex).join(", ");
+    const method = r.method === "gaussian" ? "Gaussian" : "samples";
+    return `    ${[`${who} (${method})`, plusMinus(dm, Math.sqrt(cmm), digits), plusMinus(dchi, Math.sqrt(ccc), digits), `$${numberLatex(r.result.gr_quantile, digits)}$`].join(" & ")} \\\\`;
+  });
+  const caption = [
+    "Inspiral-merger-ringdown consistency of ``" + escapeLatex(sheet.name) + "'':",
+    "the fractional differences of the remnant mass and spin (merger-ringdown minus inspiral, over their mean), with one standard deviation,",
+    "and the GR quantile, the credible level of the region whose edge passes through no deviation (small values agree with general relativity).",
+  ].join(" ");
+  return [
+    "% Needs \\usepackage{booktabs,tabularx}.",
+    "\\begin{table}",
+    "  \\centering",
+    "  \\small",
+    "  \\setlength{\\tabcolsep}{3pt}",
+    `  \\caption{${caption}}`,
+    `  \\label{tab:${fileStem(sheet.name)}-imr}`,
+    "  \\smallskip",
+    "  \\begin{tabularx}{\\linewidth}{@{}>{\\raggedright\\arraybackslash\\hspace{0pt}}X l l l@{}}",
+    "    \\toprule",
+    "    Event & $\\Delta M_f/\\bar M_f$ & $\\Delta\\chi_f/\\bar\\chi_f$ & GR q. \\\\",
+    "    \\midrule",
+    ...rows,
     "    \\bottomrule",
     "  \\end{tabularx}",
     "\\end{table}",

@@ -1,3 +1,4 @@
+import type { RecordKind } from "../../../common/sheets.ts";
 import type { Knex } from "../../db/knex.ts";
 
 /** Saved sheets and their records. Knex in, plain objects out; JSON columns come back as parsed JSON. */
@@ -15,8 +16,12 @@ export interface SheetRow {
   updated_at: Date;
 }
 
+/**
+ * A record to write. A translation record fills bound, binary, cosmology, conventions, translation,
+ * catalogue_revision and entry_revisions; the other kinds put their provenance and result in payload.
+ */
 export interface NewRecord {
-  position: number;
+  kind: RecordKind;
   label: string;
   detector_network: string;
   analysis_method: string;
@@ -27,14 +32,19 @@ export interface NewRecord {
   cosmology: unknown;
   conventions: unknown;
   translation: unknown;
-  catalogue_revision: string;
+  catalogue_revision: string | null;
+  entry_revisions: Record<string, number> | null;
+  payload: unknown;
 }
 
-/** A stored record: what was written, plus where it sits and when it was translated. */
+/** A stored record: what was written, plus where it sits, when it was saved and translated, and its history. */
 export interface SheetRecordRow extends NewRecord {
   id: number;
   sheet_id: number;
+  position: number;
   translated_at: Date;
+  saved_at: Date;
+  history: unknown[];
 }
 
 export interface SheetSummaryRow {
@@ -97,19 +107,50 @@ export async function insertSheet(trx: Knex.Transaction, values: { owner_id: num
   return row.id;
 }
 
+const json = (v: unknown) => (v === null || v === undefined ? null : JSON.stringify(v));
+
 const asJson = (r: NewRecord) => ({
   ...r,
-  bound: JSON.stringify(r.bound),
-  binary: JSON.stringify(r.binary),
-  cosmology: JSON.stringify(r.cosmology),
-  conventions: JSON.stringify(r.conventions),
-  translation: JSON.stringify(r.translation),
+  bound: json(r.bound),
+  binary: json(r.binary),
+  cosmology: json(r.cosmology),
+  conventions: JSON.stringify(r.conventions ?? {}),
+  translation: json(r.translation),
+  entry_revisions: json(r.entry_revisions),
+  payload: json(r.payload),
 });
 
-/** Replaces every record of the sheet with `records` (positions as given). */
-export async function replaceRecords(trx: Knex.Transaction, sheetId: number, records: NewRecord[]): Promise<void> {
-  await trx("sheet_records").where({ sheet_id: sheetId }).delete();
-  if (records.length > 0) await trx("sheet_records").insert(records.map((r) => ({ ...asJson(r), sheet_id: sheetId })));
+/** Inserts new records at the given positions. */
+export async function insertRecords(trx: Knex.Transaction, sheetId: number, records: { record: NewRecord; position: number }[]): Promise<void> {
+  if (records.length > 0) await trx("sheet_records").insert(records.map(({ record, position }) => ({ ...asJson(record), position, sheet_id: sheetId })));
+}
+
+/** Deletes the sheet's records whose id is not in `keep`. */
+export async function deleteRecordsExcept(trx: Knex.Transaction, sheetId: number, keep: number[]): Promise<void> {
+  await trx("sheet_records").where({ sheet_id: sheetId }).whereNotIn("id", keep).delete();
+}
+
+/** Moves kept records to their new positions (through negative ones, so the unique (sheet, position) never clashes). */
+export async function setPositions(trx: Knex.Transaction, sheetId: number, positions: { id: number; position: number }[]): Promise<void> {
+  for (const p of positions) await trx("sheet_records").where({ sheet_id: sheetId, id: p.id }).update({ position: -1 - p.position });
+  for (const p of positions) await trx("sheet_records").where({ sheet_id: sheetId, id: p.id }).update({ position: p.position });
+}
+
+/** Replaces a translation record's translation, keeping the one it replaces in its history. */
+export async function replaceTranslation(
+  trx: Knex.Transaction,
+  recordId: number,
+  values: { translation: unknown; catalogue_revision: string; entry_revisions: Record<string, number>; history: unknown[] },
+): Promise<void> {
+  await trx("sheet_records")
+    .where({ id: recordId, kind: "translation" })
+    .update({
+      translation: JSON.stringify(values.translation),
+      catalogue_revision: values.catalogue_revision,
+      entry_revisions: JSON.stringify(values.entry_revisions),
+      history: JSON.stringify(values.history),
+      translated_at: trx.fn.now(),
+    });
 }
 
 /**

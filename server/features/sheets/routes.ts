@@ -2,8 +2,14 @@ import type { Request, Response } from "express";
 import { z } from "zod";
 import { dbId } from "../../../common/ids.ts";
 import {
+  appendRecordSchema,
   createSheetSchema,
   exportQuerySchema,
+  recordIdSchema,
+  recordVersionQuerySchema,
+  retranslationAcceptSchema,
+  retranslationPreviewRequestSchema,
+  retranslationPreviewSchema,
   sheetIdSchema,
   sheetListSchema,
   sheetSchema,
@@ -24,6 +30,7 @@ import type { SheetsService } from "./service.ts";
 const analyst = access.roles("analyst");
 const idParams = z.object({ id: sheetIdSchema });
 const tokenParams = z.object({ token: shareTokenSchema });
+const recordParams = z.object({ id: sheetIdSchema, record: recordIdSchema });
 const deleteQuery = z.strictObject({ version: dbId("version").optional() });
 
 function caller(req: Request): Identity {
@@ -57,9 +64,9 @@ export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[
       method: "post",
       path: "/v1/sheets",
       access: analyst,
-      // Each save translates every record again: it spends the translator's budget.
+      // Each new record is translated (or its job read) as it is saved: it spends the translator's budget.
       before: [limit],
-      summary: "Save a new sheet of bound records; each record is translated as it is saved",
+      summary: "Save a new sheet of records (translated bounds, samples, stacking and consistency results); each is computed once, as it is saved",
       tags,
       body: createSheetSchema,
       response: sheetSchema,
@@ -86,9 +93,9 @@ export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[
       method: "patch",
       path: "/v1/sheets/:id",
       access: analyst,
-      // Each save translates every record again: it spends the translator's budget.
+      // Only new records are computed; { kind: "keep", id } keeps a stored record as it is.
       before: [limit],
-      summary: "Change a sheet's name, description or records (give the version you read; a stale one answers 409)",
+      summary: 'Change a sheet\'s name, description or record list (give the version you read; a stale one answers 409). In records, { "kind": "keep", "id": n } keeps record n exactly as stored; any other item is a new record',
       tags,
       body: updateSheetSchema,
       response: sheetSchema,
@@ -97,6 +104,69 @@ export function sheetsRoutes(service: SheetsService, config: Config): RouteSpec[
         const { id } = parseWith(idParams, req.params, "path");
         const input = parseWith(updateSheetSchema, req.body);
         res.json(await service.update(caller(req), id, input));
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/sheets/:id/records",
+      access: analyst,
+      before: [limit],
+      summary: "Add one record to a sheet (a bound to translate, a finished samples, stacking or consistency job, or two Gaussian remnant estimates); the other records are not touched",
+      tags,
+      body: appendRecordSchema,
+      response: sheetSchema,
+      errors: [400, 404, 409],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        const input = parseWith(appendRecordSchema, req.body);
+        res.status(201).json(await service.append(caller(req), id, input));
+      },
+    },
+    {
+      method: "delete",
+      path: "/v1/sheets/:id/records/:record",
+      access: analyst,
+      summary: "Remove one record from a sheet (?version= is the version you read; a stale one answers 409)",
+      tags,
+      query: recordVersionQuerySchema,
+      response: sheetSchema,
+      errors: [400, 404, 409],
+      handler: async (req, res) => {
+        const { id, record } = parseWith(recordParams, req.params, "path");
+        const { version } = parseWith(recordVersionQuerySchema, req.query, "query");
+        res.json(await service.removeRecord(caller(req), id, record, version));
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/sheets/:id/retranslation/preview",
+      access: analyst,
+      before: [limit],
+      summary: "Re-translate translation records against the current catalogue without saving: each limit old and new, verdict changes, the entries whose revision changed",
+      tags,
+      body: retranslationPreviewRequestSchema,
+      response: retranslationPreviewSchema,
+      errors: [400, 404, 409],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        const { records } = parseWith(retranslationPreviewRequestSchema, req.body);
+        res.json(await service.previewRetranslation(caller(req), id, records));
+      },
+    },
+    {
+      method: "post",
+      path: "/v1/sheets/:id/retranslation",
+      access: analyst,
+      before: [limit],
+      summary: "Accept a previewed re-translation: the records take the new translation and keep the old one in their history (409 if the sheet or the catalogue moved since the preview)",
+      tags,
+      body: retranslationAcceptSchema,
+      response: sheetSchema,
+      errors: [400, 404, 409],
+      handler: async (req, res) => {
+        const { id } = parseWith(idParams, req.params, "path");
+        const input = parseWith(retranslationAcceptSchema, req.body);
+        res.json(await service.acceptRetranslation(caller(req), id, input));
       },
     },
     {

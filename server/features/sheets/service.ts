@@ -1,24 +1,49 @@
 import { randomBytes } from "node:crypto";
-import { binarySchema, boundSchema, convertResponseSchema, cosmologySchema, DEFAULT_COSMOLOGY } from "../../../common/convert.ts";
-import type { CreateSheetRequest, ExportFormat, Sheet, SheetRecordInput, SheetSummary, UpdateSheetRequest } from "../../../common/sheets.ts";
 import { z } from "zod";
+import { binarySchema, boundSchema, convertResponseSchema, cosmologySchema } from "../../../common/convert.ts";
+import {
+  historyItemSchema,
+  MAX_SHEET_RECORDS,
+  sheetRecordSchema,
+  type AppendRecordRequest,
+  type CreateSheetRequest,
+  type ExportFormat,
+  type HistoryItem,
+  type RecordRetranslation,
+  type RetranslationAcceptRequest,
+  type RetranslationPreview,
+  type Sheet,
+  type SheetRecord,
+  type SheetSummary,
+  type UpdateSheetRequest,
+} from "../../../common/sheets.ts";
 import type { Knex } from "../../db/knex.ts";
 import { ConflictError, NotFoundError, ValidationError } from "../../errors.ts";
 import type { Identity } from "../../http/identity.ts";
+import type { CompiledCatalogue } from "../convert/compiled-catalogue.ts";
 import type { ConvertService } from "../convert/service.ts";
 import { exportSheet, type ExportFile } from "./export-files.ts";
+import { entryRevisions, recordBuilder } from "./record-build.ts";
 import * as repo from "./repository.ts";
+import { entryChanges, limitChanges } from "./retranslate.ts";
 
 /**
- * Saved sheets: an analyst's own named sets of bound records. Each record is translated when it is
- * written and stored with that translation (and the catalogue revision it used), so reading a sheet
- * never recomputes it behind the reader's back. A share token gives anyone read-only access.
+ * Saved sheets: an analyst's own named sets of records. Each record is computed once, when it is
+ * added (a translation, a copied job result, a consistency test), and stored as computed, with its
+ * provenance: reading a sheet, adding or removing a record never recomputes the others. A translation
+ * computed against entries that have changed since is marked stale; re-translating it is an explicit
+ * preview-then-accept action that keeps the replaced translation in the record's history. A share
+ * token gives anyone read-only access.
  */
 export interface SheetsService {
   list(who: Identity): Promise<SheetSummary[]>;
   create(who: Identity, input: CreateSheetRequest): Promise<Sheet>;
   get(who: Identity, id: number): Promise<Sheet>;
   update(who: Identity, id: number, input: UpdateSheetRequest): Promise<Sheet>;
+  append(who: Identity, id: number, input: AppendRecordRequest): Promise<Sheet>;
+  removeRecord(who: Identity, id: number, recordId: number, version: number): Promise<Sheet>;
+  previewRetranslation(who: Identity, id: number, recordIds: number[] | undefined): Promise<RetranslationPreview>;
+  acceptRetranslation(who: Identity, id: number, input: RetranslationAcceptRequest): Promise<Sheet>;
   remove(who: Identity, id: number, version: number | undefined): Promise<void>;
   share(who: Identity, id: number): Promise<{ token: string; path: string }>;
   unshare(who: Identity, id: number): Promise<void>;
@@ -28,8 +53,48 @@ export interface SheetsService {
 }
 
 const conventionsSchema = z.record(z.string(), z.string());
+const revisionsSchema = z.record(z.string(), z.number().int()).nullable();
 
-function toSheet(row: repo.SheetRow, records: repo.SheetRecordRow[], withToken: boolean): Sheet {
+function toRecord(r: repo.SheetRecordRow, catalogue: CompiledCatalogue): SheetRecord {
+  const base = {
+    id: r.id,
+    position: r.position,
+    label: r.label,
+    detector_network: r.detector_network,
+    analysis_method: r.analysis_method,
+    data_link: r.data_link,
+    notes: r.notes,
+    saved_at: r.saved_at.toISOString(),
+  };
+  if (r.kind !== "translation") {
+    // Stored JSON is read back through the same schemas that admitted it.
+    return sheetRecordSchema.parse({ kind: r.kind, ...base, ...(r.payload as object) });
+  }
+  const translation = convertResponseSchema.parse(r.translation);
+  const revisions = revisionsSchema.parse(r.entry_revisions ?? null);
+  let stale: { catalogue_revision: string; entries: ReturnType<typeof entryChanges> } | null = null;
+  if (revisions) {
+    const entries = entryChanges(revisions, catalogue, entryRevisions(catalogue));
+    if (entries.length > 0) stale = { catalogue_revision: catalogue.revision, entries };
+  } else if (translation.catalogue_revision !== catalogue.revision) {
+    stale = { catalogue_revision: catalogue.revision, entries: [] };
+  }
+  return {
+    kind: "translation",
+    ...base,
+    bound: boundSchema.parse(r.bound),
+    binary: binarySchema.parse(r.binary),
+    cosmology: cosmologySchema.parse(r.cosmology),
+    conventions: conventionsSchema.parse(r.conventions),
+    translation,
+    translated_at: r.translated_at.toISOString(),
+    entry_revisions: revisions,
+    stale,
+    history: z.array(historyItemSchema).parse(r.history ?? []),
+  };
+}
+
+function toSheet(row: repo.SheetRow, records: repo.SheetRecordRow[], withToken: boolean, catalogue: CompiledCatalogue): Sheet {
   return {
     id: row.id,
     name: row.name,
@@ -39,56 +104,17 @@ function toSheet(row: repo.SheetRow, records: repo.SheetRecordRow[], withToken: 
     created_at: row.created_at.toISOString(),
     updated_at: row.updated_at.toISOString(),
     share_token: withToken ? row.share_token : null,
-    records: records.map((r) => ({
-      id: r.id,
-      position: r.position,
-      label: r.label,
-      detector_network: r.detector_network,
-      analysis_method: r.analysis_method,
-      data_link: r.data_link,
-      notes: r.notes,
-      // Stored JSON is read back through the same schemas that admitted it.
-      bound: boundSchema.parse(r.bound),
-      binary: binarySchema.parse(r.binary),
-      cosmology: cosmologySchema.parse(r.cosmology),
-      conventions: conventionsSchema.parse(r.conventions),
-      translation: convertResponseSchema.parse(r.translation),
-      translated_at: r.translated_at.toISOString(),
-    })),
+    records: records.map((r) => toRecord(r, catalogue)),
   };
 }
 
 export function sheetsService(db: Knex, convert: ConvertService, clock: () => Date = () => new Date()): SheetsService {
-  /** Translates every record; a refusal names the record's field (records.2.binary.m1). */
-  const translateAll = async (records: readonly SheetRecordInput[]): Promise<repo.NewRecord[]> => {
+  const builder = recordBuilder(db, convert);
+
+  /** Builds the new records in order; a refusal names the record's field (records.2.binary.m1). */
+  const buildAll = async (items: { input: Parameters<typeof builder.build>[0]; prefix: string }[]): Promise<repo.NewRecord[]> => {
     const out: repo.NewRecord[] = [];
-    for (const [i, r] of records.entries()) {
-      const cosmology = r.cosmology ?? { ...DEFAULT_COSMOLOGY };
-      let translation;
-      try {
-        translation = await convert.convert({ bound: r.bound, binary: r.binary, cosmology, ...(r.conventions ? { conventions: r.conventions } : {}) });
-      } catch (err) {
-        if (err instanceof ValidationError && err.fields) {
-          const fields = Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [`records.${i}.${k}`, v]));
-          throw new ValidationError(`Invalid record ${i} ("${r.label}"): ${err.message}`, fields);
-        }
-        throw err;
-      }
-      out.push({
-        position: i,
-        label: r.label,
-        detector_network: r.detector_network,
-        analysis_method: r.analysis_method,
-        data_link: r.data_link,
-        notes: r.notes,
-        bound: r.bound,
-        binary: r.binary,
-        cosmology,
-        conventions: r.conventions ?? {},
-        translation,
-        catalogue_revision: translation.catalogue_revision,
-      });
-    }
+    for (const item of items) out.push(await builder.build(item.input, item.prefix));
     return out;
   };
 
@@ -99,7 +125,7 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
     return row;
   };
 
-  const load = async (row: repo.SheetRow, withToken: boolean) => toSheet(row, await repo.recordsOf(db, row.id), withToken);
+  const load = async (row: repo.SheetRow, withToken: boolean) => toSheet(row, await repo.recordsOf(db, row.id), withToken, await convert.catalogue());
 
   const byToken = async (token: string): Promise<repo.SheetRow> => {
     const row = await repo.findSheetByToken(db, token);
@@ -108,6 +134,47 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
   };
 
   const get = async (who: Identity, id: number): Promise<Sheet> => load(await own(who, id), true);
+
+  /** Bumps the version if it is still `version`, or 409 naming the current one. */
+  const claimVersion = async (trx: Knex.Transaction, id: number, version: number, changes: { name?: string; description?: string } = {}) => {
+    const next = await repo.updateSheetIfVersion(trx, id, version, changes);
+    if (next === undefined) {
+      const current = await repo.findSheet(trx, id);
+      throw new ConflictError(`The sheet changed since you read it (you sent version ${version}; it is now at version ${current?.version ?? "?"}). Reload it and apply your change again.`, {
+        current_version: current?.version ?? null,
+      });
+    }
+  };
+
+  /** The translation records named (all of them when none are named), or a 400 naming the one that is not. */
+  const translationRecords = (sheet: Sheet, ids: number[] | undefined) => {
+    const all = sheet.records.filter((r) => r.kind === "translation");
+    if (ids === undefined) return all;
+    return ids.map((id, i) => {
+      const r = sheet.records.find((x) => x.id === id);
+      if (!r) throw new ValidationError(`Invalid records.${i}: the sheet has no record ${id}`, { [`records.${i}`]: `no record ${id} in this sheet` });
+      if (r.kind !== "translation") throw new ValidationError(`Invalid records.${i}: record ${id} is a ${r.kind.replace("_", " ")} result, not a translation: it is kept as computed`, { [`records.${i}`]: "only translations can be re-translated" });
+      return r;
+    });
+  };
+
+  const retranslate = async (records: Extract<SheetRecord, { kind: "translation" }>[]): Promise<RecordRetranslation[]> => {
+    const out: RecordRetranslation[] = [];
+    for (const r of records) {
+      const done = await builder.translateNow(r);
+      out.push({
+        id: r.id,
+        label: r.label,
+        old_catalogue_revision: r.translation.catalogue_revision,
+        entries: r.entry_revisions ? entryChanges(r.entry_revisions, await convert.catalogue(), done.entry_revisions) : [],
+        changed: false,
+        limits: limitChanges(r.translation, done.translation),
+        translation: done.translation,
+      });
+    }
+    for (const x of out) x.changed = x.limits.some((l) => l.status !== "same");
+    return out;
+  };
 
   return {
     get,
@@ -118,10 +185,10 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
     },
 
     async create(who, input) {
-      const records = await translateAll(input.records);
+      const records = await buildAll(input.records.map((r, i) => ({ input: r, prefix: `records.${i}` })));
       const id = await db.transaction(async (trx) => {
         const sheetId = await repo.insertSheet(trx, { owner_id: who.id, name: input.name, description: input.description });
-        await repo.replaceRecords(trx, sheetId, records);
+        await repo.insertRecords(trx, sheetId, records.map((record, position) => ({ record, position })));
         return sheetId;
       });
       return get(who, id);
@@ -129,18 +196,100 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
 
     async update(who, id, input) {
       await own(who, id);
-      // Translate outside the transaction: it may read the catalogue, and the write stays short.
-      const records = input.records ? await translateAll(input.records) : undefined;
+      const existing = await repo.recordsOf(db, id);
+      const items = input.records ?? [];
+      const seen = new Set<number>();
+      items.forEach((item, i) => {
+        if (item.kind !== "keep") return;
+        if (!existing.some((r) => r.id === item.id)) throw new ValidationError(`Invalid records.${i}.id: the sheet has no record ${item.id}`, { [`records.${i}.id`]: `no record ${item.id} in this sheet` });
+        if (seen.has(item.id)) throw new ValidationError(`Invalid records.${i}.id: record ${item.id} is kept twice`, { [`records.${i}.id`]: `record ${item.id} is listed twice` });
+        seen.add(item.id);
+      });
+      // Only the new records are computed, outside the transaction: the write stays short.
+      const fresh = await buildAll(items.flatMap((item, i) => (item.kind === "keep" ? [] : [{ input: item, prefix: `records.${i}` }])));
       await db.transaction(async (trx) => {
         const changes = { ...(input.name !== undefined ? { name: input.name } : {}), ...(input.description !== undefined ? { description: input.description } : {}) };
-        const next = await repo.updateSheetIfVersion(trx, id, input.version, changes);
-        if (next === undefined) {
-          const current = await repo.findSheet(trx, id);
-          throw new ConflictError(`The sheet changed since you read it (you sent version ${input.version}; it is now at version ${current?.version ?? "?"}). Reload it and apply your change again.`, {
-            current_version: current?.version ?? null,
+        await claimVersion(trx, id, input.version, changes);
+        if (!input.records) return;
+        await repo.deleteRecordsExcept(trx, id, [...seen]);
+        await repo.setPositions(
+          trx,
+          id,
+          items.flatMap((item, position) => (item.kind === "keep" ? [{ id: item.id, position }] : [])),
+        );
+        let next = 0;
+        await repo.insertRecords(
+          trx,
+          id,
+          items.flatMap((item, position) => (item.kind === "keep" ? [] : [{ record: fresh[next++]!, position }])),
+        );
+      });
+      return get(who, id);
+    },
+
+    async append(who, id, input) {
+      await own(who, id);
+      const [record] = await buildAll([{ input: input.record, prefix: "record" }]);
+      await db.transaction(async (trx) => {
+        await claimVersion(trx, id, input.version);
+        const existing = await repo.recordsOf(trx, id);
+        if (existing.length >= MAX_SHEET_RECORDS) throw new ValidationError(`Invalid record: a sheet holds at most ${MAX_SHEET_RECORDS} records`, { record: `the sheet already holds ${MAX_SHEET_RECORDS} records` });
+        const position = existing.reduce((m, r) => Math.max(m, r.position + 1), 0);
+        await repo.insertRecords(trx, id, [{ record: record!, position }]);
+      });
+      return get(who, id);
+    },
+
+    async removeRecord(who, id, recordId, version) {
+      await own(who, id);
+      const existing = await repo.recordsOf(db, id);
+      if (!existing.some((r) => r.id === recordId)) throw new NotFoundError(`Sheet ${id} has no record ${recordId}.`);
+      await db.transaction(async (trx) => {
+        await claimVersion(trx, id, version);
+        const kept = existing.filter((r) => r.id !== recordId);
+        await repo.deleteRecordsExcept(trx, id, kept.map((r) => r.id));
+        await repo.setPositions(trx, id, kept.map((r, position) => ({ id: r.id, position })));
+      });
+      return get(who, id);
+    },
+
+    async previewRetranslation(who, id, recordIds) {
+      const sheet = await get(who, id);
+      const records = translationRecords(sheet, recordIds);
+      const catalogue = await convert.catalogue();
+      const out = await retranslate(records);
+      if (out.some((x) => x.translation.catalogue_revision !== catalogue.revision)) {
+        throw new ConflictError("The catalogue changed while the preview was computed: ask for it again.");
+      }
+      return { catalogue_revision: catalogue.revision, records: out };
+    },
+
+    async acceptRetranslation(who, id, input) {
+      const sheet = await get(who, id);
+      const records = translationRecords(sheet, input.records);
+      const catalogue = await convert.catalogue();
+      if (catalogue.revision !== input.catalogue_revision) {
+        throw new ConflictError("The catalogue changed since your preview: preview the re-translation again and check what changed before accepting it.", {
+          catalogue_revision: catalogue.revision,
+        });
+      }
+      const fresh = await retranslate(records);
+      if (fresh.some((x) => x.translation.catalogue_revision !== input.catalogue_revision)) {
+        throw new ConflictError("The catalogue changed since your preview: preview the re-translation again.", { catalogue_revision: catalogue.revision });
+      }
+      const now = clock().toISOString();
+      await db.transaction(async (trx) => {
+        await claimVersion(trx, id, input.version);
+        for (const [i, r] of records.entries()) {
+          const replaced: HistoryItem = { translation: r.translation, translated_at: r.translated_at, entry_revisions: r.entry_revisions, replaced_at: now };
+          const next = fresh[i]!;
+          await repo.replaceTranslation(trx, r.id, {
+            translation: next.translation,
+            catalogue_revision: next.translation.catalogue_revision,
+            entry_revisions: entryRevisions(catalogue),
+            history: [...r.history, replaced],
           });
         }
-        if (records) await repo.replaceRecords(trx, id, records);
       });
       return get(who, id);
     },

@@ -113,10 +113,10 @@ async function derivationCheck(input: MappingInput, ast: Node, table: SymbolTabl
     : (input.a ?? (input.pn_order === undefined ? undefined : 2 * input.pn_order));
   const candidates = phase
     ? derivation.terms.map((t) => ({ exponent: t.b, expression: t.beta }))
-    : (derivation.amplitude ?? []).map((t) => ({ exponent: t.a, expression: t.alpha }));
+    : (derivation.amplitude ?? []).map((t) => ({ exponent: t.a, expression: t.alpha, note: t.note }));
   const letter = phase ? "b" : "a";
   if (candidates.length === 0) {
-    const why = phase ? "the derivation gives no phase term" : "an amplitude correction is derived from a frequency drift only";
+    const why = phase ? "the derivation gives no phase term" : "an amplitude correction is derived from an energy and flux change or a frequency drift (its drift piece), not from a propagation effect";
     return fail("derivation", `${why}${notes}`);
   }
   const matching = stated === undefined ? candidates : candidates.filter((c) => Math.abs(c.exponent - stated) < 1e-9);
@@ -140,10 +140,11 @@ async function derivationCheck(input: MappingInput, ast: Node, table: SymbolTabl
     r.method === "numeric" && r.symbolic === "timeout" ? "numeric (the CAS timed out)" : r.method;
   const methods = [...new Set(verdicts.map((v) => method(v.r)))].join(" and ");
   const first = verdicts[0];
+  const pieceNote = first && "note" in first.c && first.c.note ? ` (${first.c.note})` : "";
   return {
     name: "derivation",
     ok: true,
-    message: `the stated ${quantity} equals the derived ${first?.c.expression} at ${letter} = ${first?.c.exponent} [method: ${methods}]${notes}`,
+    message: `the stated ${quantity} equals the derived ${first?.c.expression} at ${letter} = ${first?.c.exponent} [method: ${methods}]${notes}${pieceNote}`,
   };
 }
 

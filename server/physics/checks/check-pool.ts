@@ -23,6 +23,8 @@ export interface CheckPoolOptions {
   readonly maxQueue?: number;
   /** The CAS that the workers' symbolic steps run on (default: the shared pool). */
   readonly symbolic?: () => SymbolicPool;
+  /** Linux nice value (0-19) each worker thread gives itself (default 0). */
+  readonly nice?: number;
 }
 
 /** What one job gave: its outcome, or, when the time limit stopped it, the checks it had finished. */
@@ -67,6 +69,7 @@ export class CheckPool {
   readonly perClient: number;
   readonly maxQueue: number;
   private readonly symbolic: () => SymbolicPool;
+  private readonly nice: number;
   private readonly slots: Slot[] = [];
   /** Waiting tasks per client, and the order in which clients are served. */
   private readonly waiting = new Map<string, Task[]>();
@@ -82,6 +85,7 @@ export class CheckPool {
     this.perClient = Math.max(1, options.perClient ?? 2);
     this.maxQueue = Math.max(1, options.maxQueue ?? 32);
     this.symbolic = options.symbolic ?? getSymbolicPool;
+    this.nice = options.nice ?? 0;
   }
 
   /** Starts the workers (the first job would otherwise wait for a cold start of about a second). */
@@ -188,6 +192,7 @@ export class CheckPool {
     const worker = new Worker(WORKER_URL, {
       execArgv: [],
       resourceLimits: { maxOldGenerationSizeMb: 512, stackSizeMb: 4 },
+      workerData: { nice: this.nice },
     });
     worker.unref();
     const slot: Slot = { worker, ready: false, task: undefined, retired: false };

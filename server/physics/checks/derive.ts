@@ -31,7 +31,13 @@ export interface DerivedAmplitudeTerm {
   readonly alpha: string;
   readonly alpha_latex: string;
   readonly value?: number;
+  /** What the term leaves out. */
+  readonly note?: string;
 }
+
+/** Said beside every amplitude term derived from an energy and flux change. */
+export const DRIFT_PIECE_NOTE =
+  "frequency-drift piece only: alpha = [(k+1) A - B] eta^(-2k/5) / 2 at a = b + 5; the conservative (Kepler-law) piece that an energy change adds to the amplitude is left out (Tahura & Yagi 2018, PRD 98 084042); for a change of the flux alone the Kepler law is unchanged, so the drift piece is the whole correction to the quadrupole harmonic";
 
 export interface Derivation {
   readonly terms: readonly DerivedPhaseTerm[];
@@ -126,6 +132,7 @@ export function deriveBeta(input: DerivationInput, table: SymbolTable, options: 
     steps.push("\\frac{dt}{dv} = -\\frac{E'(v)}{\\mathcal{F}(v)}");
     steps.push("\\frac{d^{2}\\Psi}{df^{2}} = 2\\pi \\frac{dt}{df}, \\qquad u = \\eta^{1/5} v");
     steps.push("\\beta = \\frac{15\\,\\left[(k+1) A - B\\right]\\,\\eta^{-2k/5}}{16\\,(2k-8)(2k-5)}, \\qquad b = 2k - 5");
+    steps.push("\\dot f = \\dot f_{\\mathrm{GR}}\\left[1 + \\gamma\\, u^{2k}\\right],\\quad \\gamma = \\left[B - (k+1) A\\right]\\eta^{-2k/5},\\qquad \\alpha = -\\frac{\\gamma}{2}, \\quad a = 2k = b + 5");
     for (const { k, A, B } of byOrder.values()) {
       const base = R(15).div(R(16).mul(TWO.mul(k).sub(EIGHT)).mul(TWO.mul(k).sub(FIVE)));
       const etaExp = R(-2).mul(k).div(FIVE);
@@ -144,6 +151,20 @@ export function deriveBeta(input: DerivationInput, table: SymbolTable, options: 
         ast,
       });
       steps.push(`k = ${k.toLatex()}:\\quad b = ${b.toLatex()},\\quad \\beta = ${toLatex(ast)}`);
+      // The frequency-drift piece of the amplitude: dv/dt = -F/E' changes by 1 + [B - (k+1) A] v^(2k), so
+      // the drift is df/dt = GR [1 + gamma u^(2k)] with gamma = [B - (k+1) A] eta^(-2k/5), and the SPA
+      // amplitude ~ (df/dt)^(-1/2) gives alpha = -gamma/2 = [(k+1) A - B] eta^(-2k/5) / 2 at a = 2k = b + 5.
+      // The conservative (Kepler-law) piece of the amplitude is not included (Tahura & Yagi 2018).
+      const half = R(1, 2);
+      const alphaAst =
+        a !== undefined && bb !== undefined
+          ? build(half, etaExp, `${kp1.toExpression()}*(${a}) - (${bb})`, table)
+          : a !== undefined
+            ? build(half.mul(kp1), etaExp, a, table)
+            : build(half.neg(), etaExp, bb as string, table);
+      const aExp = b.add(FIVE);
+      amplitude.push({ term: { a: aExp.toNumber(), alpha: printExpression(alphaAst), alpha_latex: toLatex(alphaAst), note: DRIFT_PIECE_NOTE }, ast: alphaAst });
+      steps.push(`a = ${aExp.toLatex()}:\\quad \\alpha = -\\frac{\\gamma}{2} = ${toLatex(alphaAst)}\\quad\\text{(frequency-drift piece only)}`);
     }
   }
 

@@ -66,6 +66,8 @@ const TARGET_NOUN: Record<MappingTarget, string> = {
   ppe_amplitude: "ppE alpha",
   ringdown_frequency: "a ringdown frequency shift",
   ringdown_damping: "a ringdown damping-time shift",
+  remnant_mass: "a remnant-mass shift",
+  remnant_spin: "a remnant-spin shift",
   validity: "a validity expression",
 };
 

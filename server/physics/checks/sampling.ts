@@ -19,7 +19,7 @@ const COUPLING_LENGTH = 10;
 
 /**
  * One random point in the physical region: masses 1-100 (m1 >= m2, never equal), spins in
- * (-0.9, 0.9), charges in (0.1, 1), sensitivities in (0.05, 0.5), z in (0.01, 2), distances
+ * (-0.9, 0.9), charges in (0.1, 1), sensitivities in (0.05, 0.5), z in (0.01, 2), Omega_m in (0.2, 0.4), distances
  * 1e3-1e4, and couplings small and
  * positive (0.01-0.1 times COUPLING_LENGTH^dimension).
  */
@@ -53,6 +53,9 @@ export function samplePoint(args: readonly string[], table: SymbolTable, rng: ()
         break;
       case "z":
         v = uniform(rng, 0.01, 2);
+        break;
+      case "Omega_m":
+        v = uniform(rng, 0.2, 0.4);
         break;
       case "M_f":
         v = 0.95 * (m1 + m2);

@@ -16,13 +16,15 @@ export interface CheckResult {
   readonly message: string;
 }
 
-export type MappingTarget = "ppe_phase" | "ppe_amplitude" | "ringdown_frequency" | "ringdown_damping" | "validity";
+export type MappingTarget = "ppe_phase" | "ppe_amplitude" | "ringdown_frequency" | "ringdown_damping" | "remnant_mass" | "remnant_spin" | "validity";
 
 export const MAPPING_TARGETS: readonly MappingTarget[] = [
   "ppe_phase",
   "ppe_amplitude",
   "ringdown_frequency",
   "ringdown_damping",
+  "remnant_mass",
+  "remnant_spin",
   "validity",
 ];
 

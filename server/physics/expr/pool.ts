@@ -24,6 +24,8 @@ export interface SymbolicPoolOptions {
    * two CAS workers, their queue and their deadlines.
    */
   readonly transport?: (op: SymbolicOp, options: { timeoutMs?: number }) => Promise<SymbolicResult>;
+  /** Linux nice value (0-19) each worker thread gives itself (default 0; the server sets WORKER_NICE). */
+  readonly nice?: number;
 }
 
 export type SymbolicErrorCode = "timeout" | "failed" | "worker_lost" | "busy" | "closed" | "unavailable" | "unrepresentable";
@@ -76,9 +78,11 @@ export class SymbolicPool {
   private closed = false;
   private startFailures = 0;
   private readonly transport: SymbolicPoolOptions["transport"];
+  private readonly nice: number;
 
   constructor(options: SymbolicPoolOptions = {}) {
     this.transport = options.transport;
+    this.nice = options.nice ?? 0;
     this.size = this.transport === undefined ? Math.max(1, Math.floor(options.size ?? 2)) : 0;
     this.timeoutMs = options.timeoutMs ?? 2000;
     this.queueTimeoutMs = options.queueTimeoutMs ?? 10_000;
@@ -195,6 +199,7 @@ export class SymbolicPool {
       // would triple the cold-start time.
       execArgv: [],
       resourceLimits: { maxOldGenerationSizeMb: 256, stackSizeMb: 4 },
+      workerData: { nice: this.nice },
     });
     // Idle workers must not keep the process alive; a running job's timer does.
     worker.unref();
@@ -330,10 +335,16 @@ class Neutral {
 }
 
 let shared: SymbolicPool | undefined;
+let sharedOptions: SymbolicPoolOptions = {};
+
+/** Options of the process-wide pool (the server passes WORKER_NICE); used when it is next created. */
+export function configureSymbolicPool(options: Pick<SymbolicPoolOptions, "nice">): void {
+  sharedOptions = { ...options };
+}
 
 /** The process-wide pool, created (and warmed) on first use. */
 export function getSymbolicPool(): SymbolicPool {
-  if (shared === undefined) shared = new SymbolicPool();
+  if (shared === undefined) shared = new SymbolicPool(sharedOptions);
   return shared;
 }
 

@@ -6,7 +6,8 @@
 // Everything it receives was printed by our own AST printer from guarded input, with symbols
 // renamed to neutral names, so nerdamer never sees ":=", prototype names or its own reserved
 // words (e, i, gamma, ...).
-import { parentPort } from "node:worker_threads";
+import { setPriority } from "node:os";
+import { parentPort, workerData } from "node:worker_threads";
 import nerdamer from "nerdamer";
 import "nerdamer/Algebra.js";
 import "nerdamer/Calculus.js";
@@ -47,6 +48,17 @@ function run(req) {
 
 const port = parentPort;
 if (port === null) throw new Error("symbolic-worker must run in a worker thread");
+
+// On Linux a nice value belongs to one thread: this lowers this worker's priority only, so the
+// threads that answer requests get the cores first (WORKER_NICE, docs/operations.md).
+const nice = Number(workerData?.nice ?? 0);
+if (nice > 0) {
+  try {
+    setPriority(nice);
+  } catch {
+    // Not permitted or not supported: run at the normal priority.
+  }
+}
 
 port.on("message", (/** @type {import("./symbolic-protocol.ts").SymbolicRequest} */ req) => {
   try {

@@ -73,6 +73,7 @@ const PRIMITIVES: ReadonlyArray<readonly [string, number, string]> = [
   ["D", 1, "distance"],
   ["D_0", 1, "distance measure D_0 (massive graviton)"],
   ["D_alpha", 1, "distance measure D_alpha (modified dispersion)"],
+  ["Omega_m", 0, "matter density today of the flat Lambda-CDM background (distance-ratio mappings)"],
   ["f_low", -1, "lowest GW frequency of the analysis band (observed), as 1/length"],
   ["tau", 1, "time the signal spends in band above f_low, (5/256) Mc (pi Mc f)^(-8/3), as a length"],
   // Ringdown and remnant mappings: the final black hole (source frame).

@@ -25,6 +25,8 @@ export interface CurveInfo {
   readonly source: string;
   readonly convention: CurveConvention;
   readonly conventionNote: string;
+  /** What of the curve's convention still has to be checked against its source (shown beside it), or absent. */
+  readonly toConfirm?: string;
   /** Frequencies (Hz) where the curve is defined. */
   readonly fMin: number;
   readonly fMax: number;
@@ -129,6 +131,11 @@ function bDecigo(f: number): number {
 
 const L_NOTE = "bare noise of one L-shaped interferometer: the sky, polarisation and inclination average (4/25) is put into the amplitude";
 
+const DECIGO_TO_CONFIRM =
+  "source to be confirmed: the two-channel reading (SNR^2 = 3/2 of an L-shaped detector) is our own derivation; whether the Yagi & Seto 2011 curve (section II) already holds a channel or sky factor has not been checked against the paper";
+const B_DECIGO_TO_CONFIRM =
+  "source to be confirmed: read like DECIGO (two 60-degree channels); the convention of the Isoyama, Nakano & Nakamura 2018 curve has not been checked against the paper";
+
 export const BUILT_IN_CURVES: readonly NoiseCurve[] = [
   {
     id: "aligo-design",
@@ -196,6 +203,7 @@ export const BUILT_IN_CURVES: readonly NoiseCurve[] = [
     source: "Yagi & Seto 2011, Phys. Rev. D 83, 044011 (arXiv:1101.3940), Eq. 5; erratum Phys. Rev. D 95, 109901 (2017) (journal data from memory)",
     convention: "two_channel_triangle",
     conventionNote: "one triangle read as two independent 60-degree channels: SNR^2 = 2 x 3/4 of an L-shaped detector (derived convention; the full constellation has several triangles)",
+    toConfirm: DECIGO_TO_CONFIRM,
     fMin: 1e-3,
     fMax: 100,
     defaultFLow: 1e-3,
@@ -208,6 +216,7 @@ export const BUILT_IN_CURVES: readonly NoiseCurve[] = [
     source: "Isoyama, Nakano & Nakamura 2018, PTEP 2018, 073E01 (bibliographic data from memory)",
     convention: "two_channel_triangle",
     conventionNote: "read like DECIGO: two independent 60-degree channels, SNR^2 = 3/2 of an L-shaped detector (derived convention)",
+    toConfirm: B_DECIGO_TO_CONFIRM,
     fMin: 1e-2,
     fMax: 100,
     defaultFLow: 1e-2,

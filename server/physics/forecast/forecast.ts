@@ -100,6 +100,7 @@ export interface DetectorBand {
   low_cut: string;
   high_cut: string;
   extrapolated: boolean;
+  to_confirm: string | null;
   years_observed: number | null;
   years_before_merger: number | null;
   snr: number;
@@ -435,6 +436,7 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
     `restricted TaylorF2 inspiral (3.5PN, aligned spins), sky-averaged unless stated; upper cut ${upperCut === "isco" ? `at the ISCO of the detector-frame total mass (${formatHz(fIsco)})` : `extrapolated to the PhenomA merger frequency (${formatHz(fTop)}), past the ISCO (${formatHz(fIsco)})`}`,
     `Gaussian priors: ${(["phi_c", "chi_s", "chi_a"] as const).map((k) => `${k} ${priors[k] === null ? "none" : `sigma = ${Number(priors[k]!.toPrecision(4))}`}`).join(", ")}`,
   ];
+  for (const band of bands) if (band.to_confirm) cautions.push(`${band.label}: ${band.to_confirm}`);
   if (coalescence !== "shared") {
     cautions.push(`networks of several detectors give each detector its own ${coalescence === "phi_c_per_detector" ? "coalescence phase phi_c" : "coalescence phase phi_c and time t_c"} (the prior on phi_c applies to the first detector's phase only; the others are free)`);
   }
@@ -547,6 +549,7 @@ function planDetector(det: ForecastDetectorInput, i: number, custom: CustomCurve
       low_cut: lowCut,
       high_cut: top.why,
       extrapolated,
+      to_confirm: curve.toConfirm ?? null,
       years_observed: yearsObserved,
       years_before_merger: yearsBefore,
     },

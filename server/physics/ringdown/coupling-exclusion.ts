@@ -23,6 +23,12 @@ export interface ShiftFunctions {
   readonly dtau: (x: number) => number;
 }
 
+/** Fractional shifts of an estimate's (M_f, chi_f) at coupling x (dM_f/M_f, dchi_f/chi_f). */
+export interface RemnantShiftFunctions {
+  readonly dM: (x: number) => number;
+  readonly dchi: (x: number) => number;
+}
+
 export interface ExclusionInput {
   readonly mode: QnmMode;
   /** How the template's misreading is computed: exact inversion of the fit (default) or the Jacobian. */
@@ -31,6 +37,14 @@ export interface ExclusionInput {
   readonly M: number;
   readonly chi: number;
   readonly shifts: ShiftFunctions;
+  /**
+   * The theory's shift of the true remnant (remnant mappings). The merger-ringdown analysis sees the
+   * shifted remnant through the shifted modes; the inspiral analysis, which pushes GR-inferred
+   * component parameters through GR remnant fits, does not see it.
+   */
+  readonly remnant?: RemnantShiftFunctions;
+  /** The bias of the inspiral estimate at coupling x (from the theory's inspiral term), when modelled. */
+  readonly inspiral?: RemnantShiftFunctions;
   /** Covariance of the deviation variables (dM, dchi) of the test. */
   readonly covariance: Matrix2;
   readonly credibility: number;
@@ -66,12 +80,22 @@ const PER_DECADE = 8;
 export function evaluateAt(input: ExclusionInput, x: number, inv: Matrix2): TrackPoint | null {
   const df = input.shifts.df(x);
   const dtau = input.shifts.dtau(x);
-  if (!Number.isFinite(df) || !Number.isFinite(dtau) || df <= -1 || dtau <= -1) return null;
-  const exact = exactInferredRemnant(input.mode, input.M, input.chi, { df, dtau });
+  const rM = input.remnant ? input.remnant.dM(x) : 0;
+  const rChi = input.remnant ? input.remnant.dchi(x) : 0;
+  const iM = input.inspiral ? input.inspiral.dM(x) : 0;
+  const iChi = input.inspiral ? input.inspiral.dchi(x) : 0;
+  if (![df, dtau, rM, rChi, iM, iChi].every(Number.isFinite) || df <= -1 || dtau <= -1 || rM <= -1 || iM <= -1) return null;
+  // The true remnant, and the inspiral's (GR-fit) estimate of it.
+  const Mt = input.M * (1 + rM);
+  const chiT = input.chi * (1 + rChi);
+  const MI = input.M * (1 + iM);
+  const chiI = input.chi * (1 + iChi);
+  if (!(chiT > 0 && chiT < 1 && chiI > 0 && chiI < 1)) return null;
+  const exact = exactInferredRemnant(input.mode, Mt, chiT, { df, dtau });
   if (!exact.ok) return null;
-  const lin = linearInferredShift(input.mode, input.chi, { df, dtau });
-  const mean = deviationMean(input.M, input.chi, exact.M, exact.chi);
-  const linear_mean = deviationMean(input.M, input.chi, input.M * Math.exp(lin.dlnM), input.chi + lin.dchi);
+  const lin = linearInferredShift(input.mode, chiT, { df, dtau });
+  const mean = deviationMean(MI, chiI, exact.M, exact.chi);
+  const linear_mean = deviationMean(MI, chiI, Mt * Math.exp(lin.dlnM), chiT + lin.dchi);
   const used = input.reading === "linear" ? linear_mean : mean;
   return { x, mean, linear_mean, gr_quantile: 1 - Math.exp(-quadraticForm2(inv, used) / 2) };
 }

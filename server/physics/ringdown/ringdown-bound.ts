@@ -9,23 +9,20 @@
  * said, never turned into a limit.
  */
 import { PhysicsInputError } from "../input-error.ts";
+import type { ValidityResult, Verdict } from "../convert-types.ts";
+import { judgeCondition, verdictOf } from "../verdict.ts";
 import type { CompiledRingdownMapping, RingdownValidity } from "./ringdown-mapping.ts";
 
 /** |shift| <= upper, or lo <= shift <= hi with a null end meaning unbounded on that side. */
 export type ShiftBound = { readonly upper: number } | { readonly interval: readonly [number | null, number | null] };
 
-export type Verdict = "valid" | "outside_validity" | "not_assessed";
+export type { Verdict };
 
-export interface ConditionOutcome {
+/** A condition that could not be evaluated at the limit (it needs the binary, or has no finite value). */
+export interface UnassessedCondition {
   readonly label: string;
   readonly condition: string;
-  readonly value: number | null;
-  readonly max: number;
-  readonly kind: "hard" | "rule_of_thumb";
-  /** value / max when assessed. */
-  readonly factor: number | null;
-  readonly ok: boolean | null;
-  readonly reason?: string;
+  readonly reason: string;
 }
 
 export interface SideLimit {
@@ -34,7 +31,10 @@ export interface SideLimit {
   /** The shift the theory predicts there (equals the bound's edge). */
   readonly shift: number;
   readonly verdict: Verdict;
-  readonly conditions: ConditionOutcome[];
+  /** The worst failing condition when outside validity. */
+  readonly failing: ValidityResult | null;
+  readonly validity: ValidityResult[];
+  readonly unassessed: UnassessedCondition[];
 }
 
 export interface RingdownTranslation {
@@ -61,19 +61,27 @@ export function allowedSet(bound: ShiftBound): [number, number] {
   return [lo, hi];
 }
 
-/** Evaluates the validity conditions of a mapping at coupling x. */
-export function assessValidity(conditions: readonly RingdownValidity[], x: number, env: Readonly<Record<string, number>>): { verdict: Verdict; outcomes: ConditionOutcome[] } {
-  const outcomes: ConditionOutcome[] = conditions.map((c) => {
+/**
+ * Evaluates the validity conditions of a mapping at coupling x, with the translator's verdict rule
+ * (server/physics/verdict.ts): a rule of thumb failing by at most the stretch factor stays valid.
+ */
+export function assessValidity(
+  conditions: readonly RingdownValidity[],
+  x: number,
+  env: Readonly<Record<string, number>>,
+): { verdict: Verdict; failing: ValidityResult | null; validity: ValidityResult[]; unassessed: UnassessedCondition[] } {
+  const validity: ValidityResult[] = [];
+  const unassessed: UnassessedCondition[] = [];
+  for (const c of conditions) {
     const missing = c.uses.filter((s) => env[s] === undefined);
-    const base = { label: c.label, condition: c.condition, max: c.max, kind: c.kind };
-    if (missing.length > 0) return { ...base, value: null, factor: null, ok: null, reason: `needs ${missing.join(", ")}` };
-    const value = c.evaluate(x, env);
-    if (!Number.isFinite(value)) return { ...base, value: null, factor: null, ok: null, reason: "the condition has no finite value here" };
-    return { ...base, value, factor: c.max === 0 ? null : value / c.max, ok: value <= c.max };
-  });
-  const verdict: Verdict =
-    outcomes.length === 0 ? "not_assessed" : outcomes.some((o) => o.ok === false) ? "outside_validity" : outcomes.some((o) => o.ok === null) ? "not_assessed" : "valid";
-  return { verdict, outcomes };
+    if (missing.length > 0) {
+      unassessed.push({ label: c.label, condition: c.condition, reason: `needs ${missing.join(", ")}` });
+      continue;
+    }
+    validity.push(judgeCondition(c, c.evaluate(x, env)));
+  }
+  const { verdict, failing } = verdictOf(validity, unassessed.length);
+  return { verdict, failing, validity, unassessed };
 }
 
 const MIN_T = 1e-40;
@@ -125,7 +133,7 @@ export function translateRingdownBound(mapping: CompiledRingdownMapping, bound: 
     }
     const x = sign * exit.t;
     const v = assessValidity(mapping.validity, x, env);
-    const limit: SideLimit = { value: x, shift: exit.shift, verdict: v.verdict, conditions: v.outcomes };
+    const limit: SideLimit = { value: x, shift: exit.shift, ...v };
     if (side === "positive") upper = limit;
     else lower = limit;
   }

@@ -12,6 +12,8 @@ import { PhysicsInputError } from "../input-error.ts";
 import { isQnmMode, type QnmMode } from "./qnm.ts";
 
 export type RingdownKind = "ringdown_frequency" | "ringdown_damping";
+/** Fractional shift of the remnant's mass (dM_f/M_f) or spin (dchi_f/chi_f) the theory causes. */
+export type RemnantKind = "remnant_mass" | "remnant_spin";
 export type CouplingRange = "positive" | "non_negative" | "any_sign";
 
 export interface RingdownEntry {
@@ -91,6 +93,22 @@ export function compileRingdownMapping(entry: RingdownEntry, index: number): Com
   const m = entry.mappings[index];
   if (!m) throw new RangeError(`${entry.slug} has no mapping ${index}`);
   if (m.kind !== "ringdown_frequency" && m.kind !== "ringdown_damping") throw new PhysicsInputError("kind", `mapping ${index} of ${entry.slug} is not a ringdown mapping`);
+  return { ...compileShift(entry, index), kind: m.kind, mode: modeKey(m.mode) };
+}
+
+/** The shift a remnant mapping gives, as a function of the coupling, like a ringdown mapping but with no mode. */
+export type CompiledRemnantMapping = Omit<CompiledRingdownMapping, "kind" | "mode"> & { readonly kind: RemnantKind };
+
+/** Compiles mapping `index` of the entry, which must be a remnant mapping (remnant_mass or remnant_spin). */
+export function compileRemnantMapping(entry: RingdownEntry, index: number): CompiledRemnantMapping {
+  const m = entry.mappings[index];
+  if (!m) throw new RangeError(`${entry.slug} has no mapping ${index}`);
+  if (m.kind !== "remnant_mass" && m.kind !== "remnant_spin") throw new PhysicsInputError("kind", `mapping ${index} of ${entry.slug} is not a remnant mapping`);
+  return { ...compileShift(entry, index), kind: m.kind };
+}
+
+function compileShift(entry: RingdownEntry, index: number): Omit<CompiledRingdownMapping, "kind" | "mode"> {
+  const m = entry.mappings[index]!;
   const symbol = m.coupling ?? entry.couplings[0]?.symbol;
   const c = entry.couplings.find((k) => k.symbol === symbol);
   if (!c || symbol === undefined) throw new PhysicsInputError("coupling", `${entry.slug}: mapping ${index} names no declared coupling`);
@@ -107,8 +125,6 @@ export function compileRingdownMapping(entry: RingdownEntry, index: number): Com
   return {
     slug: entry.slug,
     index,
-    kind: m.kind,
-    mode: modeKey(m.mode),
     coupling: { symbol, latex: c.latex, unit: c.unit, dimension, range: c.range ?? "any_sign" },
     expression: m.expression,
     ...(m.latex ? { latex: m.latex } : {}),

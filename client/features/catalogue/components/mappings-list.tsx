@@ -5,6 +5,7 @@ import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { thresholdText } from "../../../components/ui/text-format.ts";
 import { RetiredBadge, RetiredNote } from "./retirement.tsx";
 import { authorList, equationTex, pnLabel, signed } from "./format.ts";
+import { SourceStatusBadge } from "./source-status.tsx";
 
 type StoredMapping = TheoryDetail["mappings"][number];
 
@@ -13,6 +14,8 @@ const kindLabel: Record<StoredMapping["kind"], string> = {
   inspiral_amplitude: "Inspiral amplitude (ppE α)",
   ringdown_frequency: "Ringdown frequency shift",
   ringdown_damping: "Ringdown damping-time shift",
+  remnant_mass: "Remnant mass shift",
+  remnant_spin: "Remnant spin shift",
 };
 
 /** The deviation parameter each kind of mapping gives, for expressions stored without their left-hand side. */
@@ -21,6 +24,8 @@ const lhsTex: Record<StoredMapping["kind"], string> = {
   inspiral_amplitude: "\\alpha_{\\rm ppE}",
   ringdown_frequency: "\\delta\\omega/\\omega",
   ringdown_damping: "\\delta\\tau/\\tau",
+  remnant_mass: "\\delta M_f/M_f",
+  remnant_spin: "\\delta\\chi_f/\\chi_f",
 };
 
 function exponentTex(m: StoredMapping): string | undefined {
@@ -28,17 +33,6 @@ function exponentTex(m: StoredMapping): string | undefined {
   if (m.kind === "inspiral_amplitude" && m.a !== null) return `a = ${m.a}`;
   if (m.mode) return `(\\ell, m, n) = (${m.mode.l}, ${m.mode.m}, ${m.mode.n})`;
   return undefined;
-}
-
-function SourceBadge({ status }: { status: StoredMapping["source_status"] }) {
-  if (status === "memory")
-    return (
-      <Badge tone="caution" title="The formula was recalled, not read in its paper; an editor must confirm it before relying on it.">
-        source to be confirmed
-      </Badge>
-    );
-  if (status === "derived") return <Badge tone="info" title="Re-derived from the stated assumptions.">derived</Badge>;
-  return <Badge tone="ok" title="Seen in the cited source.">source confirmed</Badge>;
 }
 
 function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
@@ -53,7 +47,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
         {m.pn_order !== null && <span className="text-sm text-ink-soft tabular-nums">{pnLabel(m.pn_order)}</span>}
         <span className="ml-auto flex gap-2">
           {m.retired && <RetiredBadge retired={m.retired} />}
-          <SourceBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
+          <SourceStatusBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
           <CheckBadge outcome={outcome} title={`${all.length} engine checks`} />
         </span>
       </header>

@@ -31,7 +31,15 @@ export function ReferenceBounds({ bounds }: { bounds: Bound[] }) {
               <td className="px-3 py-2 text-right whitespace-nowrap">
                 {b.side === "upper" ? "<" : ">"} {sciText(b.value)} {unitLabel(b.unit)}
               </td>
-              <td className="px-3 py-2">{b.credibility !== null ? `${Math.round(b.credibility * 100)} %` : "—"}</td>
+              <td className="px-3 py-2">
+                {b.credibility !== null ? (
+                  `${Math.round(b.credibility * 100)} %`
+                ) : (
+                  <span className="text-sm text-ink-soft" title="The source states no credible level for this bound; the note says why.">
+                    not stated
+                  </span>
+                )}
+              </td>
               <td className="px-3 py-2">
                 {b.data ?? (b.note ? null : "—")}
                 {b.note && <span className={b.data ? "block text-sm text-ink-soft" : "text-sm"}>{b.note}</span>}

@@ -8,6 +8,7 @@ import { DataTable } from "../../../components/ui/data-table.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { paths } from "../../../lib/paths.ts";
 import { pnLabel, shortDate, signed, unitLabel } from "./format.ts";
+import { SourceStatusTag, SourceStatusTally } from "./source-status.tsx";
 
 const col = createColumnHelper<TheorySummary>();
 
@@ -28,9 +29,10 @@ const columns = [
             {t.name}
           </Link>
           <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{t.summary}</p>
+          <SourceStatusTally statuses={t.mappings.filter((m) => !m.retired).map((m) => m.source_status)} className="mt-1" />
           {t.retired && <RetiredBadge retired={t.retired} className="mt-1 mr-1" />}
           {t.source_to_be_confirmed && (
-            <Badge tone="caution" className="mt-1" title="At least one formula was recalled rather than read in its paper; an editor still has to confirm it.">
+            <Badge tone="caution" className="mt-1" title="Something in this entry (a formula, a value or a reference detail) was recalled rather than read in its paper; an editor still has to confirm it.">
               source to be confirmed
             </Badge>
           )}
@@ -63,6 +65,10 @@ const columns = [
           <li key={i} className="whitespace-nowrap">
             {m.b !== null ? <Exponent name="b" value={m.b} /> : m.a !== null ? <Exponent name="a" value={m.a} /> : <span>{m.kind.replace(/_/g, " ")}</span>}
             <span className="ml-2 text-sm text-ink-soft">{pnLabel(m.pn_order)}</span>
+            <span className="ml-2">
+              <SourceStatusTag status={m.source_status} />
+            </span>
+            {m.retired && <span className="ml-2 text-xs text-ink-faint">(retired)</span>}
           </li>
         ))}
       </ul>

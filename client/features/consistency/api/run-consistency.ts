@@ -39,7 +39,7 @@ export const couplingExclusionQuery = (request: CouplingExclusionRequest | undef
 export const ringdownConvertQuery = (request: RingdownConvertRequest | undefined) =>
   queryOptions({
     queryKey: consistencyKeys.ringdown(request),
-    queryFn: request ? ({ signal }) => apiRequest(apiPaths.convertRingdown(), ringdownConvertResponseSchema, { method: "POST", body: request, signal }) : skipToken,
+    queryFn: request ? ({ signal }) => apiRequest(apiPaths.convert(), ringdownConvertResponseSchema, { method: "POST", body: request, signal }) : skipToken,
     staleTime: 60_000,
     retry: false,
   });

@@ -10,7 +10,7 @@ import { useJob, useSubmitConsistencyJob } from "../api/consistency-job.ts";
  * Two posterior-samples files, run as a background job: text tables with a header naming M_f and
  * chi_f, or m1 and m2 (chi1, chi2 optional) to go through the remnant fit.
  */
-export function SamplesForm({ children }: { children: (result: ConsistencyResult) => ReactNode }) {
+export function SamplesForm({ children }: { children: (result: ConsistencyResult, jobId: string) => ReactNode }) {
   const [files, setFiles] = useState<{ inspiral?: File; merger_ringdown?: File }>({});
   const [frame, setFrame] = useState<"detector" | "source">("detector");
   const [z, setZ] = useState("");
@@ -94,7 +94,7 @@ export function SamplesForm({ children }: { children: (result: ConsistencyResult
           The job failed: {view.error?.message}
         </p>
       )}
-      {result?.success && children(result.data)}
+      {result?.success && view && children(result.data, view.id)}
     </div>
   );
 }

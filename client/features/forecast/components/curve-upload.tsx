@@ -25,17 +25,16 @@ export function CurveUpload({ curves }: { curves: CurveInfoDto[] }) {
   const fields = upload.error instanceof ApiError ? upload.error.fields : {};
   const mine = curves.filter((c) => c.custom);
 
-  const submit = async (e: FormEvent) => {
+  const submit = (e: FormEvent) => {
     e.preventDefault();
     if (!file) return;
-    const data = await file.text();
-    upload.mutate({ name: name.trim() || file.name, kind, convention, space, data }, { onSuccess: () => setFile(null) });
+    upload.mutate({ file, name: name.trim() || file.name.replace(/\.[^.]*$/, "").slice(0, 80) || "uploaded curve", kind, convention, space }, { onSuccess: () => setFile(null) });
   };
 
   return (
     <details className="rounded border border-paper-edge p-3" data-testid="curve-upload">
       <summary className="cursor-pointer font-semibold">Your noise curves ({mine.length})</summary>
-      <form onSubmit={(e) => void submit(e)} className="mt-3 grid grid-cols-2 items-end gap-3 md:grid-cols-6">
+      <form onSubmit={submit} className="mt-3 grid grid-cols-2 items-end gap-3 md:grid-cols-6">
         <Field label="Name" error={fields.name}>{(c) => <TextInput {...c} value={name} onChange={(e) => setName(e.target.value)} maxLength={80} />}</Field>
         <Field label="Second column" error={fields.kind}>
           {(c) => (
@@ -59,7 +58,7 @@ export function CurveUpload({ curves }: { curves: CurveInfoDto[] }) {
         <label className="flex items-center gap-2 text-sm">
           <input type="checkbox" checked={space} onChange={(e) => setSpace(e.target.checked)} /> in space (observing window)
         </label>
-        <Field label="Table (frequency, value)" error={fields.data} hint="text or CSV, two columns">
+        <Field label="Table (frequency, value)" error={fields.file} hint="text or CSV: two columns; # comments and a header line are fine">
           {(c) => <input {...c} type="file" accept=".txt,.csv,.dat,text/plain,text/csv" onChange={(e) => setFile(e.target.files?.[0] ?? null)} className="text-sm" />}
         </Field>
         <div>
@@ -68,7 +67,7 @@ export function CurveUpload({ curves }: { curves: CurveInfoDto[] }) {
           </Button>
         </div>
       </form>
-      {upload.error && !fields.data && <ErrorNote error={upload.error} title="The curve was not stored." />}
+      {upload.error && !fields.file && <ErrorNote error={upload.error} title="The curve was not stored." />}
       {mine.length > 0 && (
         <ul className="mt-3 flex flex-col gap-1 text-sm">
           {mine.map((c) => (

@@ -1,6 +1,7 @@
 import { useCallback } from "react";
 import { symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesJobResult } from "../../../../common/jobs.ts";
+import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 import { CautionList } from "../../translate/components/caution-list.tsx";
@@ -87,6 +88,11 @@ export function SamplesJobResultView({ id, data }: { id: string; data: SamplesJo
         <CautionList cautions={data.cautions} testId="job-cautions" />
       </div>
       <CouplingHistogram data={data} />
+      <SaveToSheet
+        what="this samples result"
+        payload={{ kind: "samples_job", job: id }}
+        defaults={{ label: data.file.name.replace(/\.[^.]+$/, "").slice(0, 120), analysis_method: `posterior samples, ${data.theory_name}, b = ${data.b}`.slice(0, 200) }}
+      />
     </div>
   );
 }

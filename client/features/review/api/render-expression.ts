@@ -11,7 +11,7 @@ const latexOnly = z.object({ latex: z.string().nullable() });
 
 export interface RenderRequest {
   expression: string;
-  target: "ppe_phase" | "ppe_amplitude" | "ringdown_frequency" | "ringdown_damping" | "validity";
+  target: "ppe_phase" | "ppe_amplitude" | "ringdown_frequency" | "ringdown_damping" | "remnant_mass" | "remnant_spin" | "validity";
   couplings: { symbol: string; dimension: number }[];
   definitions: { symbol: string; expression: string }[];
 }

@@ -12,9 +12,9 @@ export function checksUnder(report: ChecksReport, path: string) {
   return report.results.filter((r) => r.path === path || r.path.startsWith(`${path}.`));
 }
 
-const targetOf = { inspiral_phase: "ppe_phase", inspiral_amplitude: "ppe_amplitude", ringdown_frequency: "ringdown_frequency", ringdown_damping: "ringdown_damping" } as const;
+const targetOf = { inspiral_phase: "ppe_phase", inspiral_amplitude: "ppe_amplitude", ringdown_frequency: "ringdown_frequency", ringdown_damping: "ringdown_damping", remnant_mass: "remnant_mass", remnant_spin: "remnant_spin" } as const;
 
-const lhsOf = { inspiral_phase: "\\beta", inspiral_amplitude: "\\alpha_{\\rm ppE}", ringdown_frequency: "\\delta\\omega/\\omega", ringdown_damping: "\\delta\\tau/\\tau" } as const;
+const lhsOf = { inspiral_phase: "\\beta", inspiral_amplitude: "\\alpha_{\\rm ppE}", ringdown_frequency: "\\delta\\omega/\\omega", ringdown_damping: "\\delta\\tau/\\tau", remnant_mass: "\\delta M_f/M_f", remnant_spin: "\\delta\\chi_f/\\chi_f" } as const;
 
 /** A mapping typed without TeX, typeset by the engine's reading of it (or shown as typed if that fails). */
 function EngineTex({ entry, index }: { entry: Entry; index: number }) {

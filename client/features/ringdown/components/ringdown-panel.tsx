@@ -5,6 +5,7 @@ import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
+import { CautionList } from "../../translate/components/caution-list.tsx";
 import { useRingdownConvert } from "../../consistency/api/run-consistency.ts";
 
 const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
@@ -21,7 +22,8 @@ function Row({ r }: { r: RingdownResult }) {
         : r.upper
           ? `${r.coupling?.symbol} ≤ ${sig(r.upper.value)}`
           : `${r.coupling?.symbol} ≥ ${sig(r.lower!.value)}`;
-  const failing = [...(r.lower?.conditions ?? []), ...(r.upper?.conditions ?? [])].filter((c) => c.ok === false);
+  // Each condition that does not simply hold at a limit: stretched (kept as valid) or failing.
+  const flagged = [...(r.lower?.validity ?? []), ...(r.upper?.validity ?? [])].filter((c, i, all) => c.status !== "ok" && all.findIndex((d) => d.label === c.label && d.status === c.status) === i);
   return (
     <tr className="border-t border-paper-edge align-top" data-testid={`ringdown-result-${r.slug}`}>
       <th scope="row" className="text-left font-normal">
@@ -30,10 +32,11 @@ function Row({ r }: { r: RingdownResult }) {
       <td>{limit ?? <span className="text-ink-faint">{r.reason}</span>}</td>
       <td>
         {r.status === "bounded" && <Badge tone={TONE[r.verdict]}>{LABEL[r.verdict]}</Badge>}
-        {failing.map((c) => (
-          <p key={c.label} className="text-xs text-brick">
+        {flagged.map((c) => (
+          <p key={`${c.label}-${c.status}`} className={`text-xs ${c.status === "fails" ? "text-brick" : "text-amber"}`} data-status={c.status}>
             {c.label}
             {c.factor === null ? "" : ` (× ${sig(c.factor)})`}
+            {c.status === "stretched" ? ": stretched, kept as valid" : ""}
           </p>
         ))}
       </td>
@@ -44,9 +47,7 @@ function Row({ r }: { r: RingdownResult }) {
             {u.side} side: {u.reason}
           </p>
         ))}
-        {r.cautions.map((c) => (
-          <p key={c}>{c}</p>
-        ))}
+        {r.cautions.length > 0 && <CautionList cautions={r.cautions} compact />}
       </td>
     </tr>
   );
@@ -182,11 +183,7 @@ export function RingdownPanel() {
               </table>
             </div>
           )}
-          <ul className="list-disc pl-5 text-sm text-ink-soft">
-            {result.data.cautions.map((c) => (
-              <li key={c}>{c}</li>
-            ))}
-          </ul>
+          <CautionList cautions={result.data.cautions} testId="ringdown-cautions" />
         </>
       )}
     </section>

@@ -9,7 +9,9 @@ import { apiPaths, paths } from "../../../lib/paths.ts";
 import { useDeleteSheet } from "../api/delete-sheet.ts";
 import { useSheet } from "../api/get-sheet.ts";
 import { useUpdateSheet } from "../api/update-sheet.ts";
-import { recordInput } from "../lib/record-input.ts";
+import { useRemoveRecord } from "../api/remove-record.ts";
+import { useAcceptRetranslation, useRetranslationPreview } from "../api/retranslation.ts";
+import { RetranslationReview } from "./retranslation-review.tsx";
 import { ExportLinks } from "./export-links.tsx";
 import { SharePanel } from "./share-panel.tsx";
 import { SheetRecords } from "./sheet-records.tsx";
@@ -50,15 +52,26 @@ function Details({ sheet }: { sheet: Sheet }) {
 /** The owner's view of one sheet: details, records with their translations, share link, downloads. */
 export function SheetManager({ id }: { id: number }) {
   const query = useSheet(id);
-  const update = useUpdateSheet(id);
+  const removeOne = useRemoveRecord(id);
+  const preview = useRetranslationPreview(id);
+  const accept = useAcceptRetranslation(id);
   const remove = useDeleteSheet();
   const navigate = useNavigate();
   if (query.isPending) return <Loading what="the sheet" />;
   if (query.isError) return <ErrorNote error={query.error} retry={() => void query.refetch()} />;
   const sheet = query.data;
 
-  const removeRecord = (record: SheetRecord) =>
-    update.mutate({ version: sheet.version, records: sheet.records.filter((r) => r.id !== record.id).map(recordInput) });
+  const removeRecord = (record: SheetRecord) => {
+    preview.reset();
+    removeOne.mutate({ record: record.id, version: sheet.version });
+  };
+  const retranslate = (ids: number[] | undefined) => {
+    accept.reset();
+    preview.mutate(ids);
+  };
+  const translations = sheet.records.filter((r) => r.kind === "translation");
+  const stale = translations.filter((r) => r.kind === "translation" && r.stale !== null).length;
+  const writeError = removeOne.error ?? accept.error;
 
   return (
     <div className="flex flex-col gap-8" data-testid="sheet-page">
@@ -81,8 +94,34 @@ export function SheetManager({ id }: { id: number }) {
         <h2 id="records-title" className="text-xl">
           Records
         </h2>
-        {update.error && !(update.error instanceof ApiError && update.error.status === 409) && <ErrorNote error={update.error} title="The change was not saved." />}
-        <SheetRecords sheet={sheet} onRemove={removeRecord} busy={update.isPending} />
+        {translations.length > 0 && (
+          <div className="flex flex-wrap items-baseline gap-3">
+            <p className="text-sm text-ink-soft" data-testid="stale-summary">
+              {stale > 0
+                ? `${stale} of ${translations.length} translation${translations.length === 1 ? "" : "s"} were made against entries that have changed since.`
+                : "Each translation is kept exactly as it was made; re-translating is your call."}
+            </p>
+            <Button onClick={() => retranslate(undefined)} busy={preview.isPending} data-testid="retranslate-all">
+              Re-translate all…
+            </Button>
+          </div>
+        )}
+        {writeError && <ErrorNote error={writeError} title={writeError instanceof ApiError && writeError.status === 409 ? "The sheet or the catalogue moved on; it has been reloaded." : "The change was not saved."} />}
+        {preview.error && <ErrorNote error={preview.error} title="The re-translation could not be previewed." />}
+        {preview.data && (
+          <RetranslationReview
+            preview={preview.data}
+            busy={accept.isPending}
+            onDismiss={() => preview.reset()}
+            onAccept={() =>
+              accept.mutate(
+                { version: sheet.version, catalogue_revision: preview.data.catalogue_revision, records: preview.data.records.map((r) => r.id) },
+                { onSuccess: () => preview.reset() },
+              )
+            }
+          />
+        )}
+        <SheetRecords sheet={sheet} onRemove={removeRecord} onRetranslate={(r) => retranslate([r.id])} busy={removeOne.isPending || preview.isPending || accept.isPending} />
       </section>
       <div>
         <Button

@@ -13,6 +13,8 @@ const targetOf: Record<MappingInput["kind"], string> = {
   inspiral_amplitude: "ppe_amplitude",
   ringdown_frequency: "ringdown_frequency",
   ringdown_damping: "ringdown_damping",
+  remnant_mass: "remnant_mass",
+  remnant_spin: "remnant_spin",
 };
 
 const finite = (v: unknown): number | undefined => (typeof v === "number" && Number.isFinite(v) ? v : undefined);

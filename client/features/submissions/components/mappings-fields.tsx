@@ -13,6 +13,8 @@ const kindLabel: Record<(typeof MAPPING_KINDS)[number], string> = {
   inspiral_amplitude: "inspiral amplitude (ppE α)",
   ringdown_frequency: "ringdown frequency shift",
   ringdown_damping: "ringdown damping-time shift",
+  remnant_mass: "remnant mass shift δM_f/M_f",
+  remnant_spin: "remnant spin shift δχ_f/χ_f",
 };
 const sourceLabel: Record<(typeof SOURCE_STATUSES)[number], string> = {
   confirmed: "read in the cited source",
@@ -77,6 +79,7 @@ function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemo
   const couplings = useWatch<SubmissionFormInput, "theory.couplings">({ name: "theory.couplings" }) ?? [];
   const kind = useWatch<SubmissionFormInput, `theory.mappings.${number}.kind`>({ name: `${base}.kind` });
   const isRingdown = kind === "ringdown_frequency" || kind === "ringdown_damping";
+  const isRemnant = kind === "remnant_mass" || kind === "remnant_spin";
   return (
     <fieldset className="rounded border border-paper-edge bg-white/40 p-4" data-testid={`mapping-fields-${index}`}>
       <legend className="px-1 font-semibold">Mapping {index + 1}</legend>
@@ -90,7 +93,7 @@ function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemo
         </FormField>
         {isRingdown ? (
           <RingdownModeFields base={base} />
-        ) : (
+        ) : isRemnant ? null : (
           <>
             <FormField name={`${base}.pn_order`} label="PN order n" inputMode="decimal" options={{ setValueAs: optionalNumber }} hint="relative order; −1 for dipole radiation" />
             <FormField name={`${base}.b`} label="ppE b" inputMode="decimal" options={{ setValueAs: optionalNumber }} hint="b = 2n − 5 for the phase" />
@@ -99,13 +102,23 @@ function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemo
         <div className="sm:col-span-4">
           <FormField
             name={`${base}.expression`}
-            label={isRingdown ? (kind === "ringdown_frequency" ? "Expression for δf/f" : "Expression for δτ/τ") : "Expression for β"}
+            label={
+              isRingdown
+                ? kind === "ringdown_frequency"
+                  ? "Expression for δf/f"
+                  : "Expression for δτ/τ"
+                : isRemnant
+                  ? kind === "remnant_mass"
+                    ? "Expression for δM_f/M_f"
+                    : "Expression for δχ_f/χ_f"
+                  : "Expression for β"
+            }
             as="textarea"
             rows={2}
             placeholder="-(5/7168)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))"
             hint={
-              isRingdown
-                ? "Fractional shift of the mode at the remnant: plain maths in the couplings, definitions, the remnant's M_f and chi_f, and the binary variables"
+              isRingdown || isRemnant
+                ? "Fractional shift at the remnant: plain maths in the couplings, definitions, the remnant's M_f and chi_f, and the binary variables"
                 : "Plain maths in the couplings, definitions and binary variables m1, m2, M, eta, chi1, chi2, s1, s2 …"
             }
           />

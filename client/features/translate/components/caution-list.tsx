@@ -14,6 +14,8 @@ const codeLabel: Record<CautionCode, string> = {
   couplings: "couplings",
   orders: "orders",
   signed_interval: "signed interval",
+  amplitude: "amplitude",
+  remnant: "remnant",
 };
 
 /** Cautions stay next to the number they qualify; validity failures are shown first and in brick. */

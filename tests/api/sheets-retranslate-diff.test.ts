@@ -1,0 +1,42 @@
+import { describe, expect, it } from "vitest";
+import { convertRequestSchema, type ConvertResponse } from "../../common/convert.ts";
+import { translate } from "../../server/features/convert/translate.ts";
+import { limitChanges } from "../../server/features/sheets/retranslate.ts";
+import { seedCatalogue } from "./convert-fixture.ts";
+
+/** The comparison a re-translation preview shows: per limit, same / changed / added / removed, with verdict changes and the ratio. */
+
+function saved(): ConvertResponse {
+  const req = convertRequestSchema.parse({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9 }, binary: { m1: 10, m2: 5, frame: "source" } });
+  return translate(seedCatalogue(), req);
+}
+
+describe("limitChanges", () => {
+  it("when nothing changed, then every limit reads the same", () => {
+    const a = saved();
+    const changes = limitChanges(a, saved());
+    expect(changes.length).toBe(a.results.length);
+    expect(changes.every((c) => c.status === "same" && !c.verdict_changed && c.ratio === 1)).toBe(true);
+  });
+
+  it("when a value moves, a verdict flips, a limit goes and another comes, then each is reported with old and new", () => {
+    const old = saved();
+    expect(old.results.length).toBeGreaterThanOrEqual(2);
+    // The saved translation also had a limit from an entry that no longer gives one.
+    old.results.push({ ...structuredClone(old.results[0]!), theory: "retired-theory", theory_name: "Retired theory (test)" });
+    const next = structuredClone(old);
+    next.results = next.results.filter((r) => r.theory !== "retired-theory");
+    next.not_applicable.push({ theory: "retired-theory", theory_name: "Retired theory (test)", code: "different_b", reason: "enters at another b now (test)", b: [-5] });
+    const [first, second] = next.results;
+    first!.coupling.value *= 2;
+    second!.verdict = second!.verdict === "valid" ? "outside_validity" : "valid";
+    next.results.push({ ...structuredClone(old.results[0]!), theory: "invented-theory", theory_name: "Invented theory (test)" });
+    const changes = limitChanges(old, next);
+    const by = (t: string) => changes.find((c) => c.theory === t)!;
+    expect(by(first!.theory)).toMatchObject({ status: "changed", verdict_changed: false, ratio: 2 });
+    expect(by(first!.theory).new!.value).toBe(2 * by(first!.theory).old!.value);
+    expect(by(second!.theory)).toMatchObject({ status: "changed", verdict_changed: true });
+    expect(by("retired-theory")).toMatchObject({ status: "removed", new: null, reason: "enters at another b now (test)" });
+    expect(by("invented-theory")).toMatchObject({ status: "added", old: null });
+  });
+});
