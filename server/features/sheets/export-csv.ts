@@ -163,7 +163,7 @@ function samplesRow(r: SamplesJobRecord): Row {
 function stackRow(r: StackRecord): Row {
   const x = r.result;
   const q = r.request;
-  const events = x.events.map((e) => `${e.label} (${e.kind}${e.used ? "" : `, not used: ${e.reason ?? "excluded"}`}${e.bound !== null ? `, bound ${e.bound.toPrecision(3)}` : ""}${e.verdict ? `, ${e.verdict}` : ""})`);
+  const events = x.events.map((e) => `${e.label} (${e.kind}${e.used ? "" : `, not used: ${e.reason ?? "excluded"}`}${e.interval ? `, interval [${e.interval[0].toPrecision(3)}, ${e.interval[1].toPrecision(3)}]` : e.bound !== null ? `, bound ${e.bound.toPrecision(3)}` : ""}${e.verdict ? `, ${e.verdict}` : ""})`);
   return {
     ...provenance(r),
     parameter: q.parameter,
@@ -210,8 +210,11 @@ function consistencyRow(r: ConsistencyRecord): Row {
       `dchi_f/chi_f = ${dchi.toPrecision(3)} ± ${Math.sqrt(ccc).toPrecision(2)}`,
       `correlation ${(cmc / Math.sqrt(cmm * ccc)).toPrecision(2)}`,
       `levels ${x.contours.map((c) => `${Math.round(c.level * 100)}%`).join(", ")}`,
-      ...(x.split_frequency_hz !== undefined ? [`split frequency ${x.split_frequency_hz.toPrecision(3)} Hz`] : []),
+      ...(x.split_frequency_hz !== undefined
+        ? [`split frequency ${x.split_frequency_hz.toPrecision(3)} Hz${x.split ? ` (from the ${x.split.from === "full_signal" ? "full-signal" : "inspiral"} remnant M_f = ${x.split.M_f.toPrecision(4)}, chi_f = ${x.split.chi_f.toPrecision(3)})` : ""}`]
+        : []),
       ...(r.summaries ? [estimate("inspiral", r.summaries.inspiral), estimate("merger-ringdown", r.summaries.merger_ringdown)] : []),
+      ...(r.summaries?.full_signal ? [`full-signal M_f = ${r.summaries.full_signal.M_f}, chi_f = ${r.summaries.full_signal.chi_f}`] : []),
       ...x.cautions.map((c) => `caution: ${c}`),
     ].join("; "),
   };
