@@ -37,7 +37,7 @@ export function catalogueBatchSeed(name: string, entries: readonly TheoryEntryIn
         try {
           await publishWave2Entry(trx, input, editor?.id ?? null, now);
         } catch (err) {
-          // A refused entry must not take the demo down; tests/physics/seeded-wave2.test.ts fails on it instead.
+          // A refused entry must not take the demo down; the seeded-* tests of tests/physics fail on it instead.
           if (!(err instanceof ConflictError)) throw err;
           process.stderr.write(`catalogue seed (${name}): left out "${input.slug}": ${err.message}\n`);
         }

@@ -181,4 +181,25 @@ describe("POST /api/v1/convert with amplitude bounds", () => {
     }
     expect(r.results.every((x) => x.channel === "phase")).toBe(true);
   });
+
+  it("POST /convert/events: when two identical events bound alpha at a = 3, then each equals /convert and the combination is 1/sqrt(2) of one (linear mapping, p = 1)", async () => {
+    const event = { label: "ev", binary: heavy, upper: 0.05 };
+    const res = await request(app)
+      .post("/api/v1/convert/events")
+      .send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event, { ...event, label: "ev2" }] });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const single = resultFor(await convert({ bound: { parameter: "ppe_alpha", a: 3, upper: 0.05, credibility: 0.9 }, binary: heavy, theories: ["amplitude-birefringence"] }), "amplitude-birefringence");
+    expect(res.body.channel).toBe("amplitude");
+    expect(rel(res.body.events[0].limit, single.coupling.value)).toBeLessThan(1e-12);
+    // Half-normal product (the events route's rule): y_c = (sum (K_i/U_i)^2)^(-1/2), so N identical events scale x by N^(-1/(2p)), p = 1 (derived).
+    expect(rel(res.body.combined.limit, single.coupling.value / Math.SQRT2)).toBeLessThan(1e-9);
+    expect(res.body.cautions.some((c: { code: string }) => c.code === "amplitude")).toBe(true);
+    // a is required, and a theory without an amplitude term at a is named.
+    const noA = await request(app).post("/api/v1/convert/events").send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", credibility: 0.9, events: [event] });
+    expect(noA.status).toBe(400);
+    expect(noA.body.error.fields).toHaveProperty("a");
+    const wrongA = await request(app).post("/api/v1/convert/events").send({ theory: "edgb", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event] });
+    expect(wrongA.status).toBe(400);
+    expect(wrongA.body.error.fields.a).toMatch(/no amplitude mapping at a = 3/);
+  });
 });
