@@ -202,4 +202,15 @@ describe("POST /api/v1/convert with amplitude bounds", () => {
     expect(wrongA.status).toBe(400);
     expect(wrongA.body.error.fields.a).toMatch(/no amplitude mapping at a = 3/);
   });
+
+  it("POST /expressions/derive: when a -1PN flux change is given, then the amplitude's drift piece comes back at a = -2 with what it leaves out", async () => {
+    const res = await request(app)
+      .post("/api/v1/expressions/derive")
+      .send({ flux: { order: -1, coefficient: "B" }, couplings: [{ symbol: "B", dimension: 0 }], evaluate_at: { m1: 10, m2: 5, B: 0.01 } });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // Derived: gamma = B eta^(2/5), alpha = -gamma/2 at a = b + 5 = -2.
+    const eta5 = (10 * 5) / 15 ** 2;
+    expect(res.body.amplitude).toEqual([expect.objectContaining({ a: -2, note: expect.stringMatching(/frequency-drift piece only.*Kepler-law.*left out/) })]);
+    expect(res.body.amplitude[0].value / (-0.5 * eta5 ** 0.4 * 0.01) - 1).toBeLessThan(1e-12);
+  });
 });
