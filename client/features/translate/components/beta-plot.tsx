@@ -11,7 +11,7 @@ export interface BetaPoint {
 
 /**
  * How a theory fares against the bound at its b: its limit is valid, outside the validity of its
- * mapping, or not assessed; or it enters at another b, so this bound does not constrain it.
+ * mapping, or not assessed; or this bound does not constrain it (it enters at another b, or does not apply to this binary).
  */
 export type MarkState = "valid" | "outside_validity" | "not_assessed" | "not_constrained";
 
@@ -32,7 +32,7 @@ export const MARK_STYLE: Record<MarkState, LegendEntry> = {
   valid: { mark: "✓", color: "#24484a", label: "limit valid at this bound" },
   outside_validity: { mark: "✕", color: "#8f3a2c", label: "outside validity: a validity condition of the mapping fails at this limit" },
   not_assessed: { mark: "?", color: "#7f520f", label: "validity not assessed: the entry states no condition for this binary" },
-  not_constrained: { mark: "–", color: "#5a6467", label: "enters at another b: not constrained by this bound" },
+  not_constrained: { mark: "–", color: "#5a6467", label: "not constrained by this bound: enters at another b, or does not apply to this binary" },
 };
 
 const ORDER: MarkState[] = ["valid", "outside_validity", "not_assessed", "not_constrained"];
