@@ -4,6 +4,7 @@
 // (perf_hooks monitorEventLoopDelay, measured inside the server process) and the health latency,
 // against a baseline measured in the same run with health polling alone. Nothing here asserts.
 import { execFileSync, fork, type ChildProcess } from "node:child_process";
+import { availableParallelism, loadavg } from "node:os";
 import { createDb, migrateLatest } from "../server/db/knex.ts";
 import { catalogueSeed } from "../seeds/catalogue.ts";
 import { ACCEPTED_SAMPLES, post, SAMPLES } from "./stall-common.ts";
@@ -132,7 +133,8 @@ async function round(label: string, databaseUrl: string, env: Record<string, str
     const seconds = (performance.now() - t0) / 1000;
     const loudLoop = await ask<Report>(child, "report");
 
-    console.log(`-- ${label}: ${seconds.toFixed(1)} s of attack`);
+    // The machine's load matters: on a shared machine other programs take the cores too.
+    console.log(`-- ${label}: ${seconds.toFixed(1)} s of attack; load average ${loadavg().map((x) => x.toFixed(1)).join(" ")} on ${availableParallelism()} cores`);
     console.log(line("baseline (health alone)", quiet.latencies, quietLoop));
     console.log(line("under attack", loud.latencies, loudLoop));
     console.log(`ratio under attack / baseline: health max x${(Math.max(...loud.latencies) / Math.max(...quiet.latencies)).toFixed(1)}, event-loop max x${(loudLoop.max / quietLoop.max).toFixed(1)}`);
