@@ -112,7 +112,11 @@ async function round(label: string, databaseUrl: string, env: Record<string, str
   const { child, url } = await startServer(databaseUrl, env);
   try {
     // Warm-up: the first check starts the workers, the first conversion compiles the catalogue.
-    await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), new Map());
+    const warm = new Map<string, number>();
+    await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), warm);
+    const columns = { beta: [1e-4, -2e-4, 3e-4], m1: [20, 30, 25], m2: [10, 12, 15] };
+    await post(url, "/api/v1/convert/samples", JSON.stringify({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", columns }), warm);
+    if (![...warm.keys()].every((k) => / 200$/.test(k))) throw new Error(`warm-up failed: ${[...warm.keys()].join(", ")}`);
     await new Promise((r) => setTimeout(r, 1500));
 
     await ask(child, "reset");
