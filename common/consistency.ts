@@ -33,6 +33,16 @@ export const levelsSchema = z
 
 export const massFrameSchema = z.enum(["detector", "source"], { error: 'frame must be "detector" or "source"' });
 
+/**
+ * The remnant predicted from the full-signal estimate (same frame as the two estimates): Ghosh et al.
+ * 2016, 2018 split the data at twice the orbital frequency of its ISCO. When absent, the split
+ * frequency is computed from the inspiral estimate's remnant, and the answer says so.
+ */
+export const fullSignalRemnantSchema = z.strictObject({
+  M_f: num("M_f").positive("M_f must be positive (solar masses)"),
+  chi_f: num("chi_f").gt(-1, "|chi_f| must be below 1 (a Kerr black hole)").lt(1, "|chi_f| must be below 1 (a Kerr black hole)"),
+});
+
 export const consistencyRequestSchema = z.strictObject({
   inspiral: remnantSummarySchema,
   merger_ringdown: remnantSummarySchema,
@@ -40,6 +50,7 @@ export const consistencyRequestSchema = z.strictObject({
   /** Redshift; with source-frame masses it lets the split frequency be given in the detector frame. */
   z: num("z").min(0, "z must be >= 0").optional(),
   levels: levelsSchema,
+  full_signal: fullSignalRemnantSchema.optional(),
 });
 export type ConsistencyRequest = z.output<typeof consistencyRequestSchema>;
 export type ConsistencyRequestInput = z.input<typeof consistencyRequestSchema>;
@@ -57,8 +68,18 @@ export const consistencyResultSchema = z.object({
   gr_quantile: z.number(),
   /** Credible regions, each a list of closed rings [[dM, dchi], ...]. */
   contours: z.array(z.object({ level: z.number(), paths: z.array(z.array(point)) })),
-  /** Split frequency (Hz, detector frame) computed from the mean of the two estimates, when the frame allows. */
+  /** Split frequency (Hz, detector frame), when the frame allows; the same as split.frequency_hz. */
   split_frequency_hz: z.number().optional(),
+  /** The split frequency and the remnant it was computed from (full-signal estimate, or the inspiral estimate's). */
+  split: z
+    .object({
+      frequency_hz: z.number(),
+      from: z.enum(["full_signal", "inspiral"]),
+      /** Detector-frame remnant mass (solar masses) and spin the ISCO was taken at. */
+      M_f: z.number(),
+      chi_f: z.number(),
+    })
+    .optional(),
   cautions: z.array(z.string()),
 });
 export type ConsistencyResult = z.infer<typeof consistencyResultSchema>;
@@ -134,5 +155,6 @@ export const consistencyJobRequestSchema = z.strictObject({
   frame: massFrameSchema,
   z: num("z").min(0, "z must be >= 0").optional(),
   levels: levelsSchema,
+  full_signal: fullSignalRemnantSchema.optional(),
 });
 export type ConsistencyJobRequest = z.output<typeof consistencyJobRequestSchema>;

@@ -28,6 +28,8 @@ const range = (what: string) =>
     .tuple([finite(`${what}.0`), finite(`${what}.1`)], { error: `${what} must be [low, high]` })
     .refine(([a, b]) => a < b, `${what} must satisfy low < high`);
 
+const couplingSymbolSchema = z.string().trim().min(1, "coupling must not be empty").max(60, "coupling is at most 60 characters");
+
 export const priorSchema = z.strictObject({
   kind: z.enum(["as_translated", "uniform", "log_uniform"], { error: 'prior.kind must be "as_translated", "uniform" or "log_uniform"' }),
   range: range("prior.range").optional(),
@@ -37,6 +39,8 @@ export type PriorRequest = z.output<typeof priorSchema>;
 export const samplesJobRequestSchema = z
   .strictObject({
     theory: theorySlugSchema,
+    /** The coupling's symbol, when the theory has several at this b. */
+    coupling: couplingSymbolSchema.optional(),
     parameter: z.enum(["ppe_beta", "gimr_dphi"], { error: 'parameter must be "ppe_beta" or "gimr_dphi"' }),
     b: finite("b").optional(),
     k: gimrKSchema.optional(),
@@ -157,6 +161,7 @@ export type StackEvent = z.output<typeof stackEventSchema>;
 
 export const stackJobRequestSchema = z.strictObject({
   theory: theorySlugSchema,
+  coupling: couplingSymbolSchema.optional(),
   parameter: z.enum(["ppe_beta", "gimr_dphi"]),
   b: finite("b").optional(),
   k: gimrKSchema.optional(),
@@ -178,7 +183,7 @@ export const stackJobResultSchema = z.object({
   prior: z.object({ kind: z.string(), range: z.tuple([z.number(), z.number()]).nullable() }),
   verdict: verdictSchema,
   fraction_outside: z.number(),
-  events: z.array(z.object({ label: z.string(), kind: z.enum(["samples", "summary"]), used: z.boolean(), reason: z.string().nullable(), verdict: verdictSchema.nullable(), bound: z.number().nullable() })),
+  events: z.array(z.object({ label: z.string(), kind: z.enum(["samples", "summary"]), used: z.boolean(), reason: z.string().nullable(), verdict: verdictSchema.nullable(), bound: z.number().nullable(), interval: z.tuple([z.number(), z.number()]).optional() })),
   grid: z.object({ x: z.array(z.number()), combined: z.array(z.number()), events: z.array(z.array(z.number())) }),
   cautions: z.array(cautionSchema),
 });

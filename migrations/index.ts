@@ -11,6 +11,7 @@ import * as couplingRange from "./20261202001300_coupling_range.ts";
 import * as analysisJobs from "./20261202003000_analysis_jobs.ts";
 import * as submissionVersions from "./20261202004000_submission_versions.ts";
 import * as sheetRecordKinds from "./20261202004100_sheet_record_kinds.ts";
+import * as jobBlobsStorage from "./20261202004500_job_blobs_storage.ts";
 import * as remnantMappingKinds from "./20261202005100_remnant_mapping_kinds.ts";
 
 /**
@@ -30,5 +31,6 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261202003000_analysis_jobs": analysisJobs,
   "20261202004000_submission_versions": submissionVersions,
   "20261202004100_sheet_record_kinds": sheetRecordKinds,
+  "20261202004500_job_blobs_storage": jobBlobsStorage,
   "20261202005100_remnant_mapping_kinds": remnantMappingKinds,
 };

@@ -4,7 +4,7 @@ import { ConflictError } from "../server/errors.ts";
 import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/entry-checks.ts";
 import { publishEntry } from "../server/features/catalogue/publish.ts";
 import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
-import { THEORIES_WAVE2, THEORIES_WAVE2_B } from "./data/theories-wave2.ts";
+import { THEORIES_WAVE2, THEORIES_WAVE2_B, THEORIES_WAVE2_C } from "./data/theories-wave2.ts";
 import type { SeedStep } from "./index.ts";
 
 /**
@@ -37,7 +37,7 @@ export function catalogueBatchSeed(name: string, entries: readonly TheoryEntryIn
         try {
           await publishWave2Entry(trx, input, editor?.id ?? null, now);
         } catch (err) {
-          // A refused entry must not take the demo down; tests/physics/seeded-wave2.test.ts fails on it instead.
+          // A refused entry must not take the demo down; the seeded-* tests of tests/physics fail on it instead.
           if (!(err instanceof ConflictError)) throw err;
           process.stderr.write(`catalogue seed (${name}): left out "${input.slug}": ${err.message}\n`);
         }
@@ -49,3 +49,5 @@ export function catalogueBatchSeed(name: string, entries: readonly TheoryEntryIn
 export const catalogueWave2Seed: SeedStep = catalogueBatchSeed("catalogue-wave2", THEORIES_WAVE2);
 /** Einstein-aether and massive scalar-tensor gravity, added after "catalogue-wave2" had run on existing databases. */
 export const catalogueWave2bSeed: SeedStep = catalogueBatchSeed("catalogue-wave2-b", THEORIES_WAVE2_B);
+/** Massive dark-photon charges, added after "catalogue-wave2-b" had run. */
+export const catalogueWave2cSeed: SeedStep = catalogueBatchSeed("catalogue-wave2-c", THEORIES_WAVE2_C);

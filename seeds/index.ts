@@ -2,7 +2,7 @@ import type { Knex } from "knex";
 import { accountsSeed } from "./accounts.ts";
 import { catalogueSeed } from "./catalogue.ts";
 import { amplitudeCatalogueSeed } from "./amplitude-catalogue.ts";
-import { catalogueWave2bSeed, catalogueWave2Seed } from "./catalogue-wave2.ts";
+import { catalogueWave2bSeed, catalogueWave2cSeed, catalogueWave2Seed } from "./catalogue-wave2.ts";
 import { demoScenarioSeed } from "./demo-scenario.ts";
 import { ringdownCatalogueSeed } from "./ringdown-catalogue.ts";
 import { sheetsSeed } from "./sheets.ts";
@@ -14,7 +14,7 @@ export interface SeedStep {
 
 /** Seed steps in order. Later features append theirs (accounts, catalogue, demo scenario). */
 // sheetsSeed stays after accounts and catalogue: it translates the demo analyst's sheet against the seeded catalogue.
-export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, sheetsSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, amplitudeCatalogueSeed];
+export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, sheetsSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, amplitudeCatalogueSeed, catalogueWave2cSeed];
 
 /**
  * Seeds the demo data inside ONE transaction: an interrupted seed leaves nothing behind. Each step is

@@ -56,6 +56,7 @@ export const apiPaths = {
   jobsSamples: () => "/api/v1/jobs/samples",
   jobSamplesCsv: (id: string) => `/api/v1/jobs/${encodeURIComponent(id)}/samples.csv`,
   forecasts: () => "/api/v1/forecasts",
+  forecastJob: () => "/api/v1/jobs/forecast",
   forecastCurves: () => "/api/v1/forecasts/curves",
   forecastCurve: (id: number) => `/api/v1/forecasts/curves/${id}`,
   sheets: () => "/api/v1/sheets",

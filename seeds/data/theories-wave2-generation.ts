@@ -88,6 +88,48 @@ export const varyingGSensitivities: TheoryEntryInput = defineEntry({
   needs_source_confirmation: true,
 }, WAVE2_LIBRARY);
 
+/** The difference of the bodies' vector charge-to-mass ratios, shared by the massless and massive vector-charge entries. */
+export const DQ_COUPLING = {
+  symbol: "dq",
+  latex: "|q_1 - q_2|",
+  dimension: 0,
+  unit: "1",
+  description: "difference of the bodies' charge-to-mass ratios (a property of the binary)",
+  quoted: { form: "identity", symbol: "dq", latex: "|q_1 - q_2|", unit: "1" },
+  range: "non_negative",
+  gr_value: "zero",
+} as const;
+
+/** The -1PN Larmor dipole of vector charges, (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10, with its body rule and validity. */
+export function larmorDipole(fields: { references: string[]; notes: string; caution?: string }) {
+  return dipoleMapping({
+    coupling: "dq",
+    expression: "-(5/3584)*eta^(2/5)*dq^2",
+    latex: "\\beta = -\\frac{5}{3584}\\,\\eta^{2/5}\\,(q_1 - q_2)^2",
+    B: "(5/48)*dq^2",
+    flux_note: "F_dip = (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/48)(q1 - q2)^2 (our own derivation; Larmor formula)",
+    body_rules: [
+      {
+        kind: "charge",
+        description: "any body may carry a charge (black holes keep a gauge charge); astrophysical black holes are expected to be nearly neutral electrically, so the electric case mostly tests exotic charging",
+        bodies: ["bh", "ns"],
+      },
+    ],
+    validity: [
+      dipoleAtLowEnd("(5/48)*dq^2"),
+      {
+        expression: "dq/2",
+        max: 1,
+        label: "each black hole below extremality: |q_i| <= 1, so |q1 - q2| <= 2",
+        kind: "hard",
+        reference: "Reissner-Nordstrom extremality (common practice)",
+      },
+    ],
+    source_status: "derived",
+    ...fields,
+  });
+}
+
 export const vectorCharges: TheoryEntryInput = defineEntry({
   slug: "vector-charges",
   name: "Massless vector charges (electric or dark U(1)) on compact bodies",
@@ -99,42 +141,9 @@ export const vectorCharges: TheoryEntryInput = defineEntry({
     "the Coulomb-like force changes Kepler's law by (1 - q1 q2) at 0PN, which the measured chirp mass absorbs; corrections to the dipole of order q1 q2 (q1 - q2)^2 are dropped",
     "dipole flux (2/3) mu^2 (q1 - q2)^2 (M/r^2)^2 (Larmor), twice the scalar dipole flux for the same charges",
   ],
-  couplings: [
-    {
-      symbol: "dq",
-      latex: "|q_1 - q_2|",
-      dimension: 0,
-      unit: "1",
-      description: "difference of the bodies' charge-to-mass ratios (a property of the binary)",
-      quoted: { form: "identity", symbol: "dq", latex: "|q_1 - q_2|", unit: "1" },
-      range: "non_negative",
-      gr_value: "zero",
-    },
-  ],
+  couplings: [DQ_COUPLING],
   mappings: [
-    dipoleMapping({
-      expression: "-(5/3584)*eta^(2/5)*dq^2",
-      latex: "\\beta = -\\frac{5}{3584}\\,\\eta^{2/5}\\,(q_1 - q_2)^2",
-      B: "(5/48)*dq^2",
-      flux_note: "F_dip = (2/3) eta^2 v^8 (q1 - q2)^2 against (32/5) eta^2 v^10: B = (5/48)(q1 - q2)^2 (our own derivation; Larmor formula)",
-      body_rules: [
-        {
-          kind: "charge",
-          description: "any body may carry a charge (black holes keep a gauge charge); astrophysical black holes are expected to be nearly neutral electrically, so the electric case mostly tests exotic charging",
-          bodies: ["bh", "ns"],
-        },
-      ],
-      validity: [
-        dipoleAtLowEnd("(5/48)*dq^2"),
-        {
-          expression: "dq/2",
-          max: 1,
-          label: "each black hole below extremality: |q_i| <= 1, so |q1 - q2| <= 2",
-          kind: "hard",
-          reference: "Reissner-Nordstrom extremality (common practice)",
-        },
-      ],
-      source_status: "derived",
+    larmorDipole({
       references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
       notes: "The coupling is the charge difference of the binary analysed: a limit holds for that binary, not for a universal charge.",
     }),

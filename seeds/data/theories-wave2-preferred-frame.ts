@@ -1,7 +1,8 @@
 /**
  * Second batch, third part: Einstein-aether (and khronometric) gravity, whose preferred frame makes
- * compact bodies radiate dipole waves and changes the quadrupole flux, and massive scalar-tensor
- * gravity, whose dipole is switched off below the scalar's mass. Written in the submission shape;
+ * compact bodies radiate dipole waves and changes the quadrupole flux; massive scalar-tensor gravity,
+ * whose dipole is switched off below the scalar's mass; and charges of a massive dark photon, whose
+ * Yukawa force changes the binding. Written in the submission shape;
  * published by the seed step "catalogue-wave2-b" (seeds/catalogue-wave2.ts).
  *
  * Both entries state their terms through the flux they change, so the engine re-derives every beta:
@@ -11,6 +12,7 @@
 import type { TheoryEntryInput } from "../../common/catalogue.ts";
 import { defineEntry, dipoleAtLowEnd, dipoleMapping, intervalBounds, ruleOfThumb } from "./entry-parts.ts";
 import { FIRST, WAVE2_LIBRARY, WAVE2_REFS } from "./references-wave2.ts";
+import { DQ_COUPLING, larmorDipole } from "./theories-wave2-generation.ts";
 
 const EA_SOURCES = [WAVE2_REFS.hansenYunesYagi2015.key, WAVE2_REFS.fosterEa2007.key, WAVE2_REFS.yagiBlasBarausseYunes2014.key];
 
@@ -253,6 +255,76 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
         reference: WAVE2_REFS.alsing2012.key,
         source_status: "confirmed",
         note: "as the abstract states it, at 95 % confidence; it holds for m_s < 2.5e-20 eV, a scalar far lighter than any GW band's orbital frequency",
+      },
+    ],
+    needs_source_confirmation: true,
+  },
+  WAVE2_LIBRARY,
+);
+
+/** The Yukawa coupling of a massive vector between the two charges, y = q1 q2 m_V^2 / (1 - q1 q2) (an inverse length squared). */
+const YUKAWA_VECTOR = "y_V*M^2";
+
+export const massiveVectorCharges: TheoryEntryInput = defineEntry(
+  {
+    slug: "massive-vector-charges",
+    name: "Massive dark-photon charges: Yukawa binding and the vector dipole",
+    family: "other",
+    summary:
+      "Compact bodies charged under a dark U(1) whose vector boson has a mass m_V. Between the bodies the force is Q1 Q2 exp(-m_V r)/r, and a binary radiates vector dipole waves in proportion to (q1 - q2)^2. Two mappings: the -1PN dipole of a vector light against the band (coupling |q1 - q2|, as the massless entry; its first mass correction vanishes at order m_V^2), and the -2PN Yukawa term of the binding (coupling y = q1 q2 m_V^2 / (1 - q1 q2)), which is there even for equal charges.",
+    assumptions: [
+      "charge-to-mass ratios q_i in the units of the 'vector-charges' entry (the force is q1 q2 m1 m2 / r^2 at short range); like charges repel (q1 q2 > 0)",
+      "potential per reduced mass -(M/r)[1 - q1 q2 exp(-m_V r)]: the factor (1 - q1 q2) is absorbed in the measured masses, the constant term exerts no force, and the orbit lies well inside the range (m_V r << 1): -(M'/r)(1 - y r^2/2), M' = M (1 - q1 q2), y = q1 q2 m_V^2 / (1 - q1 q2) (derived)",
+      "massive vector (Proca) dipole: the radiated power of an oscillating dipole goes as omega k (omega^2 - k^2/3) |p|^2 with k^2 = omega^2 - m_V^2 (sum over the three polarisations, current conserved), a factor (1 - m_V^2/omega^2)^(1/2) (1 + m_V^2/(2 omega^2)) = 1 - (3/8) m_V^4/omega^4 + ... of the massless flux (derived): no correction at order m_V^2",
+      "m_V as an inverse length, m_V c / h-bar in 1/km: m_V c^2 = 1e-13 eV is 5.07e-4 /km",
+    ],
+    couplings: [
+      DQ_COUPLING,
+      {
+        symbol: "y_V",
+        latex: "y = \\frac{q_1 q_2\\,m_V^2}{1 - q_1 q_2}",
+        dimension: -2,
+        unit: "1/km^2",
+        description: "Yukawa coupling of the pair: q1 q2 m_V^2 / (1 - q1 q2); positive for like charges (repulsive), negative for opposite charges; 0 without charges (GR)",
+        quoted: { form: "identity", symbol: "y_V", latex: "q_1 q_2 m_V^2/(1 - q_1 q_2)", unit: "1/km^2" },
+        range: "any_sign",
+        gr_value: "zero",
+      },
+    ],
+    mappings: [
+      larmorDipole({
+        references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
+        caution:
+          "Holds for a vector light against the orbital angular frequency over the band (m_V c^2 below h-bar pi f_low, 4.1e-14 eV at 20 Hz); the mass correction of the dipole starts at order m_V^4 / omega^4 (b = -19), left out. A heavier vector switches the dipole off where the orbital frequency is below m_V c^2 / h-bar.",
+        notes: "The same term as the 'vector-charges' entry, listed here beside the Yukawa term of the same theory.",
+      }),
+      {
+        kind: "inspiral_phase",
+        coupling: "y_V",
+        pn_order: -2,
+        b: -9,
+        expression: "(5/576)*eta^(4/5)*y_V*M^2",
+        latex: "\\beta_{-9} = \\frac{5}{576}\\,\\eta^{4/5}\\,y\\,M^2",
+        derivation: {
+          kind: "energy_flux",
+          order: -2,
+          A: `-(5/3)*${YUKAWA_VECTOR}`,
+          B: `(2/3)*${YUKAWA_VECTOR}`,
+          note: "potential -(M/r)(1 - y r^2/2): omega^2 = (M/r^3)(1 + y r^2/2), so M/r = v^2 (1 - y r^2/6), E = -(1/2) mu v^2 [1 - (5/3) y r^2] and the quadrupole flux (32/5) eta^2 v^10 [1 + (2/3) y r^2], r^2 = M^2 v^-4 (derived; the 'massive-graviton-yukawa' entry with 1/lambda_g^2 -> -y)",
+        },
+        body_rules: [{ kind: "charge", description: "any charged bodies; y contains the product of both charges, so a neutral companion gives y = 0", bodies: ["bh", "ns"] }],
+        validity: [
+          ruleOfThumb(
+            `abs(${YUKAWA_VECTOR})*(pi*M*f_low)^(-4/3)`,
+            "the Yukawa term stays a correction to the binding: |y| r^2 below 0.1 at the band's low end, r = M (pi M f_low)^(-2/3)",
+          ),
+        ],
+        caution:
+          "The expansion needs the orbit well inside the force's range, m_V r << 1 at the band's low end: a condition on m_V alone, which the translator cannot check from y. For m_V r of order 1 or more the force is screened and this term does not apply.",
+        source_status: "derived",
+        references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
+        notes:
+          "Our own derivation from the Yukawa potential, the same algebra as the massive graviton's static term. Equal charges (no dipole) still give this term.",
       },
     ],
     needs_source_confirmation: true,

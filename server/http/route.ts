@@ -39,6 +39,8 @@ export interface RouteSpec {
   before?: RequestHandler[];
   /** Largest JSON body this route reads, in bytes (default: the table's defaultBodyLimit). */
   bodyLimit?: number;
+  /** The body is a multipart upload read (within its own limits) by a `before` handler: no JSON body is read. */
+  multipart?: boolean;
   handler: (req: Request, res: Response, next: NextFunction) => unknown;
 }
 
@@ -58,7 +60,7 @@ export class RouteTable {
       this.routes.push({ ...spec, fullPath: prefix + spec.path });
       const guard = accessGuard(spec.access, () => this.devRoutesEnabled);
       // Access, then rate limits and uploads, then the body: nothing is read for a request that is refused.
-      const body = spec.method === "get" || spec.method === "delete" ? [] : jsonBody(spec.bodyLimit ?? this.defaultBodyLimit);
+      const body = spec.method === "get" || spec.method === "delete" || spec.multipart ? [] : jsonBody(spec.bodyLimit ?? this.defaultBodyLimit);
       router[spec.method](spec.path, guard, ...(spec.before ?? []), ...body, async (req, res, next) => {
         await spec.handler(req, res, next);
       });

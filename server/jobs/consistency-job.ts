@@ -1,5 +1,5 @@
 import type { ConsistencyJobRequest, ConsistencyResult } from "../../common/consistency.ts";
-import { commonCautions, splitFrequencyFor } from "../features/consistency/gaussian.ts";
+import { commonCautions, splitFor } from "../features/consistency/gaussian.ts";
 import { PhysicsInputError } from "../physics/input-error.ts";
 import { remnantFromBinary } from "../physics/ringdown/remnant.ts";
 import { sampleConsistency, type RemnantSamples } from "../physics/ringdown/sample-consistency.ts";
@@ -86,7 +86,7 @@ export async function runConsistencyJob(input: {
   const MR = mean(R.samples.M_f);
   const cI = mean(I.samples.chi_f);
   const cR = mean(R.samples.chi_f);
-  const split = splitFrequencyFor(input.request, (MI + MR) / 2, (cI + cR) / 2);
+  const split = splitFor(input.request, { M_f: MI, chi_f: cI });
   const cautions = [...r.cautions, ...commonCautions({ M_f: MI, chi_f: cI }, { M_f: MR, chi_f: cR }, split)];
   if (I.fromFit || R.fromFit) cautions.push("Component masses and spins were pushed through the Husa et al. 2016 fits sample by sample; both files must use the same fit.");
   cautions.push("The prior that the component priors induce on (M_f, chi_f) is not removed.");
@@ -95,7 +95,7 @@ export async function runConsistencyJob(input: {
     deviation: { mean: r.deviation.mean, covariance: r.deviation.covariance },
     gr_quantile: r.gr_quantile,
     contours: r.contours,
-    ...(split === undefined ? {} : { split_frequency_hz: split }),
+    ...(split === undefined ? {} : { split_frequency_hz: split.frequency_hz, split }),
     cautions,
   };
 }

@@ -30,8 +30,13 @@ export interface SamplesJobInput {
 
 export interface SamplesJobOutput {
   result: SamplesJobResult;
+  /** Stored with the result (what stacking reads). */
   blobs: { name: string; data: Buffer }[];
+  /** The per-sample CSV (gzip), made after the result is stored: it is the slowest output and only a download needs it. */
+  valuesCsv: () => Promise<{ name: string; data: Buffer }>;
 }
+
+export const VALUES_CSV = "values.csv.gz";
 
 export const ESS_WARNING = 1000;
 
@@ -74,7 +79,10 @@ export async function runSamplesJob(input: SamplesJobInput): Promise<SamplesJobO
     onProgress: (f) => input.onProgress(0.4 + 0.5 * f),
   });
   const quoted = target.ready.compiled.coupling.quoted;
-  const csv = await perSampleCsv(pipeline, quoted.symbol, target.ready.compiled.coupling.symbol, quoted.form === "identity" ? null : (v) => quotedOf(quoted.form, v));
+  const valuesCsv = async () => ({
+    name: VALUES_CSV,
+    data: await perSampleCsv(pipeline, quoted.symbol, target.ready.compiled.coupling.symbol, quoted.form === "identity" ? null : (v) => quotedOf(quoted.form, v)),
+  });
   await input.onProgress(0.97);
   const stack = stackValues(pipeline);
   const result: SamplesJobResult = {
@@ -108,7 +116,7 @@ export async function runSamplesJob(input: SamplesJobInput): Promise<SamplesJobO
     frame: request.frame,
     seconds: (performance.now() - t0) / 1000,
   };
-  return { result, blobs: [{ name: "values.csv.gz", data: csv }, { name: "stack.f64", data: stack }] };
+  return { result, blobs: [{ name: "stack.f64", data: stack }], valuesCsv };
 }
 
 function quotedOf(form: QuotedFormName, v: number): number {

@@ -73,7 +73,11 @@ export async function startWorker(deps: { config: Config; db: Knex; logger: Logg
           maxNonFiniteFraction: config.JOBS_MAX_NONFINITE_FRACTION,
           onProgress,
         });
-        await repo.finish(id, out.result, config.JOBS_RETENTION_HOURS, out.blobs);
+        if (await repo.finish(id, out.result, config.JOBS_RETENTION_HOURS, out.blobs)) {
+          // The result is readable now; the per-sample CSV follows (GET .../samples.csv waits for it).
+          const csv = await out.valuesCsv();
+          await repo.addBlobIfDone(id, csv.name, csv.data);
+        }
       } else if (row.kind === "consistency") {
         const files = { inspiral: "", merger_ringdown: "" };
         for (const name of CONSISTENCY_FILES) {

@@ -65,12 +65,27 @@ describe("POST /api/v1/consistency", () => {
       const dy = y - m1;
       expect((S[1]![1]! * dx * dx - 2 * S[0]![1]! * dx * dy + S[0]![0]! * dy * dy) / det).toBeCloseTo(4.605, 2);
     }
-    // Split frequency from the mean remnant (64 M_sun, 0.695) in the detector frame: 1/(pi M (r^1.5 + chi)) (Ghosh et al. 2016).
-    const chi = 0.695;
-    const z1 = 1 + Math.cbrt(1 - chi * chi) * (Math.cbrt(1 + chi) + Math.cbrt(1 - chi));
-    const z2 = Math.sqrt(3 * chi * chi + z1 * z1);
-    const r = 3 + z2 - Math.sqrt((3 - z1) * (3 + z1 + 2 * z2));
-    expect(body.split_frequency_hz).toBeCloseTo(1 / (Math.PI * 64 * 4.925490947641267e-6 * (r ** 1.5 + chi)), 3);
+    // Split frequency from the inspiral estimate's remnant, no full-signal remnant being given (the choice is
+    // stated): f_c = 1/(pi M (r_ISCO^1.5 + chi)) in the detector frame (Ghosh et al. 2016, 2018; Bardeen, Press &
+    // Teukolsky 1972 ISCO written out here).
+    const fc = (M: number, chi: number) => {
+      const z1 = 1 + Math.cbrt(1 - chi * chi) * (Math.cbrt(1 + chi) + Math.cbrt(1 - chi));
+      const z2 = Math.sqrt(3 * chi * chi + z1 * z1);
+      const r = 3 + z2 - Math.sqrt((3 - z1) * (3 + z1 + 2 * z2));
+      return 1 / (Math.PI * M * 4.925490947641267e-6 * (r ** 1.5 + chi));
+    };
+    expect(body.split_frequency_hz).toBeCloseTo(fc(inspiral.M_f, inspiral.chi_f), 3);
+    expect(body.split).toEqual({ frequency_hz: body.split_frequency_hz, from: "inspiral", M_f: inspiral.M_f, chi_f: inspiral.chi_f });
+    expect(body.cautions.join(" ")).toMatch(/inspiral estimate's remnant, since no full-signal remnant was given/);
+    // With the full-signal remnant, the split is at its ISCO (Ghosh et al. 2016, 2018).
+    const full = await request(app).post("/api/v1/consistency").send({ inspiral, merger_ringdown: ringdown, frame: "source", z: 0.1, full_signal: { M_f: 62, chi_f: 0.69 } });
+    expect(full.status).toBe(200);
+    expect(full.body.split.from).toBe("full_signal");
+    expect(full.body.split.M_f).toBeCloseTo(62 * 1.1, 12);
+    expect(full.body.split_frequency_hz).toBeCloseTo(fc(62 * 1.1, 0.69), 3);
+    const bad = await request(app).post("/api/v1/consistency").send({ inspiral, merger_ringdown: ringdown, frame: "detector", full_signal: { M_f: 62, chi_f: 1.2 } });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toContain("full_signal.chi_f");
     expect(body.cautions.join(" ")).toMatch(/Gaussian approximation/);
   });
 

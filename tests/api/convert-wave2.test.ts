@@ -2,7 +2,7 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { convertResponseSchema, type ConvertResponse, type ConvertResult } from "../../common/convert.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
-import { catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
+import { catalogueWave2bSeed, catalogueWave2cSeed, catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
 import { buildTestApp } from "../helpers/app.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
@@ -24,6 +24,8 @@ describe("POST /api/v1/convert with the second batch of entries", () => {
     await tdb.db.transaction(async (trx) => {
       await catalogueSeed.run(trx);
       await catalogueWave2Seed.run(trx);
+      await catalogueWave2bSeed.run(trx);
+      await catalogueWave2cSeed.run(trx);
     });
     app = buildTestApp(tdb, { RATE_LIMIT_PER_MINUTE: "1000" });
   }, 120_000);
@@ -90,5 +92,45 @@ describe("POST /api/v1/convert with the second batch of entries", () => {
     const r = convertResponseSchema.parse(res.body);
     expect(r.results.filter((x) => x.theory === "gw-speed")).toEqual([]);
     expect(r.not_applicable.find((n) => n.theory === "gw-speed")).toMatchObject({ code: "degenerate_b" });
+  });
+
+  it("when a -4PN bound is given for a neutron star and a black hole, then the massive scalar's first mass correction bounds xi = m_s^2/(2 + omega_BD), and the -1PN term of the same entry is left out", async () => {
+    const nsbh = { m1: 10, m2: 1.4, chi1: 0.1, chi2: 0, bodies: ["bh", "ns"], frame: "source", scalar_sensitivities: [null, 0.2] };
+    const r = await convert({ bound: { parameter: "ppe_beta", b: -13, upper: 1e-2, credibility: 0.9 }, binary: nsbh, theories: ["massive-scalar-tensor"] });
+    const a = 10 * KM_PER_MSUN;
+    const b = 1.4 * KM_PER_MSUN;
+    const Mt = a + b;
+    const et = (a * b) / Mt ** 2;
+    // beta = -15 B eta^(8/5) / 3328 at k = -4 with B = -(3/2)(5/48)(s1 - s2)^2 M^2 xi: (75/106496)(s1 - s2)^2 M^2 xi eta^(8/5) (derived).
+    const perXi = (75 / 106496) * (0.5 - 0.2) ** 2 * Mt ** 2 * et ** 1.6;
+    const res = resultFor(r, "massive-scalar-tensor");
+    expect(res.b).toBe(-13);
+    expect(res.canonical.symbol).toBe("xi_ms");
+    expect(rel(res.canonical.value, 1e-2 / perXi)).toBeLessThan(1e-9);
+    expect(r.results.filter((x) => x.theory === "massive-scalar-tensor").map((x) => x.b)).toEqual([-13]);
+    expect(JSON.stringify(res)).toMatch(/cannot check from xi alone/);
+  });
+
+  it("when a -2PN bound is given, then the massive dark photon's Yukawa coupling y gets a signed interval, and equal charges do not hide it", async () => {
+    const r = await convert({ bound: { parameter: "ppe_beta", b: -9, upper: 1e-4, credibility: 0.9 }, binary, theories: ["massive-vector-charges"] });
+    // beta = (5/576) eta^(4/5) y M^2 (Yukawa potential -(M/r)(1 - y r^2/2), our own derivation): |y| <= 1e-4 / ((5/576) eta^(4/5) M^2).
+    const perY = (5 / 576) * eta ** 0.8 * M ** 2;
+    const res = resultFor(r, "massive-vector-charges");
+    expect(res.canonical.symbol).toBe("y_V");
+    expect(rel(res.canonical.value, 1e-4 / perY)).toBeLessThan(1e-9);
+    expect(res.signed_interval?.lower).toBeCloseTo(-1e-4 / perY, 12);
+    expect(res.signed_interval?.upper).toBeCloseTo(1e-4 / perY, 12);
+  });
+
+  it("when a bound at b = 3 is given, then Einstein-aether's c13 gets no limit from the phase (degenerate with the coalescence time), and b = -5 carries the chirp-mass caution", async () => {
+    const at3 = await convert({ bound: { parameter: "ppe_beta", b: 3, upper: 1, credibility: 0.9 }, binary: { ...binary, z: 0.1 }, theories: ["einstein-aether"] });
+    expect(at3.results.filter((x) => x.theory === "einstein-aether" && x.coupling.value !== null && Number.isFinite(x.coupling.value))).toEqual([]);
+    expect(JSON.stringify(at3)).toMatch(/degenerate with the coalescence time/);
+    const at5 = await convert({ bound: { parameter: "ppe_beta", b: -5, upper: 1e-2, credibility: 0.9 }, binary, theories: ["einstein-aether"] });
+    // beta = -(3/128) dA (0PN flux change, derived): |dA| <= 1e-2 * 128/3.
+    const res = resultFor(at5, "einstein-aether");
+    expect(res.canonical.symbol).toBe("dA_ae");
+    expect(rel(res.canonical.value, (1e-2 * 128) / 3)).toBeLessThan(1e-9);
+    expect(JSON.stringify(res)).toMatch(/degenerate with the chirp mass/);
   });
 });

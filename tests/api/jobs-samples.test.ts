@@ -187,6 +187,14 @@ describe("POST /api/v1/jobs/samples and /api/v1/jobs/stack", () => {
     expect(await count()).toBe(before);
   });
 
+  it("when the file is larger than a JSON body may be (over 2 MiB), then the upload is still accepted and translated", async () => {
+    const big = 100_000;
+    const csv = toCsv({ beta: gaussian(13, big, 0, 2e-3), m1: filled(big, 10), m2: filled(big, 5) });
+    expect(csv.length).toBeGreaterThan(2 * 1024 * 1024);
+    const r = await done(await submitSamples(app, csv, "big.csv", settings));
+    expect(r.samples.read).toBe(big);
+  });
+
   it("when an anonymous upload is over the anonymous limit, then 413 names the limit", async () => {
     const small = buildTestApp(tdb, { ...OVERRIDES, JOBS_ANON_MAX_BYTES: "1000" });
     try {

@@ -7,7 +7,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readBibtexFile } from "../helpers/bibtex.ts";
 import { sheetSchema, type Sheet } from "../../common/sheets.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
-import { buildTestApp } from "../helpers/app.ts";
+import type { DragomanApp } from "../../server/app.ts";
+import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
+import { createLogger } from "../../server/logger.ts";
+import { buildTestApp, testConfig } from "../helpers/app.ts";
+import { consistencyJob, GAUSSIAN_SUMMARIES, samplesJob, stackJob } from "../helpers/sheet-jobs.ts";
 import { bearerFor, ensureUser } from "../helpers/auth.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 import { translationOf } from "../helpers/sheets.ts";
@@ -64,14 +68,17 @@ function overfullBoxes(log: string): number[] {
 
 describe("LaTeX export compiled with pdflatex", () => {
   let tdb: TestDatabase;
-  let app: ReturnType<typeof buildTestApp>;
+  let app: DragomanApp;
+  let worker: RunningWorker;
   let token: string;
   let sheet: Sheet;
+  const overrides = { JOBS_ANON_PER_HOUR: "10000", JOBS_SWEEP_SECONDS: "1" };
 
   beforeAll(async () => {
     tdb = await createTestDatabase();
     await tdb.db.transaction((trx) => catalogueSeed.run(trx));
-    app = buildTestApp(tdb);
+    app = buildTestApp(tdb, overrides);
+    worker = await startWorker({ config: testConfig(tdb.url, overrides), db: tdb.db, logger: createLogger(testConfig(tdb.url, overrides)) });
     await ensureUser(tdb.db, { login: "tex-analyst", roles: ["analyst"] });
     token = `Bearer ${await bearerFor(tdb.db, "tex-analyst")}`;
     const binary = { m1: 10, m2: 5, frame: "source" };
@@ -91,16 +98,37 @@ describe("LaTeX export compiled with pdflatex", () => {
       });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     sheet = sheetSchema.parse(res.body);
-  });
+    // Every other record kind: a samples result, a stack of two, and consistency results (Gaussian and samples).
+    const a = await samplesJob(app, { name: "kv_231107a posterior.csv" });
+    const b = await samplesJob(app, { name: "kv-240322c.csv", m1: 8, m2: 3, sd: 3e-3, seed: 12 });
+    const more = [
+      { kind: "samples_job", label: "KV_231107a & co", detector_network: "Kestrel-Vireo (invented)", job: a },
+      { kind: "stack", label: "KV-231107a + KV-240322c", detector_network: "Kestrel-Vireo (invented)", job: await stackJob(app, a, b) },
+      { kind: "consistency", label: "KV-240815b", detector_network: "Kestrel-Vireo (invented)", summaries: GAUSSIAN_SUMMARIES },
+      { kind: "consistency", label: "KV-240815b, from samples & a long label that must wrap in a narrow column", job: await consistencyJob(app) },
+    ];
+    for (const record of more) {
+      const added = await request(app).post(`/api/v1/sheets/${sheet.id}/records`).set("Authorization", token).send({ version: sheet.version, record });
+      expect(added.status, JSON.stringify(added.body)).toBe(201);
+      sheet = sheetSchema.parse(added.body);
+    }
+  }, 240_000);
   afterAll(async () => {
+    await worker?.stop();
+    await app?.locals.jobQueue.stop();
     await tdb?.drop();
   });
 
   it("when the table of a sheet spanning the whole catalogue is compiled in one and two columns, then it fits the column and every citation resolves", async () => {
     const tex = (await request(app).get(`/api/v1/sheets/${sheet.id}/export?format=latex`).set("Authorization", token).expect(200)).text;
     const bib = (await request(app).get(`/api/v1/sheets/${sheet.id}/export?format=bibtex`).set("Authorization", token).expect(200)).text;
-    const limits = sheet.records.reduce((n, r) => n + translationOf(r).results.length, 0);
+    const limits = sheet.records.reduce((n, r) => n + (r.kind === "translation" ? translationOf(r).results.length : 0), 0);
     expect(limits).toBeGreaterThanOrEqual(8);
+    expect(sheet.records.map((r) => r.kind)).toEqual(["translation", "translation", "translation", "translation", "translation", "samples_job", "stack", "consistency", "consistency"]);
+    // The new kinds are in the table: a samples group, a stack group, and the consistency table.
+    expect(tex).toMatch(/posterior samples of/);
+    expect(tex).toMatch(/2 of 2 events stacked/);
+    expect(tex).toMatch(/\\label\{tab:kestrel-vireo-bounds-paper-test-imr\}/);
     // Every key cited in the table is a key of the BibTeX export.
     const bibKeys = new Set(readBibtexFile(bib).map((e) => e.key));
     const cited = [...tex.matchAll(/\\cite\{([^}]*)\}/g)].flatMap((m) => m[1]!.split(","));

@@ -100,7 +100,27 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     expect(svg).toMatch(/<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
     expect(svg).toMatch(/data-level="0.9"/);
     await page.screenshot({ path: screenshotPath("consistency-page"), fullPage: true });
+    await expect(page.getByTestId("split-source").textContent()).resolves.toMatch(/inspiral estimate's remnant/);
+
+    // The address holds both requests: a link opened elsewhere reproduces the quantile and the coupling table without a click.
+    const link = page.url();
+    expect(new URL(link).searchParams.get("q")).toMatch(/"inspiral"/);
+    expect(new URL(link).searchParams.get("c")).toMatch(/"johannsen"/);
+    const again = await visitor.newPage();
+    const againErrors = watch(again);
+    await again.setViewportSize({ width: 375, height: 800 });
+    await again.goto(link, { waitUntil: "networkidle" });
+    await again.getByTestId("gr-quantile").waitFor();
+    expect(Number((await again.getByTestId("gr-quantile").textContent())!.replace(/[^0-9.]/g, "")) / 100).toBeCloseTo(demoQuantile(), 3);
+    await again.getByTestId("exclusion-table").waitFor();
+    await expect(again.locator('input[name="inspiral.chi_f"]').inputValue()).resolves.toBe("0.66");
+    await again.screenshot({ path: screenshotPath("consistency-page-375"), fullPage: true });
+    // A damaged link says which field is wrong and falls back to the example.
+    await again.goto(`${stack.baseUrl}/consistency?q=${encodeURIComponent('{"inspiral":{"M_f":-1}}')}`, { waitUntil: "networkidle" });
+    await expect(again.getByTestId("bad-link").textContent()).resolves.toMatch(/inspiral\.M_f/);
+    await again.close();
     expect(errors).toEqual([]);
+    expect(againErrors).toEqual([]);
   });
 
   it("when a visitor translates a ringdown bound, then the spacetime entries get limits with verdicts", { timeout: 60_000 }, async () => {

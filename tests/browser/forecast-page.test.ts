@@ -1,4 +1,7 @@
 import { readFileSync } from "node:fs";
+import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
+import { createLogger } from "../../server/logger.ts";
+import { testConfig } from "../helpers/app.ts";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
@@ -10,25 +13,33 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * The forecast journey in Chromium against the real app: a visitor runs the multi-band preset (LISA
  * years before merger plus aLIGO design), sees the bound plot, the table with the low-SNR caution
  * beside LISA, the translations into theories and the coupling plot, and downloads the plot as PNG;
- * the demo analyst saves the forecast to a sheet.
+ * the demo analyst saves the forecast to a sheet. The forecast lives in the address: the link opened
+ * in a fresh tab shows the same forecast. The analyst uploads a curve file, and a forecast with more
+ * values of b than one request takes runs as a background job with its progress shown.
  */
 describe("browser: forecasting a multi-band bound and translating it", () => {
   let tdb: TestDatabase;
   let stack: SignInStack;
   let visitor: BrowserContext;
   let analyst: BrowserContext;
+  let worker: RunningWorker;
+  const env = { RATE_LIMIT_PER_MINUTE: "1000", JOBS_ANON_PER_HOUR: "1000", JOBS_TEST_PAUSE_MS: "2000" };
 
   beforeAll(async () => {
     if (!clientIsBuilt()) throw new Error("dist/ is missing: run `npx vite build` first (npm test does it).");
     tdb = await createTestDatabase();
-    stack = await startSignInStack(tdb, { env: { RATE_LIMIT_PER_MINUTE: "1000" } });
+    stack = await startSignInStack(tdb, { env });
     await tdb.db.transaction((trx) => catalogueSeed.run(trx));
+    const config = testConfig(tdb.url, env);
+    worker = await startWorker({ config, db: tdb.db, logger: createLogger(config) });
     visitor = await launchBrowser();
     analyst = await launchBrowser();
   }, 120_000);
   afterAll(async () => {
     await visitor?.close();
     await analyst?.close();
+    await worker?.stop();
+    await stack?.app.locals.jobQueue.stop();
     await stack?.close();
     await tdb?.drop();
   });
@@ -79,7 +90,23 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     expect(download.suggestedFilename()).toBe("forecast-beta-against-b.png");
     const png = readFileSync(await download.path());
     expect(png.subarray(1, 4).toString()).toBe("PNG");
+    // Symbols, not code names: the limits are typeset (KaTeX) and no ASCII condition text is left.
+    await translations.locator(".katex").first().waitFor();
+    const translated = (await translations.textContent()) ?? "";
+    expect(translated).not.toMatch(/alpha\^2|Mdot_loss|<=|0\.1666/);
     await page.screenshot({ path: screenshotPath("forecast-multiband"), fullPage: true });
+
+    // The forecast is in the address: the link opened in a new tab shows the same forecast.
+    const link = page.url();
+    expect(new URL(link).searchParams.get("q")).toMatch(/"networks"/);
+    const again = await visitor.newPage();
+    await again.goto(link, { waitUntil: "networkidle" });
+    await again.getByTestId("forecast-results").waitFor({ timeout: 60_000 });
+    await expect(again.getByTestId("forecast-cell-2--7").locator("[data-value]").first().getAttribute("data-value")).resolves.toBe(cell);
+    await expect(again.getByTestId("forecast-form").getByLabel("m₁ [M☉]").inputValue()).resolves.toBe("36");
+    await again.setViewportSize({ width: 375, height: 800 });
+    await again.screenshot({ path: screenshotPath("forecast-multiband-375"), fullPage: true });
+    await again.close();
 
     expect(offLoopback(requests)).toEqual([]);
     // The one 400 is the deliberately bad band above; nothing else may fail.
@@ -103,6 +130,39 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     const stored = await tdb.db("sheet_records").join("sheets", "sheets.id", "sheet_records.sheet_id").where("sheets.name", "Multi-band forecast").select("label", "notes");
     expect(stored).toHaveLength(6);
     expect(stored.every((r: { notes: string }) => r.notes.startsWith("A forecast, not a measurement."))).toBe(true);
+
+    // A curve uploaded as a file: a bad row is named with its line and column, a good file is stored.
+    const upload = page.getByTestId("curve-upload");
+    await upload.locator("summary").click();
+    await upload.getByLabel("Second column").selectOption("asd");
+    await upload.getByLabel(/^Table/).setInputFiles({ name: "bad.csv", mimeType: "text/csv", buffer: Buffer.from("# f, asd\n10, 1e-23\n20, 0\n") });
+    await upload.getByRole("button", { name: "Upload" }).click();
+    await expect(upload.getByText(/line 3, column 2 \(ASD\)/).textContent({ timeout: 30_000 })).resolves.toMatch(/must be positive/);
+    const rows = Array.from({ length: 30 }, (_, i) => 10 * 100 ** (i / 29)).map((f) => `${f.toPrecision(6)}, ${(3e-24 * (1 + (30 / f) ** 4)).toExponential(4)}`);
+    await upload.getByLabel("Name").fill("Invented flat curve");
+    await upload.getByLabel(/^Table/).setInputFiles({ name: "flat.csv", mimeType: "text/csv", buffer: Buffer.from(["frequency,asd", ...rows].join("\n")) });
+    await upload.getByRole("button", { name: "Upload" }).click();
+    await upload.getByText(/Invented flat curve/).first().waitFor({ timeout: 30_000 });
+    const curve = await tdb.db("forecast_curves").where({ name: "Invented flat curve" }).first();
+    expect(curve.frequencies).toHaveLength(30);
+    expect(errors.filter((e) => !/status of 400/.test(e))).toEqual([]);
+  });
+
+  it("when more values of b are asked than one request takes, then the forecast runs as a background job with its progress, and per-detector phases are offered", { timeout: 180_000 }, async () => {
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    await page.goto(`${stack.baseUrl}/forecast`, { waitUntil: "networkidle" });
+    const bs = Array.from({ length: 48 }, (_, i) => -14 + i * 0.25).filter((b) => b !== 0 && b !== 3);
+    await page.getByTestId("forecast-form").getByLabel("b values").fill(bs.join(", "));
+    await page.getByTestId("forecast-coalescence").selectOption("phi_c_per_detector");
+    await page.getByTestId("forecast-run").click();
+    await page.getByTestId("forecast-job-progress").waitFor({ timeout: 60_000 });
+    await page.screenshot({ path: screenshotPath("forecast-job-running"), fullPage: false });
+    await page.getByTestId("forecast-results").waitFor({ timeout: 120_000 });
+    await expect(page.getByTestId("forecast-table").locator("tbody tr").count()).resolves.toBe(bs.length);
+    await expect(page.getByTestId("forecast-coalescence-used").textContent()).resolves.toMatch(/own coalescence phase/);
+    const job = await tdb.db("analysis_jobs").where({ kind: "forecast" }).orderBy("created_at", "desc").first();
+    expect(job.status).toBe("done");
     expect(errors).toEqual([]);
   });
 });

@@ -99,4 +99,36 @@ describe("<BoundForm>", () => {
     expect(field("m₂ (M☉)").getAttribute("aria-invalid")).toBe("true");
     expect(screen.getByText('conventions.edgb: unknown convention "XYZ"')).toBeTruthy();
   });
+
+  it("when the ppE amplitude is chosen, then a replaces b, there is no phase convention, and the bound is a ppe_alpha bound", async () => {
+    const onSubmit = vi.fn<(r: ConvertRequest) => void>();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByLabelText("Deviation parameter"), { target: { value: "ppe_alpha" } });
+    const a = await screen.findByLabelText("Exponent a");
+    expect(screen.queryByLabelText("Exponent b")).toBeNull();
+    expect(screen.queryByLabelText("Phase sign convention of the analysis")).toBeNull();
+    fireEvent.change(a, { target: { value: "3" } });
+    fireEvent.change(field("Upper bound on |α|"), { target: { value: "0.05" } });
+    submit();
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "ppe_alpha", a: 3, upper: 0.05, credibility: 0.9, f_low: 20 });
+  });
+
+  it("when a distance ratio is chosen, then it is an interval around 1 at the source's redshift, and a ratio leaving out 1 is refused beside its field", async () => {
+    const onSubmit = vi.fn<(r: ConvertRequest) => void>();
+    render(<BoundForm onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByLabelText("Deviation parameter"), { target: { value: "distance_ratio" } });
+    const z = await screen.findByLabelText("Source redshift z");
+    expect((screen.getByTestId("bound-shape") as HTMLSelectElement).value).toBe("interval");
+    fireEvent.change(z, { target: { value: "0.3" } });
+    fireEvent.change(field("Lower end lo of d_L^GW/d_L^EM"), { target: { value: "1.1" } });
+    fireEvent.change(field("Upper end hi of d_L^GW/d_L^EM"), { target: { value: "1.3" } });
+    submit();
+    await screen.findByText(/GR itself \(d_L\^GW \/ d_L\^EM = 1\) is outside/);
+    expect(onSubmit).not.toHaveBeenCalled();
+    fireEvent.change(field("Lower end lo of d_L^GW/d_L^EM"), { target: { value: "0.8" } });
+    submit();
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "distance_ratio", interval: [0.8, 1.3], z: 0.3, credibility: 0.9, f_low: 20 });
+  });
 });

@@ -8,6 +8,7 @@ import { runPipeline, type PipelineInput, type PipelineResult } from "../../serv
 import { weightedQuantiles } from "../../server/physics/samples/weighted.ts";
 import { readStackValues, stackValues } from "../../server/jobs/samples-job.ts";
 import { runStackJob } from "../../server/jobs/stack-job.ts";
+import { canonicalValueOf } from "../../server/physics/quoted-forms.ts";
 import { seedCatalogue } from "../api/convert-fixture.ts";
 import { filled, gaussian } from "../helpers/samples-data.ts";
 
@@ -191,6 +192,12 @@ describe("posterior samples: weighted credible bounds", () => {
   });
 });
 
+/** What a finished samples job hands to stacking: the parts of its result the stack reads, and its per-sample values. */
+function asEvent(r: PipelineResult, mapping: CompiledMapping): { result: SamplesJobResult; values: ReturnType<typeof readStackValues> } {
+  const result = { verdict: r.verdict, power: r.power, conditions: r.conditions, coupling: { side: r.side, symbol: mapping.coupling.quoted.symbol } } as unknown as SamplesJobResult;
+  return { result, values: readStackValues(stackValues(r)) };
+}
+
 describe("several events: stacking", () => {
   const edgb = target("edgb", -7);
   const K1 = prefactor(edgb.mapping, 10, 5);
@@ -217,7 +224,7 @@ describe("several events: stacking", () => {
     const runs: Record<string, { result: SamplesJobResult; values: ReturnType<typeof readStackValues> }> = {};
     for (const [id, e, m1, m2, seed] of [["AAAAAAAAAAAAAAAAAAAAAAA1", e1, 10, 5, 5], ["AAAAAAAAAAAAAAAAAAAAAAA2", e2, 8, 3, 6]] as const) {
       const r: PipelineResult = await runPipeline(input(edgb, gaussian(seed, 100_000, e.mu, e.sigma), m1, m2, { kind: "as_translated" }));
-      runs[id] = { result: { verdict: r.verdict, power: r.power, conditions: r.conditions, coupling: { side: r.side } } as unknown as SamplesJobResult, values: readStackValues(stackValues(r)) };
+      runs[id] = asEvent(r, edgb.mapping);
     }
     const out = await runStackJob({
       request: request([
@@ -247,5 +254,121 @@ describe("several events: stacking", () => {
     });
     expect(Math.abs(out.coupling.value! ** 2 / exact - 1)).toBeLessThan(0.01);
     expect(out.cautions.some((c) => /Quick estimate/.test(c.message))).toBe(true);
+  });
+});
+
+describe("several events: stacking signed couplings and lower bounds", () => {
+  const noop = async () => undefined;
+  const z95 = inversePhi(0.95);
+
+  // Varying G at b = -13: beta = K Gdot with K = -(275/851968) Mc (Tahura & Yagi 2018), Gdot of either sign: a signed interval.
+  const vg = target("varying-g", -13);
+  const Ka = prefactor(vg.mapping, 10, 5);
+  const Kb = prefactor(vg.mapping, 8, 3);
+  const ea = { mu: 0.02, sigma: 0.05 };
+  const eb = { mu: -0.03, sigma: 0.08 };
+  // Product of Gaussian likelihoods in beta_i = K_i x under a uniform prior in x (common practice: the combined
+  // posterior is the product of the per-event posteriors with their priors divided out): a Gaussian in x with
+  // precision sum_i K_i^2 / sigma_i^2 and mean sum_i K_i mu_i / sigma_i^2 over that precision (derived).
+  const precision = Ka ** 2 / ea.sigma ** 2 + Kb ** 2 / eb.sigma ** 2;
+  const mean = (Ka * ea.mu / ea.sigma ** 2 + Kb * eb.mu / eb.sigma ** 2) / precision;
+  const sd = 1 / Math.sqrt(precision);
+  const stackRequest = (theory: string, b: number, events: StackJobRequest["events"], prior: StackJobRequest["prior"]): StackJobRequest => ({
+    theory,
+    parameter: "ppe_beta",
+    b,
+    credibility: 0.9,
+    bodies: ["bh", "bh"],
+    prior,
+    events,
+    include_outside_validity: true,
+    f_low: 20,
+  });
+
+  it("when two signed-coupling events come as samples jobs, then the combined 90% interval is the analytic Gaussian product's mean -+ 1.645 sd", async () => {
+    const runs: Record<string, ReturnType<typeof asEvent>> = {};
+    for (const [id, e, m1, m2, seed] of [["SIGNEDAAAAAAAAAAAAAAAAA1", ea, 10, 5, 21], ["SIGNEDAAAAAAAAAAAAAAAAA2", eb, 8, 3, 22]] as const) {
+      const r = await runPipeline(input(vg, gaussian(seed, 200_000, e.mu, e.sigma), m1, m2, { kind: "as_translated" }));
+      expect(r.side).toBe("interval");
+      runs[id] = asEvent(r, vg.mapping);
+    }
+    const out = await runStackJob({
+      request: stackRequest("varying-g", -13, [{ label: "a", job: "SIGNEDAAAAAAAAAAAAAAAAA1" }, { label: "b", job: "SIGNEDAAAAAAAAAAAAAAAAA2" }], { kind: "uniform" }),
+      catalogue,
+      load: async (id) => runs[id] ?? null,
+      onProgress: noop,
+    });
+    expect(out.coupling.side).toBe("interval");
+    const [lo, hi] = out.coupling.signed_interval!.map((v) => canonicalValueOf("per_year", v));
+    // Histogram noise of 200 000 samples on a 400-bin grid: within 5% of the product's width.
+    expect(Math.abs(lo! - (mean - z95 * sd)) / sd).toBeLessThan(0.05);
+    expect(Math.abs(hi! - (mean + z95 * sd)) / sd).toBeLessThan(0.05);
+    for (const e of out.events) expect(e.interval).toHaveLength(2);
+    // The grid carries both signs of the coupling, ascending.
+    expect(out.grid.x[0]!).toBeLessThan(0);
+    expect(out.grid.x.at(-1)!).toBeGreaterThan(0);
+  });
+
+  it("when the same signed events come as summaries, then the interval matches the product to the grid's accuracy, and a log-uniform prior is refused", async () => {
+    const events: StackJobRequest["events"] = [
+      { label: "a", summary: { centre: ea.mu, width: ea.sigma }, binary: { m1: 10, m2: 5, chi1: 0, chi2: 0 } },
+      { label: "b", summary: { centre: eb.mu, width: eb.sigma }, binary: { m1: 8, m2: 3, chi1: 0, chi2: 0 } },
+    ];
+    const out = await runStackJob({ request: stackRequest("varying-g", -13, events, { kind: "uniform" }), catalogue, load: async () => null, onProgress: noop });
+    const [lo, hi] = out.coupling.signed_interval!.map((v) => canonicalValueOf("per_year", v));
+    expect(Math.abs(lo! - (mean - z95 * sd)) / sd).toBeLessThan(0.01);
+    expect(Math.abs(hi! - (mean + z95 * sd)) / sd).toBeLessThan(0.01);
+    await expect(runStackJob({ request: stackRequest("varying-g", -13, events, { kind: "log_uniform", range: [1e-30, 1] }), catalogue, load: async () => null, onProgress: noop })).rejects.toThrow(/log-uniform prior needs a positive coupling/);
+  });
+
+  // Massive graviton at b = -3: beta = -pi^2 D_0 Mc / lambda_g^2 (Will 1998): beta falls as lambda_g grows, a lower bound.
+  const mg = target("massive-graviton", -3);
+  const zEvent = 0.1;
+  const Kz = (m1: number, m2: number) => {
+    const env = createConversionContext(makeBinary({ m1, m2, frame: "source", z: zEvent }), { cosmology: DEFAULT_COSMOLOGY }).envFor(mg.mapping);
+    return mg.mapping.evaluate(1, env);
+  };
+  const K1 = Kz(30, 25);
+  const K2 = Kz(12, 8);
+  const g1 = { mu: 0, sigma: 0.1 };
+  const g2 = { mu: 0.02, sigma: 0.15 };
+  const scale = Math.sqrt(Math.abs(K1) / g1.sigma);
+  const rb = 30 * scale;
+  // Uniform prior in lambda_g on [0, rb]; the product of the Gaussian likelihoods in beta_i = K_i lambda^-2 (derived),
+  // and the lower bound: P(lambda >= X) = 0.9, the 0.1-quantile of the product on a fine grid.
+  const productG = (l: number) => (l <= 0 ? 0 : Math.exp(-0.5 * ((K1 / l ** 2 - g1.mu) / g1.sigma) ** 2 - 0.5 * ((K2 / l ** 2 - g2.mu) / g2.sigma) ** 2));
+  const exactLower = quantileOf(productG, scale / 50, rb, 0.1);
+
+  it("when two events bound a coupling from below (massive graviton), then the combined lower bound is the analytic product's 10% quantile", async () => {
+    const summaries: StackJobRequest["events"] = [
+      { label: "one", summary: { centre: g1.mu, width: g1.sigma }, binary: { m1: 30, m2: 25, chi1: 0, chi2: 0, z: zEvent } },
+      { label: "two", summary: { centre: g2.mu, width: g2.sigma }, binary: { m1: 12, m2: 8, chi1: 0, chi2: 0, z: zEvent } },
+    ];
+    const fromSummaries = await runStackJob({ request: stackRequest("massive-graviton", -3, summaries, { kind: "uniform", range: [0, rb] }), catalogue, load: async () => null, onProgress: noop });
+    expect(fromSummaries.coupling.side).toBe("lower");
+    expect(Math.abs(fromSummaries.coupling.value! / exactLower - 1)).toBeLessThan(0.01);
+
+    const runs: Record<string, ReturnType<typeof asEvent>> = {};
+    for (const [id, e, m1, m2, seed] of [["LOWERAAAAAAAAAAAAAAAAAA1", g1, 30, 25, 31], ["LOWERAAAAAAAAAAAAAAAAAA2", g2, 12, 8, 32]] as const) {
+      const base = input(mg, gaussian(seed, 200_000, e.mu, e.sigma), m1, m2, { kind: "as_translated" });
+      const n = base.columns.deviation.length;
+      const r = await runPipeline({ ...base, columns: { ...base.columns, z: filled(n, zEvent) }, names: { ...base.names, z: "z" } });
+      expect(r.side).toBe("lower");
+      runs[id] = asEvent(r, mg.mapping);
+    }
+    const fromSamples = await runStackJob({
+      request: stackRequest("massive-graviton", -3, [{ label: "one", job: "LOWERAAAAAAAAAAAAAAAAAA1" }, { label: "two", job: "LOWERAAAAAAAAAAAAAAAAAA2" }], { kind: "uniform", range: [0, rb] }),
+      catalogue,
+      load: async (id) => runs[id] ?? null,
+      onProgress: noop,
+    });
+    expect(Math.abs(fromSamples.coupling.value! / exactLower - 1)).toBeLessThan(0.03);
+    // Each event alone bounds the coupling less tightly (a lower bound: a smaller value).
+    for (const e of fromSamples.events) expect(e.bound!).toBeLessThan(fromSamples.coupling.value!);
+  });
+
+  it("when a lower bound is stacked under a prior without an upper end, then the job refuses naming prior.range", async () => {
+    const events: StackJobRequest["events"] = [{ label: "one", summary: { centre: 0, width: 0.1 }, binary: { m1: 30, m2: 25, chi1: 0, chi2: 0, z: zEvent } }];
+    await expect(runStackJob({ request: stackRequest("massive-graviton", -3, events, { kind: "uniform" }), catalogue, load: async () => null, onProgress: noop })).rejects.toThrow(/prior\.range: .*improper/);
   });
 });

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { TheoryDetail, TheoryMapping } from "../../common/catalogue.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
-import { catalogueWave2bSeed, catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
-import { THEORIES_WAVE2 as FIRST_PART, THEORIES_WAVE2_B } from "../../seeds/data/theories-wave2.ts";
+import { catalogueWave2bSeed, catalogueWave2cSeed, catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
+import { THEORIES_WAVE2 as FIRST_PART, THEORIES_WAVE2_B, THEORIES_WAVE2_C } from "../../seeds/data/theories-wave2.ts";
 import { seedSteps } from "../../seeds/index.ts";
 import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
 import { catalogueService } from "../../server/features/catalogue/service.ts";
@@ -19,8 +19,9 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * or derivation.
  */
 
-/** Both steps of the second batch: "catalogue-wave2" and "catalogue-wave2-b" (added after the first had run). */
-const THEORIES_WAVE2 = [...FIRST_PART, ...THEORIES_WAVE2_B];
+/** The steps of the second batch: "catalogue-wave2", then "catalogue-wave2-b" and "-c" (each added after the one before had run). */
+const THEORIES_WAVE2 = [...FIRST_PART, ...THEORIES_WAVE2_B, ...THEORIES_WAVE2_C];
+const STEPS = [catalogueSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, catalogueWave2cSeed];
 
 let tdb: TestDatabase;
 const details = new Map<string, TheoryDetail>();
@@ -33,8 +34,8 @@ beforeAll(async () => {
   tdb = await createTestDatabase();
   firstRun = await seedSteps(tdb.db, [catalogueSeed, ringdownCatalogueSeed]);
   countBefore = (await catalogueService(tdb.db).list({})).length;
-  secondRun = await seedSteps(tdb.db, [catalogueSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed]);
-  thirdRun = await seedSteps(tdb.db, [catalogueSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed]);
+  secondRun = await seedSteps(tdb.db, STEPS);
+  thirdRun = await seedSteps(tdb.db, STEPS);
   const catalogue = catalogueService(tdb.db);
   for (const t of await catalogue.list({})) details.set(t.slug, await catalogue.detail(t.slug));
 }, 180_000);
@@ -168,6 +169,35 @@ const HAND: Record<string, HandCheck[]> = {
       { b: -13, values: { xi_ms: xi }, expected: energyBalance(-4, 0, slope * bd * M ** 2 * xi), source: "expanded massive dipole flux at -4PN (derived)" },
     ];
   })(),
+  "massive-vector-charges": ((): HandCheck[] => {
+    // The Yukawa binding re-derived here with numbers: potential per reduced mass V = -(M/r)(1 - y r^2/2) (M the measured mass);
+    // circular orbit omega^2 r = dV/dr, v = (M omega)^(1/3), E = r^2 omega^2/2 + V, quadrupole flux (32/5) eta^2 M^2 r^4 omega^6.
+    // A and B are read off as the first-order coefficients of v^-4 by a central difference in y (derived).
+    const y = 2e-9;
+    const r = 40 * M;
+    const orbit = (yy: number) => {
+      const omega = Math.sqrt(M / r ** 3 + (M * yy) / (2 * r));
+      const v = Math.cbrt(M * omega);
+      const E = (r ** 2 * omega ** 2) / 2 - (M / r) * (1 - (yy * r ** 2) / 2);
+      const F = (32 / 5) * eta ** 2 * M ** 2 * r ** 4 * omega ** 6;
+      return { v, e: E / (-0.5 * v ** 2) - 1, f: F / ((32 / 5) * eta ** 2 * v ** 10) - 1 };
+    };
+    // d(E/E_N - 1)/dy and d(F/F_N - 1)/dy at y = 0, times v^4 / M^2 (expected -5/3 and 2/3): central differences with
+    // y r^2 = 1e-4 and one Richardson step, so the error is about 1e-12.
+    const h = 1e-4 / r ** 2;
+    const slope = (key: "e" | "f") => {
+      const central = (step: number) => (orbit(step)[key] - orbit(-step)[key]) / (2 * step);
+      return (4 * central(h / 2) - central(h)) / 3;
+    };
+    const v0 = orbit(0).v;
+    const dA = (slope("e") * v0 ** 4) / M ** 2;
+    const dB = (slope("f") * v0 ** 4) / M ** 2;
+    return [
+      // Larmor dipole, as the 'vector-charges' entry (derived).
+      { b: -7, values: { dq: 0.3 }, expected: energyBalance(-1, 0, (5 / 48) * 0.09), source: "vector dipole flux (Larmor), energy balance" },
+      { b: -9, values: { y_V: y }, expected: energyBalance(-2, dA * y * M ** 2, dB * y * M ** 2), source: "Yukawa binding from the orbit, energy balance at -2PN (derived)" },
+    ];
+  })(),
   "eco-tidal-deformability": (() => {
     const L = 40;
     // Lambda-tilde of Favata 2014 / Wade et al. 2014 (value from memory) and the 5PN phase -(39/2) Lambda-tilde x^5 in 3/(128 eta x^(5/2)).
@@ -179,7 +209,7 @@ const HAND: Record<string, HandCheck[]> = {
 describe("the second batch of catalogue entries (seed step catalogue-wave2)", () => {
   it("when an already-seeded database starts again, then the new step runs once and adds every new entry", () => {
     expect(firstRun).toEqual(["catalogue", "ringdown-catalogue"]);
-    expect(secondRun).toEqual(["catalogue-wave2", "catalogue-wave2-b"]);
+    expect(secondRun).toEqual(["catalogue-wave2", "catalogue-wave2-b", "catalogue-wave2-c"]);
     expect(thirdRun).toEqual([]);
     expect(details.size).toBe(countBefore + THEORIES_WAVE2.length);
     expect(details.size).toBeGreaterThanOrEqual(25);

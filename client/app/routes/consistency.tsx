@@ -1,5 +1,13 @@
-import { useState } from "react";
-import type { ConsistencyRequest, CouplingExclusionResponse } from "../../../common/consistency.ts";
+import { useCallback, useState } from "react";
+import { useSearchParams } from "react-router-dom";
+import {
+  consistencyRequestSchema,
+  couplingExclusionRequestSchema,
+  type ConsistencyRequest,
+  type CouplingExclusionRequest,
+  type CouplingExclusionResponse,
+} from "../../../common/consistency.ts";
+import { readJsonParam } from "../../lib/json-param.ts";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { ApiError } from "../../lib/api-client.ts";
 import { useConsistency } from "../../features/consistency/api/run-consistency.ts";
@@ -10,8 +18,27 @@ import { SummariesForm } from "../../features/consistency/components/summaries-f
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 
 /** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
+/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON. */
+const TEST_PARAM = "q";
+const COUPLING_PARAM = "c";
+
 export function Component() {
-  const [request, setRequest] = useState<ConsistencyRequest | undefined>();
+  const [params, setParams] = useSearchParams();
+  const fromUrl = readJsonParam(consistencyRequestSchema, params.get(TEST_PARAM), "test");
+  const couplingFromUrl = readJsonParam(couplingExclusionRequestSchema, params.get(COUPLING_PARAM), "coupling question");
+  const request = fromUrl.kind === "ok" ? fromUrl.value : undefined;
+  const couplingRequest = couplingFromUrl.kind === "ok" ? couplingFromUrl.value : undefined;
+  const setParam = useCallback(
+    (key: string, value: unknown) =>
+      setParams((prev) => {
+        const next = new URLSearchParams(prev);
+        next.set(key, JSON.stringify(value));
+        return next;
+      }),
+    [setParams],
+  );
+  const setRequest = useCallback((r: ConsistencyRequest) => setParam(TEST_PARAM, r), [setParam]);
+  const setCouplingRequest = useCallback((r: CouplingExclusionRequest) => setParam(COUPLING_PARAM, r), [setParam]);
   const [input, setInput] = useState<"summaries" | "samples">("summaries");
   const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
   const result = useConsistency(request);
@@ -41,7 +68,12 @@ export function Component() {
       </div>
       {input === "summaries" ? (
         <>
-          <SummariesForm onSubmit={setRequest} serverErrors={fields} />
+          {fromUrl.kind === "bad" && (
+            <p role="alert" className="text-brick" data-testid="bad-link">
+              This link's test could not be read ({fromUrl.message}); the form shows the example values.
+            </p>
+          )}
+          <SummariesForm key={fromUrl.kind === "ok" ? fromUrl.text : "demo"} onSubmit={setRequest} serverErrors={fields} initial={request} />
           {result.isFetching && <Loading what="the test" />}
           {result.error && Object.keys(fields).length === 0 && <ErrorNote error={result.error} title="The test could not be run." />}
           {result.error && Object.keys(fields).length > 0 && (
@@ -62,7 +94,12 @@ export function Component() {
           )}
         </SamplesForm>
       )}
-      <ExclusionPanel test={request} onTrack={setExclusion} />
+      {couplingFromUrl.kind === "bad" && (
+        <p role="alert" className="text-brick">
+          This link's coupling question could not be read ({couplingFromUrl.message}).
+        </p>
+      )}
+      <ExclusionPanel key={couplingFromUrl.kind === "ok" ? couplingFromUrl.text : "demo"} test={request} onTrack={setExclusion} request={couplingRequest} onRequest={setCouplingRequest} />
     </article>
   );
 }

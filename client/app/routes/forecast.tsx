@@ -1,19 +1,51 @@
-import { useState } from "react";
+import { useMemo, useState } from "react";
+import { useSearchParams } from "react-router-dom";
+import { useQueryClient } from "@tanstack/react-query";
 import { useAuth } from "../../features/auth/components/auth-context.tsx";
-import { useCurves, useRunForecast } from "../../features/forecast/api/forecasts.ts";
+import { forecastKeys, useCurves, useForecast, type JobProgress } from "../../features/forecast/api/forecasts.ts";
 import { CurveUpload } from "../../features/forecast/components/curve-upload.tsx";
-import { ForecastForm, presetState, toRequest, type FormState } from "../../features/forecast/components/forecast-form.tsx";
+import { ForecastForm, presetState, stateFromRequest, toRequest, type FormState } from "../../features/forecast/components/forecast-form.tsx";
 import { BoundPlot, CouplingPlot } from "../../features/forecast/components/forecast-plots.tsx";
 import { ForecastAssumptions, ForecastTable, TranslationTable } from "../../features/forecast/components/forecast-results.tsx";
 import { SaveForecast } from "../../features/forecast/components/save-forecast.tsx";
+import { FORECAST_PARAM, readForecastParam, requestFieldErrors, runsAsJob } from "../../features/forecast/lib/forecast-url.ts";
+import { Button } from "../../components/ui/button.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 
-/** The forecast page: a binary and a set of detectors in, the bound on β per network and what it means for each theory out. */
+/**
+ * The forecast page: a binary and a set of detectors in, the bound on β per network and what it means
+ * for each theory out. The request lives in the address (?q=…), so a link reproduces the forecast.
+ */
 export function Component() {
   const { user } = useAuth();
   const curves = useCurves(user?.login ?? null);
-  const run = useRunForecast();
-  const [state, setState] = useState<FormState>(() => presetState("multiband"));
+  const [params, setParams] = useSearchParams();
+  const fromUrl = useMemo(() => readForecastParam(params.get(FORECAST_PARAM)), [params]);
+  const urlText = fromUrl.kind === "ok" ? fromUrl.text : null;
+  const [state, setState] = useState<FormState>(() => (fromUrl.kind === "ok" ? stateFromRequest(fromUrl.request) : presetState("multiband")));
+  const [localErrors, setLocalErrors] = useState<Record<string, string> | null>(null);
+  const [progress, setProgress] = useState<JobProgress | null>(null);
+  const qc = useQueryClient();
+
+  // A link, back or forward: the form shows the request of the address (adjusted while rendering).
+  const [formFor, setFormFor] = useState(urlText);
+  if (formFor !== urlText) {
+    setFormFor(urlText);
+    if (fromUrl.kind === "ok") setState(stateFromRequest(fromUrl.request));
+  }
+
+  const run = useForecast(fromUrl.kind === "ok" ? { input: fromUrl.input, text: fromUrl.text, job: runsAsJob(fromUrl.request) } : undefined, setProgress);
+  const submit = () => {
+    const input = toRequest(state);
+    const errors = requestFieldErrors(input);
+    setLocalErrors(errors);
+    if (errors) return;
+    const text = JSON.stringify(input);
+    if (text === urlText && run.error) void run.refetch();
+    else setParams({ [FORECAST_PARAM]: text });
+  };
+  const cancel = () => void qc.cancelQueries({ queryKey: [...forecastKeys.all, "run", urlText] });
+  const stale = run.data !== undefined && urlText !== null && JSON.stringify(toRequest(state)) !== urlText;
 
   return (
     <article className="flex flex-col gap-6">
@@ -24,17 +56,47 @@ export function Component() {
           and get a Fisher-matrix estimate of the bound on the ppE β at each b, and what it would mean for every catalogued coupling. An estimate for planning, not a measurement.
         </p>
       </header>
+      {fromUrl.kind === "bad" && (
+        <div role="alert" className="rounded border border-amber/40 bg-amber-wash p-3 text-sm text-amber" data-testid="forecast-bad-link">
+          This link's forecast cannot be read ({fromUrl.message}); the form shows the preset instead.
+        </div>
+      )}
       {curves.isPending && <Loading what="noise curves" />}
       {curves.error && <ErrorNote error={curves.error} retry={() => void curves.refetch()} />}
       {curves.data && (
         <>
-          <ForecastForm state={state} onChange={setState} onSubmit={() => run.mutate(toRequest(state))} busy={run.isPending} error={run.error} curves={curves.data.curves} />
+          <ForecastForm
+            state={state}
+            onChange={(s) => {
+              setState(s);
+              if (localErrors) setLocalErrors(null);
+            }}
+            onSubmit={submit}
+            busy={run.isFetching}
+            error={run.error}
+            localErrors={localErrors}
+            curves={curves.data.curves}
+          />
           {user && <CurveUpload curves={curves.data.curves} />}
         </>
+      )}
+      {run.isFetching && progress && (
+        <div className="flex flex-wrap items-center gap-3 text-sm" data-testid="forecast-job" aria-live="polite">
+          <span>{progress.status === "queued" ? "Waiting for a worker" : "Computing"} (a background job: many values of b)</span>
+          <progress className="h-3 w-64" max={1} value={progress.progress} aria-label="forecast job progress" data-testid="forecast-job-progress" />
+          <Button kind="quiet" onClick={cancel} data-testid="forecast-job-cancel">
+            Cancel
+          </Button>
+        </div>
       )}
       {run.data && (
         <section className="flex flex-col gap-5" data-testid="forecast-results" aria-live="polite">
           <h2 className="text-2xl">Forecast</h2>
+          {stale && (
+            <p className="rounded border border-amber/40 bg-amber-wash p-2 text-sm text-amber" data-testid="forecast-stale">
+              The form has changed since this forecast was made: run it again to update the numbers below.
+            </p>
+          )}
           <BoundPlot result={run.data} />
           <ForecastTable result={run.data} />
           <ForecastAssumptions result={run.data} />

@@ -32,8 +32,8 @@ export function Component() {
       <header className="max-w-3xl">
         <h1 className="text-4xl leading-tight">Translate a bound</h1>
         <p className="mt-3 text-lg leading-relaxed text-ink-soft">
-          Give a bound on a theory-agnostic deviation, the binary it was measured on, and the cosmology. Every accepted catalogue entry that enters at that b turns it into a
-          limit on its coupling, with the conditions of its approximation checked at the limit.
+          Give a bound on a theory-agnostic deviation, the binary it was measured on, and the cosmology. Every accepted catalogue entry that enters at that b (or, for an amplitude
+          bound, at that a) turns it into a limit on its coupling, with the conditions of its approximation checked at the limit.
         </p>
       </header>
       <TranslatePanel footer={(request) => <SaveSlot request={request} />} />

@@ -5,14 +5,32 @@ import { splitFrequencyHz } from "../../physics/ringdown/isco.ts";
 /** Relative width above which an estimate is too broad for the first-order (delta-method) reading. */
 const BROAD = 0.15;
 
-export function splitFrequencyFor(request: { frame: "detector" | "source"; z?: number | undefined }, M: number, chi: number): number | undefined {
-  if (request.frame === "detector") return splitFrequencyHz(M, chi);
-  if (request.z !== undefined) return splitFrequencyHz(M * (1 + request.z), chi);
-  return undefined;
+export interface SplitChoice {
+  frequency_hz: number;
+  from: "full_signal" | "inspiral";
+  M_f: number;
+  chi_f: number;
+}
+
+/**
+ * The split frequency f_c = 1 / (pi M_f (r_ISCO^{3/2} + chi_f)) in the detector frame (Ghosh et al. 2016,
+ * 2018): at the full-signal remnant when given, else at the inspiral estimate's remnant (the mean of the
+ * two would let the post-inspiral data move the split). Undefined for source-frame masses without z.
+ */
+export function splitFor(
+  request: { frame: "detector" | "source"; z?: number | undefined; full_signal?: { M_f: number; chi_f: number } | undefined },
+  inspiral: { M_f: number; chi_f: number },
+): SplitChoice | undefined {
+  const at = request.full_signal ?? inspiral;
+  const from = request.full_signal ? "full_signal" : "inspiral";
+  const scale = request.frame === "detector" ? 1 : request.z !== undefined ? 1 + request.z : undefined;
+  if (scale === undefined) return undefined;
+  const M = at.M_f * scale;
+  return { frequency_hz: splitFrequencyHz(M, at.chi_f), from, M_f: M, chi_f: at.chi_f };
 }
 
 /** Cautions that hold for any consistency result built from these two estimates. */
-export function commonCautions(inspiral: { M_f: number; chi_f: number }, ringdown: { M_f: number; chi_f: number }, split: number | undefined): string[] {
+export function commonCautions(inspiral: { M_f: number; chi_f: number }, ringdown: { M_f: number; chi_f: number }, split: SplitChoice | undefined): string[] {
   const out = [
     "Both estimates must come from the same remnant fit and the same frame: fits differ by up to ~0.01 in the final spin for unequal masses (Husa et al. 2016 vs Barausse & Rezzolla 2009), a systematic the widths do not include.",
   ];
@@ -20,7 +38,9 @@ export function commonCautions(inspiral: { M_f: number; chi_f: number }, ringdow
     out.push("Split frequency not computed: source-frame masses without a redshift z.");
   } else {
     out.push(
-      `Split frequency ${split.toFixed(1)} Hz is from the mean of the two estimates; the analysis itself should split at the frequency predicted from the full-signal estimate.`,
+      split.from === "full_signal"
+        ? `Split frequency ${split.frequency_hz.toFixed(1)} Hz: twice the orbital frequency at the ISCO of the full-signal remnant given (Ghosh et al. 2016, 2018).`
+        : `Split frequency ${split.frequency_hz.toFixed(1)} Hz is computed from the inspiral estimate's remnant, since no full-signal remnant was given; Ghosh et al. 2016, 2018 split at the frequency predicted from the full-signal estimate, which the analysis itself should use.`,
     );
   }
   const meanSpin = (inspiral.chi_f + ringdown.chi_f) / 2;
@@ -33,7 +53,7 @@ export function gaussianConsistency(request: ConsistencyRequest): ConsistencyRes
   const ringdown: RemnantSummary = { ...request.merger_ringdown, rho: request.merger_ringdown.rho ?? 0 };
   const g = gaussianDeviation(inspiral, ringdown);
   const levels = [...new Set(request.levels)].sort((a, b) => a - b);
-  const split = splitFrequencyFor(request, (inspiral.M_f + ringdown.M_f) / 2, (inspiral.chi_f + ringdown.chi_f) / 2);
+  const split = splitFor(request, inspiral);
   const cautions = [
     "Gaussian approximation: each estimate is read as a 2-D Gaussian and the deviation is propagated to first order; with posterior samples use the sample-based test.",
     ...commonCautions(inspiral, ringdown, split),
@@ -61,7 +81,7 @@ export function gaussianConsistency(request: ConsistencyRequest): ConsistencyRes
     deviation: { mean: g.mean, covariance: g.covariance },
     gr_quantile: gaussianGrQuantile(g),
     contours: levels.map((level) => ({ level, paths: [gaussianContour(g, level)] })),
-    ...(split === undefined ? {} : { split_frequency_hz: split }),
+    ...(split === undefined ? {} : { split_frequency_hz: split.frequency_hz, split }),
     cautions,
   };
 }

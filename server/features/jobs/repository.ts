@@ -24,6 +24,7 @@ export interface JobRow {
 }
 
 export const BLOB_CHUNK = 1 << 20;
+const FETCH_CHUNKS = 8;
 
 export function jobsRepository(db: Knex) {
   return {
@@ -83,6 +84,18 @@ export function jobsRepository(db: Knex) {
         return n > 0;
       });
     },
+    /** Stores one more output of a finished job (nothing if it was cancelled or expired meanwhile). */
+    async addBlobIfDone(id: string, name: string, data: Buffer): Promise<boolean> {
+      return db.transaction(async (trx) => {
+        const row = await trx("analysis_jobs").where({ id, status: "done" }).forUpdate().first("id");
+        if (!row) return false;
+        await insertChunks(trx, id, name, data);
+        return true;
+      });
+    },
+    async hasBlob(id: string, name: string): Promise<boolean> {
+      return (await db("analysis_job_blobs").where({ job_id: id, name, seq: 0 }).first("seq")) !== undefined;
+    },
     async unfinished(): Promise<Pick<JobRow, "id" | "queue_id" | "attempts">[]> {
       return db("analysis_jobs").whereIn("status", ["queued", "running"]).whereNotNull("queue_id").select("id", "queue_id", "attempts");
     },
@@ -99,29 +112,27 @@ export function jobsRepository(db: Knex) {
         await trx("analysis_job_blobs").insert({ job_id: id, name, seq: seq++, data: chunk as Buffer });
       }
     },
-    /** Writes a stored blob to a local file, chunk by chunk; false when there is none. */
+    /** Writes a stored blob to a local file, a few chunks per query; false when there is none. */
     async fetchToFile(id: string, name: string, path: string): Promise<boolean> {
       const out = createWriteStream(path);
-      let seq = 0;
+      let any = false;
       try {
-        for (;;) {
-          const row = await db("analysis_job_blobs").where({ job_id: id, name, seq }).first("data");
-          if (!row) break;
-          if (!out.write(row.data as Buffer)) await once(out, "drain");
-          seq++;
+        for await (const chunk of this.blobChunks(id, name)) {
+          any = true;
+          if (!out.write(chunk)) await once(out, "drain");
         }
       } finally {
         out.end();
         await once(out, "close");
       }
-      return seq > 0;
+      return any;
     },
-    /** Streams a stored blob chunk by chunk. */
+    /** Streams a stored blob, FETCH_CHUNKS chunks per query (fewer round trips, bounded memory). */
     async *blobChunks(id: string, name: string): AsyncGenerator<Buffer> {
-      for (let seq = 0; ; seq++) {
-        const row = await db("analysis_job_blobs").where({ job_id: id, name, seq }).first("data");
-        if (!row) return;
-        yield row.data as Buffer;
+      for (let seq = 0; ; seq += FETCH_CHUNKS) {
+        const rows: { data: Buffer }[] = await db("analysis_job_blobs").where({ job_id: id, name }).where("seq", ">=", seq).where("seq", "<", seq + FETCH_CHUNKS).orderBy("seq").select("data");
+        for (const row of rows) yield row.data;
+        if (rows.length < FETCH_CHUNKS) return;
       }
     },
     async readBlob(id: string, name: string): Promise<Buffer | null> {

@@ -54,6 +54,7 @@ export function jobsRoutes(service: JobsService, config: Config): RouteSpec[] {
       response: jobCreatedSchema,
       errors: [400, 413, 429],
       before: [limit, upload],
+      multipart: true,
       handler: async (req, res) => {
         const file = storedUpload(req);
         try {
@@ -76,6 +77,7 @@ export function jobsRoutes(service: JobsService, config: Config): RouteSpec[] {
       response: filePreviewSchema,
       errors: [400, 413, 429],
       before: [limit, upload],
+      multipart: true,
       handler: async (req, res) => {
         const file = storedUpload(req);
         if (!file) throw new ValidationError("Invalid file: attach the samples file as the form field file", { file: "attach the samples file" });

@@ -9,7 +9,11 @@ import type { ConvertService } from "../convert/service.ts";
 import { selectTarget } from "../convert/samples-common.ts";
 import type { JobQueue } from "./queue.ts";
 import { jobsRepository, type JobRow } from "./repository.ts";
+import { VALUES_CSV } from "../../jobs/samples-job.ts";
 import { sniffFormat, type StoredUpload } from "./upload.ts";
+
+const CSV_POLL_MS = 250;
+const CSV_WAIT_MS = 60_000;
 
 /** Creating, reading and cancelling jobs (docs/samples-jobs.md). The heavy work is the worker's. */
 
@@ -111,7 +115,12 @@ export function jobsService(db: Knex, config: Config, queue: JobQueue, translato
       const row = await repo.get(id);
       if (!row || row.kind !== "samples") throw new NotFoundError(`No samples job ${id}.`);
       if (row.status !== "done") throw new ConflictError(`Job ${id} is ${row.status}: the per-sample values exist once it is done.`);
-      return repo.blobChunks(id, "values.csv.gz");
+      // The worker writes the CSV just after the result: wait for it (no work on this process, only polls).
+      for (let waited = 0; !(await repo.hasBlob(id, VALUES_CSV)); waited += CSV_POLL_MS) {
+        if (waited >= CSV_WAIT_MS) throw new ConflictError(`Job ${id}'s per-sample values were not written (the worker stopped after the result?); run the job again for the CSV.`);
+        await new Promise((r) => setTimeout(r, CSV_POLL_MS));
+      }
+      return repo.blobChunks(id, VALUES_CSV);
     },
   };
 }

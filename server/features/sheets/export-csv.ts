@@ -157,7 +157,7 @@ function samplesRow(r: SamplesJobRecord): Row {
 function stackRow(r: StackRecord): Row {
   const x = r.result;
   const q = r.request;
-  const events = x.events.map((e) => `${e.label} (${e.kind}${e.used ? "" : `, not used: ${e.reason ?? "excluded"}`}${e.bound !== null ? `, bound ${e.bound.toPrecision(3)}` : ""}${e.verdict ? `, ${e.verdict}` : ""})`);
+  const events = x.events.map((e) => `${e.label} (${e.kind}${e.used ? "" : `, not used: ${e.reason ?? "excluded"}`}${e.interval ? `, interval [${e.interval[0].toPrecision(3)}, ${e.interval[1].toPrecision(3)}]` : e.bound !== null ? `, bound ${e.bound.toPrecision(3)}` : ""}${e.verdict ? `, ${e.verdict}` : ""})`);
   return {
     ...provenance(r),
     parameter: q.parameter,

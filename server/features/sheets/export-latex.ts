@@ -242,22 +242,34 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
   ].join("\n") + (consistency.length > 0 ? `\n${consistencyLatex(sheet, consistency, digits)}` : "");
 }
 
-/** x \pm s, both with the table's significant figures. */
-function plusMinus(x: number, s: number, digits: number): string {
-  return `$${numberLatex(x, digits)} \\pm ${numberLatex(s, digits)}$`;
+/**
+ * x \pm s as a physicist writes it: the uncertainty with `digits` significant figures and the value to
+ * the same decimal place, a shared power of ten outside a bracket when the numbers are small or large:
+ * $-0.50 \pm 0.12$, $(-6.3 \pm 4.1) \times 10^{-2}$.
+ */
+export function plusMinusLatex(x: number, s: number, digits = 2): string {
+  if (!Number.isFinite(x) || !Number.isFinite(s) || s <= 0) return `$${numberLatex(x, digits)}$`;
+  const big = Math.max(Math.abs(x), s);
+  const E = Math.floor(Math.log10(big));
+  const d = Math.max(0, digits - 1 - Math.floor(Math.log10(s)));
+  if (E >= -1 && E <= 2) return `$${x.toFixed(d)} \\pm ${s.toFixed(d)}$`;
+  const scale = 10 ** E;
+  const places = Math.max(0, d + E);
+  return `$(${(x / scale).toFixed(places)} \\pm ${(s / scale).toFixed(places)}) \\times 10^{${E}}$`;
 }
 
-/**
- * The IMR-consistency results in a table of their own: the deviation of the remnant's mass and spin
- * (merger-ringdown minus inspiral, over their mean), its width, and the GR quantile.
- */
 export function consistencyLatex(sheet: Sheet, records: ConsistencyRecord[], digits: number): string {
-  const rows = records.map((r) => {
+  const rows = records.flatMap((r, i) => {
     const [dm, dchi] = r.result.deviation.mean;
     const [[cmm], [, ccc]] = r.result.deviation.covariance;
     const who = [r.label, r.detector_network].filter(Boolean).map(escapeLatex).join(", ");
-    const method = r.method === "gaussian" ? "Gaussian" : "samples";
-    return `    ${[`${who} (${method})`, plusMinus(dm, Math.sqrt(cmm), digits), plusMinus(dchi, Math.sqrt(ccc), digits), `$${numberLatex(r.result.gr_quantile, digits)}$`].join(" & ")} \\\\`;
+    const method = r.method === "gaussian" ? "two Gaussian remnant estimates" : "posterior samples";
+    const head = `\\multicolumn{3}{@{}>{\\raggedright\\arraybackslash}p{\\linewidth}@{}}{\\textit{${who}}: ${method}}`;
+    return [
+      ...(i > 0 ? ["    \\addlinespace"] : []),
+      `    ${head} \\\\`,
+      `    ${[plusMinusLatex(dm, Math.sqrt(cmm), digits), plusMinusLatex(dchi, Math.sqrt(ccc), digits), `$${numberLatex(r.result.gr_quantile, digits)}$`].join(" & ")} \\\\`,
+    ];
   });
   const caption = [
     "Inspiral-merger-ringdown consistency of ``" + escapeLatex(sheet.name) + "'':",
@@ -273,9 +285,9 @@ export function consistencyLatex(sheet: Sheet, records: ConsistencyRecord[], dig
     `  \\caption{${caption}}`,
     `  \\label{tab:${fileStem(sheet.name)}-imr}`,
     "  \\smallskip",
-    "  \\begin{tabularx}{\\linewidth}{@{}>{\\raggedright\\arraybackslash\\hspace{0pt}}X l l l@{}}",
+    "  \\begin{tabularx}{\\linewidth}{@{}X X l@{}}",
     "    \\toprule",
-    "    Event & $\\Delta M_f/\\bar M_f$ & $\\Delta\\chi_f/\\bar\\chi_f$ & GR q. \\\\",
+    "    $\\Delta M_f/\\bar M_f$ & $\\Delta\\chi_f/\\bar\\chi_f$ & GR quantile \\\\",
     "    \\midrule",
     ...rows,
     "    \\bottomrule",

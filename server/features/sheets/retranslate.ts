@@ -7,12 +7,18 @@ import type { CompiledCatalogue } from "../convert/compiled-catalogue.ts";
  * (value, verdict, symbol), so the owner sees it before accepting the new version.
  */
 
-/** Entries whose revision differs between `was` and the current catalogue (added and retired ones included). */
-export function entryChanges(was: Record<string, number>, catalogue: CompiledCatalogue, now: Record<string, number>): EntryChange[] {
+/**
+ * Entries whose revision differs between `was` and the current catalogue (added and retired ones
+ * included). A retired entry is no longer in the catalogue: its name comes from the saved translation.
+ */
+export function entryChanges(was: Record<string, number>, catalogue: CompiledCatalogue, now: Record<string, number>, saved?: ConvertResponse): EntryChange[] {
+  const names = new Map<string, string>();
+  for (const r of saved?.results ?? []) names.set(r.theory, r.theory_name);
+  for (const r of saved?.not_applicable ?? []) names.set(r.theory, r.theory_name);
   const slugs = [...new Set([...Object.keys(was), ...Object.keys(now)])].sort();
   return slugs
     .filter((s) => was[s] !== now[s])
-    .map((s) => ({ theory: s, name: catalogue.bySlug.get(s)?.theory.name ?? s, was: was[s] ?? null, now: now[s] ?? null }));
+    .map((s) => ({ theory: s, name: catalogue.bySlug.get(s)?.theory.name ?? names.get(s) ?? s, was: was[s] ?? null, now: now[s] ?? null }));
 }
 
 export function snapshot(r: ConvertResult): LimitSnapshot {

@@ -74,7 +74,7 @@ function toRecord(r: repo.SheetRecordRow, catalogue: CompiledCatalogue): SheetRe
   const revisions = revisionsSchema.parse(r.entry_revisions ?? null);
   let stale: { catalogue_revision: string; entries: ReturnType<typeof entryChanges> } | null = null;
   if (revisions) {
-    const entries = entryChanges(revisions, catalogue, entryRevisions(catalogue));
+    const entries = entryChanges(revisions, catalogue, entryRevisions(catalogue), translation);
     if (entries.length > 0) stale = { catalogue_revision: catalogue.revision, entries };
   } else if (translation.catalogue_revision !== catalogue.revision) {
     stale = { catalogue_revision: catalogue.revision, entries: [] };
@@ -166,7 +166,7 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
         id: r.id,
         label: r.label,
         old_catalogue_revision: r.translation.catalogue_revision,
-        entries: r.entry_revisions ? entryChanges(r.entry_revisions, await convert.catalogue(), done.entry_revisions) : [],
+        entries: r.entry_revisions ? entryChanges(r.entry_revisions, await convert.catalogue(), done.entry_revisions, r.translation) : [],
         changed: false,
         limits: limitChanges(r.translation, done.translation),
         translation: done.translation,

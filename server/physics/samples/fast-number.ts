@@ -1,11 +1,12 @@
 /**
  * Decimal text to double straight from bytes, for large sample files. The fast path is exact:
- * a mantissa of at most 15 significant digits is an exact double, and so is 10^e for |e| <= 22,
+ * a mantissa below 2^53 (every 15-digit one, most 16-digit ones) is an exact double, and so is 10^e for |e| <= 22,
  * so one multiplication or division is correctly rounded (Clinger 1990, "How to read floating
  * point numbers accurately", PLDI, the fast path). Anything else (more digits, a larger exponent,
  * "nan", "inf") falls back to Number() on the text, which is correctly rounded too.
  */
 
+const MAX_EXACT = 2 ** 53;
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 
 /** What a cell that is not a number parses to: the caller reports it as text. */
@@ -84,7 +85,8 @@ export function parseNumberBytes(buf: Uint8Array, start: number, end: number): n
     if (edigits === 0) return slow(buf, s, e);
     exp10 += eneg ? -ev : ev;
   }
-  if (!any || i !== e || digits > 15) return slow(buf, s, e);
+  // digits > 17: the accumulated mantissa may have rounded on the way, even if it ends below 2^53.
+  if (!any || i !== e || digits > 17 || mant >= MAX_EXACT) return slow(buf, s, e);
   let v: number;
   if (mant === 0) v = 0;
   else if (exp10 === 0) v = mant;

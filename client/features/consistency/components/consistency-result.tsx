@@ -32,8 +32,17 @@ export function ConsistencyResultView({ result, track, marks }: { result: Consis
         <dt className="text-ink-faint">correlation</dt>
         <dd>{(c[0][1] / (s0 * s1)).toFixed(2)}</dd>
         <dt className="text-ink-faint">split frequency</dt>
-        <dd>{result.split_frequency_hz === undefined ? "not computed" : `${result.split_frequency_hz.toFixed(1)} Hz`}</dd>
+        <dd data-testid="split-frequency">
+          {result.split_frequency_hz === undefined ? "not computed (source-frame masses need z)" : `${result.split_frequency_hz.toFixed(1)} Hz`}
+        </dd>
       </dl>
+      {result.split && (
+        <p className="text-sm text-ink-soft" data-testid="split-source">
+          Split frequency at twice the orbital frequency of the ISCO of the {result.split.from === "full_signal" ? "full-signal" : "inspiral estimate's"} remnant (M_f ={" "}
+          {result.split.M_f.toPrecision(4)} M☉ in the detector frame, χ_f = {result.split.chi_f.toFixed(3)}; Ghosh et al. 2016, 2018)
+          {result.split.from === "inspiral" ? ". The published analyses split at the full-signal remnant: give it under “full-signal remnant” when you have it." : "."}
+        </p>
+      )}
       <DeviationPlot
         contours={result.contours}
         mean={result.deviation.mean}

@@ -58,17 +58,22 @@ interface Props {
   /** The widths of the test come from the summaries above. */
   test: ConsistencyRequest | undefined;
   onTrack: (data: CouplingExclusionResponse | undefined) => void;
+  /** The request the page's address holds (the form starts from it), and where a new one goes. */
+  request: CouplingExclusionRequest | undefined;
+  onRequest: (request: CouplingExclusionRequest) => void;
 }
 
+const str = (x: number | undefined) => (x === undefined ? "" : String(x));
+
 /** "What coupling would this test exclude": a theory's ringdown shifts against the test's widths. */
-export function ExclusionPanel({ test, onTrack }: Props) {
+export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
   const theories = useTheories({});
   const ringdownTheories = (theories.data?.theories ?? []).filter((t) => t.mappings.some((m) => m.kind === "ringdown_frequency" || m.kind === "ringdown_damping" || m.kind === "remnant_mass" || m.kind === "remnant_spin"));
-  const [slug, setSlug] = useState("");
-  const [binary, setBinary] = useState({ m1: "39", m2: "32", chi1: "0", chi2: "0", z: "0.09" });
-  const [frame, setFrame] = useState<"detector" | "source">("detector");
+  const [slug, setSlug] = useState(request?.theory ?? "");
+  const b0 = request?.binary;
+  const [binary, setBinary] = useState(b0 ? { m1: str(b0.m1), m2: str(b0.m2), chi1: str(b0.chi1), chi2: str(b0.chi2), z: str(b0.z) } : { m1: "39", m2: "32", chi1: "0", chi2: "0", z: "0.09" });
+  const [frame, setFrame] = useState<"detector" | "source">(b0?.frame ?? "detector");
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const [request, setRequest] = useState<CouplingExclusionRequest | undefined>();
   const result = useCouplingExclusion(request);
   const serverFields = result.error instanceof ApiError ? result.error.fields : {};
   const shown = { ...serverFields, ...errors };
@@ -92,7 +97,7 @@ export function ExclusionPanel({ test, onTrack }: Props) {
       return;
     }
     setErrors({});
-    setRequest(parsed.data);
+    onRequest(parsed.data);
   };
 
   const data = result.data;

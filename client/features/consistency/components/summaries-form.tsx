@@ -24,14 +24,26 @@ const toNumber = (s: string): number | undefined => (s.trim() === "" ? undefined
 interface Props {
   onSubmit: (request: ConsistencyRequest) => void;
   serverErrors: Record<string, string>;
+  /** The request the page's address holds, shown in the form instead of the demonstration values. */
+  initial?: ConsistencyRequest | undefined;
 }
 
+const text = (x: number | undefined) => (x === undefined ? "" : String(x));
+const asEstimate = (e: ConsistencyRequest["inspiral"]): Estimate => ({
+  M_f: text(e.M_f),
+  chi_f: text(e.chi_f),
+  sigma_M_f: text(e.sigma_M_f),
+  sigma_chi_f: text(e.sigma_chi_f),
+  rho: text(e.rho),
+});
+
 /** Two remnant estimates as Gaussian summaries: centre, widths and correlation of (M_f, chi_f). */
-export function SummariesForm({ onSubmit, serverErrors }: Props) {
-  const [values, setValues] = useState(DEMO);
-  const [frame, setFrame] = useState<"detector" | "source">("detector");
-  const [z, setZ] = useState("");
-  const [levels, setLevels] = useState("0.68, 0.9, 0.95");
+export function SummariesForm({ onSubmit, serverErrors, initial }: Props) {
+  const [values, setValues] = useState(initial ? { inspiral: asEstimate(initial.inspiral), merger_ringdown: asEstimate(initial.merger_ringdown) } : DEMO);
+  const [frame, setFrame] = useState<"detector" | "source">(initial?.frame ?? "detector");
+  const [z, setZ] = useState(text(initial?.z));
+  const [levels, setLevels] = useState(initial ? initial.levels.join(", ") : "0.68, 0.9, 0.95");
+  const [full, setFull] = useState({ M_f: text(initial?.full_signal?.M_f), chi_f: text(initial?.full_signal?.chi_f) });
   const [errors, setErrors] = useState<Record<string, string>>({});
   const shown = { ...serverErrors, ...errors };
 
@@ -44,6 +56,7 @@ export function SummariesForm({ onSubmit, serverErrors }: Props) {
       frame,
       ...(toNumber(z) === undefined ? {} : { z: toNumber(z) }),
       levels: levels.split(",").map((s) => Number(s.trim())).filter((n) => !Number.isNaN(n)),
+      ...(full.M_f.trim() === "" && full.chi_f.trim() === "" ? {} : { full_signal: { M_f: toNumber(full.M_f), chi_f: toNumber(full.chi_f) } }),
     });
     if (!parsed.success) {
       const next: Record<string, string> = {};
@@ -93,6 +106,12 @@ export function SummariesForm({ onSubmit, serverErrors }: Props) {
         </Field>
         <Field label="Credible levels" error={shown.levels ?? shown["levels.0"] ?? shown["levels.1"] ?? shown["levels.2"]} className="col-span-2">
           {(control) => <TextInput {...control} name="levels" value={levels} onChange={(e) => setLevels(e.target.value)} />}
+        </Field>
+        <Field label="Full-signal M_f (M☉)" error={shown["full_signal.M_f"] ?? shown.full_signal} hint="optional; sets the split frequency (else the inspiral estimate's)">
+          {(control) => <TextInput {...control} name="full_signal.M_f" inputMode="decimal" value={full.M_f} onChange={(e) => setFull((f) => ({ ...f, M_f: e.target.value }))} />}
+        </Field>
+        <Field label="Full-signal χ_f" error={shown["full_signal.chi_f"]}>
+          {(control) => <TextInput {...control} name="full_signal.chi_f" inputMode="decimal" value={full.chi_f} onChange={(e) => setFull((f) => ({ ...f, chi_f: e.target.value }))} />}
         </Field>
       </div>
       <div>

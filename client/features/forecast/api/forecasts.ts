@@ -1,6 +1,15 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { queryOptions, skipToken, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { z } from "zod";
-import { curveInfoSchema, curveListSchema, forecastResponseSchema, type CurveConventionDto, type ForecastRequestInput } from "../../../../common/forecasts.ts";
+import {
+  curveInfoSchema,
+  curveListSchema,
+  forecastGridResultSchema,
+  forecastResponseSchema,
+  type CurveConventionDto,
+  type ForecastRequestInput,
+  type ForecastResponse,
+} from "../../../../common/forecasts.ts";
+import { jobCreatedSchema, jobViewSchema } from "../../../../common/jobs.ts";
 import { apiRequest } from "../../../lib/api-client.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 
@@ -21,10 +30,71 @@ export function useCurves(user: string | null) {
   return useQuery(curvesQuery(user));
 }
 
-/** A forecast is run on demand (it spends the translator's budget), so it is a mutation. */
-export function useRunForecast() {
-  return useMutation({
-    mutationFn: (request: ForecastRequestInput) => apiRequest(apiPaths.forecasts(), forecastResponseSchema, { method: "POST", body: request }),
+export interface JobProgress {
+  status: "queued" | "running";
+  progress: number;
+}
+
+const sleep = (ms: number, signal: AbortSignal) =>
+  new Promise<void>((resolve, reject) => {
+    const t = setTimeout(resolve, ms);
+    signal.addEventListener("abort", () => {
+      clearTimeout(t);
+      reject(signal.reason instanceof Error ? signal.reason : new DOMException("cancelled", "AbortError"));
+    });
+  });
+
+/**
+ * More values of b than one request takes go to the job queue: start the job, follow it until it is
+ * done, and answer its forecast. Leaving (or cancelling) aborts the signal, which cancels the job.
+ */
+async function runForecastJob(input: ForecastRequestInput, signal: AbortSignal, onProgress: (p: JobProgress) => void): Promise<ForecastResponse> {
+  const { source, ...settings } = input;
+  const created = await apiRequest(apiPaths.forecastJob(), jobCreatedSchema, { method: "POST", body: { ...settings, sources: [source] }, signal });
+  const id = created.job.id;
+  try {
+    for (;;) {
+      const view = await apiRequest(apiPaths.job(id), jobViewSchema, { signal });
+      if (view.status === "done") {
+        const grid = forecastGridResultSchema.parse(view.result);
+        return grid.forecasts[0]!;
+      }
+      if (view.status === "failed") throw new Error(view.error?.message ?? "the forecast job failed");
+      if (view.status === "cancelled") throw new Error("the forecast job was cancelled");
+      onProgress({ status: view.status, progress: view.progress });
+      await sleep(500, signal);
+    }
+  } catch (err) {
+    if (signal.aborted) void apiRequest(apiPaths.job(id), z.unknown(), { method: "DELETE" }).catch(() => undefined);
+    throw err;
+  }
+}
+
+/**
+ * The forecast of the request in the address. It is a query keyed on that request (a link, back and
+ * forward show their own result), never retried and never refetched on its own, since each run spends
+ * the translator's budget.
+ */
+export function useForecast(url: { input: ForecastRequestInput; text: string; job: boolean } | undefined, onProgress: (p: JobProgress | null) => void) {
+  // The request's text identifies it (input and job follow from it); progress is a side channel.
+  // eslint-disable-next-line @tanstack/query/exhaustive-deps
+  return useQuery({
+    queryKey: [...forecastKeys.all, "run", url?.text ?? null] as const,
+    queryFn: url
+      ? async ({ signal }) => {
+          try {
+            if (url.job) return await runForecastJob(url.input, signal, onProgress);
+            return await apiRequest(apiPaths.forecasts(), forecastResponseSchema, { method: "POST", body: url.input, signal });
+          } finally {
+            onProgress(null);
+          }
+        }
+      : skipToken,
+    retry: false,
+    staleTime: Infinity,
+    gcTime: 10 * 60_000,
+    refetchOnWindowFocus: false,
+    refetchOnReconnect: false,
   });
 }
 

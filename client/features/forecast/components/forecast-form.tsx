@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from "react";
-import type { CurveInfoDto, ForecastRequestInput } from "../../../../common/forecasts.ts";
+import { COALESCENCE_OPTIONS, MAX_FORECAST_B, type CurveInfoDto, type ForecastRequest, type ForecastRequestInput } from "../../../../common/forecasts.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
@@ -31,7 +31,10 @@ export interface FormState {
   credibility: string;
   sides: "two" | "one";
   upper_cut: "isco" | "merger_extrapolated";
+  coalescence: Coalescence;
 }
+
+type Coalescence = (typeof COALESCENCE_OPTIONS)[number];
 
 let nextKey = 1;
 const row = (curve: string): DetectorRow => ({ key: nextKey++, curve, label: "", f_low: "", years_observed: "", years_before_merger: "", orientation: "sky_averaged" });
@@ -60,6 +63,7 @@ export function presetState(id: string, base?: FormState): FormState {
     credibility: "0.9",
     sides: "two",
     upper_cut: "isco",
+    coalescence: "shared",
     ...(base ?? {}),
     detectors,
     networks: preset.networks.map((n) => n.map((i) => detectors[i]!.key)),
@@ -91,8 +95,49 @@ export function toRequest(s: FormState): ForecastRequestInput {
     credibility: Number(s.credibility),
     sides: s.sides,
     upper_cut: s.upper_cut,
+    ...(s.coalescence !== "shared" ? { coalescence: s.coalescence } : {}),
   };
 }
+
+const text = (v: number | undefined | null) => (v === undefined || v === null ? "" : String(v));
+
+/** The form showing a request (from a link): the inverse of toRequest. */
+export function stateFromRequest(r: ForecastRequest): FormState {
+  const detectors = r.detectors.map((d): DetectorRow => ({
+    ...row(d.curve),
+    label: d.label ?? "",
+    f_low: text(d.f_low),
+    years_observed: text(d.years_observed),
+    years_before_merger: text(d.years_before_merger),
+    orientation: d.orientation,
+  }));
+  const distanceKind = r.source.distance_mpc !== undefined ? "distance_mpc" : "z";
+  const prior = (v: number | null | undefined, fallback: string) => (v === undefined ? fallback : v === null ? "" : String(v));
+  return {
+    m1: String(r.source.m1),
+    m2: String(r.source.m2),
+    chi1: String(r.source.chi1),
+    chi2: String(r.source.chi2),
+    distanceKind,
+    distance: text(distanceKind === "z" ? r.source.z : r.source.distance_mpc),
+    detectors,
+    networks: r.networks.map((n) => n.map((i) => detectors[i]?.key ?? -1).filter((k) => k >= 0)),
+    b: r.b.join(", "),
+    phi_c: prior(r.priors?.phi_c, String(Math.PI.toFixed(4))),
+    chi_s: prior(r.priors?.chi_s, "1"),
+    chi_a: prior(r.priors?.chi_a, "1"),
+    credibility: String(r.credibility),
+    sides: r.sides,
+    upper_cut: r.upper_cut,
+    coalescence: r.coalescence,
+  };
+}
+
+const COALESCENCE_TEXT: Record<Coalescence, string> = {
+  shared: "one φ_c and t_c for all (phase-coherent)",
+  phi_c_per_detector: "a φ_c per detector",
+  phi_c_t_c_per_detector: "a φ_c and t_c per detector",
+};
 
 interface Props {
   state: FormState;
@@ -100,12 +145,14 @@ interface Props {
   onSubmit: () => void;
   busy: boolean;
   error: unknown;
+  /** Field errors found before sending (the same schema as the server's). */
+  localErrors?: Record<string, string> | null;
   curves: CurveInfoDto[];
 }
 
-export function ForecastForm({ state, onChange, onSubmit, busy, error, curves }: Props) {
+export function ForecastForm({ state, onChange, onSubmit, busy, error, localErrors, curves }: Props) {
   const [preset, setPreset] = useState(PRESETS[0]!.id);
-  const fields = error instanceof ApiError ? error.fields : {};
+  const fields = localErrors ?? (error instanceof ApiError ? error.fields : {});
   const set = (patch: Partial<FormState>) => onChange({ ...state, ...patch });
   const setDetector = (key: number, patch: Partial<DetectorRow>) => set({ detectors: state.detectors.map((d) => (d.key === key ? { ...d, ...patch } : d)) });
   const curveOf = (id: string) => curves.find((c) => c.id === id);
@@ -161,7 +208,12 @@ export function ForecastForm({ state, onChange, onSubmit, busy, error, curves }:
           const curve = curveOf(d.curve);
           return (
             <div key={d.key} className="grid grid-cols-2 items-end gap-3 border-b border-paper-edge/60 pb-3 md:grid-cols-7" data-testid={`forecast-detector-${i}`}>
-              <Field label={`#${i} curve`} error={err(`detectors.${i}.curve`)} className="md:col-span-2">
+              <Field
+                label={`#${i} curve`}
+                error={err(`detectors.${i}.curve`)}
+                className="md:col-span-2"
+                hint={curve?.to_confirm ? <span className="text-amber" data-testid={`to-confirm-${i}`} title={curve.to_confirm}>source to be confirmed: channel convention</span> : undefined}
+              >
                 {(c) => (
                   <Select {...c} value={d.curve} onChange={(e) => setDetector(d.key, { curve: e.target.value })}>
                     {curves.map((cv) => (
@@ -248,7 +300,12 @@ export function ForecastForm({ state, onChange, onSubmit, busy, error, curves }:
 
       <fieldset className="grid grid-cols-2 gap-3 rounded border border-paper-edge p-3 md:grid-cols-7">
         <legend className="px-1 font-semibold">Exponents, priors and bound</legend>
-        <Field label="b values" error={err("b") ?? Object.entries(fields).find(([k]) => k.startsWith("b."))?.[1]} className="col-span-2 md:col-span-2" hint="b = 2n − 5 at PN order n">
+        <Field
+          label="b values"
+          error={err("b") ?? Object.entries(fields).find(([k]) => k.startsWith("b."))?.[1]}
+          className="col-span-2 md:col-span-2"
+          hint={`b = 2n − 5 at PN order n; more than ${MAX_FORECAST_B} values run as a background job`}
+        >
           {(c) => <TextInput {...c} value={state.b} onChange={(e) => set({ b: e.target.value })} />}
         </Field>
         <Field label="σ prior φ_c" error={err("priors.phi_c")} hint="blank: no prior">{(c) => <TextInput {...c} value={state.phi_c} onChange={(e) => set({ phi_c: e.target.value })} />}</Field>
@@ -271,9 +328,25 @@ export function ForecastForm({ state, onChange, onSubmit, busy, error, curves }:
             </Select>
           )}
         </Field>
+        <Field label="Coalescence phase and time" className="col-span-2 md:col-span-3" hint="per detector: for detectors that are not phase-coherent (space + ground, years apart); can only loosen a bound">
+          {(c) => (
+            <Select {...c} value={state.coalescence} onChange={(e) => set({ coalescence: COALESCENCE_OPTIONS.find((x) => x === e.target.value) ?? "shared" })} data-testid="forecast-coalescence">
+              {COALESCENCE_OPTIONS.map((x) => (
+                <option key={x} value={x}>
+                  {COALESCENCE_TEXT[x]}
+                </option>
+              ))}
+            </Select>
+          )}
+        </Field>
       </fieldset>
 
-      {error !== null && error !== undefined && (
+      {localErrors && (
+        <div role="alert" className="rounded border border-brick/40 bg-brick-wash p-3 text-sm text-brick" data-testid="forecast-error">
+          Not sent: {Object.entries(localErrors).map(([k, v]) => `${k}: ${v}`).join("; ")}
+        </div>
+      )}
+      {!localErrors && error !== null && error !== undefined && (
         <div role="alert" className="rounded border border-brick/40 bg-brick-wash p-3 text-sm text-brick" data-testid="forecast-error">
           {error instanceof Error ? error.message : String(error)}
         </div>

@@ -1,5 +1,6 @@
 import { useCallback } from "react";
 import type { ForecastResponse } from "../../../../common/forecasts.ts";
+import { texText, unitLabel } from "../../../components/ui/text-format.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { decadeLabel, formatPlain } from "../../translate/components/sci-number.tsx";
 import { ForecastFigure } from "./forecast-figure.tsx";
@@ -119,7 +120,7 @@ export function couplingPoints(result: ForecastResponse): CouplingPoint[] {
         network: networkName(result, t.network),
         ratio,
         valid: x.verdict === "valid",
-        text: `${x.coupling.symbol} ${x.coupling.side === "upper" ? "<" : ">"} ${formatPlain(x.coupling.value)} ${x.coupling.unit}`,
+        text: `${texText(x.coupling.latex)} ${x.coupling.side === "upper" ? "<" : ">"} ${formatPlain(x.coupling.value)} ${unitLabel(x.coupling.unit)}`,
       });
     }
   }

@@ -1,5 +1,7 @@
 import type { ForecastResponse } from "../../../../common/forecasts.ts";
+import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { Caution } from "../../../components/ui/states.tsx";
+import { conditionText, texText, thresholdText } from "../../../components/ui/text-format.ts";
 import { SciNumber, unitText } from "../../translate/components/sci-number.tsx";
 import { NETWORK_COLOURS, networkName } from "./forecast-plots.tsx";
 
@@ -27,11 +29,21 @@ export function ForecastAssumptions({ result }: { result: ForecastResponse }) {
           Gaussian priors: φ<sub>c</sub> {prior(p.phi_c)}, χ<sub>s</sub> {prior(p.chi_s)}, χ<sub>a</sub> {prior(p.chi_a)}. Bounds are {Math.round(result.credibility * 100)} % {result.sides}-sided
           (|β| &lt; {result.multiplier.toFixed(3)} σ<sub>β</sub>).
         </li>
+        <li data-testid="forecast-coalescence-used">
+          {result.coalescence === "shared"
+            ? "One coalescence phase φ_c and time t_c for all detectors of a network (phase-coherent)."
+            : `Each detector of a network has its own ${result.coalescence === "phi_c_per_detector" ? "coalescence phase φ_c" : "coalescence phase φ_c and time t_c"} (not phase-coherent); the φ_c prior stays on the first detector's.`}
+        </li>
         {result.detectors.map((d) => (
           <li key={d.index}>
             {d.label}: <Hz f={d.f_low} /> ({d.low_cut}) to <Hz f={d.f_high} /> ({d.high_cut}), {d.orientation === "optimal" ? "optimal orientation" : "sky-averaged"}, SNR{" "}
             {d.snr.toPrecision(3)}
             {d.extrapolated && <strong className="text-amber"> — extrapolated past the ISCO</strong>}
+            {d.to_confirm && (
+              <span className="ml-1 rounded bg-amber-wash px-1 text-xs text-amber" title={d.to_confirm} data-testid="band-to-confirm">
+                source to be confirmed
+              </span>
+            )}
           </li>
         ))}
       </ul>
@@ -39,7 +51,7 @@ export function ForecastAssumptions({ result }: { result: ForecastResponse }) {
         <Caution title="Read before quoting">
           <ul className="list-disc pl-5">
             {result.cautions.map((c) => (
-              <li key={c}>{c}</li>
+              <li key={c}>{conditionText(c)}</li>
             ))}
           </ul>
         </Caution>
@@ -86,8 +98,8 @@ export function ForecastTable({ result }: { result: ForecastResponse }) {
                       </span>
                     )}
                     {row.status !== "ok" && <div className={`text-xs ${row.status === "no_constraint" ? "text-ink-faint" : "text-amber"}`}>{STATUS_TEXT[row.status]}</div>}
-                    {row.note && row.status !== "no_constraint" && <div className="text-xs text-amber">{row.note}</div>}
-                    {row.note && row.status === "no_constraint" && <div className="text-xs text-ink-faint">{row.note}</div>}
+                    {row.note && row.status !== "no_constraint" && <div className="text-xs text-amber">{conditionText(row.note)}</div>}
+                    {row.note && row.status === "no_constraint" && <div className="text-xs text-ink-faint">{conditionText(row.note)}</div>}
                     {row.bound !== null && n.snr.total < 10 && <div className="text-xs text-amber">SNR &lt; 10: not trustworthy</div>}
                   </td>
                 );
@@ -105,6 +117,42 @@ export function ForecastTable({ result }: { result: ForecastResponse }) {
   );
 }
 
+type Result = ForecastResponse["translations"][number]["results"][number];
+type Reference = Result["reference_bounds"][number];
+
+/** The TeX of a symbol the result knows (the coupling, its other units, the canonical form). */
+function latexOf(x: Result, symbol: string): string | null {
+  const known = [x.coupling, ...x.also, x.canonical, ...(x.signed_interval ? [x.signed_interval] : [])];
+  return known.find((q) => q.symbol === symbol)?.latex ?? null;
+}
+
+/** A published bound beside the forecast: the comparison in words, its symbol typeset. */
+function Published({ x, r }: { x: Result; r: Reference }) {
+  const tex = latexOf(x, r.symbol);
+  const symbol = tex ? <MathTex tex={tex} label={texText(tex)} /> : <span>{conditionText(r.symbol)}</span>;
+  const bound = (
+    <>
+      {symbol} {r.side === "upper" ? "<" : ">"} <SciNumber value={r.value} digits={3} /> {unitText(r.unit)}
+      {r.credibility !== null ? `, ${Math.round(r.credibility * 100)} %` : ", credibility not stated"}
+    </>
+  );
+  const cite = r.reference.citation;
+  if (r.verdict === "tighter" || r.verdict === "weaker" || r.verdict === "equal") {
+    const ratio = r.ratio === null ? null : r.verdict === "weaker" ? 1 / r.ratio : r.ratio;
+    return (
+      <div>
+        {r.verdict === "equal" ? "as tight as" : `${ratio === null ? "" : `${Number(ratio.toPrecision(3))} times `}${r.verdict === "tighter" ? "tighter" : "weaker"} than`} {cite} ({bound})
+      </div>
+    );
+  }
+  return (
+    <div>
+      {cite}: {bound}
+      <span className="text-ink-faint">{r.verdict === "not_compared" ? " (not compared: this limit is outside the validity of its mapping)" : " (not comparable)"}</span>
+    </div>
+  );
+}
+
 /** Every translated limit: theory, network, coupling, verdict and the published bounds beside it. */
 export function TranslationTable({ result }: { result: ForecastResponse }) {
   const rows = result.translations.flatMap((t) => t.results.map((x) => ({ t, x })));
@@ -112,10 +160,11 @@ export function TranslationTable({ result }: { result: ForecastResponse }) {
   if (rows.length === 0 && skipped.length === 0) return <p className="text-sm text-ink-faint">No catalogued theory enters at a b this forecast could bound.</p>;
   return (
     <div className="overflow-x-auto">
-      <table className="w-full border-collapse text-sm" data-testid="forecast-translations">
-        <caption className="mb-2 text-left text-ink-soft">What each network's bound would mean for the catalogued theories (the translator's closed forms and validity checks).</caption>
+      {/* On phones each limit is a small card (theory, then network and limit, verdict, published) instead of a wide row. */}
+      <table className="w-full border-collapse text-sm max-md:block" data-testid="forecast-translations">
+        <caption className="max-md:block mb-2 text-left text-ink-soft">What each network's bound would mean for the catalogued theories (the translator's closed forms and validity checks).</caption>
         <thead>
-          <tr className="border-b border-paper-edge text-left">
+          <tr className="border-b border-paper-edge text-left max-md:hidden">
             <th className="py-1 pr-3">theory</th>
             <th className="py-1 pr-3">network</th>
             <th className="py-1 pr-3">forecast limit</th>
@@ -123,18 +172,21 @@ export function TranslationTable({ result }: { result: ForecastResponse }) {
             <th className="py-1 pr-3">published</th>
           </tr>
         </thead>
-        <tbody>
+        <tbody className="max-md:block">
           {rows.map(({ t, x }) => (
-            <tr key={`${t.network}-${t.b}-${t.interval.join(":")}-${x.theory}-${x.convention}`} className="border-b border-paper-edge/60 align-top">
-              <td className="py-1 pr-3">
-                {x.theory_name} <span className="text-xs text-ink-faint">(b = {t.b})</span>
+            <tr
+              key={`${t.network}-${t.b}-${t.interval.join(":")}-${x.theory}-${x.convention}`}
+              className="border-b border-paper-edge/60 align-top max-md:grid max-md:grid-cols-2 max-md:gap-x-3 max-md:gap-y-1 max-md:py-2"
+            >
+              <td className="py-1 pr-3 max-md:col-span-2 max-md:py-0 max-md:font-semibold">
+                {conditionText(x.theory_name)} <span className="text-xs text-ink-faint">(b = {t.b})</span>
               </td>
               <td className="py-1 pr-3" style={{ color: NETWORK_COLOURS[t.network] }}>
                 {networkName(result, t.network)}
                 {result.networks[t.network]!.snr.total < 10 && <div className="text-xs text-amber">SNR &lt; 10</div>}
               </td>
-              <td className="py-1 pr-3">
-                {x.coupling.symbol} {x.coupling.side === "upper" ? "<" : ">"} <SciNumber value={x.coupling.value} /> {unitText(x.coupling.unit)}
+              <td className="py-1 pr-3" data-testid="forecast-limit">
+                <MathTex tex={x.coupling.latex} label={texText(x.coupling.latex)} /> {x.coupling.side === "upper" ? "<" : ">"} <SciNumber value={x.coupling.value} /> {unitText(x.coupling.unit)}
                 {t.sides === "one" && (
                   <div className="text-xs text-ink-faint">
                     from β {t.interval[0] !== null ? "> −" : "< "}
@@ -142,12 +194,25 @@ export function TranslationTable({ result }: { result: ForecastResponse }) {
                   </div>
                 )}
               </td>
-              <td className={`py-1 pr-3 ${x.verdict === "valid" ? "" : "text-amber"}`} data-verdict={x.verdict}>
+              <td className={`py-1 pr-3 ${x.verdict === "valid" ? "" : "text-amber"}`} data-verdict={x.verdict} data-testid="forecast-verdict">
                 {VERDICT_TEXT[x.verdict]}
-                {x.verdict === "outside_validity" && x.validity.filter((v) => !v.ok).map((v) => <div key={v.label} className="text-xs">{v.condition}</div>)}
+                {x.validity
+                  .filter((v) => v.status !== "ok")
+                  .map((v) => (
+                    <div key={v.label} className="text-xs">
+                      {v.status === "fails" ? "fails" : "stretched"}
+                      {v.factor !== null ? ` ×${thresholdText(Number(v.factor.toPrecision(2)))}` : ""}: {conditionText(v.label)}
+                      {v.value !== null && (
+                        <>
+                          {" "}
+                          (<SciNumber value={v.value} digits={2} /> &gt; {thresholdText(v.max)})
+                        </>
+                      )}
+                    </div>
+                  ))}
               </td>
-              <td className="py-1 pr-3 text-xs">
-                {x.reference_bounds.length === 0 ? <span className="text-ink-faint">—</span> : x.reference_bounds.map((r) => <div key={r.reference.key + r.value}>{r.sentence}</div>)}
+              <td className="py-1 pr-3 text-xs max-md:col-span-2 max-md:py-0">
+                {x.reference_bounds.length === 0 ? <span className="text-ink-faint">—</span> : x.reference_bounds.map((r) => <Published key={r.reference.key + r.value} x={x} r={r} />)}
               </td>
             </tr>
           ))}

@@ -90,7 +90,7 @@ export function SamplesJobResultView({ id, data }: { id: string; data: SamplesJo
       <SaveToSheet
         what="this samples result"
         payload={{ kind: "samples_job", job: id }}
-        defaults={{ label: data.file.name.replace(/\.[^.]+$/, "").slice(0, 120), analysis_method: `posterior samples, ${data.theory_name}, b = ${data.b}`.slice(0, 200) }}
+        defaults={{ label: data.file.name.replace(/\.[^.]+$/, "").slice(0, 120), analysis_method: `posterior samples (${data.file.format} file)` }}
       />
     </div>
   );

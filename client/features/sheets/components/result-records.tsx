@@ -20,8 +20,11 @@ function couplingText(c: Coupling) {
   );
 }
 
+/** 0.0123 -> "1.2%", 1 -> "100%". */
+const percent = (x: number) => `${x === 0 || x >= 0.1 ? Math.round(x * 1000) / 10 : Number((x * 100).toPrecision(2))}%`;
+
 function VerdictBadge({ v, fraction }: { v: Verdict; fraction: number }) {
-  const pct = `${(fraction * 100).toPrecision(2)}% of the posterior's binaries outside`;
+  const pct = `${percent(fraction)} of the posterior's binaries outside`;
   if (v === "valid") return <Badge tone="ok" title={pct}>valid</Badge>;
   if (v === "outside_validity") return <Badge tone="fail" title={pct}>not valid</Badge>;
   return <Badge tone="neutral">validity not assessed</Badge>;
@@ -76,7 +79,7 @@ export function SamplesRecordBody({ r }: { r: SamplesJobRecord }) {
       </p>
       <p className={`text-sm ${lowEss ? "text-amber" : "text-ink-soft"}`}>
         Effective sample size {Math.round(x.effective_sample_size).toLocaleString("en-US")} of {x.samples.used.toLocaleString("en-US")} used ({x.samples.read.toLocaleString("en-US")} read, {x.samples.dropped.toLocaleString("en-US")} dropped)
-        {lowEss ? ": small, so the bound is noisy." : "."} {(x.fraction_outside * 100).toPrecision(2)}% of the binaries are outside validity at the bound.
+        {lowEss ? ": small, so the bound is noisy." : "."} {percent(x.fraction_outside)} of the binaries are outside validity at the bound.
       </p>
       <Cautions items={x.cautions.map((c) => c.message)} />
       <Provenance>
@@ -119,7 +122,7 @@ export function StackRecordBody({ r }: { r: StackRecord }) {
       <ul className="mt-1 text-sm">
         {x.events.map((e, i) => (
           <li key={i} className={e.used ? "" : "text-ink-faint"}>
-            {e.label} ({e.kind === "summary" ? "quick estimate from a summary" : "samples"}){e.bound !== null && <>: bound {num(e.bound)}</>}
+            {e.label} ({e.kind === "summary" ? "quick estimate from a summary" : "samples"}){e.interval ? <>: interval [{num(e.interval[0])}, {num(e.interval[1])}]</> : e.bound !== null && <>: bound {num(e.bound)}</>}
             {e.verdict && <>, {e.verdict === "valid" ? "valid" : e.verdict === "outside_validity" ? "not valid" : "not assessed"}</>}
             {!e.used && <> — not used: {e.reason ?? "excluded"}</>}
             {r.event_files[i]?.file && <span className="text-xs text-ink-soft"> · {r.event_files[i]!.file!.name}</span>}
@@ -155,7 +158,7 @@ export function ConsistencyRecordBody({ r }: { r: ConsistencyRecord }) {
         <span>
           Δχ<sub>f</sub>/χ̄<sub>f</sub> = {num(dchi)} ± {num(Math.sqrt(ccc))}
         </span>
-        <span>GR quantile {(x.gr_quantile * 100).toPrecision(3)}%</span>
+        <span>GR quantile {percent(x.gr_quantile)}</span>
       </p>
       <p className="text-sm text-ink-soft">
         Contours at {x.contours.map((c) => `${Math.round(c.level * 100)}%`).join(", ")}

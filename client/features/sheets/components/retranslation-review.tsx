@@ -67,6 +67,11 @@ export function RetranslationReview({ preview, onAccept, onDismiss, busy }: Prop
               )
             </span>
           </h4>
+          {catalogueVersionText(r.old_catalogue_revision) === catalogueVersionText(preview.catalogue_revision) && r.old_catalogue_revision !== preview.catalogue_revision && (
+            <p className="text-xs text-ink-soft">
+              Catalogue version {r.old_catalogue_revision} then, {preview.catalogue_revision} now.
+            </p>
+          )}
           {r.entries.length > 0 && (
             <p className="text-sm">
               Entries changed: {r.entries.map((e) => `${e.name} ${e.was === null ? "(new)" : `revision ${e.was}`} → ${e.now === null ? "retired" : `revision ${e.now}`}`).join("; ")}.

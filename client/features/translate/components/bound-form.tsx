@@ -21,6 +21,8 @@ const FIELD_NAMES: readonly string[] = [
   "bound.parameter",
   "bound.b",
   "bound.k",
+  "bound.a",
+  "bound.z",
   "bound.upper",
   "bound.interval",
   "bound.interval.0",
@@ -80,6 +82,11 @@ export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMP
   const errors = formState.errors;
   const parameter = useWatch({ control, name: "bound.parameter" });
   const frame = useWatch({ control, name: "binary.frame" });
+  // A distance ratio is an interval around 1: it has no symmetric form.
+  const ratio = parameter === "distance_ratio";
+  const form_ = ratio && shape === "symmetric" ? "interval" : shape;
+  /** The deviation's symbol in the labels. */
+  const x = parameter === "gimr_dphi" ? "δφ_k" : parameter === "ppe_alpha" ? "α" : ratio ? "d_L^GW/d_L^EM" : "β";
 
   // Server field errors go to the field they name (the form's own store); the rest are listed below.
   useEffect(() => {
@@ -110,11 +117,22 @@ export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMP
             <Select {...c} {...register("bound.parameter")}>
               <option value="ppe_beta">ppE β at exponent b</option>
               <option value="gimr_dphi">gIMR δφ_k</option>
+              <option value="ppe_alpha">ppE amplitude α at exponent a</option>
+              <option value="distance_ratio">distance ratio d_L^GW / d_L^EM</option>
             </Select>
           )}
         </Field>
-        {parameter === "gimr_dphi" ? (
-          <Field label="Index k" hint="b = k − 5; 5l, 6l are the log terms" error={err("bound.k")}>
+        {parameter === "ppe_alpha" ? (
+          // Keys: each exponent field is its own input, so the one it replaces is unregistered (not renamed in place).
+          <Field key="a" label="Exponent a" hint="a = 2n at n-th PN order; amplitude birefringence enters at a = 3" error={err("bound.a")}>
+            {(c) => <TextInput {...c} type="number" step="any" defaultValue={3} {...register("bound.a", num)} />}
+          </Field>
+        ) : ratio ? (
+          <Field key="z" label="Source redshift z" hint="where the GW and EM distances were compared" error={err("bound.z")}>
+            {(c) => <TextInput {...c} type="number" step="any" {...register("bound.z", num)} />}
+          </Field>
+        ) : parameter === "gimr_dphi" ? (
+          <Field key="k" label="Index k" hint="b = k − 5; 5l, 6l are the log terms" error={err("bound.k")}>
             {(c) => (
               <Select {...c} {...register("bound.k", gimrK)} defaultValue="-2">
                 {GIMR_KS.map((k) => (
@@ -126,44 +144,50 @@ export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMP
             )}
           </Field>
         ) : (
-          <Field label="Exponent b" hint="b = 2n − 5 at n-th PN order" error={err("bound.b")}>
+          <Field key="b" label="Exponent b" hint="b = 2n − 5 at n-th PN order" error={err("bound.b")}>
             {(c) => <TextInput {...c} type="number" step="any" {...register("bound.b", num)} />}
           </Field>
         )}
         <Field label="Form of the bound" hint="as the analysis reports it" error={undefined}>
           {(c) => (
-            <Select {...c} value={shape} onChange={(e) => setShape(toShape(e.target.value))} data-testid="bound-shape">
-              <option value="symmetric">symmetric |x| ≤ U</option>
+            <Select {...c} value={form_} onChange={(e) => setShape(toShape(e.target.value))} data-testid="bound-shape">
+              {!ratio && <option value="symmetric">symmetric |x| ≤ U</option>}
               <option value="interval">interval [lo, hi]</option>
               <option value="lower_only">one-sided: x ≥ lo</option>
               <option value="upper_only">one-sided: x ≤ hi</option>
             </Select>
           )}
         </Field>
-        {shape === "symmetric" && (
-          <Field label={parameter === "gimr_dphi" ? "Upper bound on |δφ_k|" : "Upper bound on |β|"} error={err("bound.upper")}>
+        {form_ === "symmetric" && (
+          <Field label={`Upper bound on |${x}|`} error={err("bound.upper")}>
             {(c) => <TextInput {...c} type="number" step="any" {...register("bound.upper", num)} />}
           </Field>
         )}
-        {(shape === "interval" || shape === "lower_only") && (
-          <Field label={`Lower end lo of ${parameter === "gimr_dphi" ? "δφ_k" : "β"}`} hint="signed" error={err("bound.interval.0") ?? err("bound.interval") ?? err("bound.interval.root")}>
+        {(form_ === "interval" || form_ === "lower_only") && (
+          <Field label={`Lower end lo of ${x}`} hint={ratio ? "positive; GR is 1" : "signed"} error={err("bound.interval.0") ?? err("bound.interval") ?? err("bound.interval.root")}>
             {(c) => <TextInput {...c} type="number" step="any" {...register("bound.interval.0", intervalEnd)} />}
           </Field>
         )}
-        {(shape === "interval" || shape === "upper_only") && (
-          <Field label={`Upper end hi of ${parameter === "gimr_dphi" ? "δφ_k" : "β"}`} hint="signed" error={err("bound.interval.1") ?? (shape === "upper_only" ? (err("bound.interval") ?? err("bound.interval.root")) : undefined)}>
+        {(form_ === "interval" || form_ === "upper_only") && (
+          <Field label={`Upper end hi of ${x}`} hint={ratio ? "positive; GR is 1" : "signed"} error={err("bound.interval.1") ?? (form_ === "upper_only" ? (err("bound.interval") ?? err("bound.interval.root")) : undefined)}>
             {(c) => <TextInput {...c} type="number" step="any" {...register("bound.interval.1", intervalEnd)} />}
           </Field>
         )}
-        {shape === "lower_only" && <input type="hidden" {...register("bound.interval.1", alwaysNull)} />}
-        {shape === "upper_only" && <input type="hidden" {...register("bound.interval.0", alwaysNull)} />}
+        {form_ === "lower_only" && <input type="hidden" {...register("bound.interval.1", alwaysNull)} />}
+        {form_ === "upper_only" && <input type="hidden" {...register("bound.interval.0", alwaysNull)} />}
         <Field label="Credibility" hint="fraction, e.g. 0.9" error={err("bound.credibility")}>
           {(c) => <TextInput {...c} type="number" step="any" {...register("bound.credibility", num)} />}
         </Field>
         <Field label="Lowest band frequency f_low (Hz)" hint={`${DEFAULT_F_LOW_HZ} Hz is common practice; validity conditions use it`} error={err("bound.f_low")}>
           {(c) => <TextInput {...c} type="number" step="any" {...register("bound.f_low", num)} />}
         </Field>
-        {parameter === "gimr_dphi" ? (
+        {parameter === "ppe_alpha" || ratio ? (
+          <p className="self-end text-sm text-ink-soft sm:col-span-2" data-testid="amplitude-note">
+            {ratio
+              ? "Translated as the amplitude term at a = 0: α = 1/r − 1. The binary's masses do not enter; its redshift, if given, must equal z."
+              : "The amplitude does not depend on the phase sign convention."}
+          </p>
+        ) : parameter === "gimr_dphi" ? (
           <label className="flex items-center gap-2 self-end text-sm sm:col-span-2">
             <input type="checkbox" {...register("bound.includes_spin")} />
             the analysis stretched the spin-including φ_k

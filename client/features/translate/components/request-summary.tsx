@@ -9,6 +9,8 @@ import { sciText } from "../../../components/ui/text-format.ts";
  */
 const BOUND_LABELS: Record<string, string> = {
   b: "b",
+  a: "a",
+  z: "z",
   k: "k",
   upper: "upper bound",
   interval: "interval",
@@ -27,7 +29,8 @@ function value(v: unknown): string {
 }
 
 function boundWords(bound: ConvertRequest["bound"]): string {
-  const head = bound.parameter === "ppe_beta" ? "ppE β" : "gIMR δφ_k";
+  const head =
+    bound.parameter === "ppe_beta" ? "ppE β" : bound.parameter === "ppe_alpha" ? "ppE amplitude α" : bound.parameter === "distance_ratio" ? "distance ratio d_L^GW / d_L^EM" : "gIMR δφ_k";
   const parts = Object.entries(bound)
     .filter(([k]) => k !== "parameter")
     .map(([k, v]) => {

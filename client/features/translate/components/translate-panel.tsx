@@ -20,7 +20,8 @@ import { formSnapshot, readRequestParam, rememberedRequest, rememberRequest, REQ
 export function theoryMarks(response: ConvertResponse | undefined, table: ConvertTableResponse | undefined): TheoryMark[] {
   const marks: TheoryMark[] = [];
   const add = (results: ConvertResponse["results"], na: ConvertResponse["not_applicable"]) => {
-    for (const r of results) marks.push({ b: r.b, theory: r.theory });
+    // The plot is over the phase exponent b: amplitude results (alpha at a) have no place on it.
+    for (const r of results) if (r.channel === "phase") marks.push({ b: r.b, theory: r.theory });
     for (const n of na) for (const b of n.b) marks.push({ b, theory: n.theory });
   };
   if (response) add(response.results, response.not_applicable);
@@ -36,6 +37,19 @@ export function betaPoints(response: ConvertResponse | undefined, table: Convert
     return [{ b: response.bound.b, beta_max: response.bound.beta_max, label: "this bound" }];
   }
   return [];
+}
+
+const end = (x: number | null, open: string) => (x === null ? open : Number(x.toPrecision(3)).toString());
+
+/** The bound as the translator read it, in one sentence. */
+export function translatedWords(bound: ConvertResponse["bound"]): string {
+  const alpha = bound.deviation_interval;
+  if (bound.channel === "distance_ratio" && alpha) {
+    return `As translated: a distance ratio at z = ${bound.z ?? "?"} is the amplitude term at a = 0, α = 1/r − 1, so α ∈ [${end(alpha[0], "−∞")}, ${end(alpha[1], "∞")}].`;
+  }
+  if (bound.channel === "amplitude" && alpha) return `As translated: α ∈ [${end(alpha[0], "−∞")}, ${end(alpha[1], "∞")}] at a = ${bound.a ?? "?"} (the amplitude; no phase convention).`;
+  if (bound.b === null) return "This bound has no single ppE exponent.";
+  return `As translated: |β| ≤ ${bound.beta_max?.toPrecision(3)} at b = ${bound.b} in the exp(+iΨ) convention.`;
 }
 
 interface Props {
@@ -160,7 +174,7 @@ export function TranslatePanel({ footer }: Props) {
           <div className={`flex flex-col gap-4 ${stale ? "opacity-50" : ""}`}>
           {request && <RequestSummary request={request} cosmology={response.cosmology} catalogueVersion={response.catalogue_revision} />}
           <p className="text-sm text-ink-soft">
-            {response.bound.b === null ? "This bound has no single ppE exponent." : `As translated: |β| ≤ ${response.bound.beta_max?.toPrecision(3)} at b = ${response.bound.b} in the exp(+iΨ) convention.`}
+            {translatedWords(response.bound)}
           </p>
           <CautionList cautions={response.cautions} testId="bound-cautions" />
           <ResultsTable results={response.results} onConvention={onConvention} />

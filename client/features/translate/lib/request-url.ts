@@ -1,4 +1,5 @@
 import { convertRequestSchema, type ConvertRequest } from "../../../../common/convert.ts";
+import { readJsonParam } from "../../../lib/json-param.ts";
 
 /**
  * A translation's inputs in the page address (?q=<the request as JSON>), so a link reproduces the
@@ -11,19 +12,8 @@ const STORAGE_KEY = "dragoman.translate.request";
 export type UrlRequest = { kind: "none" } | { kind: "ok"; request: ConvertRequest; text: string } | { kind: "bad"; message: string };
 
 export function readRequestParam(text: string | null): UrlRequest {
-  if (text === null || text === "") return { kind: "none" };
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch {
-    return { kind: "bad", message: "the link's inputs are not readable (they are cut or altered)" };
-  }
-  const parsed = convertRequestSchema.safeParse(json);
-  if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    return { kind: "bad", message: issue ? `${issue.path.join(".") || "request"}: ${issue.message}` : "the link's inputs are not a valid request" };
-  }
-  return { kind: "ok", request: parsed.data, text };
+  const read = readJsonParam(convertRequestSchema, text);
+  return read.kind === "ok" ? { kind: "ok", request: read.value, text: read.text } : read;
 }
 
 export function requestParam(request: ConvertRequest): string {
