@@ -93,6 +93,22 @@ const width = z.strictObject({
   rho: num("rho").gt(-1, "|rho| must be below 1, or the covariance matrix is not positive definite").lt(1, "|rho| must be below 1, or the covariance matrix is not positive definite").default(0),
 });
 
+/**
+ * Widths of the test forecast for a detector instead of given: the inspiral from a Fisher forecast on
+ * the band f_low .. split frequency, the merger-ringdown from one (2,2,0) damped sinusoid at
+ * ringdown_snr (docs/remnant-consistency.md). Built-in noise curves only.
+ */
+export const testForecastSchema = z.strictObject({
+  curve: z.string().min(1, "curve is required: a built-in noise curve id (aligo-design, et-b, ...)").max(80),
+  f_low: num("f_low").positive("f_low must be positive (Hz)").optional(),
+  orientation: z.enum(["sky_averaged", "optimal"], { error: 'orientation must be "sky_averaged" or "optimal"' }).default("sky_averaged"),
+  /** Luminosity distance; from the binary's z through the cosmology when absent. */
+  distance_mpc: num("distance_mpc").positive("distance_mpc must be positive (Mpc)").optional(),
+  /** SNR of the post-inspiral signal carried by the mode; needed when merger_ringdown widths are not given. */
+  ringdown_snr: num("ringdown_snr").positive("ringdown_snr must be positive").max(1e4, "ringdown_snr must be at most 1e4").optional(),
+});
+export type TestForecast = z.output<typeof testForecastSchema>;
+
 export const couplingExclusionRequestSchema = z
   .strictObject({
     theory: z.string().min(1, "theory is required").max(64),
@@ -105,12 +121,17 @@ export const couplingExclusionRequestSchema = z
       z: num("z").min(0, "z must be >= 0").optional(),
     }),
     /** Widths of the two remnant estimates (masses in the binary's frame), e.g. from a past analysis or a forecast. */
-    test: z.strictObject({ inspiral: width, merger_ringdown: width }),
+    test: z.strictObject({ inspiral: width.optional(), merger_ringdown: width.optional(), forecast: testForecastSchema.optional() }),
     credibility: num("credibility").gt(0, "credibility must lie strictly between 0 and 1").lt(1, "credibility must lie strictly between 0 and 1").default(0.9),
     mode: z.enum(["220", "221", "330", "210", "440"], { error: "mode must be one of 220, 221, 330, 210, 440" }).default("220"),
   })
   .superRefine((r, ctx) => {
     if (r.binary.frame === "detector" && r.binary.z === undefined) ctx.addIssue({ code: "custom", path: ["binary", "z"], message: "detector-frame masses need the redshift z" });
+    if (!r.test.inspiral && !r.test.forecast) ctx.addIssue({ code: "custom", path: ["test", "inspiral"], message: "give the inspiral estimate's widths, or test.forecast to forecast them for a detector" });
+    if (!r.test.merger_ringdown && r.test.forecast?.ringdown_snr === undefined) {
+      ctx.addIssue({ code: "custom", path: ["test", "merger_ringdown"], message: "give the merger-ringdown estimate's widths, or test.forecast.ringdown_snr to forecast them" });
+    }
+    if (r.test.forecast && r.binary.z === undefined) ctx.addIssue({ code: "custom", path: ["binary", "z"], message: "a forecast needs the binary's redshift z" });
   });
 export type CouplingExclusionRequest = z.output<typeof couplingExclusionRequestSchema>;
 export type CouplingExclusionRequestInput = z.input<typeof couplingExclusionRequestSchema>;
@@ -122,6 +143,15 @@ export const couplingExclusionResponseSchema = z.object({
   credibility: z.number(),
   /** Which of the theory's effects entered: QNM shifts of the mode, shifts of the true remnant, the inspiral's bias. */
   model: z.object({ qnm_frequency: z.boolean(), qnm_damping: z.boolean(), remnant_mass: z.boolean(), remnant_spin: z.boolean(), inspiral_bias: z.boolean() }),
+  /** The widths the test used for each estimate, and where they came from. */
+  widths: z.object({
+    inspiral: z.object({ from: z.enum(["given", "forecast"]), sigma_M_f: z.number(), sigma_chi_f: z.number(), rho: z.number() }),
+    merger_ringdown: z.object({ from: z.enum(["given", "forecast"]), sigma_M_f: z.number(), sigma_chi_f: z.number(), rho: z.number() }),
+    /** With a forecast: the inspiral band and SNR, and the ringdown SNR used. */
+    forecast: z
+      .object({ curve: z.string(), f_low: z.number(), f_high: z.number(), high_cut: z.string(), snr: z.number(), split_frequency_hz: z.number(), ringdown_snr: z.number().nullable() })
+      .optional(),
+  }),
   /** Covariance of (dM_f/M_f, dchi_f/chi_f) of the test at the GR point. */
   covariance: z.tuple([point, point]),
   sides: z.array(

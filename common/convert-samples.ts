@@ -3,6 +3,7 @@ import {
   binarySchema,
   bodyKindSchema,
   cautionSchema,
+  channelSchema,
   checkBoundValue,
   citedReferenceSchema,
   cosmologySchema,
@@ -123,9 +124,11 @@ export const eventsRequestSchema = z
   .strictObject({
     theory: theorySlugSchema,
     coupling: couplingChoice,
-    parameter: z.enum(["ppe_beta", "gimr_dphi"], { error: 'parameter must be "ppe_beta" or "gimr_dphi"' }),
+    /** ppe_alpha: each event's bound is on the ppE amplitude alpha at the exponent a. */
+    parameter: z.enum(["ppe_beta", "gimr_dphi", "ppe_alpha"], { error: 'parameter must be "ppe_beta", "gimr_dphi" or "ppe_alpha"' }),
     b: finiteNumber("b").optional(),
     k: gimrKSchema.optional(),
+    a: finiteNumber("a").optional(),
     credibility,
     f_low: fLowSchema,
     sign_convention: signConventionSchema.default("plus"),
@@ -136,6 +139,7 @@ export const eventsRequestSchema = z
   .superRefine((r, ctx) => {
     if (r.parameter === "ppe_beta" && r.b === undefined) ctx.addIssue({ code: "custom", path: ["b"], message: "a ppe_beta bound needs b" });
     if (r.parameter === "gimr_dphi" && r.k === undefined) ctx.addIssue({ code: "custom", path: ["k"], message: "a gimr_dphi bound needs k" });
+    if (r.parameter === "ppe_alpha" && r.a === undefined) ctx.addIssue({ code: "custom", path: ["a"], message: "a ppe_alpha bound needs a" });
   });
 export type EventsRequest = z.output<typeof eventsRequestSchema>;
 export type EventsRequestInput = z.input<typeof eventsRequestSchema>;
@@ -143,6 +147,8 @@ export type EventsRequestInput = z.input<typeof eventsRequestSchema>;
 export const eventsResponseSchema = z.object({
   theory: z.string(),
   theory_name: z.string(),
+  /** phase: b is the phase exponent; amplitude: b holds the amplitude exponent a and beta_max is |alpha|. */
+  channel: channelSchema.default("phase"),
   b: z.number(),
   credibility: z.number(),
   coupling: quantity.extend({ side: z.enum(["upper", "lower"]) }),

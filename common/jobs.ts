@@ -108,8 +108,8 @@ export const samplesJobResultSchema = z.object({
     value: z.number().optional(),
     signed_interval: z.tuple([z.number(), z.number()]).optional(),
   }),
-  /** beta = K_i x^p in the canonical coupling. */
-  power: z.number(),
+  /** beta = K_i x^p in the canonical coupling; null when the mapping is not a power law (each sample inverted on its own). */
+  power: z.number().nullable(),
   range: z.enum(["positive", "non_negative", "any_sign"]),
   prior: z.object({ kind: z.enum(["as_translated", "uniform", "log_uniform"]), range: z.tuple([z.number(), z.number()]).nullable() }),
   analysis_prior: z.object({ kind: z.literal("uniform"), parameter: z.enum(["ppe_beta", "gimr_dphi"]), range: z.tuple([z.number(), z.number()]) }),

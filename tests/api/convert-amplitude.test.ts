@@ -181,4 +181,36 @@ describe("POST /api/v1/convert with amplitude bounds", () => {
     }
     expect(r.results.every((x) => x.channel === "phase")).toBe(true);
   });
+
+  it("POST /convert/events: when two identical events bound alpha at a = 3, then each equals /convert and the combination is 1/sqrt(2) of one (linear mapping, p = 1)", async () => {
+    const event = { label: "ev", binary: heavy, upper: 0.05 };
+    const res = await request(app)
+      .post("/api/v1/convert/events")
+      .send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event, { ...event, label: "ev2" }] });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const single = resultFor(await convert({ bound: { parameter: "ppe_alpha", a: 3, upper: 0.05, credibility: 0.9 }, binary: heavy, theories: ["amplitude-birefringence"] }), "amplitude-birefringence");
+    expect(res.body.channel).toBe("amplitude");
+    expect(rel(res.body.events[0].limit, single.coupling.value)).toBeLessThan(1e-12);
+    // Half-normal product (the events route's rule): y_c = (sum (K_i/U_i)^2)^(-1/2), so N identical events scale x by N^(-1/(2p)), p = 1 (derived).
+    expect(rel(res.body.combined.limit, single.coupling.value / Math.SQRT2)).toBeLessThan(1e-9);
+    expect(res.body.cautions.some((c: { code: string }) => c.code === "amplitude")).toBe(true);
+    // a is required, and a theory without an amplitude term at a is named.
+    const noA = await request(app).post("/api/v1/convert/events").send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", credibility: 0.9, events: [event] });
+    expect(noA.status).toBe(400);
+    expect(noA.body.error.fields).toHaveProperty("a");
+    const wrongA = await request(app).post("/api/v1/convert/events").send({ theory: "edgb", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event] });
+    expect(wrongA.status).toBe(400);
+    expect(wrongA.body.error.fields.a).toMatch(/no amplitude mapping at a = 3/);
+  });
+
+  it("POST /expressions/derive: when a -1PN flux change is given, then the amplitude's drift piece comes back at a = -2 with what it leaves out", async () => {
+    const res = await request(app)
+      .post("/api/v1/expressions/derive")
+      .send({ flux: { order: -1, coefficient: "B" }, couplings: [{ symbol: "B", dimension: 0 }], evaluate_at: { m1: 10, m2: 5, B: 0.01 } });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // Derived: gamma = B eta^(2/5), alpha = -gamma/2 at a = b + 5 = -2.
+    const eta5 = (10 * 5) / 15 ** 2;
+    expect(res.body.amplitude).toEqual([expect.objectContaining({ a: -2, note: expect.stringMatching(/frequency-drift piece only.*Kepler-law.*left out/) })]);
+    expect(res.body.amplitude[0].value / (-0.5 * eta5 ** 0.4 * 0.01) - 1).toBeLessThan(1e-12);
+  });
 });

@@ -274,4 +274,46 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
     expect(up.validity[0].label).toMatch(/remnant mass/);
     expect(body.cautions.join(" ")).toMatch(/no remnant-spin mapping/);
   });
+  it("POST /api/v1/consistency/coupling: when the test's widths are forecast for a detector, then they are the forecast's and the bound follows", async () => {
+    const forecast = { curve: "aligo-design", f_low: 10, distance_mpc: 410, ringdown_snr: 21.9 };
+    const res = await request(app).post("/api/v1/consistency/coupling").send({ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source", z: 0.09 }, test: { forecast } });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const body = res.body;
+    expect(body.widths.inspiral.from).toBe("forecast");
+    expect(body.widths.merger_ringdown.from).toBe("forecast");
+    // The worked GW150914-like case (our own computation): inspiral sigma(chi_f) = 0.028, correlation -0.83; ringdown
+    // sigma(chi_f) = 0.078, correlation +0.97 (tests/physics/ringdown-forecast-widths.test.ts checks the engine closely).
+    expect(body.widths.inspiral.sigma_chi_f).toBeCloseTo(0.028, 2);
+    expect(body.widths.merger_ringdown.rho).toBeCloseTo(0.97, 1);
+    expect(body.widths.forecast.snr).toBeCloseTo(44.9, 0);
+    expect(body.widths.forecast.ringdown_snr).toBe(21.9);
+    // The test's covariance is the sum of the two, each divided by the remnant (derived: J_I = -J_R = diag(1/M, 1/chi) at GR).
+    const M = body.remnant.M_f;
+    const chi = body.remnant.chi_f;
+    const w = body.widths;
+    expect(body.covariance[0][0]).toBeCloseTo((w.inspiral.sigma_M_f ** 2 + w.merger_ringdown.sigma_M_f ** 2) / M ** 2, 10);
+    expect(body.covariance[1][1]).toBeCloseTo((w.inspiral.sigma_chi_f ** 2 + w.merger_ringdown.sigma_chi_f ** 2) / chi ** 2, 10);
+    expect(body.sides.every((s: { x: number | null }) => s.x !== null)).toBe(true);
+    expect(body.cautions.join(" ")).toMatch(/Fisher forecast on Advanced LIGO design/);
+    // Mixed: given inspiral widths, forecast ringdown widths.
+    const mixed = await request(app)
+      .post("/api/v1/consistency/coupling")
+      .send({ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source", z: 0.09 }, test: { inspiral: { sigma_M_f: 4, sigma_chi_f: 0.03 }, forecast: { curve: "aligo-design", ringdown_snr: 20 } } });
+    expect(mixed.status, JSON.stringify(mixed.body)).toBe(200);
+    expect(mixed.body.widths.inspiral).toMatchObject({ from: "given", sigma_M_f: 4 });
+    expect(mixed.body.widths.merger_ringdown.from).toBe("forecast");
+    // Bad input names the field.
+    const bad: [object, string][] = [
+      [{ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source", z: 0.09 }, test: {} }, "test.inspiral"],
+      [{ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source", z: 0.09 }, test: { forecast: { curve: "aligo-design" } } }, "test.merger_ringdown"],
+      [{ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source" }, test: { forecast } }, "binary.z"],
+      [{ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source", z: 0.09 }, test: { forecast: { ...forecast, curve: "nope" } } }, "test.forecast.curve"],
+      [{ theory: "ringdown-deviation", binary: { m1: 36, m2: 29, frame: "source", z: 0.09 }, test: { forecast: { ...forecast, f_low: 1 } } }, "test.forecast.f_low"],
+    ];
+    for (const [b, field] of bad) {
+      const r = await request(app).post("/api/v1/consistency/coupling").send(b);
+      expect(r.status, JSON.stringify(r.body)).toBe(400);
+      expect(Object.keys(r.body.error.fields ?? {}), JSON.stringify(r.body)).toContain(field);
+    }
+  });
 });

@@ -119,6 +119,14 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await again.goto(`${stack.baseUrl}/consistency?q=${encodeURIComponent('{"inspiral":{"M_f":-1}}')}`, { waitUntil: "networkidle" });
     await expect(again.getByTestId("bad-link").textContent()).resolves.toMatch(/inspiral\.M_f/);
     await again.close();
+
+    // The widths forecast for a detector instead of taken from the summaries.
+    await page.getByTestId("widths-forecast").check();
+    await page.locator('input[name="test.forecast.distance_mpc"]').fill("410");
+    await page.getByTestId("run-exclusion").click();
+    await expect.poll(async () => (await page.getByTestId("exclusion-table").textContent()) ?? "", { timeout: 20_000 }).toMatch(/\(forecast\).*inspiral SNR/);
+    await page.getByTestId("exclusion-panel").screenshot({ path: screenshotPath("consistency-forecast-widths") });
+    expect(new URL(page.url()).searchParams.get("c")).toMatch(/"forecast"/);
     expect(errors).toEqual([]);
     expect(againErrors).toEqual([]);
   });

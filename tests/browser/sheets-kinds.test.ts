@@ -8,6 +8,7 @@ import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
 import { createLogger } from "../../server/logger.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { testConfig } from "../helpers/app.ts";
+import { axeSerious } from "../helpers/axe.ts";
 import { bearerFor, startSignInStack, type SignInStack } from "../helpers/auth.ts";
 import { clientIsBuilt, launchBrowser, screenshotPath } from "../helpers/browser.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
@@ -17,7 +18,8 @@ import { filled, gaussian, rng, toCsv } from "../helpers/samples-data.ts";
  * Saving every kind of result to one sheet in Chromium, as the demo analyst: a posterior-samples job
  * (uploaded on the translate page), a Gaussian and a samples IMR-consistency result (on /consistency),
  * and a stack (through the API: its panel is not built yet). The sheet page shows each kind after a
- * reload, at 1366 and 375 px without horizontal overflow; the CSV export lists each kind. Then an
+ * reload, at 1366 and 375 px without horizontal overflow or a serious accessibility violation (axe-core);
+ * the CSV export lists each kind. Then an
  * editor retires EdGB: the saved translation is marked stale but unchanged, the re-translation preview
  * shows the EdGB limit going, and accepting keeps the old translation in the record's history.
  */
@@ -157,11 +159,13 @@ describe("browser: every kind of result saved to a sheet, kept as computed, re-t
     await expect(page.getByTestId("record-KV-240815b IMR (samples)").textContent()).resolves.toMatch(/kv-inspiral\.csv/);
     await expect(page.getByTestId("record-KV-231107a + KV-240322c").textContent()).resolves.toMatch(/quick estimate from a summary/);
     await noHorizontalOverflow(page);
+    expect(await axeSerious(page)).toEqual([]);
     await page.screenshot({ path: screenshotPath("sheets-kinds-1366"), fullPage: true });
     await page.setViewportSize({ width: 375, height: 800 });
     await page.reload({ waitUntil: "networkidle" });
     await page.getByTestId("sheet-records").waitFor();
     await noHorizontalOverflow(page);
+    expect(await axeSerious(page)).toEqual([]);
     await page.screenshot({ path: screenshotPath("sheets-kinds-375"), fullPage: true });
     await page.setViewportSize({ width: 1366, height: 900 });
 
@@ -194,7 +198,12 @@ describe("browser: every kind of result saved to a sheet, kept as computed, re-t
     await review.waitFor();
     await expect(review.locator('tr[data-status="removed"]').count()).resolves.toBe(1);
     await expect(review.textContent()).resolves.toMatch(/no longer given/);
+    expect(await axeSerious(page)).toEqual([]);
     await review.screenshot({ path: screenshotPath("sheets-retranslation-review") });
+    await page.setViewportSize({ width: 375, height: 800 });
+    await noHorizontalOverflow(page);
+    await review.screenshot({ path: screenshotPath("sheets-retranslation-review-375") });
+    await page.setViewportSize({ width: 1366, height: 900 });
     await review.getByTestId("accept-retranslation").click();
     await review.waitFor({ state: "detached" });
     await card.getByTestId("record-history").waitFor();

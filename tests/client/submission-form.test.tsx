@@ -202,6 +202,7 @@ describe("submission form: where the server's field errors land", () => {
               target_revision: null,
               diff: null,
               authors: [],
+              since_returned: null,
             },
           }
         : undefined,

@@ -372,3 +372,65 @@ describe("several events: stacking signed couplings and lower bounds", () => {
     await expect(runStackJob({ request: stackRequest("massive-graviton", -3, events, { kind: "uniform" }), catalogue, load: async () => null, onProgress: noop })).rejects.toThrow(/prior\.range: .*improper/);
   });
 });
+
+describe("posterior samples: mappings that are not a power law of the coupling", () => {
+  // Varying G's entry with its mapping replaced by shapes that are not power laws in Gdot (y = Gdot Mc, A = 275/851968):
+  const vg = catalogue.bySlug.get("varying-g")!.theory.entry as CatalogueTheory;
+  const withShape = (expression: string, range: "positive" | "any_sign"): { entry: CatalogueTheory; mapping: CompiledMapping } => {
+    const entry = { ...vg, couplings: vg.couplings.map((c) => ({ ...c, range })), mappings: [{ ...vg.mappings[0]!, expression }] } as unknown as CatalogueTheory;
+    return { entry, mapping: compileMapping(entry, 0) };
+  };
+  const A = 275 / 851968;
+  const McKm = (m1: number, m2: number) => (((m1 * m2) ** 0.6 / (m1 + m2) ** 0.2) * 1.3271244e20) / 299_792_458 ** 2 / 1000;
+
+  it("when beta = -A y / (1 + y) (monotonic, saturating), then every sample is inverted as the closed form y = -beta / (A + beta) gives, and the weights are 1/|dF/dx|", async () => {
+    const t = withShape("-(275/851968)*Gdot*Mc/(1 + Gdot*Mc)", "positive");
+    const mc = McKm(10, 5);
+    const betas = gaussian(91, 20_000, -1e-4, 3e-5);
+    const r = await runPipeline(input(t, betas, 10, 5, { kind: "uniform" }));
+    expect(r.power).toBeNull();
+    expect(r.side).toBe("upper");
+    let worst = 0;
+    let worstWeight = 0;
+    for (let j = 0; j < r.perSample.x.length; j++) {
+      const b = r.perSample.beta[j]!;
+      // Closed-form inverse and slope (derived): y = -b/(A + b), x = y/Mc; dF/dx = -A Mc / (1 + Mc x)^2.
+      const x = -b / (A + b) / mc;
+      worst = Math.max(worst, Math.abs(r.perSample.x[j]! / x - 1));
+      const slope = (A * mc) / (1 + mc * x) ** 2;
+      worstWeight = Math.max(worstWeight, Math.abs(r.perSample.weight[j]! * slope - 1));
+    }
+    expect(worst).toBeLessThan(1e-10);
+    expect(worstWeight).toBeLessThan(1e-6);
+    // Samples beyond the mapping's reach (beta <= -A, or beta >= 0) are dropped as unreachable.
+    const reachable = Array.from(betas).filter((b) => b < 0 && b > -A).length;
+    expect(r.samples.used).toBe(reachable);
+    expect(r.notes.some((m) => /not a power law/.test(m))).toBe(true);
+  });
+
+  it("when beta = -A (y + y^3) for a coupling of either sign, then the roots match Cardano's formula and the result is a signed interval", async () => {
+    const t = withShape("-(275/851968)*(Gdot*Mc + (Gdot*Mc)^3)", "any_sign");
+    const mc = McKm(10, 5);
+    const betas = gaussian(92, 20_000, 2e-4, 4e-4);
+    const r = await runPipeline(input(t, betas, 10, 5, { kind: "as_translated" }));
+    expect(r.side).toBe("interval");
+    expect(r.samples.used).toBe(20_000);
+    let worst = 0;
+    for (let j = 0; j < r.perSample.x.length; j++) {
+      // y + y^3 = c with c = -beta/A: one real root, y = cbrt(c/2 + s) + cbrt(c/2 - s), s = sqrt(c^2/4 + 1/27) (Cardano).
+      const c = -r.perSample.beta[j]! / A;
+      const s = Math.sqrt((c * c) / 4 + 1 / 27);
+      const y = Math.cbrt(c / 2 + s) + Math.cbrt(c / 2 - s);
+      const x = y / mc;
+      worst = Math.max(worst, Math.abs(r.perSample.x[j]! - x) / Math.max(Math.abs(x), 1e-12 / mc));
+    }
+    expect(worst).toBeLessThan(1e-8);
+    expect(r.canonical.interval![0]).toBeLessThan(r.canonical.interval![1]);
+  });
+
+  it("when beta = -A y (1 - y) rises and falls in the coupling's range, then the translation is refused naming the mapping, the row and why", async () => {
+    const t = withShape("-(275/851968)*Gdot*Mc*(1 - Gdot*Mc)", "positive");
+    const betas = gaussian(93, 1000, -1e-5, 1e-5);
+    await expect(runPipeline(input(t, betas, 10, 5, { kind: "as_translated" }))).rejects.toThrow(/varying-g mapping at b = -13 is not monotonic in Gdot for the binary of row 0 .*rises and falls/);
+  });
+});

@@ -46,7 +46,8 @@ export function consistencyRoutes(config: Config, catalogue: RingdownCatalogue):
       method: "post",
       path: "/v1/consistency/coupling",
       access: access.public,
-      summary: "Smallest coupling of a theory at which its ringdown shifts make the IMR consistency test exclude GR, with the expected deviation track",
+      summary:
+        "Smallest coupling of a theory at which its ringdown and remnant shifts make the IMR consistency test exclude GR, with the expected deviation track; the test's widths given, or forecast for a detector",
       tags: ["consistency"],
       body: couplingExclusionRequestSchema,
       response: couplingExclusionResponseSchema,

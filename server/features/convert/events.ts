@@ -1,10 +1,10 @@
 import type { EventsRequest, EventsResponse } from "../../../common/convert-samples.ts";
-import type { BoundRequest, Caution, ConvertResult } from "../../../common/convert.ts";
+import type { Caution, ConvertBoundRequest, ConvertResult } from "../../../common/convert.ts";
 import { ValidationError } from "../../errors.ts";
 import { detectPowerLaw, solveMagnitude } from "../../physics/invert.ts";
 import { quotedValueOf } from "../../physics/quoted-forms.ts";
 import type { CompiledCatalogue } from "./compiled-catalogue.ts";
-import { mappingCautions, selectTarget } from "./samples-common.ts";
+import { mappingCautions, selectTarget, type Target } from "./samples-common.ts";
 import { prepareBinary, translateBound, type Prepared } from "./translate.ts";
 
 /**
@@ -29,13 +29,14 @@ export const COMBINATION_RULE =
   "with sigma_i = U_i / q, the likelihoods are multiplied with a flat prior in y = g(x), and the limit is the credibility quantile: y_c = (Σ (K_i / U_i)^2)^(-1/2), solved for x. " +
   "For a lower limit (GR at infinity, e.g. lambda_g or omega_BD) the combined limit is the larger value. Events outside validity are left out.";
 
-function eventBound(request: EventsRequest, event: EventsRequest["events"][number]): BoundRequest {
+function eventBound(request: EventsRequest, event: EventsRequest["events"][number]): ConvertBoundRequest {
   const value = {
     ...(event.upper !== undefined ? { upper: event.upper } : {}),
     ...(event.interval !== undefined ? { interval: event.interval } : {}),
     credibility: request.credibility,
     f_low: request.f_low,
   };
+  if (request.parameter === "ppe_alpha") return { parameter: "ppe_alpha", a: request.a!, ...value };
   return request.parameter === "ppe_beta"
     ? { parameter: "ppe_beta", b: request.b!, ...value, sign_convention: request.sign_convention }
     : { parameter: "gimr_dphi", k: request.k!, ...value, includes_spin: request.includes_spin };
@@ -67,8 +68,33 @@ interface Usable {
   x: number;
 }
 
+/** The theory's amplitude mapping at a (one coupling, or the one named): the amplitude twin of selectTarget. */
+function selectAmplitudeTarget(catalogue: CompiledCatalogue, request: EventsRequest, a: number): Target {
+  const theory = catalogue.bySlug.get(request.theory);
+  if (!theory) {
+    const known = [...catalogue.bySlug.keys()].sort().join(", ");
+    throw new ValidationError(`Invalid theory: unknown theory "${request.theory}"`, { theory: `unknown theory "${request.theory}"; accepted theories are ${known}` });
+  }
+  const atA = theory.amplitude.filter((m) => Math.abs(m.compiled.b - a) < 1e-9);
+  if (atA.length === 0) {
+    const message = `${theory.theory.name} has no amplitude mapping at a = ${a} (its amplitude mappings enter at a = ${theory.as.join(", ") || "none"})`;
+    throw new ValidationError(`Invalid a: ${message}`, { a: message });
+  }
+  const symbols = atA.map((m) => m.compiled.coupling.symbol);
+  const chosen = request.coupling === undefined ? (atA.length === 1 ? atA[0] : undefined) : atA.find((m) => m.compiled.coupling.symbol === request.coupling);
+  if (!chosen) {
+    const message =
+      request.coupling === undefined
+        ? `${theory.theory.name} has ${atA.length} couplings at a = ${a} (${symbols.join(", ")}): name one in coupling`
+        : `${theory.theory.name} has no coupling "${request.coupling}" at a = ${a}; its couplings there are ${symbols.join(", ")}`;
+    throw new ValidationError(`Invalid coupling: ${message}`, { coupling: message });
+  }
+  return { theory, ready: chosen, b: a };
+}
+
 export function convertEvents(catalogue: CompiledCatalogue, request: EventsRequest): EventsResponse {
-  const target = selectTarget(catalogue, request);
+  const amplitude = request.parameter === "ppe_alpha";
+  const target = request.parameter === "ppe_alpha" ? selectAmplitudeTarget(catalogue, request, request.a!) : selectTarget(catalogue, { ...request, parameter: request.parameter });
   const mapping = target.ready.compiled;
   const symbol = mapping.coupling.symbol;
   const quoted = mapping.coupling.quoted;
@@ -117,6 +143,14 @@ export function convertEvents(catalogue: CompiledCatalogue, request: EventsReque
         "The combined limit reads each event's bound as a Gaussian (half-normal) constraint and assumes a flat prior in the shape g(x) of beta = K g(x); with the events' posterior samples, translate each one sample by sample instead.",
     },
     ...mappingCautions(target),
+    ...(amplitude
+      ? [
+          {
+            code: "amplitude" as const,
+            message: `Each event's bound is on the ppE amplitude α at a = ${target.b}: the rule below reads beta as α, and the theory's phase terms are left out.`,
+          },
+        ]
+      : []),
   ];
 
   let combined: EventsResponse["combined"] = null;
@@ -156,6 +190,7 @@ export function convertEvents(catalogue: CompiledCatalogue, request: EventsReque
   return {
     theory: target.theory.theory.slug,
     theory_name: target.theory.theory.name,
+    channel: amplitude ? "amplitude" : "phase",
     b: target.b,
     credibility: request.credibility,
     coupling: { symbol: quoted.symbol, latex: quoted.latex, unit: quoted.unit, side: finalSide },

@@ -204,8 +204,11 @@ function consistencyRow(r: ConsistencyRecord): Row {
       `dchi_f/chi_f = ${dchi.toPrecision(3)} ± ${Math.sqrt(ccc).toPrecision(2)}`,
       `correlation ${(cmc / Math.sqrt(cmm * ccc)).toPrecision(2)}`,
       `levels ${x.contours.map((c) => `${Math.round(c.level * 100)}%`).join(", ")}`,
-      ...(x.split_frequency_hz !== undefined ? [`split frequency ${x.split_frequency_hz.toPrecision(3)} Hz`] : []),
+      ...(x.split_frequency_hz !== undefined
+        ? [`split frequency ${x.split_frequency_hz.toPrecision(3)} Hz${x.split ? ` (from the ${x.split.from === "full_signal" ? "full-signal" : "inspiral"} remnant M_f = ${x.split.M_f.toPrecision(4)}, chi_f = ${x.split.chi_f.toPrecision(3)})` : ""}`]
+        : []),
       ...(r.summaries ? [estimate("inspiral", r.summaries.inspiral), estimate("merger-ringdown", r.summaries.merger_ringdown)] : []),
+      ...(r.summaries?.full_signal ? [`full-signal M_f = ${r.summaries.full_signal.M_f}, chi_f = ${r.summaries.full_signal.chi_f}`] : []),
       ...x.cautions.map((c) => `caution: ${c}`),
     ].join("; "),
   };

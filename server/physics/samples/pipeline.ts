@@ -9,6 +9,7 @@ import { quotedValueOf } from "../quoted-forms.ts";
 import { gimrFactor, type GimrIndex } from "../taylorf2.ts";
 import { SPEED_OF_LIGHT_KM_S, solarMassToKm } from "../units.ts";
 import { distanceAlphaColumn, redshiftColumn } from "./distance-table.ts";
+import { invertColumns, NotMonotonicError, type ColumnInversion } from "./invert-columns.ts";
 import { SampleInputError } from "./sample-input-error.ts";
 import { effectiveSampleSize, weightedHistogram, weightedQuantiles, type Histogram } from "./weighted.ts";
 
@@ -72,7 +73,8 @@ export interface ConditionSummary {
 }
 
 export interface PipelineResult {
-  power: number;
+  /** beta = K_i x^p; null when the mapping is not a power law (each sample inverted on its own). */
+  power: number | null;
   range: CouplingRange;
   signed: boolean;
   side: "upper" | "lower" | "interval";
@@ -290,16 +292,15 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
   const sampleEnv: Record<string, number> = {};
   for (const [name, c] of env) sampleEnv[name] = c[first]!;
   const law = detectPowerLaw(mapping.bind ? mapping.bind(sampleEnv) : (x: number) => mapping.evaluate(x, sampleEnv));
-  if (!law || law.power === 0) {
-    throw new SampleInputError(`${input.fileLabel}: the mapping at b = ${mapping.b} is not a power law in ${couplingSymbol}; sample-by-sample translation needs one.`, { file: input.fileLabel });
-  }
-  const p = law.power;
+  // Not a power law: every sample is inverted on its own (vectorised bisection), if F is monotonic (invert-columns.ts).
+  const general = !law || law.power === 0;
+  const p = general ? Number.NaN : law.power;
   const twoP = 2 ** p;
   const range: CouplingRange = entryCoupling?.range ?? "non_negative";
   if (!entryCoupling?.range) notes.push(`The catalogue entry states no range for ${couplingSymbol}: it is taken as ${couplingSymbol} >= 0.`);
   const oddInteger = Number.isInteger(p) && Math.abs(p) % 2 === 1;
-  const signed = range === "any_sign" && oddInteger;
-  if (range === "any_sign" && !oddInteger) notes.push(`${couplingSymbol} may take either sign, but beta depends on it through a power ${p}: the bound is on |${couplingSymbol}|.`);
+  const signed = range === "any_sign" && (general || oddInteger);
+  if (range === "any_sign" && !general && !oddInteger) notes.push(`${couplingSymbol} may take either sign, but beta depends on it through a power ${p}: the bound is on |${couplingSymbol}|.`);
 
   // 4. beta per sample, reachable side, x.
   const dev = cols.deviation;
@@ -334,6 +335,26 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
   }
   const analysisRange: [number, number] = input.analysisRange ? [input.analysisRange[0], input.analysisRange[1]] : [lo, hi];
 
+  let inversion: ColumnInversion | null = null;
+  if (general) {
+    const compiled = compileVectorized(mapping.expanded, args);
+    const evaluate = (values: Float64Array, out: Float64Array) => {
+      xcol.set(values);
+      return compiled(argColumns, out);
+    };
+    const skipOrOut = Uint8Array.from(skip, (v, i) => (v || dev[i]! < analysisRange[0] || dev[i]! > analysisRange[1] ? 1 : 0));
+    try {
+      inversion = invertColumns(evaluate, beta, skipOrOut, range === "any_sign");
+    } catch (err) {
+      if (!(err instanceof NotMonotonicError)) throw err;
+      const [a, b] = err.between;
+      throw new SampleInputError(
+        `${input.fileLabel}: the ${input.entry.slug} mapping at b = ${mapping.b} is not monotonic in ${couplingSymbol} for the binary of row ${err.row} (beta rises and falls between ${couplingSymbol} = ${a.toPrecision(3)} and ${b.toPrecision(3)}): a bound on beta then allows disjoint ranges of ${couplingSymbol}, and no single bound follows.`,
+        { file: input.fileLabel, row: err.row },
+      );
+    }
+    notes.push(`The mapping is not a power law in ${couplingSymbol}: each sample was inverted on its own (bisection over ${range === "any_sign" ? "both signs of" : "positive"} ${couplingSymbol}, 1e-60 to 1e60 in canonical units, after checking that beta is monotonic in ${couplingSymbol} for that sample's binary).`);
+  }
   const keep = new Uint8Array(n);
   const reasons = new Map<string, number>();
   const drop = (why: string) => reasons.set(why, (reasons.get(why) ?? 0) + 1);
@@ -351,9 +372,20 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
       drop("the mapping vanishes or is undefined for this sample's binary");
       continue;
     }
-    if (Math.abs(K2[i]! / k - twoP) > 1e-9 * twoP) mismatch++;
+    if (!general && Math.abs(K2[i]! / k - twoP) > 1e-9 * twoP) mismatch++;
     if (dev[i]! < analysisRange[0] || dev[i]! > analysisRange[1]) {
       drop("the deviation lies outside the stated analysis prior range");
+      continue;
+    }
+    if (inversion) {
+      if (inversion.unreachable[i] || !(inversion.slope[i]! > 0)) {
+        unreachable++;
+        drop("the sample lies on the side of beta this theory cannot reach");
+        continue;
+      }
+      x[i] = inversion.x[i]!;
+      keep[i] = 1;
+      used++;
       continue;
     }
     const y = beta[i]! / k;
@@ -395,7 +427,7 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
     if (!keep[i]) continue;
     const xi = x[i]!;
     const ax = Math.abs(xi);
-    const jac = (Math.abs(p * K[i]!) * ax ** (p - 1)) / perDev[i]!;
+    const jac = (inversion ? inversion.slope[i]! : Math.abs(p * K[i]!) * ax ** (p - 1)) / perDev[i]!;
     const like = 1 / jac;
     let w = 1;
     const inRange = signed && prior.kind !== "log_uniform" ? xi >= ra && xi <= rb : ax >= ra && ax <= rb;
@@ -429,8 +461,9 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
     side = "interval";
     canonical.interval = [a!, b!];
   } else {
-    side = p > 0 ? "upper" : "lower";
-    canonical.value = weightedQuantiles(xs, weights, sorted, [p > 0 ? c : 1 - c])[0]!;
+    const upper = inversion ? inversion.grEnd === "zero" : p > 0;
+    side = upper ? "upper" : "lower";
+    canonical.value = weightedQuantiles(xs, weights, sorted, [upper ? c : 1 - c])[0]!;
   }
   await report(0.7);
 
@@ -496,7 +529,7 @@ export async function runPipeline(input: PipelineInput): Promise<PipelineResult>
 
   const dropped = n - used;
   return {
-    power: p,
+    power: general ? null : p,
     range,
     signed,
     side,

@@ -6,6 +6,7 @@ import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { Caution, ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useTheories } from "../../catalogue/api/get-theories.ts";
+import { useCurves } from "../../forecast/api/forecasts.ts";
 import { useCouplingExclusion } from "../api/run-consistency.ts";
 
 const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
@@ -18,7 +19,10 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
   return (
     <table className="w-full text-sm" data-testid="exclusion-table">
       <caption className="text-left text-ink-soft">
-        Smallest {data.coupling.symbol} ({data.coupling.unit}) at which GR is excluded at {Math.round(data.credibility * 100)} %, remnant M_f = {sig(data.remnant.M_f)} M☉, χ_f = {sig(data.remnant.chi_f)}
+        Smallest {data.coupling.symbol} ({data.coupling.unit}) at which GR is excluded at {Math.round(data.credibility * 100)} %, remnant M_f = {sig(data.remnant.M_f)} M☉, χ_f = {sig(data.remnant.chi_f)}.
+        Widths: inspiral σ(M_f) = {sig(data.widths.inspiral.sigma_M_f)} M☉, σ(χ_f) = {sig(data.widths.inspiral.sigma_chi_f)}, ρ = {data.widths.inspiral.rho.toFixed(2)} ({data.widths.inspiral.from}); merger-ringdown σ(M_f) ={" "}
+        {sig(data.widths.merger_ringdown.sigma_M_f)} M☉, σ(χ_f) = {sig(data.widths.merger_ringdown.sigma_chi_f)}, ρ = {data.widths.merger_ringdown.rho.toFixed(2)} ({data.widths.merger_ringdown.from})
+        {data.widths.forecast ? `; inspiral SNR ${data.widths.forecast.snr.toFixed(1)} on ${data.widths.forecast.f_low.toPrecision(3)}–${data.widths.forecast.f_high.toPrecision(4)} Hz` : ""}.
       </caption>
       <thead>
         <tr className="text-left">
@@ -74,21 +78,34 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
   const [binary, setBinary] = useState(b0 ? { m1: str(b0.m1), m2: str(b0.m2), chi1: str(b0.chi1), chi2: str(b0.chi2), z: str(b0.z) } : { m1: "39", m2: "32", chi1: "0", chi2: "0", z: "0.09" });
   const [frame, setFrame] = useState<"detector" | "source">(b0?.frame ?? "detector");
   const [errors, setErrors] = useState<Record<string, string>>({});
+  const f0 = request?.test.forecast;
+  const [widthsFrom, setWidthsFrom] = useState<"test" | "forecast">(f0 ? "forecast" : "test");
+  const [fc, setFc] = useState({ curve: f0?.curve ?? "aligo-design", f_low: str(f0?.f_low ?? 10), distance_mpc: str(f0?.distance_mpc), ringdown_snr: str(f0?.ringdown_snr ?? 20) });
+  const curves = useCurves(null);
+  const builtIn = (curves.data?.curves ?? []).filter((c) => !c.custom && !c.space);
   const result = useCouplingExclusion(request);
   const serverFields = result.error instanceof ApiError ? result.error.fields : {};
   const shown = { ...serverFields, ...errors };
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    if (!test) {
-      setErrors({ test: "Run the test with two summaries first: its widths are used here." });
+    if (widthsFrom === "test" && !test) {
+      setErrors({ test: "Run the test with two summaries first: its widths are used here (or forecast them for a detector)." });
       return;
     }
     const width = (p: ConsistencyRequest["inspiral"]) => ({ sigma_M_f: p.sigma_M_f, sigma_chi_f: p.sigma_chi_f, ...(p.rho === undefined ? {} : { rho: p.rho }) });
+    const forecast = Object.fromEntries(
+      [
+        ["curve", fc.curve],
+        ["f_low", num(fc.f_low)],
+        ["distance_mpc", num(fc.distance_mpc)],
+        ["ringdown_snr", num(fc.ringdown_snr)],
+      ].filter(([, v]) => v !== undefined),
+    );
     const parsed = couplingExclusionRequestSchema.safeParse({
       theory: slug || ringdownTheories[0]?.slug || "",
       binary: Object.fromEntries([...Object.entries(binary).map(([k, v]) => [k, num(v)] as const).filter(([, v]) => v !== undefined), ["frame", frame]]),
-      test: { inspiral: width(test.inspiral), merger_ringdown: width(test.merger_ringdown) },
+      test: widthsFrom === "test" && test ? { inspiral: width(test.inspiral), merger_ringdown: width(test.merger_ringdown) } : { forecast },
     });
     if (!parsed.success) {
       const next: Record<string, string> = {};
@@ -109,8 +126,9 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
         What coupling would this test exclude?
       </h2>
       <p className="max-w-3xl text-ink-soft">
-        A theory that shifts the ringdown makes a GR template infer a different remnant from the merger-ringdown part. With the widths of the test above and a binary, this finds
-        the smallest coupling at which (0, 0) would leave the credible region, and draws the expected deviation over the contours.
+        A theory that shifts the ringdown or the remnant makes a GR template infer a different remnant from the merger-ringdown part. With the test's widths (from the
+        summaries above, or forecast for a detector) and a binary, this finds the smallest coupling at which (0, 0) would leave the credible region, and draws the expected
+        deviation over the contours.
       </p>
       <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
         <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
@@ -139,6 +157,43 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
             )}
           </Field>
         </div>
+        <fieldset className="flex flex-col gap-2">
+          <legend className="font-semibold">Widths of the test</legend>
+          <div className="flex flex-wrap gap-4">
+            <label className="flex items-center gap-2">
+              <input type="radio" name="widths-from" checked={widthsFrom === "test"} onChange={() => setWidthsFrom("test")} data-testid="widths-test" />
+              from the two summaries above
+            </label>
+            <label className="flex items-center gap-2">
+              <input type="radio" name="widths-from" checked={widthsFrom === "forecast"} onChange={() => setWidthsFrom("forecast")} data-testid="widths-forecast" />
+              forecast for a detector (inspiral Fisher matrix, single-mode ringdown)
+            </label>
+          </div>
+          {widthsFrom === "forecast" && (
+            <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+              <Field label="Detector" error={shown["test.forecast.curve"]}>
+                {(control) => (
+                  <Select {...control} name="test.forecast.curve" value={fc.curve} onChange={(e) => setFc((v) => ({ ...v, curve: e.target.value }))}>
+                    {(builtIn.length > 0 ? builtIn : [{ id: fc.curve, name: fc.curve }]).map((c) => (
+                      <option key={c.id} value={c.id}>
+                        {c.name}
+                      </option>
+                    ))}
+                  </Select>
+                )}
+              </Field>
+              <Field label="f_low (Hz)" error={shown["test.forecast.f_low"]}>
+                {(control) => <TextInput {...control} name="test.forecast.f_low" inputMode="decimal" value={fc.f_low} onChange={(e) => setFc((v) => ({ ...v, f_low: e.target.value }))} />}
+              </Field>
+              <Field label="Distance (Mpc)" error={shown["test.forecast.distance_mpc"]} hint="blank: from z">
+                {(control) => <TextInput {...control} name="test.forecast.distance_mpc" inputMode="decimal" value={fc.distance_mpc} onChange={(e) => setFc((v) => ({ ...v, distance_mpc: e.target.value }))} />}
+              </Field>
+              <Field label="Ringdown SNR" error={shown["test.forecast.ringdown_snr"] ?? shown["test.merger_ringdown"]}>
+                {(control) => <TextInput {...control} name="test.forecast.ringdown_snr" inputMode="decimal" value={fc.ringdown_snr} onChange={(e) => setFc((v) => ({ ...v, ringdown_snr: e.target.value }))} />}
+              </Field>
+            </div>
+          )}
+        </fieldset>
         {shown.test && (
           <p role="alert" className="text-sm text-brick">
             {shown.test}

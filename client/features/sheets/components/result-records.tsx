@@ -162,7 +162,12 @@ export function ConsistencyRecordBody({ r }: { r: ConsistencyRecord }) {
       </p>
       <p className="text-sm text-ink-soft">
         Contours at {x.contours.map((c) => `${Math.round(c.level * 100)}%`).join(", ")}
-        {x.split_frequency_hz !== undefined && <>; split frequency {num(x.split_frequency_hz)} Hz</>}.
+        {x.split_frequency_hz !== undefined && (
+          <>
+            ; split frequency {num(x.split_frequency_hz)} Hz{x.split && <> (from the {x.split.from === "full_signal" ? "full-signal" : "inspiral"} estimate's remnant)</>}
+          </>
+        )}
+        .
       </p>
       <Cautions items={x.cautions} />
       <Provenance>
@@ -176,6 +181,11 @@ export function ConsistencyRecordBody({ r }: { r: ConsistencyRecord }) {
               M<sub>f</sub> = {s.merger_ringdown.M_f} ± {s.merger_ringdown.sigma_M_f} M☉, χ<sub>f</sub> = {s.merger_ringdown.chi_f} ± {s.merger_ringdown.sigma_chi_f}
               {s.merger_ringdown.rho !== undefined && <>, ρ = {s.merger_ringdown.rho}</>}
             </Item>
+            {s.full_signal && (
+              <Item term="Full signal">
+                M<sub>f</sub> = {s.full_signal.M_f} M☉, χ<sub>f</sub> = {s.full_signal.chi_f}
+              </Item>
+            )}
             <Item term="Frame">
               {s.frame}
               {s.z !== undefined && <>, z = {s.z}</>}

@@ -19,8 +19,8 @@ export type DeriveRequest = z.infer<typeof deriveRequestSchema>;
 
 export const deriveResponseSchema = z.object({
   terms: z.array(z.object({ b: z.number(), pn_order: z.number(), beta: z.string(), beta_latex: z.string(), source: z.string().optional() })),
-  /** The amplitude correction that comes with a frequency-drift change, when there is one. */
-  amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string() })).optional(),
+  /** The amplitude correction that comes with an energy/flux or frequency-drift change (its drift piece), with what it leaves out. */
+  amplitude: z.array(z.object({ a: z.number(), alpha: z.string(), alpha_latex: z.string(), note: z.string().optional() })).optional(),
   steps: z.array(z.string()),
   /** The engine's cautions about the derivation (leading order, degenerate exponents ...). */
   notes: z.array(z.string()).default([]),

@@ -169,6 +169,7 @@ export function DeriveHelper({ index }: { index: number }) {
           {(derive.data.amplitude ?? []).map((t, i) => (
             <p key={`a${i}`} className="mt-2 text-ink-soft">
               With it, an amplitude correction: <MathTex tex={`a = ${t.a}:\\quad \\alpha = ${t.alpha_latex}`} />
+              {t.note && <span className="block text-xs" data-testid="amplitude-note">{`${t.note.charAt(0).toUpperCase()}${t.note.slice(1)}.`}</span>}
             </p>
           ))}
           <ul className="mt-2 list-disc pl-5 text-xs text-ink-soft">
