@@ -1,6 +1,6 @@
 // @vitest-environment jsdom
 import { QueryClientProvider } from "@tanstack/react-query";
-import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
+import { cleanup, configure, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { MemoryRouter } from "react-router-dom";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { SubmissionForm, type SubmissionFormProps } from "../../client/features/submissions/components/submission-form.tsx";
@@ -8,6 +8,10 @@ import type { SubmissionFormInput } from "../../client/features/submissions/comp
 import { applyServerErrors, isRenderedPath } from "../../client/features/submissions/components/server-errors.ts";
 import { ApiError } from "../../client/lib/api-client.ts";
 import { createQueryClient } from "../../client/lib/query-client.ts";
+
+// The live checks are debounced and the form is large: on a loaded machine jsdom needs more than the
+// default 1 s to settle, so every wait here may take up to 10 s (it ends as soon as the text is there).
+configure({ asyncUtilTimeout: 10_000 });
 
 /**
  * The submission form against a stubbed fetch: field errors from the server land on their fields,
@@ -350,7 +354,7 @@ describe("submission form: the engine's verdict while typing", () => {
     );
     renderForm();
     fireEvent.change(screen.getByLabelText("Expression for β"), { target: { value: "f(x):=x^2" } });
-    const note = await screen.findByTestId("live-check-error-0", undefined, { timeout: 3000 });
+    const note = await screen.findByTestId("live-check-error-0");
     expect(note.textContent).toContain("':=' is not allowed in an expression");
   });
 });
