@@ -13,8 +13,9 @@ export interface SeedStep {
 }
 
 /** Seed steps in order. Later features append theirs (accounts, catalogue, demo scenario). */
-// sheetsSeed stays after accounts and catalogue: it translates the demo analyst's sheet against the seeded catalogue.
-export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, sheetsSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, amplitudeCatalogueSeed, catalogueWave2cSeed];
+// sheetsSeed comes last: it translates the demo analyst's sheet against the whole seeded catalogue, so a
+// fresh demo's sheet is current (a catalogue step after it would mark the sheet's translations stale).
+export const demoSeedSteps: SeedStep[] = [accountsSeed, catalogueSeed, demoScenarioSeed, ringdownCatalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, amplitudeCatalogueSeed, catalogueWave2cSeed, sheetsSeed];
 
 /**
  * Seeds the demo data inside ONE transaction: an interrupted seed leaves nothing behind. Each step is

@@ -54,6 +54,7 @@ export const apiPaths = {
   convertEvents: () => "/api/v1/convert/events",
   jobsPreview: () => "/api/v1/jobs/preview",
   jobsSamples: () => "/api/v1/jobs/samples",
+  jobsStack: () => "/api/v1/jobs/stack",
   jobSamplesCsv: (id: string) => `/api/v1/jobs/${encodeURIComponent(id)}/samples.csv`,
   forecasts: () => "/api/v1/forecasts",
   forecastJob: () => "/api/v1/jobs/forecast",

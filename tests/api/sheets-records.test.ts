@@ -8,6 +8,7 @@ import type { DragomanApp } from "../../server/app.ts";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
 import { createLogger } from "../../server/logger.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { seedSteps } from "../../seeds/index.ts";
 import { buildTestApp, testConfig } from "../helpers/app.ts";
 import { bearerFor, ensureUser } from "../helpers/auth.ts";
 import { readBibtexFile } from "../helpers/bibtex.ts";
@@ -359,4 +360,26 @@ describe("Record kinds: samples, stacking and consistency results", () => {
     const bibKeys = new Set(readBibtexFile((await get("bibtex")).text).map((e) => e.key));
     for (const ref of s.references) expect(bibKeys).toContain(ref.key);
   });
+});
+
+describe("the demo seed", () => {
+  it("when every demo step has run, then the demo sheet was translated against the whole seeded catalogue: no record is stale", async () => {
+    const seeded = await createTestDatabase();
+    try {
+      await seedSteps(seeded.db);
+      const demoApp = buildTestApp(seeded, OVERRIDES);
+      try {
+        const token = `Bearer ${await bearerFor(seeded.db, "demo-analyst")}`;
+        const list = (await request(demoApp).get("/api/v1/sheets").set("Authorization", token).expect(200)).body.sheets as { id: number }[];
+        expect(list).toHaveLength(1);
+        const sheet = sheetSchema.parse((await request(demoApp).get(`/api/v1/sheets/${list[0]!.id}`).set("Authorization", token).expect(200)).body);
+        expect(sheet.records.length).toBeGreaterThan(0);
+        expect(sheet.records.map((r) => asTranslation(r).stale)).toEqual(sheet.records.map(() => null));
+      } finally {
+        await demoApp.locals.jobQueue.stop();
+      }
+    } finally {
+      await seeded.drop();
+    }
+  }, 120_000);
 });

@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { convertRequestSchema, type ConvertResponse } from "../../common/convert.ts";
 import { translate } from "../../server/features/convert/translate.ts";
-import { limitChanges } from "../../server/features/sheets/retranslate.ts";
+import { entryRevisions } from "../../server/features/sheets/record-build.ts";
+import { entryChanges, limitChanges } from "../../server/features/sheets/retranslate.ts";
 import { seedCatalogue } from "./convert-fixture.ts";
 
 /** The comparison a re-translation preview shows: per limit, same / changed / added / removed, with verdict changes and the ratio. */
@@ -38,5 +39,32 @@ describe("limitChanges", () => {
     expect(by(second!.theory)).toMatchObject({ status: "changed", verdict_changed: true });
     expect(by("retired-theory")).toMatchObject({ status: "removed", new: null, reason: "enters at another b now (test)" });
     expect(by("invented-theory")).toMatchObject({ status: "added", old: null });
+  });
+});
+
+describe("entryChanges", () => {
+  it("when entries changed since a translation, then only those that gave a limit or map at its b are named; a retired one keeps its name", () => {
+    const catalogue = seedCatalogue();
+    const now = entryRevisions(catalogue);
+    const translation = saved(); // b = -7
+    const atB = catalogue.theories.filter((t) => t.bs.includes(-7)).map((t) => t.theory.slug);
+    const elsewhere = catalogue.theories.find((t) => !t.bs.includes(-7) && !t.noPhaseMapping)!.theory.slug;
+    const gaveLimit = translation.results[0]!;
+    // Then: every entry one revision older, the entry at another b and one at b = -7 absent (new since),
+    // and the entry that gave the first limit absent now (retired since).
+    const was: Record<string, number> = Object.fromEntries(Object.entries(now).map(([k, v]) => [k, v - 1]));
+    delete was[elsewhere];
+    const newAtB = atB.find((s) => s !== gaveLimit.theory)!;
+    delete was[newAtB];
+    was[gaveLimit.theory] = now[gaveLimit.theory]!;
+    const nowWithout = { ...now };
+    delete nowWithout[gaveLimit.theory];
+    const changes = entryChanges(was, catalogue, nowWithout, translation);
+    const slugs = changes.map((c) => c.theory);
+    // The entry at another b, new or revised, changes nothing for a bound at b = -7.
+    expect(slugs).not.toContain(elsewhere);
+    expect(changes.find((c) => c.theory === newAtB)).toMatchObject({ was: null, now: now[newAtB] });
+    expect(changes.find((c) => c.theory === gaveLimit.theory)).toMatchObject({ name: gaveLimit.theory_name, now: null });
+    expect(slugs.every((s) => atB.includes(s))).toBe(true);
   });
 });

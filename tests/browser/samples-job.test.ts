@@ -1,4 +1,4 @@
-import { mkdtemp, rm } from "node:fs/promises";
+import { mkdtemp, rm, writeFile } from "node:fs/promises";
 import type { Server } from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
@@ -11,7 +11,7 @@ import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { buildTestApp, testConfig } from "../helpers/app.ts";
 import { clientIsBuilt, launchBrowser, listen, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
-import { filled, gaussian, writeHdf5 } from "../helpers/samples-data.ts";
+import { filled, gaussian, toCsv, writeHdf5 } from "../helpers/samples-data.ts";
 
 /**
  * The translate page's "Posterior files" panel in Chromium: a visitor uploads an HDF5 posterior,
@@ -81,13 +81,53 @@ describe("browser: a posterior file as a background job", () => {
     await expect(panel.getByTestId("job-cancel").isVisible()).resolves.toBe(true);
 
     await panel.getByTestId("job-result").waitFor({ timeout: 60_000 });
-    await expect(panel.getByTestId("job-bound").textContent()).resolves.toMatch(/sqrt_alpha\s*≤\s*[\d.]+/);
+    await expect(panel.getByTestId("job-bound").textContent()).resolves.toMatch(/√α\s*≤\s*[\d.]+/);
     await expect(panel.getByTestId("job-verdict").getAttribute("data-verdict")).resolves.toMatch(/^(valid|outside_validity)$/);
     await expect(panel.getByTestId("job-counts").textContent()).resolves.toMatch(/of 20000 samples used; effective sample size/);
     await panel.getByTestId("job-histogram").locator("svg").waitFor({ timeout: 20_000 });
     await expect(panel.getByTestId("job-csv").getAttribute("href")).resolves.toMatch(/^\/api\/v1\/jobs\/[A-Za-z0-9_-]{24}\/samples\.csv$/);
     await panel.screenshot({ path: screenshotPath("samples-job-result") });
     expect(offLoopback(requests)).toEqual([]);
+    expect(errors).toEqual([]);
+  });
+
+  it("when a finished job and a summary are combined in the stacking panel, then the progress runs and the combined bound, verdicts, events and plot appear", { timeout: 150_000 }, async () => {
+    const n = 20_000;
+    const file = path.join(dir, "invented-event-a.csv");
+    await writeFile(file, toCsv({ beta: gaussian(5, n, 0, 1e-5), m1: filled(n, 10), m2: filled(n, 5) }));
+    const page = await browser.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(e.message));
+    await page.goto(`${baseUrl}/translate`, { waitUntil: "networkidle" });
+
+    const jobs = page.getByTestId("samples-job-panel");
+    await jobs.getByTestId("job-theory").selectOption("edgb");
+    await jobs.getByTestId("job-file").setInputFiles(file);
+    await jobs.getByTestId("job-preview").waitFor({ timeout: 30_000 });
+    await jobs.getByTestId("job-run").click();
+    await jobs.getByTestId("job-result").waitFor({ timeout: 60_000 });
+
+    const stack = page.getByTestId("stack-panel");
+    await stack.getByTestId("stack-theory").selectOption("edgb");
+    // The finished job is offered by its file name.
+    await stack.getByTestId("stack-0-job").selectOption({ label: "invented-event-a.csv (edgb, b = -7)" });
+    await stack.getByTestId("stack-0-label").fill("KV-a");
+    await stack.getByTestId("stack-1-source").selectOption("summary");
+    await stack.getByTestId("stack-1-label").fill("KV-b");
+    for (const [k, v] of [["centre", "0"], ["width", "2e-5"], ["m1", "20"], ["m2", "12"]] as const) await stack.getByTestId(`stack-1-${k}`).fill(v);
+    await stack.getByTestId("stack-run").click();
+    await stack.getByTestId("stack-progress").waitFor({ timeout: 30_000 });
+    await expect(stack.getByTestId("stack-cancel").isVisible()).resolves.toBe(true);
+    await stack.getByTestId("stack-result").waitFor({ timeout: 60_000 });
+    await expect(stack.getByTestId("stack-bound").textContent()).resolves.toMatch(/sqrt_alpha\s*≤\s*[\d.]+/);
+    await expect(stack.getByTestId("stack-verdict").getAttribute("data-verdict")).resolves.toMatch(/^(valid|outside_validity|not_assessed)$/);
+    await expect(stack.getByTestId("stack-event-0").textContent()).resolves.toMatch(/KV-a.*samples job/);
+    await expect(stack.getByTestId("stack-event-1").textContent()).resolves.toMatch(/KV-b.*summary/);
+    await expect(stack.getByTestId("stack-cautions").textContent()).resolves.toMatch(/Quick estimate/);
+    await stack.getByTestId("stack-plot").locator("svg").first().waitFor({ timeout: 20_000 });
+    // Saving needs the analyst role: a visitor is told so beside the result.
+    await expect(stack.getByTestId("save-to-sheet-gate").textContent()).resolves.toMatch(/analyst role/);
+    await stack.screenshot({ path: screenshotPath("stack-result") });
     expect(errors).toEqual([]);
   });
 });

@@ -64,7 +64,7 @@ describe("<SamplesResult>", () => {
     );
     render(<SamplesResult data={data} />);
     // The 0.9 quantile of the samples is the 1e-3 half: 4.07 km, the /convert limit for 10 + 5 Msun (tests/api/convert-post.test.ts).
-    expect(screen.getByTestId("samples-bound").textContent).toMatch(/sqrt_alpha\s*≤\s*4\.07\s*km/);
+    expect(screen.getByTestId("samples-bound").textContent).toMatch(/√α\s*≤\s*4\.07\s*km/);
     expect(screen.getByTestId("samples-count").textContent).toMatch(/200 of 200 samples translated/);
     expect(within(screen.getByTestId("samples-validity")).getAllByText("50%").length).toBeGreaterThan(0);
     const cautions = screen.getByTestId("samples-cautions");
@@ -89,6 +89,26 @@ describe("<EventsForm>", () => {
     expect(request.events).toHaveLength(3);
     expect(request.events[1]).toMatchObject({ label: "KV-240322c", upper: 5e-4, binary: { m1: 35, m2: 9, chi1: 0.2, frame: "source", z: 0.3 } });
     expect(request.events[2]!.binary.bodies).toEqual(["bh", "ns"]);
+  });
+
+  it("when events state their bounds as a signed interval and as one-sided ends, then each is sent in that form (the API's signed intervals per event)", () => {
+    const onSubmit = vi.fn();
+    render(<Host kind="events" onSubmit={onSubmit} />);
+    fireEvent.change(screen.getByTestId("events-theory"), { target: { value: "edgb" } });
+    fireEvent.change(screen.getByTestId("event-0-shape"), { target: { value: "interval" } });
+    fireEvent.change(screen.getByTestId("event-0-lo"), { target: { value: "-3e-5" } });
+    fireEvent.change(screen.getByTestId("event-0-hi"), { target: { value: "1e-5" } });
+    fireEvent.change(screen.getByTestId("event-1-shape"), { target: { value: "lower_only" } });
+    fireEvent.change(screen.getByTestId("event-1-lo"), { target: { value: "-2e-5" } });
+    fireEvent.change(screen.getByTestId("event-2-shape"), { target: { value: "upper_only" } });
+    fireEvent.change(screen.getByTestId("event-2-hi"), { target: { value: "4e-5" } });
+    fireEvent.click(screen.getByTestId("run-events"));
+    const request = onSubmit.mock.calls[0]![0] as EventsRequest;
+    expect(eventsRequestSchema.parse(request)).toEqual(request);
+    expect(request.events[0]).toMatchObject({ interval: [-3e-5, 1e-5] });
+    expect(request.events[0]).not.toHaveProperty("upper");
+    expect(request.events[1]).toMatchObject({ interval: [-2e-5, null] });
+    expect(request.events[2]).toMatchObject({ interval: [null, 4e-5] });
   });
 
   it("when an event's mass is not positive, then the problem names the event and the field, and nothing is sent", () => {

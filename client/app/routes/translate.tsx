@@ -4,6 +4,7 @@ import { RingdownPanel } from "../../features/ringdown/components/ringdown-panel
 import { EventsPanel } from "../../features/translate/components/events-panel.tsx";
 import { SamplesPanel } from "../../features/translate/components/samples-panel.tsx";
 import { SamplesJobPanel } from "../../features/jobs/components/samples-job-panel.tsx";
+import { StackPanel } from "../../features/jobs/components/stack-panel.tsx";
 import { TranslatePanel } from "../../features/translate/components/translate-panel.tsx";
 
 function SaveSlot({ request }: { request: ConvertRequest }) {
@@ -38,6 +39,7 @@ export function Component() {
       </header>
       <TranslatePanel footer={(request) => <SaveSlot request={request} />} />
       <SamplesJobPanel />
+      <StackPanel />
       <SamplesPanel />
       <EventsPanel />
       <RingdownPanel />

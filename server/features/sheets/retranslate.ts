@@ -15,9 +15,15 @@ export function entryChanges(was: Record<string, number>, catalogue: CompiledCat
   const names = new Map<string, string>();
   for (const r of saved?.results ?? []) names.set(r.theory, r.theory_name);
   for (const r of saved?.not_applicable ?? []) names.set(r.theory, r.theory_name);
+  const gave = new Set(saved?.results.map((r) => r.theory) ?? []);
+  const b = saved?.bound.b ?? null;
+  // An entry matters to this translation if it gave a limit then, or maps at the bound's b now (a log
+  // term has no single b: every entry matters). A new entry at another b, or a revision of one that
+  // never entered at this b and still does not, changes nothing here.
+  const matters = (slug: string) => !saved || b === null || gave.has(slug) || (catalogue.bySlug.get(slug)?.bs.includes(b) ?? false);
   const slugs = [...new Set([...Object.keys(was), ...Object.keys(now)])].sort();
   return slugs
-    .filter((s) => was[s] !== now[s])
+    .filter((s) => was[s] !== now[s] && matters(s))
     .map((s) => ({ theory: s, name: catalogue.bySlug.get(s)?.theory.name ?? names.get(s) ?? s, was: was[s] ?? null, now: now[s] ?? null }));
 }
 

@@ -55,7 +55,12 @@ export interface SheetsService {
 const conventionsSchema = z.record(z.string(), z.string());
 const revisionsSchema = z.record(z.string(), z.number().int()).nullable();
 
-function toRecord(r: repo.SheetRecordRow, catalogue: CompiledCatalogue): SheetRecord {
+/**
+ * A stored row as the record the API answers. Stored results are read back through today's schemas,
+ * so a change to a job's result schema must keep old results readable (new fields optional or with a
+ * default): tests/api/sheets-stored-records.test.ts reads records stored by an earlier version.
+ */
+export function toRecord(r: repo.SheetRecordRow, catalogue: CompiledCatalogue): SheetRecord {
   const base = {
     id: r.id,
     position: r.position,

@@ -19,6 +19,11 @@ export function startSamplesJob(file: File, request: object, onProgress: (f: num
   return uploadRequest(apiPaths.jobsSamples(), jobCreatedSchema, form, onProgress);
 }
 
+/** POST /jobs/stack: several events into one bound (JSON). */
+export function startStackJob(request: object) {
+  return apiRequest(apiPaths.jobsStack(), jobCreatedSchema, { method: "POST", body: request });
+}
+
 const finished = (v: JobView | undefined) => v !== undefined && (v.status === "done" || v.status === "failed" || v.status === "cancelled");
 
 export const jobQuery = (id: string) =>

@@ -27,7 +27,7 @@ const ROLE_LABEL: Record<ColumnRoleName, string> = {
   z: "redshift z",
   distance_mpc: "luminosity distance (Mpc)",
 };
-const GUESS: Record<ColumnRoleName, RegExp> = {
+export const GUESS: Record<ColumnRoleName, RegExp> = {
   deviation: /^(beta|dphi|delta_?phi|dchi)/i,
   m1: /^(m1|mass_?1)(_source|_detector)?$/i,
   m2: /^(m2|mass_?2)(_source|_detector)?$/i,
@@ -40,7 +40,23 @@ const GUESS: Record<ColumnRoleName, RegExp> = {
   distance_mpc: /^(dl|d_l|distance|luminosity_distance)/i,
 };
 
-function Progress({ label, value, testId }: { label: string; value: number; testId: string }) {
+/** Column roles guessed from the columns' names (the user may change them). */
+export function guessRoles(names: readonly string[]): Partial<Record<ColumnRoleName, string>> {
+  const guessed: Partial<Record<ColumnRoleName, string>> = {};
+  for (const role of COLUMN_ROLES) {
+    const hit = names.find((n) => GUESS[role].test(n));
+    if (hit) guessed[role] = hit;
+  }
+  if (guessed.m1 && guessed.m2) {
+    delete guessed.mchirp;
+    delete guessed.mtotal;
+    delete guessed.q;
+  }
+  if (guessed.z) delete guessed.distance_mpc;
+  return guessed;
+}
+
+export function Progress({ label, value, testId }: { label: string; value: number; testId: string }) {
   return (
     <div className="flex items-center gap-3 text-sm">
       <span className="w-40 text-ink-soft">{label}</span>
@@ -80,19 +96,7 @@ export function SamplesJobPanel() {
       const p = await previewFile(f, (v) => setUpload({ what: "Reading the file", value: v }));
       setPreview(p);
       setTable(0);
-      const names = p.tables[0]?.columns.map((c) => c.name) ?? [];
-      const guessed: Partial<Record<ColumnRoleName, string>> = {};
-      for (const role of COLUMN_ROLES) {
-        const hit = names.find((n) => GUESS[role].test(n));
-        if (hit) guessed[role] = hit;
-      }
-      if (guessed.m1 && guessed.m2) {
-        delete guessed.mchirp;
-        delete guessed.mtotal;
-        delete guessed.q;
-      }
-      if (guessed.z) delete guessed.distance_mpc;
-      setRoles(guessed);
+      setRoles(guessRoles(p.tables[0]?.columns.map((c) => c.name) ?? []));
     } catch (err) {
       setError(err);
     } finally {

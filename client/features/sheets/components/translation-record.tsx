@@ -1,7 +1,7 @@
 import type { ConvertResponse, ConvertResult } from "../../../../common/convert.ts";
 import { catalogueVersionText } from "../../../../common/catalogue-version.ts";
 import { formatDateTime } from "../../../../common/dates.ts";
-import type { TranslationRecord } from "../../../../common/sheets.ts";
+import type { EntryChange, TranslationRecord } from "../../../../common/sheets.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
@@ -108,6 +108,17 @@ function CatalogueVersion({ token }: { token: string }) {
   );
 }
 
+function entryText(e: EntryChange): string {
+  return `${e.name} (${e.was === null ? "new" : `revision ${e.was}`} → ${e.now === null ? "retired" : `revision ${e.now}`})`;
+}
+
+function changeCounts(entries: EntryChange[]): string {
+  const added = entries.filter((e) => e.was === null).length;
+  const retired = entries.filter((e) => e.now === null).length;
+  const revised = entries.length - added - retired;
+  return [added && `${added} new`, revised && `${revised} revised`, retired && `${retired} retired`].filter(Boolean).join(", ");
+}
+
 function StaleNote({ r, onRetranslate, busy }: { r: TranslationRecord; onRetranslate?: (() => void) | undefined; busy: boolean }) {
   if (!r.stale) return null;
   const entries = r.stale.entries;
@@ -115,11 +126,23 @@ function StaleNote({ r, onRetranslate, busy }: { r: TranslationRecord; onRetrans
     <div className="mt-2 flex flex-wrap items-baseline gap-3 rounded border border-amber/50 bg-amber-wash px-3 py-2 text-sm" data-testid="record-stale">
       <p className="text-amber">
         <strong>Catalogue changed since this was translated.</strong>{" "}
-        {entries.length > 0
-          ? `Changed entries: ${entries.map((e) => `${e.name} (${e.was === null ? "new" : `revision ${e.was}`} → ${e.now === null ? "retired" : `revision ${e.now}`})`).join("; ")}.`
-          : "The catalogue version differs from the one it was translated against."}{" "}
+        {entries.length === 0
+          ? "The catalogue version differs from the one it was translated against."
+          : entries.length <= 3
+            ? `Changed entries: ${entries.map(entryText).join("; ")}.`
+            : `${entries.length} entries that bear on this bound changed (${changeCounts(entries)}).`}{" "}
         The saved result below is kept as it was{onRetranslate ? "; re-translate to see what would change." : "."}
       </p>
+      {entries.length > 3 && (
+        <details className="w-full text-xs text-ink-soft">
+          <summary className="cursor-pointer">Which entries</summary>
+          <ul className="mt-1 list-disc pl-5">
+            {entries.map((e) => (
+              <li key={e.theory}>{entryText(e)}</li>
+            ))}
+          </ul>
+        </details>
+      )}
       {onRetranslate && (
         <Button onClick={onRetranslate} busy={busy} data-testid="retranslate-record">
           Re-translate…

@@ -53,7 +53,12 @@ const alwaysNull = { setValueAs: () => null } as const;
 /** How the bound is stated: |x| <= U, [lo, hi], or one end of it. Only the fields of the chosen shape are sent. */
 export type BoundShape = "symmetric" | "interval" | "lower_only" | "upper_only";
 
-function toShape(v: string): BoundShape {
+/** The shapes' names, as the forms offer them (x is the deviation's symbol). */
+export function boundShapeLabel(shape: BoundShape, x: string): string {
+  return shape === "symmetric" ? `symmetric |${x}| ≤ U` : shape === "interval" ? "interval [lo, hi]" : shape === "lower_only" ? `one-sided: ${x} ≥ lo` : `one-sided: ${x} ≤ hi`;
+}
+
+export function toShape(v: string): BoundShape {
   return v === "interval" || v === "lower_only" || v === "upper_only" ? v : "symmetric";
 }
 
@@ -151,10 +156,10 @@ export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMP
         <Field label="Form of the bound" hint="as the analysis reports it" error={undefined}>
           {(c) => (
             <Select {...c} value={form_} onChange={(e) => setShape(toShape(e.target.value))} data-testid="bound-shape">
-              {!ratio && <option value="symmetric">symmetric |x| ≤ U</option>}
-              <option value="interval">interval [lo, hi]</option>
-              <option value="lower_only">one-sided: x ≥ lo</option>
-              <option value="upper_only">one-sided: x ≤ hi</option>
+              {!ratio && <option value="symmetric">{boundShapeLabel("symmetric", "x")}</option>}
+              <option value="interval">{boundShapeLabel("interval", "x")}</option>
+              <option value="lower_only">{boundShapeLabel("lower_only", "x")}</option>
+              <option value="upper_only">{boundShapeLabel("upper_only", "x")}</option>
             </Select>
           )}
         </Field>

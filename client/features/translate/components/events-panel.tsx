@@ -1,4 +1,6 @@
 import { useState } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
+import { boundShapeLabel, toShape, type BoundShape } from "./bound-form.tsx";
 import { VerdictBadge } from "./results-table.tsx";
 import { eventsRequestSchema, MAX_EVENTS, type EventsRequest, type EventsResponse } from "../../../../common/convert-samples.ts";
 import { Button } from "../../../components/ui/button.tsx";
@@ -19,19 +21,23 @@ export interface EventRow {
   chi2: string;
   bodies: string;
   z: string;
+  /** How this event's bound is stated (as on the single-bound form): |x| <= upper, [lo, hi], or one end. */
+  shape: BoundShape;
   upper: string;
+  lo: string;
+  hi: string;
 }
 
 // Accessible names differ from the single-bound form's labels ("m₁ (M☉)" there), so each control is found by one name.
-const COLUMNS: { key: keyof EventRow; label: string; spoken: string; width: string }[] = [
+const COLUMNS: { key: TextKey; label: string; spoken: string; width: string }[] = [
   { key: "label", label: "Event", spoken: "label", width: "w-32" },
   { key: "m1", label: "m₁ (M☉)", spoken: "primary mass", width: "w-20" },
   { key: "m2", label: "m₂ (M☉)", spoken: "secondary mass", width: "w-20" },
   { key: "chi1", label: "χ₁", spoken: "primary spin", width: "w-16" },
   { key: "chi2", label: "χ₂", spoken: "secondary spin", width: "w-16" },
   { key: "z", label: "z", spoken: "redshift", width: "w-16" },
-  { key: "upper", label: "bound", spoken: "bound", width: "w-24" },
 ];
+type TextKey = "label" | "m1" | "m2" | "chi1" | "chi2" | "z" | "upper" | "lo" | "hi";
 
 /**
  * Invented events of the fictional Kestrel-Vireo network. Their bounds are tight enough that the EdGB
@@ -39,9 +45,9 @@ const COLUMNS: { key: keyof EventRow; label: string; spoken: string; width: stri
  * so the example shows a combination; looser bounds would be listed as outside validity and left out.
  */
 export const EXAMPLE_EVENTS: EventRow[] = [
-  { label: "KV-231107a", m1: "10", m2: "5", chi1: "0", chi2: "0", bodies: "bh,bh", z: "0.1", upper: "1e-5" },
-  { label: "KV-240322c", m1: "35", m2: "9", chi1: "0.2", chi2: "0", bodies: "bh,bh", z: "0.3", upper: "2e-5" },
-  { label: "KV-240815b", m1: "7", m2: "1.4", chi1: "0", chi2: "0", bodies: "bh,ns", z: "0.05", upper: "2e-5" },
+  { label: "KV-231107a", m1: "10", m2: "5", chi1: "0", chi2: "0", bodies: "bh,bh", z: "0.1", shape: "symmetric", upper: "1e-5", lo: "", hi: "" },
+  { label: "KV-240322c", m1: "35", m2: "9", chi1: "0.2", chi2: "0", bodies: "bh,bh", z: "0.3", shape: "symmetric", upper: "2e-5", lo: "", hi: "" },
+  { label: "KV-240815b", m1: "7", m2: "1.4", chi1: "0", chi2: "0", bodies: "bh,ns", z: "0.05", shape: "symmetric", upper: "2e-5", lo: "", hi: "" },
 ];
 
 const num = (s: string): unknown => {
@@ -51,12 +57,28 @@ const num = (s: string): unknown => {
   return Number.isFinite(n) ? n : t;
 };
 
+/** An interval end: blank is open (null). */
+const end = (s: string): unknown => (s.trim() === "" ? null : num(s));
+
+function boundOfRow(r: EventRow): { upper: unknown } | { interval: [unknown, unknown] } {
+  switch (r.shape) {
+    case "symmetric":
+      return { upper: num(r.upper) };
+    case "interval":
+      return { interval: [end(r.lo), end(r.hi)] };
+    case "lower_only":
+      return { interval: [end(r.lo), null] };
+    case "upper_only":
+      return { interval: [null, end(r.hi)] };
+  }
+}
+
 export function eventsCandidate(deviation: DeviationValues, rows: readonly EventRow[], frame: "source" | "detector"): unknown {
   return {
     ...deviationRequest(deviation),
     events: rows.map((r) => ({
       label: r.label,
-      upper: num(r.upper),
+      ...boundOfRow(r),
       binary: { m1: num(r.m1), m2: num(r.m2), chi1: num(r.chi1), chi2: num(r.chi2), bodies: r.bodies.split(","), frame, ...(r.z.trim() === "" ? {} : { z: num(r.z) }) },
     })),
   };
@@ -84,7 +106,19 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
   const [rows, setRows] = useState<EventRow[]>(EXAMPLE_EVENTS);
   const [frame, setFrame] = useState<"source" | "detector">("source");
   const { errors: all, listed, submit } = useCheckedRequest(eventsRequestSchema, serverFields, onSubmit);
-  const setCell = (i: number, key: keyof EventRow, value: string) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: value } : r)));
+  const setCell = (i: number, key: keyof EventRow, value: string) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: key === "shape" ? toShape(value) : value } : r)));
+  const x = deviation.parameter === "ppe_beta" ? "β" : "δφ";
+  const boundInput = (r: EventRow, i: number, key: "upper" | "lo" | "hi", spoken: string) => (
+    <TextInput
+      aria-label={`Event ${i + 1} ${spoken}`}
+      aria-invalid={Boolean(all[`events.${i}.${key === "upper" ? "upper" : "interval"}`] ?? all[`events.${i}.interval.${key === "lo" ? 0 : 1}`])}
+      className="w-24"
+      value={r[key]}
+      placeholder={key === "upper" ? "U" : key}
+      onChange={(e) => setCell(i, key, e.target.value)}
+      data-testid={`event-${i}-${key}`}
+    />
+  );
 
   const run = () => submit(eventsCandidate(deviation, rows, frame));
 
@@ -98,9 +132,12 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
             <tr>
               {COLUMNS.map((c) => (
                 <th key={c.key} scope="col" className="px-2 py-1.5 font-semibold">
-                  {c.key === "upper" ? (deviation.parameter === "ppe_beta" ? "|β| ≤" : "|δφ| ≤") : c.label}
+                  {c.label}
                 </th>
               ))}
+              <th scope="col" className="px-2 py-1.5 font-semibold">
+                Bound on {x}
+              </th>
               <th scope="col" className="px-2 py-1.5 font-semibold">Bodies</th>
               <th scope="col" className="px-2 py-1.5">
                 <span className="sr-only">Remove</span>
@@ -114,7 +151,7 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
                   <td key={c.key} className="px-1 py-1">
                     <TextInput
                       aria-label={`Event ${i + 1} ${c.spoken}`}
-                      aria-invalid={Boolean(all[`events.${i}.${c.key === "label" || c.key === "upper" ? c.key : `binary.${c.key}`}`])}
+                      aria-invalid={Boolean(all[`events.${i}.${c.key === "label" ? c.key : `binary.${c.key}`}`])}
                       className={c.width}
                       value={r[c.key]}
                       onChange={(e) => setCell(i, c.key, e.target.value)}
@@ -122,6 +159,20 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
                     />
                   </td>
                 ))}
+                <td className="px-1 py-1">
+                  <div className="flex items-center gap-1">
+                    <Select aria-label={`Event ${i + 1} form of the bound`} value={r.shape} onChange={(e) => setCell(i, "shape", e.target.value)} className="w-44" data-testid={`event-${i}-shape`}>
+                      {(["symmetric", "interval", "lower_only", "upper_only"] as const).map((sh) => (
+                        <option key={sh} value={sh}>
+                          {boundShapeLabel(sh, x)}
+                        </option>
+                      ))}
+                    </Select>
+                    {r.shape === "symmetric" && boundInput(r, i, "upper", "bound")}
+                    {(r.shape === "interval" || r.shape === "lower_only") && boundInput(r, i, "lo", "lower end")}
+                    {(r.shape === "interval" || r.shape === "upper_only") && boundInput(r, i, "hi", "upper end")}
+                  </div>
+                </td>
                 <td className="px-1 py-1">
                   <Select aria-label={`Bodies of event ${i + 1}`} value={r.bodies} onChange={(e) => setCell(i, "bodies", e.target.value)} className="w-32">
                     <option value="bh,bh">BH + BH</option>
@@ -140,7 +191,7 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
         </table>
       </div>
       <div className="flex flex-wrap items-end gap-3">
-        <Button onClick={() => setRows((rs) => [...rs, { label: `event ${rs.length + 1}`, m1: "", m2: "", chi1: "0", chi2: "0", bodies: "bh,bh", z: "", upper: "" }])} disabled={rows.length >= MAX_EVENTS} data-testid="add-event">
+        <Button onClick={() => setRows((rs) => [...rs, { label: `event ${rs.length + 1}`, m1: "", m2: "", chi1: "0", chi2: "0", bodies: "bh,bh", z: "", shape: "symmetric", upper: "", lo: "", hi: "" }])} disabled={rows.length >= MAX_EVENTS} data-testid="add-event">
           Add an event
         </Button>
         <Field label="Event masses are">
@@ -176,7 +227,7 @@ export function EventsResult({ data }: { data: EventsResponse }) {
           <caption className="sr-only">Each event's limit and the combined limit</caption>
           <thead className="bg-paper-deep text-left text-sm">
             <tr>
-              {["Event", `${data.coupling.symbol} limit`, "Validity", "Note"].map((h) => (
+              {["Event", `${symbolText(data.coupling.symbol, data.coupling.latex)} limit`, "Validity", "Note"].map((h) => (
                 <th key={h} scope="col" className="border-b border-paper-edge px-3 py-2 font-semibold">
                   {h}
                 </th>
