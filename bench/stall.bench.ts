@@ -4,6 +4,7 @@
 // (perf_hooks monitorEventLoopDelay, measured inside the server process) and the health latency,
 // against a baseline measured in the same run with health polling alone. Nothing here asserts.
 import { execFileSync, fork, type ChildProcess } from "node:child_process";
+import { availableParallelism, loadavg } from "node:os";
 import { createDb, migrateLatest } from "../server/db/knex.ts";
 import { catalogueSeed } from "../seeds/catalogue.ts";
 import { ACCEPTED_SAMPLES, post, SAMPLES } from "./stall-common.ts";
@@ -111,7 +112,11 @@ async function round(label: string, databaseUrl: string, env: Record<string, str
   const { child, url } = await startServer(databaseUrl, env);
   try {
     // Warm-up: the first check starts the workers, the first conversion compiles the catalogue.
-    await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), new Map());
+    const warm = new Map<string, number>();
+    await post(url, "/api/v1/expressions/check", JSON.stringify({ expression: "alpha*m1/M", target: "ppe_phase", b: -7, couplings: [{ symbol: "alpha", dimension: 0 }] }), warm);
+    const columns = { beta: [1e-4, -2e-4, 3e-4], m1: [20, 30, 25], m2: [10, 12, 15] };
+    await post(url, "/api/v1/convert/samples", JSON.stringify({ theory: "edgb", parameter: "ppe_beta", b: -7, credibility: 0.9, frame: "source", columns }), warm);
+    if (![...warm.keys()].every((k) => / 200$/.test(k))) throw new Error(`warm-up failed: ${[...warm.keys()].join(", ")}`);
     await new Promise((r) => setTimeout(r, 1500));
 
     await ask(child, "reset");
@@ -132,7 +137,8 @@ async function round(label: string, databaseUrl: string, env: Record<string, str
     const seconds = (performance.now() - t0) / 1000;
     const loudLoop = await ask<Report>(child, "report");
 
-    console.log(`-- ${label}: ${seconds.toFixed(1)} s of attack`);
+    // The machine's load matters: on a shared machine other programs take the cores too.
+    console.log(`-- ${label}: ${seconds.toFixed(1)} s of attack; load average ${loadavg().map((x) => x.toFixed(1)).join(" ")} on ${availableParallelism()} cores`);
     console.log(line("baseline (health alone)", quiet.latencies, quietLoop));
     console.log(line("under attack", loud.latencies, loudLoop));
     console.log(`ratio under attack / baseline: health max x${(Math.max(...loud.latencies) / Math.max(...quiet.latencies)).toFixed(1)}, event-loop max x${(loudLoop.max / quietLoop.max).toFixed(1)}`);

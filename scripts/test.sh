@@ -22,6 +22,14 @@ if ! command -v pdflatex >/dev/null 2>&1 || ! command -v bibtex >/dev/null 2>&1 
   fi
 fi
 
+if ! python3 -c "import requests" >/dev/null 2>&1; then
+  echo "Installing Debian's python3-requests for the README's Python example test (one time)..."
+  if ! { apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends python3 python3-requests >/dev/null; }; then
+    echo "test.sh: could not install python3-requests with apt-get; install Debian's 'python3-requests' and run again." >&2
+    echo "0 passed, 1 failed"; exit 1
+  fi
+fi
+
 export TEST_PGPORT="${TEST_PGPORT:-54339}" TEST_PGDATA_DIR="${TEST_PGDATA_DIR:-.data/pg-test}"
 # The test cluster is throw-away: PG_THROWAWAY=1 trades durability for speed (scripts/pg.sh).
 pg() { PGPORT="$TEST_PGPORT" PGDATA_DIR="$TEST_PGDATA_DIR" PG_DATABASES="dragoman_test_template" PG_THROWAWAY=1 bash scripts/pg.sh "$@"; }

@@ -5,7 +5,7 @@ import { checkEntry, guardEntryExpressions } from "../server/features/catalogue/
 import { publishEntry } from "../server/features/catalogue/publish.ts";
 import { latestRevisionEntryOf } from "../server/features/catalogue/revision-repository.ts";
 import { inProcessCheckRunner } from "../server/features/expressions/check-runner.ts";
-import { johannsenPsaltis, johannsenRingdownMappings, remnantDeviation, RINGDOWN_REFS, ringdownDeviation } from "./data/theories-ringdown.ts";
+import { edgbRingdownMappings, johannsenPsaltis, johannsenRingdownMappings, remnantDeviation, RINGDOWN_REFS, ringdownDeviation } from "./data/theories-ringdown.ts";
 import type { SeedStep } from "./index.ts";
 
 /**
@@ -22,7 +22,16 @@ async function publish(trx: Knex.Transaction, input: TheoryEntryInput, targetSlu
 
 /** The current Johannsen 2013 entry with the ringdown mappings added, or null when it is absent or already has them. */
 export async function johannsenWithRingdown(trx: Knex.Transaction): Promise<TheoryEntryInput | null> {
-  const theory = await trx("theories").where({ slug: "johannsen" }).first<{ id: number } | undefined>("id");
+  return withRingdown(trx, "johannsen", johannsenRingdownMappings);
+}
+
+/** The current EdGB entry with its (eikonal, from-memory) ringdown mappings added, or null when absent or already there. */
+export async function edgbWithRingdown(trx: Knex.Transaction): Promise<TheoryEntryInput | null> {
+  return withRingdown(trx, "edgb", edgbRingdownMappings);
+}
+
+async function withRingdown(trx: Knex.Transaction, slug: string, added: TheoryEntryInput["mappings"]): Promise<TheoryEntryInput | null> {
+  const theory = await trx("theories").where({ slug }).first<{ id: number } | undefined>("id");
   if (!theory) return null;
   const latest = await latestRevisionEntryOf(trx, theory.id);
   const parsed = theoryEntrySchema.safeParse(latest?.entry);
@@ -32,7 +41,7 @@ export async function johannsenWithRingdown(trx: Knex.Transaction): Promise<Theo
   const haveKey = entry.references.some((r) => r.key === RINGDOWN_REFS.cardoso2009.key);
   return {
     ...entry,
-    mappings: [...entry.mappings, ...johannsenRingdownMappings],
+    mappings: [...entry.mappings, ...added],
     references: haveKey ? entry.references : [...entry.references, RINGDOWN_REFS.cardoso2009],
   };
 }
@@ -47,6 +56,7 @@ export const ringdownCatalogueSeed: SeedStep = {
       [remnantDeviation, null],
       [johannsenPsaltis, null],
       [await johannsenWithRingdown(trx), "johannsen"],
+      [await edgbWithRingdown(trx), "edgb"],
     ];
     for (const [entry, target] of steps) {
       if (!entry) continue;

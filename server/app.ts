@@ -139,7 +139,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", consistencyRoutes(config, ringdown));
   table.mount(api, "/api", ringdownRoutes(ringdownTranslator, config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
-  const forecasts = forecastsService(curvesRepository(db), getForecastPool(), translator);
+  const forecasts = forecastsService(curvesRepository(db), getForecastPool({ nice: config.WORKER_NICE }), translator);
   table.mount(api, "/api", forecastsRoutes(forecasts, config));
   table.mount(api, "/api", forecastJobRoutes(db, config, jobQueue, forecasts));
   // Reads the table at request time, so routes mounted above or below are all in the document.

@@ -118,7 +118,7 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
   const side = power > 0 ? "lower" : "upper";
   return {
     slug: `dispersion-a${tag}`,
-    name: `Modified dispersion relation, alpha = ${alphaMd}`,
+    name: `Modified dispersion relation, α = ${alphaMd}`,
     family: "Lorentz-violating",
     summary: `Generic dispersion E^2 = p^2 + A p^${alphaMd} (c = 1) for gravitational waves, a frequency-dependent group velocity that dephases the signal over cosmological distances. ${motivation}`,
     assumptions: [

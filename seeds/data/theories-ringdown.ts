@@ -231,3 +231,38 @@ export const johannsenRingdownMappings: MappingInput[] = [
     notes: "Eikonal estimate at first order with alpha_52 = 0 (alpha_52 would add +alpha_52/18). " + NAMING_TRAP,
   }),
 ];
+
+const EDGB_RINGDOWN_NOTE =
+  "Eikonal (light-ring) estimate for a non-rotating remnant, our own first-order computation from the small-coupling static EdGB metric of Yunes & Stein 2011 " +
+  "(-g_tt = f (1 + h), g_rr = (1 + k)/f, f = 1 - 2M/r; h = zeta/(3f) (M/r)^3 [1 + 26 M/r + 66/5 (M/r)^2 + 96/5 (M/r)^3 - 80 (M/r)^4], " +
+  "k = -zeta/f (M/r)^2 [1 + M/r + 52/3 (M/r)^2 + 2 (M/r)^3 + 16/5 (M/r)^4 - 368/3 (M/r)^5]), with zeta = 16 pi alpha^2/M^4 at the remnant. " +
+  "The metric coefficients are recalled from memory (source to be confirmed). Published QNM computations (Blazquez-Salcedo et al. 2016, Phys. Rev. D 94, 104024) " +
+  "were not transcribed: their fits should replace this estimate once confirmed. Axial modes follow the light ring in EdGB at this order (Bryant et al. 2021, as we read its abstract); polar modes mix with the scalar.";
+
+/**
+ * Ringdown mappings added to the EdGB entry: Omega_c shifts by h(3M)/2 = (4397/21870) zeta_f (derived in
+ * closed form from h above); the Lyapunov exponent by -0.0843 zeta_f (numerical light-ring computation of
+ * the metric above; tests/api/convert-ringdown.test.ts repeats it), so tau by +0.0843 zeta_f.
+ */
+export const edgbRingdownMappings: MappingInput[] = [
+  ringdownMapping("ringdown_frequency", "alpha", "(4397/21870)*16*pi*alpha^2/M_f^4", "\\delta f_{220}/f_{220} \\approx \\frac{4397}{21870}\\,\\zeta_f,\\ \\zeta_f = 16\\pi\\alpha^2/M_f^4", {
+    validity: [
+      { expression: "16*pi*alpha^2/M_f^4", max: 0.1, label: "small coupling at the remnant: 16 pi alpha^2 / M_f^4 well below 1", kind: "rule_of_thumb", reference: "project choice" },
+      { expression: "chi_f", max: 0.3, label: "non-rotating result: the remnant must spin slowly", kind: "hard", reference: "project choice: the shift was computed for a static black hole" },
+    ],
+    source_status: "memory",
+    references: ["cardoso-et-al-2009"],
+    locator: "light ring of the small-coupling static metric: Omega_c shifted by h(3M)/2 (our own derivation)",
+    notes: EDGB_RINGDOWN_NOTE,
+  }),
+  ringdownMapping("ringdown_damping", "alpha", "0.0843*16*pi*alpha^2/M_f^4", "\\delta\\tau_{220}/\\tau_{220} \\approx 0.0843\\,\\zeta_f", {
+    validity: [
+      { expression: "16*pi*alpha^2/M_f^4", max: 0.1, label: "small coupling at the remnant: 16 pi alpha^2 / M_f^4 well below 1", kind: "rule_of_thumb", reference: "project choice" },
+      { expression: "chi_f", max: 0.3, label: "non-rotating result: the remnant must spin slowly", kind: "hard", reference: "project choice: the shift was computed for a static black hole" },
+    ],
+    source_status: "memory",
+    references: ["cardoso-et-al-2009"],
+    locator: "Lyapunov exponent of the small-coupling static metric, computed numerically (our own computation); tau ~ 1/lambda",
+    notes: EDGB_RINGDOWN_NOTE,
+  }),
+];

@@ -26,7 +26,7 @@ const FRAME_NOTE =
 
 export const dispersionA35: TheoryEntryInput = defineEntry({
   slug: "dispersion-a3p5",
-  name: "Modified dispersion relation, alpha = 3.5",
+  name: "Modified dispersion relation, α = 3.5",
   family: "lorentz-violating",
   summary:
     "Generic dispersion E^2 = p^2 + A p^3.5 (c = 1) for gravitational waves, one of the exponents tested on GW catalogues. High frequencies travel at a different speed, a +6.25PN-like phase term (b = 7.5) that grows with distance.",

@@ -228,6 +228,8 @@ describe("POST /api/v1/convert: the bound model", () => {
         if (x.validity.length === 0) expect(x.verdict, x.theory).toBe("not_assessed");
         expect(x.valid).toBe(x.verdict === "valid");
         if (x.verdict !== "valid") expect(x.reference_bounds.every((c) => c.verdict === "not_compared" && c.ratio === null), x.theory).toBe(true);
+        // Sentences name quantities as people write them (√α, λ_g, ω_BD), never by identifier.
+        for (const c of x.reference_bounds) expect(c.sentence, x.theory).not.toMatch(/sqrt_|lambda|omega|alpha|Gdot|\d\.\d{5,}/);
       }
     }
     expect(seen).toBeGreaterThan(8);
@@ -243,7 +245,7 @@ describe("POST /api/v1/convert: the bound model", () => {
     // Lyu, Jiang & Yagi 2022: sqrt(alpha) < 1.33 km (convention A, 90% credible). In JB, sqrt(alpha) scales by (16 pi)^(1/4) (derived).
     const inJB = 1.33 * (16 * Math.PI) ** 0.25;
     expect(rel(lyu.ratio!, inJB / e.coupling.value)).toBeLessThan(1e-9);
-    expect(lyu.sentence).toMatch(/in convention A, .* in JB, 90% credibility/);
+    expect(lyu.sentence).toMatch(/^[0-9.]+ times (tighter|weaker) than Lyu et al\. 2022 \(√α ≤ 1\.33 km in convention A, [0-9.]+ km in JB, 90% credibility\)$/);
   });
 
   it("when a Johannsen or RS-II bound is translated, then each coupling has its own row; l follows the per-hole law", async () => {

@@ -101,7 +101,7 @@ describe("POST /api/v1/convert", () => {
     const lyu = edgb.reference_bounds.find((b) => b.reference.citation.startsWith("Lyu"));
     expect(edgb.reference_bounds.every((b) => b.verdict === "not_compared" && b.ratio === null)).toBe(true);
     expect(lyu?.credibility).toBe(0.9);
-    expect(lyu?.sentence).toMatch(/^not compared with Lyu et al\. 2022 \(sqrt_alpha 1\.33 km, 90% credibility\): this limit is outside the validity/);
+    expect(lyu?.sentence).toMatch(/^not compared with Lyu et al\. 2022 \(√α ≤ 1\.33 km, 90% credibility\): this limit is outside the validity/);
     expect(r.bibliography.map((b) => b.key)).toEqual(expect.arrayContaining(edgb.references.map((c) => c.key)));
   });
 

@@ -179,7 +179,7 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
   });
 
   it("when a theory without a ringdown mapping is asked for, then it is not applicable with the reason", async () => {
-    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.68, frame: "source" }, theories: ["edgb"] });
+    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: 0.1, credibility: 0.9 }, remnant: { M_f: 62, chi_f: 0.68, frame: "source" }, theories: ["dcs"] });
     expect(body.results[0]?.status).toBe("not_applicable");
     expect(body.results[0]?.reason).toMatch(/no ringdown mapping/);
   });
@@ -243,7 +243,7 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
     }
     expect(body.track.length).toBeGreaterThan(50);
     expect(body.cautions.join(" ")).toMatch(/inspiral bias/);
-    const bad = await request(app).post("/api/v1/consistency/coupling").send({ theory: "edgb", binary: { m1: 39, m2: 32, frame: "source" }, test });
+    const bad = await request(app).post("/api/v1/consistency/coupling").send({ theory: "dcs", binary: { m1: 39, m2: 32, frame: "source" }, test });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields.theory).toMatch(/no ringdown mapping/);
     const badRho = await request(app)
@@ -315,5 +315,38 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
       expect(r.status, JSON.stringify(r.body)).toBe(400);
       expect(Object.keys(r.body.error.fields ?? {}), JSON.stringify(r.body)).toContain(field);
     }
+  });
+  it("when EdGB's ringdown mappings are compared with the light ring of the small-coupling metric, then the shifts agree, and a bound at a slowly spinning remnant limits alpha", async () => {
+    // Small-coupling static EdGB metric of Yunes & Stein 2011 (coefficients from memory, as the entry says), M = 1:
+    // -g_tt = f (1 + h), g_rr = (1 + k)/f; the light-ring shifts are computed here numerically, independently of the entry's closed form.
+    const zeta = 1e-4;
+    const f = (r: number) => 1 - 2 / r;
+    const h = (r: number) => (zeta / (3 * f(r))) * r ** -3 * (1 + 26 / r + 66 / 5 / r ** 2 + 96 / 5 / r ** 3 - 80 / r ** 4);
+    const k = (r: number) => (-zeta / f(r)) * r ** -2 * (1 + 1 / r + 52 / 3 / r ** 2 + 2 / r ** 3 + 16 / 5 / r ** 4 - 368 / 3 / r ** 5);
+    const e = lightRing(
+      (r) => f(r) * (1 + h(r)),
+      (r) => (1 + k(r)) / f(r),
+      (r) => r * r,
+    );
+    expect((e.Omega / schwarzschild.Omega - 1) / zeta).toBeCloseTo(4397 / 21870, 3);
+    expect(-(e.lambda / schwarzschild.lambda - 1) / zeta).toBeCloseTo(0.0843, 2);
+
+    // |df| <= U at a slowly spinning remnant: (4397/21870) 16 pi alpha^2 / M_f^4 = U, M_f in km (derived).
+    const U = 0.01;
+    const Mf = 20;
+    const MfKm = Mf * 1.4766250385;
+    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: U, credibility: 0.9 }, remnant: { M_f: Mf, chi_f: 0.1, frame: "source" }, theories: ["edgb"] });
+    const r = body.results[0]!;
+    expect(r.status).toBe("bounded");
+    expect(r.mapping?.source_status).toBe("memory");
+    expect(r.upper?.value).toBeCloseTo(Math.sqrt((U * MfKm ** 4) / ((4397 / 21870) * 16 * Math.PI)), 3);
+    expect(r.lower).toBeNull();
+    // zeta_f = U / 0.201 = 0.050 < 0.1 and chi_f = 0.1 < 0.3: valid, with the from-memory caution.
+    expect(r.verdict).toBe("valid");
+    expect(r.cautions.map((c) => c.message).join(" ")).toMatch(/recalled from memory/);
+    // A typical remnant spin breaks the non-rotating computation: outside validity (hard condition).
+    const spinning = await convert({ bound: { parameter: "qnm_dfreq", upper: U, credibility: 0.9 }, remnant: { M_f: Mf, chi_f: 0.68, frame: "source" }, theories: ["edgb"] });
+    expect(spinning.results[0]?.verdict).toBe("outside_validity");
+    expect(spinning.results[0]?.upper?.failing?.label).toMatch(/non-rotating/);
   });
 });

@@ -151,10 +151,17 @@ describe("GET /api/v1/sheets/:id/export", () => {
     expect(parsed.data).toHaveLength(total);
     const edgb = parsed.data.find((r) => r.record === "EC-01_a" && r.theory === "edgb")!;
     const expected = translationOf(sheet.records[0]!).results.find((r) => r.theory === "edgb")!;
-    expect(edgb).toMatchObject({ status: "bounded", b: "-7", symbol: "sqrt_alpha", unit: "km", side: "upper", valid: "false" });
+    // The symbol as a physicist writes it; the identifier of the same quantity in its own column for scripts.
+    expect(edgb).toMatchObject({ status: "bounded", b: "-7", symbol: "√α", coupling_id: "sqrt_alpha", unit: "km", side: "upper", valid: "false" });
+    // Thresholds as people write them (the EdGB regular-horizon condition is quoted as < 1/6), never 0.16666666666666666.
+    expect(edgb.failed_conditions).toContain("> 1/6");
+    for (const r of parsed.data) for (const text of [r.failed_conditions, r.also, r.reason]) expect(text ?? "").not.toMatch(/\d\.\d{6,}/);
+    for (const leak of ["sqrt_alpha", "lambda_g", "B_dip"]) expect(parsed.data.every((r) => !(r.symbol ?? "").includes(leak) && !(r.also ?? "").includes(leak))).toBe(true);
     expect(Number(edgb.value)).toBe(expected.coupling.value);
     const mg = parsed.data.find((r) => r.record === "EC-02" && r.theory === "massive-graviton")!;
-    expect(mg.also).toMatch(/^m_g <= [0-9.e-]+ eV$/);
+    expect(mg.symbol).toBe("λ_g");
+    expect(mg.coupling_id).toBe("lambda_g");
+    expect(mg.also).toMatch(/^m_g ≤ [0-9.]+ × 10⁻[⁰¹²³⁴⁵⁶⁷⁸⁹]+ eV$/);
     expect(parsed.data.some((r) => r.status === "not_applicable" && (r.reason ?? "").length > 0)).toBe(true);
   });
 

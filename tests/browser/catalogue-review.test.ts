@@ -191,6 +191,15 @@ describe("browser: a mapping goes from a contributor's form through review into 
     await page.waitForURL(/\/submit\/\d+$/);
     const id = Number(new URL(page.url()).pathname.split("/").pop());
     await expect(page.getByTestId("form-status").textContent()).resolves.toMatch(new RegExp(`Submission ${id}, version 1`));
+    // Just saved: nothing is unsaved, neither after the first save (the page moved to the draft's address) nor after a later one.
+    await page.waitForLoadState("networkidle");
+    await expect(page.getByTestId("form-status").textContent()).resolves.not.toMatch(/unsaved changes/);
+    await page.getByLabel("Summary").fill("Scalar dipole radiation with a quartic coupling (demo entry, reworded).");
+    await page.getByTestId("form-status").getByText(/unsaved changes/).waitFor();
+    await page.getByRole("button", { name: "Save draft" }).click();
+    await page.getByTestId("form-status").getByText(/Saved as version 2\./).waitFor();
+    await page.waitForLoadState("networkidle");
+    await expect(page.getByTestId("form-status").textContent()).resolves.not.toMatch(/unsaved changes/);
     const draft = await tdb.db("submissions").where({ id }).first();
     expect(draft.status).toBe("draft");
     await page.screenshot({ path: screenshotPath("catalogue-review-3-saved-draft"), fullPage: true });

@@ -148,19 +148,27 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     expect(errors.filter((e) => !/status of 400/.test(e))).toEqual([]);
   });
 
-  it("when more values of b are asked than one request takes, then the forecast runs as a background job with its progress, and per-detector phases are offered", { timeout: 180_000 }, async () => {
+  it("when more values of b are asked than one request takes and a second binary is added, then the forecast runs as a background job with its progress, the binaries are compared side by side, and per-detector phases are offered", { timeout: 180_000 }, async () => {
     const page = await visitor.newPage();
     const errors = watch(page);
     await page.goto(`${stack.baseUrl}/forecast`, { waitUntil: "networkidle" });
     const bs = Array.from({ length: 48 }, (_, i) => -14 + i * 0.25).filter((b) => b !== 0 && b !== 3);
     await page.getByTestId("forecast-form").getByLabel("b values").fill(bs.join(", "));
     await page.getByTestId("forecast-coalescence").selectOption("phi_c_per_detector");
+    await page.getByTestId("forecast-more-sources").fill("20, 15");
     await page.getByTestId("forecast-run").click();
     await page.getByTestId("forecast-job-progress").waitFor({ timeout: 60_000 });
     await page.screenshot({ path: screenshotPath("forecast-job-running"), fullPage: false });
     await page.getByTestId("forecast-results").waitFor({ timeout: 120_000 });
     await expect(page.getByTestId("forecast-table").locator("tbody tr").count()).resolves.toBe(bs.length);
     await expect(page.getByTestId("forecast-coalescence-used").textContent()).resolves.toMatch(/own coalescence phase/);
+    // The grid: both binaries side by side at one b; the lighter binary's band reaches higher.
+    const grid = page.getByTestId("forecast-grid");
+    await expect(grid.locator("tbody tr").count()).resolves.toBe(2);
+    await expect(grid.locator("tbody tr").nth(1).textContent()).resolves.toMatch(/20 \+ 15 M☉/);
+    await grid.getByTestId("forecast-grid-b").selectOption("-7");
+    await grid.getByTestId("forecast-grid-cell-1-0").locator("[data-value]").first().waitFor();
+    await page.screenshot({ path: screenshotPath("forecast-grid"), fullPage: true });
     const job = await tdb.db("analysis_jobs").where({ kind: "forecast" }).orderBy("created_at", "desc").first();
     expect(job.status).toBe("done");
     expect(errors).toEqual([]);

@@ -81,7 +81,7 @@ describe("browser: a posterior file as a background job", () => {
     await expect(panel.getByTestId("job-cancel").isVisible()).resolves.toBe(true);
 
     await panel.getByTestId("job-result").waitFor({ timeout: 60_000 });
-    await expect(panel.getByTestId("job-bound").textContent()).resolves.toMatch(/sqrt_alpha\s*≤\s*[\d.]+/);
+    await expect(panel.getByTestId("job-bound").textContent()).resolves.toMatch(/√α\s*≤\s*[\d.]+/);
     await expect(panel.getByTestId("job-verdict").getAttribute("data-verdict")).resolves.toMatch(/^(valid|outside_validity)$/);
     await expect(panel.getByTestId("job-counts").textContent()).resolves.toMatch(/of 20000 samples used; effective sample size/);
     await panel.getByTestId("job-histogram").locator("svg").waitFor({ timeout: 20_000 });

@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readBibtexFile } from "../helpers/bibtex.ts";
@@ -47,6 +47,19 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     return errors;
   }
 
+  async function downloadedBytes(page: Page, click: () => Promise<void>): Promise<{ name: string; bytes: Buffer }> {
+    const [download] = (await Promise.all([page.waitForEvent("download"), click()])) as [Download, void];
+    return { name: download.suggestedFilename(), bytes: readFileSync(await download.path()) };
+  }
+
+  /** A PNG file (signature, then the IHDR chunk's width) at twice the plot's width. */
+  function expectPng(bytes: Buffer, width: number) {
+    expect([...bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+    expect(bytes.subarray(12, 16).toString("ascii")).toBe("IHDR");
+    expect(bytes.readUInt32BE(16)).toBe(width);
+    expect(bytes.length).toBeGreaterThan(5000);
+  }
+
   async function downloaded(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
     const [download] = (await Promise.all([page.waitForEvent("download"), click()])) as [Download, void];
     const file = await download.path();
@@ -82,7 +95,9 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     const betaPlot = page.getByTestId("beta-plot");
     await betaPlot.locator("svg").first().waitFor();
     await expect(betaPlot.locator("svg circle").count()).resolves.toBe(1);
-    await expect(betaPlot.textContent()).resolves.toMatch(/edgb/);
+    // Theories by name, each marked with its verdict (a mark and words in the legend, not colour alone).
+    await expect(betaPlot.locator("svg").first().textContent()).resolves.toContain("✕ EdGB");
+    await expect(page.getByTestId("beta-plot-legend").textContent()).resolves.toMatch(/✕\s*outside validity/);
     // EdGB's limit is outside validity here, so it is not plotted against published bounds.
     await expect(page.getByTestId("coupling-plot-edgb").count()).resolves.toBe(0);
     const svg = await downloaded(page, () => page.getByTestId("beta-plot-download").click());
@@ -90,6 +105,18 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     expect(svg.text).toMatch(/^<\?xml/);
     expect(svg.text).toContain('xmlns="http://www.w3.org/2000/svg"');
     expect(svg.text).toMatch(/<circle/);
+    // The downloaded file keeps the title, the verdict marks and their legend, and names theories as people do.
+    expect(svg.text).toContain("<title>Bound on |β| against the ppE exponent b, with the catalogued theories</title>");
+    expect(svg.text).toMatch(/data-role="figure-title"[^>]*>Bound on \|β\| against the ppE exponent b/);
+    expect(svg.text).toContain("✕ EdGB");
+    expect(svg.text).toMatch(/data-role="figure-legend"[^>]*><tspan fill="#8f3a2c"[^>]*>✕<\/tspan><tspan[^>]*>outside validity: a validity condition of the mapping fails at this limit/);
+    expect(svg.text).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>–<\/tspan><tspan[^>]*>not constrained by this bound: enters at another b, or does not apply to this binary/);
+    for (const slug of [">edgb<", ">dcs<", "brans-dicke", "massive-graviton", "sqrt_alpha"]) expect(svg.text).not.toContain(slug);
+    const png = await downloadedBytes(page, () => page.getByTestId("beta-plot-png").click());
+    expect(png.name).toBe("beta-against-b.png");
+    expectPng(png.bytes, 760 * 2);
+    // Kept beside the screenshots, to look at what a reader of the downloaded file sees.
+    writeFileSync(screenshotPath("translate-beta-plot-download"), png.bytes);
 
     // Convention JB: sqrt(alpha) grows by (16 pi)^(1/4) = 2.663 (EdGB normalisation conventions), 4.072 km -> 10.84 km.
     await page.getByLabel(/Convention for Einstein-dilaton/).selectOption("JB");
@@ -102,6 +129,34 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     await page.evaluate(() => document.fonts.ready);
     await page.screenshot({ path: screenshotPath("translate-visitor"), fullPage: true });
     expect(offLoopback(requests)).toEqual([]);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("when a valid limit meets a published bound, then the coupling plot names √α, marks the verdict, and its SVG and PNG keep title, labels and legend", { timeout: 90_000 }, async () => {
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    // 60 + 20 solar masses and |β| ≤ 1e-7 at b = -7: EdGB's √α well inside the small-coupling region, so it is compared with Lyu, Jiang & Yagi 2022.
+    const q = JSON.stringify({ bound: { parameter: "ppe_beta", b: -7, upper: 1e-7, credibility: 0.9 }, binary: { m1: 60, m2: 20, frame: "source" }, theories: ["edgb"] });
+    await page.goto(`${stack.baseUrl}/translate?q=${encodeURIComponent(q)}`, { waitUntil: "networkidle" });
+    const plot = page.getByTestId("coupling-plot-edgb");
+    await plot.locator("svg").first().waitFor();
+    const drawn = (await plot.locator("svg").first().textContent()) ?? "";
+    expect(drawn).toContain("√α (km) →");
+    expect(drawn).toContain("✓ this translation");
+    expect(drawn).toContain("◆ Lyu et al. 2022");
+    const svg = await downloaded(page, () => page.getByTestId("coupling-plot-edgb-download").click());
+    expect(svg.name).toBe("edgb-sqrt_alpha-limits.svg");
+    expect(svg.text).toMatch(/<title>Einstein-dilaton-Gauss-Bonnet[^<]*: upper limits on √α[^<]*<\/title>/);
+    expect(svg.text).toContain("√α (km) →");
+    expect(svg.text).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>✓<\/tspan><tspan[^>]*>this translation: every validity condition holds at the limit/);
+    expect(svg.text).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>◆<\/tspan><tspan[^>]*>published bound on the same quantity/);
+    expect(svg.text).not.toContain("sqrt_alpha");
+    const png = await downloadedBytes(page, () => page.getByTestId("coupling-plot-edgb-png").click());
+    expect(png.name).toBe("edgb-sqrt_alpha-limits.png");
+    expectPng(png.bytes, 560 * 2);
+    writeFileSync(screenshotPath("translate-coupling-plot-download"), png.bytes);
+    await page.screenshot({ path: screenshotPath("translate-coupling-plot"), fullPage: true });
     expect(errors).toEqual([]);
     await page.close();
   });

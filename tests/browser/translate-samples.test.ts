@@ -42,7 +42,7 @@ describe("browser: posterior samples and several events", () => {
     const samples = page.locator("section", { has: page.getByRole("heading", { name: "Posterior samples" }) });
     await samples.getByTestId("samples-theory").selectOption("edgb");
     await samples.getByRole("button", { name: "Translate the samples" }).click();
-    await expect(samples.getByTestId("samples-bound").textContent({ timeout: 20_000 })).resolves.toMatch(/sqrt_alpha\s*≤\s*[\d.]+\s*km/);
+    await expect(samples.getByTestId("samples-bound").textContent({ timeout: 20_000 })).resolves.toMatch(/√α\s*≤\s*[\d.]+\s*km/);
     await samples.getByTestId("samples-histogram").locator("svg").waitFor({ timeout: 20_000 });
     await expect(samples.getByTestId("samples-cautions").textContent()).resolves.toMatch(/not flat/);
 

@@ -48,4 +48,19 @@ describe("the forecast page's address", () => {
     if (url.kind === "ok") expect(runsAsJob(url.request)).toBe(true);
     expect(requestFieldErrors(toRequest({ ...presetState("ground"), m1: "-3" }))).toHaveProperty(["source.m1"]);
   });
+
+  it("when more binaries are listed, then they travel in the link with the first binary's spins and distance, and make the forecast a job", () => {
+    const state = { ...presetState("ground"), more: "20, 15\n 60;50 \n" };
+    const input = toRequest(state);
+    expect(input.more_sources).toEqual([
+      { ...input.source, m1: 20, m2: 15 },
+      { ...input.source, m1: 60, m2: 50 },
+    ]);
+    const url = readForecastParam(JSON.stringify(input));
+    expect(url.kind).toBe("ok");
+    if (url.kind !== "ok") return;
+    expect(runsAsJob(url.request)).toBe(true);
+    expect(stateFromRequest(url.request).more).toBe("20, 15\n60, 50");
+    expect(requestFieldErrors(toRequest({ ...state, more: "20, x" }))).toHaveProperty(["more_sources.0.m2"]);
+  });
 });

@@ -1,6 +1,6 @@
 // @vitest-environment jsdom
 import { QueryClientProvider } from "@tanstack/react-query";
-import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
+import { cleanup, configure, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { MemoryRouter } from "react-router-dom";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { SubmissionForm, type SubmissionFormProps } from "../../client/features/submissions/components/submission-form.tsx";
@@ -8,6 +8,10 @@ import type { SubmissionFormInput } from "../../client/features/submissions/comp
 import { applyServerErrors, isRenderedPath } from "../../client/features/submissions/components/server-errors.ts";
 import { ApiError } from "../../client/lib/api-client.ts";
 import { createQueryClient } from "../../client/lib/query-client.ts";
+
+// The live checks are debounced and the form is large: on a loaded machine jsdom needs more than the
+// default 1 s to settle, so every wait here may take up to 10 s (it ends as soon as the text is there).
+configure({ asyncUtilTimeout: 10_000 });
 
 /**
  * The submission form against a stubbed fetch: field errors from the server land on their fields,
@@ -228,6 +232,59 @@ describe("submission form: where the server's field errors land", () => {
   });
 });
 
+describe("submission form: unsaved changes", () => {
+  it("when an edit is saved, then the status says the version saved and no longer 'unsaved changes'; a new edit says it again", async () => {
+    responders.push((c) => (c.method === "PATCH" && c.url === "/api/v1/submissions/7" ? { status: 200, body: { id: 7, status: "draft", version: 4, checks: checksReport } } : undefined));
+    renderForm({ id: 7, version: 3, status: "draft" });
+    const status = screen.getByTestId("form-status");
+    expect(status.textContent).not.toContain("unsaved changes");
+    const name = screen.getByLabelText("Name") as HTMLInputElement;
+    fireEvent.change(name, { target: { value: "Form test dipole (reworded)" } });
+    await waitFor(() => expect(status.textContent).toContain("unsaved changes"));
+    fireEvent.click(screen.getByRole("button", { name: "Save draft" }));
+    await waitFor(() => expect(status.textContent).toContain("Saved as version 4."));
+    // Let every effect and re-render after the save settle before reading the flag.
+    await new Promise((r) => setTimeout(r, 50));
+    expect(status.textContent).toContain("Submission 7, version 4");
+    expect(status.textContent).not.toContain("unsaved changes");
+    expect(saves()[0]?.body).toMatchObject({ version: 3, theory: { name: "Form test dipole (reworded)" } });
+    fireEvent.change(name, { target: { value: "Form test dipole (reworded again)" } });
+    await waitFor(() => expect(status.textContent).toContain("unsaved changes"));
+    // The "saved" notice described the saved form; beside an edit it would contradict "unsaved changes".
+    expect(status.textContent).not.toContain("Saved as version 4.");
+  });
+
+  it("when a save is refused before sending (an empty required field), then the status says it was not saved, not the earlier save", async () => {
+    responders.push((c) => (c.method === "PATCH" && c.url === "/api/v1/submissions/7" ? { status: 200, body: { id: 7, status: "draft", version: 4, checks: checksReport } } : undefined));
+    renderForm({ id: 7, version: 3, status: "draft" });
+    const status = screen.getByTestId("form-status");
+    const name = screen.getByLabelText("Name") as HTMLInputElement;
+    fireEvent.change(name, { target: { value: "Form test dipole (reworded)" } });
+    fireEvent.click(screen.getByRole("button", { name: "Save draft" }));
+    await waitFor(() => expect(status.textContent).toContain("Saved as version 4."));
+    fireEvent.change(name, { target: { value: "" } });
+    fireEvent.click(screen.getByRole("button", { name: "Save draft" }));
+    await screen.findByTestId("error-summary");
+    expect(status.textContent).toContain("unsaved changes");
+    expect(status.textContent).toContain("Not saved: fix the problems listed at the top of the form.");
+    expect(status.textContent).not.toContain("Saved as");
+    expect(saves()).toHaveLength(1);
+  });
+
+  it("when a new entry is saved for the first time, then the status does not say 'unsaved changes'", async () => {
+    responders.push((c) => (c.method === "POST" && c.url === "/api/v1/submissions" ? { status: 201, body: { id: 9, status: "draft", version: 1, checks: checksReport } } : undefined));
+    const created: number[] = [];
+    renderForm({ onCreated: (id) => created.push(id) });
+    fireEvent.change(screen.getByLabelText("Name") as HTMLInputElement, { target: { value: "Form test dipole (new)" } });
+    fireEvent.click(screen.getByRole("button", { name: "Save draft" }));
+    const status = screen.getByTestId("form-status");
+    await waitFor(() => expect(status.textContent).toContain("Saved as version 1."));
+    await new Promise((r) => setTimeout(r, 50));
+    expect(created).toEqual([9]);
+    expect(status.textContent).not.toContain("unsaved changes");
+  });
+});
+
 describe("submission form: the engine's verdict while typing", () => {
   it("when the expression has a dimension error, then the debounced check shows a failed dimension badge under it", async () => {
     const wrong = "-(5/7168)*alpha*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^(18/5))";
@@ -297,7 +354,7 @@ describe("submission form: the engine's verdict while typing", () => {
     );
     renderForm();
     fireEvent.change(screen.getByLabelText("Expression for β"), { target: { value: "f(x):=x^2" } });
-    const note = await screen.findByTestId("live-check-error-0", undefined, { timeout: 3000 });
+    const note = await screen.findByTestId("live-check-error-0");
     expect(note.textContent).toContain("':=' is not allowed in an expression");
   });
 });

@@ -2,13 +2,14 @@
 import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { convertRequestSchema, type ConvertResponse } from "../../common/convert.ts";
-import { BetaPlot, theoryLabels } from "../../client/features/translate/components/beta-plot.tsx";
+import { BetaPlot, MARK_STYLE, plotName, spreadLabels, theoryLabels } from "../../client/features/translate/components/beta-plot.tsx";
 import { comparableQuantity, CouplingPlot } from "../../client/features/translate/components/coupling-plot.tsx";
 import { NotApplicableList } from "../../client/features/translate/components/not-applicable-list.tsx";
 import { ResultsTable } from "../../client/features/translate/components/results-table.tsx";
 import { decadeLabel, formatPlain, splitScientific, unitText } from "../../client/features/translate/components/sci-number.tsx";
 import { TableOverB } from "../../client/features/translate/components/table-over-b.tsx";
 import { parseBoundsCsv } from "../../client/features/translate/lib/parse-bounds-csv.ts";
+import { figureSvg, wrapText } from "../../client/lib/figure-svg.ts";
 import { serializeSvg } from "../../client/lib/plot.ts";
 import { translate } from "../../server/features/convert/translate.ts";
 import { seedCatalogue } from "../api/convert-fixture.ts";
@@ -76,14 +77,38 @@ describe("<NotApplicableList>", () => {
 });
 
 describe("plots", () => {
-  it("when theories share a b, then they share one marker label", () => {
-    expect(theoryLabels([{ b: -7, theory: "edgb" }, { b: -1, theory: "dcs" }, { b: -7, theory: "brans-dicke" }])).toEqual([
-      { b: -7, label: "brans-dicke · edgb" },
-      { b: -1, label: "dcs" },
+  it("when theories share a b, then each keeps its own label, its verdict mark first, constrained before unconstrained, offset so none overprint", () => {
+    const labels = theoryLabels([
+      { b: -7, theory: "edgb", name: "EdGB", state: "outside_validity" },
+      { b: -1, theory: "dcs", name: "dCS", state: "not_constrained" },
+      { b: -7, theory: "brans-dicke", name: "Brans-Dicke theory", state: "valid" },
+      // The same theory met again at the same b by an unconstraining row keeps its verdict.
+      { b: -7, theory: "edgb", name: "EdGB", state: "not_constrained" },
     ]);
+    expect(labels.map(({ b, text, state }) => ({ b, text, state }))).toEqual([
+      { b: -7, text: "✓ Brans-Dicke theory", state: "valid" },
+      { b: -7, text: "✕ EdGB", state: "outside_validity" },
+      { b: -1, text: "– dCS", state: "not_constrained" },
+    ]);
+    expect(labels[1]?.title).toBe("EdGB: outside validity: a validity condition of the mapping fails at this limit");
   });
 
-  it("when the beta plot is drawn, then it is an SVG with one dot per bound and a label per theory b, downloadable as a standalone file", async () => {
+  it("when labels crowd together, then they are spread at least a gap apart, inside the frame, and a lone label stays where it belongs", () => {
+    const desired = [100, 100, 100, 112, 300, 745, 750];
+    const placed = spreadLabels(desired, 13, 64, 740);
+    expect(placed).toHaveLength(desired.length);
+    for (let i = 1; i < placed.length; i++) expect(placed[i]! - placed[i - 1]!).toBeGreaterThanOrEqual(13 - 1e-9);
+    expect(Math.min(...placed)).toBeGreaterThanOrEqual(64);
+    expect(Math.max(...placed)).toBeLessThanOrEqual(740);
+    expect(placed[4]).toBe(300);
+    // The crowded run at 100 is centred on its members' own places (mean 103), not pushed to one side.
+    expect((placed[0]! + placed[1]! + placed[2]! + placed[3]!) / 4).toBeCloseTo(103, 6);
+    expect(plotName("Johannsen-Psaltis parameterized black-hole spacetime")).toBe("Johannsen-Psaltis parameterized…");
+    expect(plotName("EdGB")).toBe("EdGB");
+    expect(plotName("Modified dispersion relation, α = 3.5")).toBe("Modified dispersion, α = 3.5");
+  });
+
+  it("when the beta plot is drawn, then it is an SVG with one dot per bound and a named, marked label per theory; the downloaded figure keeps title, marks and legend", async () => {
     render(
       <BetaPlot
         points={[
@@ -91,9 +116,9 @@ describe("plots", () => {
           { b: -3, beta_max: 2e-2, label: "b" },
         ]}
         theories={[
-          { b: -7, theory: "edgb" },
-          { b: -3, theory: "massive-graviton" },
-          { b: -1, theory: "dcs" },
+          { b: -7, theory: "edgb", name: "EdGB", state: "outside_validity" },
+          { b: -3, theory: "massive-graviton", name: "Massive graviton", state: "not_assessed" },
+          { b: -1, theory: "dcs", name: "dCS", state: "not_constrained" },
         ]}
       />,
     );
@@ -102,11 +127,26 @@ describe("plots", () => {
     await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull(), { timeout: 15_000 });
     const svg = figure.querySelector("svg")!;
     expect(svg.querySelectorAll("circle")).toHaveLength(2);
-    expect(svg.textContent).toMatch(/massive-graviton/);
-    const file = serializeSvg(svg);
+    expect(svg.textContent).toContain("✕ EdGB");
+    expect(svg.textContent).toContain("? Massive graviton");
+    expect(svg.textContent).not.toMatch(/massive-graviton|edgb/);
+    // The page's legend names every state drawn, in words.
+    expect(screen.getByTestId("beta-plot-legend").textContent).toMatch(/outside validity.*validity not assessed.*not constrained by this bound/);
+    const file = serializeSvg(figureSvg(svg, { title: "Bound on |β|", legend: [MARK_STYLE.outside_validity], caption: "A caption." }));
     expect(file.startsWith("<?xml")).toBe(true);
     expect(file).toContain('xmlns="http://www.w3.org/2000/svg"');
+    expect(file).toContain("<title>Bound on |β|</title>");
+    expect(file).toMatch(/data-role="figure-legend"[^>]*><tspan fill="#8f3a2c"[^>]*>✕<\/tspan><tspan[^>]*>outside validity/);
+    expect(file).toContain("A caption.");
     expect(screen.getByTestId("beta-plot-download").hasAttribute("disabled")).toBe(false);
+    expect(screen.getByTestId("beta-plot-png").hasAttribute("disabled")).toBe(false);
+  });
+
+  it("when a long caption is wrapped for the downloaded figure, then no line is longer than asked and no word is lost", () => {
+    const text = "Points: the bounds given (gIMR bounds converted to β for this binary). Vertical lines: where each catalogued theory enters.";
+    const lines = wrapText(text, 40);
+    expect(lines.every((l) => l.length <= 40)).toBe(true);
+    expect(lines.join(" ")).toBe(text);
   });
 
   it("when the massive graviton is plotted, then the comparison is drawn in m_g, the quantity the published bounds use", async () => {
@@ -116,8 +156,11 @@ describe("plots", () => {
     const figure = screen.getByTestId("coupling-plot-massive-graviton");
     // The plotting library is loaded on demand: give the import time on a loaded machine.
     await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull(), { timeout: 15_000 });
-    expect(figure.textContent).toMatch(/LIGO-Virgo 2016/);
-    expect(figure.querySelectorAll("svg circle")).toHaveLength(3);
+    expect(figure.textContent).toMatch(/◆ LIGO-Virgo 2016/);
+    // Ours a circle, the published ones diamonds: told apart by shape as well as colour.
+    expect(figure.querySelectorAll("svg circle")).toHaveLength(1);
+    expect(figure.querySelector("svg")!.textContent).toContain("✓ this translation");
+    expect(figure.querySelector("svg")!.textContent).toContain("m_g (eV) →");
   });
 });
 

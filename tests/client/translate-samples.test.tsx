@@ -64,7 +64,7 @@ describe("<SamplesResult>", () => {
     );
     render(<SamplesResult data={data} />);
     // The 0.9 quantile of the samples is the 1e-3 half: 4.07 km, the /convert limit for 10 + 5 Msun (tests/api/convert-post.test.ts).
-    expect(screen.getByTestId("samples-bound").textContent).toMatch(/sqrt_alpha\s*≤\s*4\.07\s*km/);
+    expect(screen.getByTestId("samples-bound").textContent).toMatch(/√α\s*≤\s*4\.07\s*km/);
     expect(screen.getByTestId("samples-count").textContent).toMatch(/200 of 200 samples translated/);
     expect(within(screen.getByTestId("samples-validity")).getAllByText("50%").length).toBeGreaterThan(0);
     const cautions = screen.getByTestId("samples-cautions");

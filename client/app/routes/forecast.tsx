@@ -5,6 +5,7 @@ import { useAuth } from "../../features/auth/components/auth-context.tsx";
 import { forecastKeys, useCurves, useForecast, type JobProgress } from "../../features/forecast/api/forecasts.ts";
 import { CurveUpload } from "../../features/forecast/components/curve-upload.tsx";
 import { ForecastForm, presetState, stateFromRequest, toRequest, type FormState } from "../../features/forecast/components/forecast-form.tsx";
+import { ForecastGrid } from "../../features/forecast/components/forecast-grid.tsx";
 import { BoundPlot, CouplingPlot } from "../../features/forecast/components/forecast-plots.tsx";
 import { ForecastAssumptions, ForecastTable, TranslationTable } from "../../features/forecast/components/forecast-results.tsx";
 import { SaveForecast } from "../../features/forecast/components/save-forecast.tsx";
@@ -82,7 +83,7 @@ export function Component() {
       )}
       {run.isFetching && progress && (
         <div className="flex flex-wrap items-center gap-3 text-sm" data-testid="forecast-job" aria-live="polite">
-          <span>{progress.status === "queued" ? "Waiting for a worker" : "Computing"} (a background job: many values of b)</span>
+          <span>{progress.status === "queued" ? "Waiting for a worker" : "Computing"} (a background job: many values of b or several binaries)</span>
           <progress className="h-3 w-64" max={1} value={progress.progress} aria-label="forecast job progress" data-testid="forecast-job-progress" />
           <Button kind="quiet" onClick={cancel} data-testid="forecast-job-cancel">
             Cancel
@@ -97,13 +98,14 @@ export function Component() {
               The form has changed since this forecast was made: run it again to update the numbers below.
             </p>
           )}
-          <BoundPlot result={run.data} />
-          <ForecastTable result={run.data} />
-          <ForecastAssumptions result={run.data} />
+          <BoundPlot result={run.data.main} />
+          <ForecastTable result={run.data.main} />
+          <ForecastAssumptions result={run.data.main} />
+          {run.data.grid && <ForecastGrid forecasts={run.data.grid} />}
           <h2 className="text-2xl">What it would mean for the theories</h2>
-          <CouplingPlot result={run.data} />
-          <TranslationTable result={run.data} />
-          <SaveForecast result={run.data} />
+          <CouplingPlot result={run.data.main} />
+          <TranslationTable result={run.data.main} />
+          <SaveForecast result={run.data.main} />
         </section>
       )}
     </article>

@@ -21,37 +21,7 @@ export function shortNumber(x: number): string {
   return a < 0.01 || a >= 1e5 ? x.toExponential(3) : String(Number(x.toPrecision(4)));
 }
 
-/**
- * A threshold as people write it: 1/6 rather than 0.16666666666666666, 0.5 rather than 0.5000; a
- * value that is no simple fraction keeps three significant figures.
- */
-export function thresholdText(x: number): string {
-  if (!Number.isFinite(x)) return String(x);
-  if (Number.isInteger(x)) return String(x);
-  for (let d = 2; d <= 12; d++) {
-    const n = Math.round(x * d);
-    if (n !== 0 && Math.abs(x * d - n) < 1e-9 * d && Math.abs(n) < 100) {
-      const g = gcd(Math.abs(n), d);
-      if (g === 1) return d === 2 || d === 4 || d === 5 || d === 10 ? String(Number(x.toPrecision(3))) : `${n}/${d}`;
-    }
-  }
-  return sciText(x, 3);
-}
-
-function gcd(a: number, b: number): number {
-  return b === 0 ? a : gcd(b, a % b);
-}
-
-/** 1.27e-23 → "1.27 × 10⁻²³" (as printed in papers); ordinary magnitudes stay plain. */
-export function sciText(x: number, digits = 3): string {
-  if (x === 0 || !Number.isFinite(x)) return String(x);
-  const a = Math.abs(x);
-  if (a >= 1e-3 && a < 1e5) return String(Number(x.toPrecision(digits)));
-  const [mantissa = "", exponent = "0"] = x.toExponential(digits - 1).split("e");
-  const m = String(Number(mantissa));
-  const e = [...String(Number(exponent))].map((ch) => SUPERSCRIPT[ch] ?? ch).join("");
-  return `${m.replace("-", "−")} × 10${e}`;
-}
+export { sciText, thresholdText } from "../../../common/number-text.ts";
 
 const GREEK: Record<string, string> = {
   alpha: "α", beta: "β", gamma: "γ", delta: "δ", epsilon: "ε", varepsilon: "ε", zeta: "ζ", eta: "η", theta: "θ", kappa: "κ", lambda: "λ", mu: "μ", nu: "ν",

@@ -1,4 +1,6 @@
 import type { QuotedValueDto, ReferenceComparison } from "../../../common/convert.ts";
+import { sciText, unitText } from "../../../common/number-text.ts";
+import { identifierText, symbolText } from "../../../common/symbol-text.ts";
 import { convertQuotedConvention, type QuotedFormName } from "../../physics/quoted-forms.ts";
 
 /**
@@ -65,7 +67,16 @@ export function shortCitation(ref: Pick<CitableReference, "authors" | "year">): 
 }
 
 function fmt(x: number): string {
-  return Number(x.toPrecision(3)).toString();
+  return sciText(x, 3);
+}
+
+/** The bound's quantity as people write it (√α, λ_g), from the LaTeX of our own matching quantity when there is one. */
+function quantityText(forms: TranslatedForms, symbol: string): string {
+  for (const values of forms.byConvention.values()) {
+    const match = values.find((q) => q.symbol === symbol);
+    if (match) return symbolText(symbol, match.latex);
+  }
+  return identifierText(symbol);
 }
 
 export function compareWithBound(forms: TranslatedForms, bound: KnownBound): ReferenceComparison {
@@ -81,10 +92,11 @@ export function compareWithBound(forms: TranslatedForms, bound: KnownBound): Ref
     note: bound.note,
   };
   const credibilityNote = bound.credibility === null ? ", credibility not stated" : `, ${fmt(bound.credibility * 100)}% credibility`;
-  const quoted = (v: number) => `${fmt(v)}${bound.unit && bound.unit !== "1" ? ` ${bound.unit}` : ""}`;
-  const quotedBound = quoted(bound.value);
+  const quoted = (v: number) => `${fmt(v)}${bound.unit && bound.unit !== "1" ? ` ${unitText(bound.unit)}` : ""}`;
+  const quantity = quantityText(forms, bound.symbol);
+  const stated = `${quantity} ${bound.side === "upper" ? "≤" : "≥"} ${quoted(bound.value)}`;
   if (forms.withheld) {
-    return { ...base, ratio: null, verdict: "not_compared", sentence: `not compared with ${citation} (${bound.symbol} ${quotedBound}${credibilityNote}): ${forms.withheld}` };
+    return { ...base, ratio: null, verdict: "not_compared", sentence: `not compared with ${citation} (${stated}${credibilityNote}): ${forms.withheld}` };
   }
   // The published bound restated in the headline's convention, when it names another one.
   let value = bound.value;
@@ -94,7 +106,7 @@ export function compareWithBound(forms: TranslatedForms, bound: KnownBound): Ref
     const f = forms.factors?.get(from);
     const t = forms.factors?.get(forms.shown);
     if (f === undefined || t === undefined || !forms.form || bound.symbol !== forms.primarySymbol) {
-      return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${bound.symbol} ${quotedBound}, convention ${from}${credibilityNote})` };
+      return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${stated}, convention ${from}${credibilityNote})` };
     }
     value = convertQuotedConvention(bound.value, forms.form, f, t);
     restated = ` in convention ${from}, ${quoted(value)} in ${forms.shown}`;
@@ -102,12 +114,12 @@ export function compareWithBound(forms: TranslatedForms, bound: KnownBound): Ref
   const candidates = forms.byConvention.get(forms.shown) ?? [];
   const ours = candidates.find((q) => q.symbol === bound.symbol && q.unit === bound.unit && q.side === bound.side);
   if (!ours || !(ours.value > 0) || !(value > 0)) {
-    return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${bound.symbol} ${quotedBound}${credibilityNote})` };
+    return { ...base, ratio: null, verdict: "incomparable", sentence: `not comparable with ${citation} (${stated}${credibilityNote})` };
   }
   // ratio > 1: ours is tighter. An upper limit is tighter when smaller, a lower limit when larger.
   const ratio = bound.side === "upper" ? value / ours.value : ours.value / value;
   const rel = Math.abs(ratio - 1);
-  const against = `${citation} (${quotedBound}${restated}${credibilityNote})`;
+  const against = `${citation} (${stated}${restated}${credibilityNote})`;
   if (rel < 0.005) return { ...base, ratio, verdict: "equal", sentence: `the same as ${against}` };
   if (ratio > 1) return { ...base, ratio, verdict: "tighter", sentence: `${fmt(ratio)} times tighter than ${against}` };
   return { ...base, ratio, verdict: "weaker", sentence: `${fmt(1 / ratio)} times weaker than ${against}` };

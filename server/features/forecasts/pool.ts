@@ -15,6 +15,8 @@ import type { CatalogueSnapshot } from "../convert/catalogue-snapshot.ts";
 export interface ForecastPoolOptions {
   readonly timeoutMs?: number;
   readonly maxQueue?: number;
+  /** Linux nice value (0-19) the worker thread gives itself, so request threads get the cores first. */
+  readonly nice?: number;
 }
 
 interface Job {
@@ -44,10 +46,12 @@ export class ForecastPool {
   private closed = false;
   private readonly timeoutMs: number;
   private readonly maxQueue: number;
+  private readonly nice: number;
 
   constructor(options: ForecastPoolOptions = {}) {
     this.timeoutMs = options.timeoutMs ?? 30_000;
     this.maxQueue = options.maxQueue ?? 20;
+    this.nice = options.nice ?? 0;
   }
 
   run(request: ForecastRequest, curves: readonly CustomCurveData[], catalogue: CompiledCatalogue | null): Promise<ForecastResponse> {
@@ -74,7 +78,7 @@ export class ForecastPool {
 
   private start(): Promise<void> {
     if (this.ready) return this.ready;
-    const worker = new Worker(WORKER_URL, { resourceLimits: { maxOldGenerationSizeMb: 256 } });
+    const worker = new Worker(WORKER_URL, { resourceLimits: { maxOldGenerationSizeMb: 256 }, workerData: { nice: this.nice } });
     this.worker = worker;
     this.workerRevision = null;
     worker.unref();
@@ -148,9 +152,9 @@ export class ForecastPool {
 
 let shared: ForecastPool | undefined;
 
-/** The process-wide pool (its thread starts on the first forecast and is unref'd). */
-export function getForecastPool(): ForecastPool {
-  if (shared === undefined) shared = new ForecastPool();
+/** The process-wide pool (its thread starts on the first forecast and is unref'd); options apply when it is created. */
+export function getForecastPool(options: ForecastPoolOptions = {}): ForecastPool {
+  if (shared === undefined) shared = new ForecastPool(options);
   return shared;
 }
 

@@ -1,5 +1,7 @@
 import { catalogueVersionText } from "../../../common/catalogue-version.ts";
+import { sciText } from "../../../common/number-text.ts";
 import type { ConsistencyRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
+import { symbolText } from "../../../common/symbol-text.ts";
 import { boundIndex, bytesText, columnsText, exportLines, failedConditions, priorText } from "./export-rows.ts";
 
 /**
@@ -7,6 +9,8 @@ import { boundIndex, bytesText, columnsText, exportLines, failedConditions, prio
  * break). Text cells that a spreadsheet would run as a formula (=, +, -, @ first) get a leading
  * apostrophe; numbers are written as numbers, so a negative b stays a number. One line per limit of a
  * translation, per samples or stacking result, and per consistency result; `kind` says which.
+ * `symbol` is the coupling as a physicist writes it (√α, λ_g); `coupling_id` is the identifier of the
+ * same quantity, for scripts.
  */
 type Cell = string | number | boolean | null;
 
@@ -38,6 +42,7 @@ export const CSV_COLUMNS = [
   "status",
   "convention",
   "symbol",
+  "coupling_id",
   "side",
   "value",
   "unit",
@@ -109,11 +114,12 @@ const fileCell = (f: { name: string; bytes: number; sha256: string | null }) => 
 /** The coupling cells of a samples or stacking result: a bound, or a signed interval written out in `also`. */
 function couplingCells(c: SamplesJobRecord["result"]["coupling"]): Row {
   return {
-    symbol: c.symbol,
+    symbol: symbolText(c.symbol, c.latex),
+    coupling_id: c.symbol,
     side: c.side,
     value: c.value ?? null,
     unit: c.unit,
-    also: c.signed_interval ? `${c.signed_interval[0]} <= ${c.symbol} <= ${c.signed_interval[1]} ${c.unit}` : "",
+    also: c.signed_interval ? `${sciText(c.signed_interval[0], 4)} ≤ ${symbolText(c.symbol, c.latex)} ≤ ${sciText(c.signed_interval[1], 4)} ${c.unit}` : "",
   };
 }
 
@@ -225,11 +231,12 @@ export function sheetToCsv(sheet: Sheet): string {
           theory: x.theory,
           status: "bounded",
           convention: x.convention,
-          symbol: x.coupling.symbol,
+          symbol: symbolText(x.coupling.symbol, x.coupling.latex),
+          coupling_id: x.coupling.symbol,
           side: x.coupling.side,
           value: x.coupling.value,
           unit: x.coupling.unit,
-          also: x.also.map((a) => `${a.symbol} ${a.side === "upper" ? "<=" : ">="} ${a.value} ${a.unit}`).join("; "),
+          also: x.also.map((a) => `${symbolText(a.symbol, a.latex)} ${a.side === "upper" ? "≤" : "≥"} ${sciText(a.value, 4)} ${a.unit}`).join("; "),
           valid: x.valid,
           verdict: x.verdict,
           failed_conditions: failedConditions(x).join("; "),

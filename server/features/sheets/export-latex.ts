@@ -1,8 +1,11 @@
 import type { ConvertResult } from "../../../common/convert.ts";
+import { shortTheoryName } from "../../../common/theory-name.ts";
 import type { ConsistencyRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
 import { unitLatex } from "../../physics/latex-format.ts";
 import { exportLines, priorText } from "./export-rows.ts";
 import { fileStem } from "./export-stem.ts";
+
+export { shortTheoryName };
 
 /**
  * A LaTeX table that drops into a paper set in one or two columns: a `tabularx` as wide as the
@@ -66,25 +69,6 @@ const VERDICT_LEGEND: Record<LimitVerdict, string> = {
   not_valid: "a validity condition fails at the limit, so the limit is outside validity",
   not_assessed: "the entry states no validity condition for this binary: validity not assessed",
 };
-
-// Words that keep a lower-case initial in a theory's abbreviation (dynamical Chern-Simons -> dCS).
-const LOWER_INITIAL = new Set(["dynamical", "dilaton"]);
-
-/**
- * A short name for a table cell: the qualifier after a parenthesis or colon dropped, and the trade's
- * abbreviation when the theory's slug is the initials of its name (edgb -> EdGB, dcs -> dCS).
- */
-export function shortTheoryName(name: string, slug: string): string {
-  const base = name.replace(/\s*[(:].*$/, "").trim() || name;
-  const words = base.split(/[\s-]+/).filter(Boolean);
-  const initials = words.map((w) => (LOWER_INITIAL.has(w.toLowerCase()) ? w[0]!.toLowerCase() : w[0]!));
-  const compact = slug.replace(/-/g, "");
-  if (compact.length >= 2 && compact.length <= 5 && compact.length < words.length + 1) {
-    const acronym = initials.slice(0, compact.length).join("");
-    if (acronym.toLowerCase() === compact) return acronym;
-  }
-  return base;
-}
 
 function percent(c: number): string {
   return `${Number((c * 100).toPrecision(4))}\\%`;

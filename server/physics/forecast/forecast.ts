@@ -391,7 +391,8 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
       );
     }
     if (split.length > 0) {
-      cautions.push(`each detector has its own ${split.length === 1 ? "coalescence phase" : "coalescence phase and time"} (not phase-coherent): ${net.length - 1} × ${split.length} more parameter(s) marginalised`);
+      const extra = (net.length - 1) * split.length;
+      cautions.push(`each detector has its own ${split.length === 1 ? "coalescence phase" : "coalescence phase and time"} (not phase-coherent): ${extra} more parameter${extra === 1 ? "" : "s"} marginalised`);
     }
     if (net.some((d) => bands[d]!.extrapolated)) cautions.push("TaylorF2 is extrapolated past the ISCO in this network: the numbers lean on an inspiral model beyond its range");
     const size = N_PARAMS + split.length * (net.length - 1);

@@ -45,7 +45,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
         <h3 className="text-lg">{kindLabel[m.kind]}</h3>
         {exponent && <MathTex tex={exponent} />}
         {m.pn_order !== null && <span className="text-sm text-ink-soft tabular-nums">{pnLabel(m.pn_order)}</span>}
-        <span className="ml-auto flex gap-2">
+        <span className="ml-auto flex min-w-0 flex-wrap gap-2">
           {m.retired && <RetiredBadge retired={m.retired} />}
           <SourceStatusBadge status={m.source_to_be_confirmed ? "memory" : m.source_status} />
           <CheckBadge outcome={outcome} title={`${all.length} engine checks`} />

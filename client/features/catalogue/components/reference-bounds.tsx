@@ -31,7 +31,7 @@ export function ReferenceBounds({ bounds }: { bounds: Bound[] }) {
               <td className="px-3 py-2 text-right whitespace-nowrap">
                 {b.side === "upper" ? "<" : ">"} {sciText(b.value)} {unitLabel(b.unit)}
               </td>
-              <td className="px-3 py-2">
+              <td className="px-3 py-2 whitespace-nowrap">
                 {b.credibility !== null ? (
                   `${Math.round(b.credibility * 100)} %`
                 ) : (
@@ -40,11 +40,12 @@ export function ReferenceBounds({ bounds }: { bounds: Bound[] }) {
                   </span>
                 )}
               </td>
-              <td className="px-3 py-2">
+              {/* A floor under the data column: on a phone the table scrolls sideways instead of squeezing a long note into a sliver. */}
+              <td className="min-w-80 px-3 py-2">
                 {b.data ?? (b.note ? null : "—")}
                 {b.note && <span className={b.data ? "block text-sm text-ink-soft" : "text-sm"}>{b.note}</span>}
               </td>
-              <td className="px-3 py-2">
+              <td className="min-w-48 px-3 py-2">
                 {authorList(b.reference.authors, 2)} {b.reference.year}
                 {b.source_status === "memory" && (
                   <Badge tone="caution" className="ml-2">

@@ -6,9 +6,9 @@ import {
   forecastGridResultSchema,
   forecastResponseSchema,
   type CurveConventionDto,
-  type ForecastRequestInput,
   type ForecastResponse,
 } from "../../../../common/forecasts.ts";
+import type { PageForecastInput } from "../lib/forecast-url.ts";
 import { jobCreatedSchema, jobViewSchema } from "../../../../common/jobs.ts";
 import { apiRequest } from "../../../lib/api-client.ts";
 import { apiPaths } from "../../../lib/paths.ts";
@@ -48,16 +48,16 @@ const sleep = (ms: number, signal: AbortSignal) =>
  * More values of b than one request takes go to the job queue: start the job, follow it until it is
  * done, and answer its forecast. Leaving (or cancelling) aborts the signal, which cancels the job.
  */
-async function runForecastJob(input: ForecastRequestInput, signal: AbortSignal, onProgress: (p: JobProgress) => void): Promise<ForecastResponse> {
-  const { source, ...settings } = input;
-  const created = await apiRequest(apiPaths.forecastJob(), jobCreatedSchema, { method: "POST", body: { ...settings, sources: [source] }, signal });
+async function runForecastJob(input: PageForecastInput, signal: AbortSignal, onProgress: (p: JobProgress) => void): Promise<ForecastRun> {
+  const { source, more_sources: more, ...settings } = input;
+  const created = await apiRequest(apiPaths.forecastJob(), jobCreatedSchema, { method: "POST", body: { ...settings, sources: [source, ...(more ?? [])] }, signal });
   const id = created.job.id;
   try {
     for (;;) {
       const view = await apiRequest(apiPaths.job(id), jobViewSchema, { signal });
       if (view.status === "done") {
         const grid = forecastGridResultSchema.parse(view.result);
-        return grid.forecasts[0]!;
+        return { main: grid.forecasts[0]!, grid: grid.forecasts.length > 1 ? grid.forecasts : null };
       }
       if (view.status === "failed") throw new Error(view.error?.message ?? "the forecast job failed");
       if (view.status === "cancelled") throw new Error("the forecast job was cancelled");
@@ -75,7 +75,13 @@ async function runForecastJob(input: ForecastRequestInput, signal: AbortSignal, 
  * forward show their own result), never retried and never refetched on its own, since each run spends
  * the translator's budget.
  */
-export function useForecast(url: { input: ForecastRequestInput; text: string; job: boolean } | undefined, onProgress: (p: JobProgress | null) => void) {
+/** The first binary's forecast, and every binary's when the request was a grid. */
+export interface ForecastRun {
+  main: ForecastResponse;
+  grid: ForecastResponse[] | null;
+}
+
+export function useForecast(url: { input: PageForecastInput; text: string; job: boolean } | undefined, onProgress: (p: JobProgress | null) => void) {
   // The request's text identifies it (input and job follow from it); progress is a side channel.
   // eslint-disable-next-line @tanstack/query/exhaustive-deps
   return useQuery({
@@ -84,7 +90,8 @@ export function useForecast(url: { input: ForecastRequestInput; text: string; jo
       ? async ({ signal }) => {
           try {
             if (url.job) return await runForecastJob(url.input, signal, onProgress);
-            return await apiRequest(apiPaths.forecasts(), forecastResponseSchema, { method: "POST", body: url.input, signal });
+            const { more_sources: _none, ...single } = url.input;
+            return { main: await apiRequest(apiPaths.forecasts(), forecastResponseSchema, { method: "POST", body: single, signal }), grid: null };
           } finally {
             onProgress(null);
           }

@@ -1,7 +1,7 @@
 import { Button } from "../../../components/ui/button.tsx";
 import { downloadSvg, svgOf, type PlotModule } from "../../../lib/plot.ts";
 import { usePlot } from "../../../lib/use-plot.ts";
-import { downloadPng } from "../lib/png.ts";
+import { downloadPng } from "../../../lib/png.ts";
 
 interface Props {
   build: (Plot: PlotModule) => Element;

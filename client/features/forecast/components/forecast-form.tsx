@@ -1,7 +1,8 @@
 import { useState, type FormEvent } from "react";
-import { COALESCENCE_OPTIONS, MAX_FORECAST_B, type CurveInfoDto, type ForecastRequest, type ForecastRequestInput } from "../../../../common/forecasts.ts";
+import { COALESCENCE_OPTIONS, MAX_FORECAST_B, type CurveInfoDto } from "../../../../common/forecasts.ts";
+import type { PageForecast, PageForecastInput } from "../lib/forecast-url.ts";
 import { Button } from "../../../components/ui/button.tsx";
-import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
+import { Field, Select, TextArea, TextInput } from "../../../components/ui/field.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 
 interface DetectorRow {
@@ -32,6 +33,8 @@ export interface FormState {
   sides: "two" | "one";
   upper_cut: "isco" | "merger_extrapolated";
   coalescence: Coalescence;
+  /** More binaries for a grid, one "m1, m2" per line (same spins and distance as the first). */
+  more: string;
 }
 
 type Coalescence = (typeof COALESCENCE_OPTIONS)[number];
@@ -64,6 +67,7 @@ export function presetState(id: string, base?: FormState): FormState {
     sides: "two",
     upper_cut: "isco",
     coalescence: "shared",
+    more: "",
     ...(base ?? {}),
     detectors,
     networks: preset.networks.map((n) => n.map((i) => detectors[i]!.key)),
@@ -74,10 +78,20 @@ const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
 const prior = (s: string) => (s.trim() === "" || s.trim().toLowerCase() === "none" ? null : Number(s));
 
 /** The request as the API takes it; numbers the user left blank are left out (server defaults). */
-export function toRequest(s: FormState): ForecastRequestInput {
+export function toRequest(s: FormState): PageForecastInput {
   const index = new Map(s.detectors.map((d, i) => [d.key, i]));
+  const source = { m1: Number(s.m1), m2: Number(s.m2), chi1: Number(s.chi1 || 0), chi2: Number(s.chi2 || 0), frame: "source" as const, [s.distanceKind]: Number(s.distance) };
+  const more = s.more
+    .split(/\n/)
+    .map((l) => l.trim())
+    .filter(Boolean)
+    .map((l) => {
+      const [a = "", b = ""] = l.split(/[\s,;]+/);
+      return { ...source, m1: Number(a), m2: Number(b) };
+    });
   return {
-    source: { m1: Number(s.m1), m2: Number(s.m2), chi1: Number(s.chi1 || 0), chi2: Number(s.chi2 || 0), frame: "source", [s.distanceKind]: Number(s.distance) },
+    source,
+    ...(more.length > 0 ? { more_sources: more } : {}),
     detectors: s.detectors.map((d) => ({
       curve: d.curve,
       ...(d.label.trim() ? { label: d.label.trim() } : {}),
@@ -102,7 +116,7 @@ export function toRequest(s: FormState): ForecastRequestInput {
 const text = (v: number | undefined | null) => (v === undefined || v === null ? "" : String(v));
 
 /** The form showing a request (from a link): the inverse of toRequest. */
-export function stateFromRequest(r: ForecastRequest): FormState {
+export function stateFromRequest(r: PageForecast): FormState {
   const detectors = r.detectors.map((d): DetectorRow => ({
     ...row(d.curve),
     label: d.label ?? "",
@@ -130,6 +144,7 @@ export function stateFromRequest(r: ForecastRequest): FormState {
     sides: r.sides,
     upper_cut: r.upper_cut,
     coalescence: r.coalescence,
+    more: (r.more_sources ?? []).map((x) => `${x.m1}, ${x.m2}`).join("\n"),
   };
 }
 
@@ -199,6 +214,16 @@ export function ForecastForm({ state, onChange, onSubmit, busy, error, localErro
         </Field>
         <Field label={state.distanceKind === "z" ? "z" : "D_L [Mpc]"} error={err(`source.${state.distanceKind}`)}>
           {(c) => <TextInput {...c} inputMode="decimal" value={state.distance} onChange={(e) => set({ distance: e.target.value })} />}
+        </Field>
+        <Field
+          label="More binaries for a grid (m₁, m₂ per line)"
+          className="col-span-2 md:col-span-6"
+          error={Object.entries(fields).find(([k]) => k.startsWith("more_sources"))?.[1] ?? Object.entries(fields).find(([k]) => /^sources\.[1-9]/.test(k))?.[1]}
+          hint="Optional. Same spins and distance as above; with more binaries the forecast runs as a background job and a table compares them."
+        >
+          {(c) => (
+            <TextArea {...c} rows={2} value={state.more} onChange={(e) => set({ more: e.target.value })} placeholder={"10, 10\n60, 50"} data-testid="forecast-more-sources" />
+          )}
         </Field>
       </fieldset>
 

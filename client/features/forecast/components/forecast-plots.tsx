@@ -127,6 +127,14 @@ export function couplingPoints(result: ForecastResponse): CouplingPoint[] {
   return out;
 }
 
+/** "Einstein-dilaton-Gauss-Bonnet gravity (linear, shift-symmetric coupling) (b = -7)" → "Einstein-dilaton-Gauss-Bonnet gr… (b = -7)". */
+export function shortTheory(label: string): string {
+  const m = /^(.*?)( \(b = [^)]*\))$/.exec(label);
+  const [name, b] = m ? [m[1]!, m[2]!] : [label, ""];
+  const room = 34;
+  return name.length <= room ? label : `${name.slice(0, room - 1).trimEnd()}…${b}`;
+}
+
 export function CouplingPlot({ result }: { result: ForecastResponse }) {
   const build = useCallback(
     (Plot: PlotModule) => {
@@ -140,7 +148,8 @@ export function CouplingPlot({ result }: { result: ForecastResponse }) {
         marginBottom: legendMargin(names.length),
         style: FONT,
         x: { type: "log", domain: xs.length ? [Math.min(1, ...xs) / 10, Math.max(1, ...xs) * 10] : [1e-3, 1e3], label: "forecast limit relative to the tightest published bound (> 1: tighter)", labelAnchor: "center", grid: true, tickFormat: decadeLabel },
-        y: { label: null },
+        // Long theory names would run past the left edge: shortened at the end, the b kept.
+        y: { label: null, tickFormat: shortTheory },
         color: { domain: names, range: NETWORK_COLOURS.slice(0, names.length) },
         marks: [
           ...legendMarks(Plot, names),

@@ -1,4 +1,13 @@
-import { forecastGridRequestSchema, forecastRequestSchema, MAX_FORECAST_B, type ForecastRequest, type ForecastRequestInput } from "../../../../common/forecasts.ts";
+import { z } from "zod";
+import {
+  forecastGridRequestSchema,
+  forecastRequestSchema,
+  forecastSourceSchema,
+  MAX_FORECAST_B,
+  MAX_GRID_SOURCES,
+  type ForecastRequest,
+  type ForecastRequestInput,
+} from "../../../../common/forecasts.ts";
 
 /**
  * A forecast's inputs in the page address (?q=<the request as JSON>), as the translate page keeps its
@@ -8,12 +17,20 @@ import { forecastGridRequestSchema, forecastRequestSchema, MAX_FORECAST_B, type 
  */
 export const FORECAST_PARAM = "q";
 
-// Up to MAX_GRID_B values of b: past MAX_FORECAST_B the page sends the forecast as a job.
-const linkSchema = forecastRequestSchema.extend({ b: forecastGridRequestSchema.shape.b });
+// Up to MAX_GRID_B values of b, and more binaries beside the first (the page's own field, never sent
+// as such): past MAX_FORECAST_B values of b, or with more binaries, the page sends a grid job.
+const linkSchema = forecastRequestSchema.extend({
+  b: forecastGridRequestSchema.shape.b,
+  more_sources: z.array(forecastSourceSchema).max(MAX_GRID_SOURCES - 1, `at most ${MAX_GRID_SOURCES - 1} more binaries`).optional(),
+});
+
+/** What the page keeps in the address: a forecast request, with more binaries for a grid. */
+export type PageForecastInput = ForecastRequestInput & { more_sources?: ForecastRequestInput["source"][] };
+export type PageForecast = ForecastRequest & { more_sources?: ForecastRequest["source"][] };
 
 export type UrlForecast =
   | { kind: "none" }
-  | { kind: "ok"; request: ForecastRequest; input: ForecastRequestInput; text: string }
+  | { kind: "ok"; request: PageForecast; input: PageForecastInput; text: string }
   | { kind: "bad"; message: string };
 
 export function readForecastParam(text: string | null): UrlForecast {
@@ -29,11 +46,11 @@ export function readForecastParam(text: string | null): UrlForecast {
     const issue = parsed.error.issues[0];
     return { kind: "bad", message: issue ? `${issue.path.join(".") || "request"}: ${issue.message}` : "the link's inputs are not a valid forecast" };
   }
-  return { kind: "ok", request: parsed.data, input: json as ForecastRequestInput, text };
+  return { kind: "ok", request: parsed.data, input: json as PageForecastInput, text };
 }
 
 /** Field errors of a request the form built, keyed like the server's (detectors.0.f_low), or null when it is valid. */
-export function requestFieldErrors(input: ForecastRequestInput): Record<string, string> | null {
+export function requestFieldErrors(input: PageForecastInput): Record<string, string> | null {
   const parsed = linkSchema.safeParse(input);
   if (parsed.success) return null;
   const fields: Record<string, string> = {};
@@ -44,5 +61,5 @@ export function requestFieldErrors(input: ForecastRequestInput): Record<string, 
   return fields;
 }
 
-/** More values of b than one request takes: the forecast runs as a background job. */
-export const runsAsJob = (request: Pick<ForecastRequest, "b">) => request.b.length > MAX_FORECAST_B;
+/** More values of b than one request takes, or several binaries: the forecast runs as a background job. */
+export const runsAsJob = (request: Pick<PageForecast, "b" | "more_sources">) => request.b.length > MAX_FORECAST_B || (request.more_sources?.length ?? 0) > 0;

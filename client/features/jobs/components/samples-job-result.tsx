@@ -1,4 +1,5 @@
 import { useCallback } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesJobResult } from "../../../../common/jobs.ts";
 import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 import type { PlotModule } from "../../../lib/plot.ts";
@@ -27,7 +28,7 @@ function CouplingHistogram({ data }: { data: SamplesJobResult }) {
         height: 240,
         marginLeft: 50,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
-        x: { type: log ? "log" : "linear", label: `${data.coupling.symbol}${unit ? ` (${unit})` : ""} →`, ...(wide ? { tickFormat: decadeLabel } : { ticks: 4, tickFormat: (d: number) => formatPlain(d, 2) }) },
+        x: { type: log ? "log" : "linear", label: `${symbolText(data.coupling.symbol, data.coupling.latex)}${unit ? ` (${unit})` : ""} →`, ...(wide ? { tickFormat: decadeLabel } : { ticks: 4, tickFormat: (d: number) => formatPlain(d, 2) }) },
         y: { label: "↑ posterior mass", grid: true },
         marks: [
           Plot.rectY(bins, { x1: "x1", x2: "x2", y: "mass", fill: SEA, fillOpacity: 0.55, inset: 0.5 }),
@@ -41,7 +42,7 @@ function CouplingHistogram({ data }: { data: SamplesJobResult }) {
   return (
     <PlotFigure
       build={build}
-      title={`${data.theory_name}: posterior of ${data.coupling.symbol}`}
+      title={`${data.theory_name}: posterior of ${symbolText(data.coupling.symbol, data.coupling.latex)}`}
       filename={`${data.theory}-${data.coupling.symbol}-posterior`}
       testId="job-histogram"
       caption={`The coupling's posterior under the ${data.prior.kind.replace("_", " ")} prior (weighted); brick: the ${pct(data.credibility)} ${data.coupling.side === "interval" ? "interval" : `${data.coupling.side} bound`}.`}
@@ -62,11 +63,11 @@ export function SamplesJobResultView({ id, data }: { id: string; data: SamplesJo
           <p className="mt-1 text-2xl" data-testid="job-bound">
             {c.signed_interval ? (
               <>
-                {c.symbol} ∈ [<SciNumber value={c.signed_interval[0]} />, <SciNumber value={c.signed_interval[1]} />] {unit}
+                {symbolText(c.symbol, c.latex)} ∈ [<SciNumber value={c.signed_interval[0]} />, <SciNumber value={c.signed_interval[1]} />] {unit}
               </>
             ) : (
               <>
-                {c.symbol} {c.side === "upper" ? "≤" : "≥"} <SciNumber value={c.value ?? Number.NaN} className="font-semibold" /> {unit}
+                {symbolText(c.symbol, c.latex)} {c.side === "upper" ? "≤" : "≥"} <SciNumber value={c.value ?? Number.NaN} className="font-semibold" /> {unit}
               </>
             )}
           </p>

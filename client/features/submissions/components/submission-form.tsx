@@ -55,7 +55,9 @@ export function SubmissionForm(props: SubmissionFormProps) {
   const [unplaced, setUnplaced] = useState<UnplacedError[]>([]);
   const [conflict, setConflict] = useState<number | undefined>();
   const [stash, setStash] = useState<SubmissionFormInput | undefined>();
-  const [notice, setNotice] = useState<string | undefined>();
+  // A "saved" notice describes the form as it was saved, so it goes once the form is edited again;
+  // other notices (a loaded version, edits brought back, a refused save) stay until the next action.
+  const [notice, setNotice] = useState<{ text: string; untilEdited: boolean } | undefined>();
   const [failure, setFailure] = useState<unknown>();
 
   async function persist(values: SubmissionFormOutput, opts: { overVersion?: number; announceCreated?: boolean } = {}): Promise<number | undefined> {
@@ -70,7 +72,7 @@ export function SubmissionForm(props: SubmissionFormProps) {
       setConflict(undefined);
       // The saved values become the new baseline, so "unsaved changes" means changes since this save.
       form.reset(form.getValues(), { keepValues: true });
-      setNotice(`Saved as version ${saved.version}.`);
+      setNotice({ text: `Saved as version ${saved.version}.`, untilEdited: true });
       if (id === undefined && opts.announceCreated !== false) props.onCreated?.(saved.id);
       return saved.id;
     } catch (err) {
@@ -85,7 +87,9 @@ export function SubmissionForm(props: SubmissionFormProps) {
     }
   }
 
-  const onSave = form.handleSubmit((values) => persist(values));
+  // Refused before sending (the summary at the top lists why): say so, instead of leaving an older "saved" notice up.
+  const onInvalid = () => setNotice({ text: "Not saved: fix the problems listed at the top of the form.", untilEdited: false });
+  const onSave = form.handleSubmit((values) => persist(values), onInvalid);
   const onSubmitForReview = form.handleSubmit(async (values) => {
     // An unchanged, already saved submission is sent as it is: saving again would only bump its version.
     const saved = id !== undefined && !form.formState.isDirty ? id : await persist(values, { announceCreated: false });
@@ -96,7 +100,7 @@ export function SubmissionForm(props: SubmissionFormProps) {
     } catch (err) {
       setFailure(err);
     }
-  });
+  }, onInvalid);
 
   async function loadNewer() {
     if (id === undefined) return;
@@ -106,11 +110,12 @@ export function SubmissionForm(props: SubmissionFormProps) {
     setVersion(fresh.version);
     setChecks(fresh.checks);
     setConflict(undefined);
-    setNotice(`Loaded version ${fresh.version}. Your edits are kept: you can bring them back.`);
+    setNotice({ text: `Loaded version ${fresh.version}. Your edits are kept: you can bring them back.`, untilEdited: false });
   }
 
   const clientErrors = flattenErrors(form.formState.errors);
   const allErrors = [...clientErrors, ...unplaced.filter((u) => !clientErrors.some((c) => c.path === u.path))];
+  const dirty = form.formState.isDirty;
   const busy = save.isPending || submit.isPending || form.formState.isSubmitting;
 
   return (
@@ -163,8 +168,8 @@ export function SubmissionForm(props: SubmissionFormProps) {
             <span className="text-sm text-ink-soft tabular-nums" data-testid="form-status" role="status">
               {id !== undefined ? `Submission ${id}, version ${version ?? "?"}` : "Not saved yet"}
               {props.status ? ` · ${statusLabel(props.status)}` : ""}
-              {form.formState.isDirty ? " · unsaved changes" : ""}
-              {notice ? ` · ${notice}` : ""}
+              {dirty ? " · unsaved changes" : ""}
+              {notice && !(notice.untilEdited && dirty) ? ` · ${notice.text}` : ""}
             </span>
             {stash && (
               <Button
@@ -172,7 +177,7 @@ export function SubmissionForm(props: SubmissionFormProps) {
                 onClick={() => {
                   form.reset(stash, { keepDefaultValues: true });
                   setStash(undefined);
-                  setNotice(`Your edits are back, on top of version ${version ?? "?"}; saving now replaces that version.`);
+                  setNotice({ text: `Your edits are back, on top of version ${version ?? "?"}; saving now replaces that version.`, untilEdited: false });
                 }}
               >
                 Bring back my edits

@@ -1,7 +1,8 @@
 import { useCallback } from "react";
 import type { PlotModule } from "../../../lib/plot.ts";
 import type { ConvertResult, QuotedValueDto } from "../../../../common/convert.ts";
-import { PlotFigure } from "./plot-figure.tsx";
+import { symbolText } from "../../../../common/symbol-text.ts";
+import { PlotFigure, type LegendEntry } from "./plot-figure.tsx";
 import { decadeLabel, formatPlain, unitText } from "./sci-number.tsx";
 
 interface Row {
@@ -22,9 +23,28 @@ export function comparableQuantity(result: ConvertResult): { quantity: QuotedVal
   for (const quantity of forms) {
     const refs = result.reference_bounds.filter((c) => c.ratio !== null && c.value > 0 && c.symbol === quantity.symbol && c.unit === quantity.unit && c.side === quantity.side);
     if (refs.length === 0) continue;
-    return { quantity, rows: [{ label: "this bound", value: quantity.value, ours: true }, ...refs.map((c) => ({ label: c.reference.citation, value: c.value, ours: false }))] };
+    return { quantity, rows: [{ label: ourLabel(result), value: quantity.value, ours: true }, ...refs.map((c) => ({ label: `◆ ${c.reference.citation}`, value: c.value, ours: false }))] };
   }
   return undefined;
+}
+
+/** Published bounds are compared only with a valid limit; a stretched rule of thumb is said beside it. */
+function stretched(result: ConvertResult): boolean {
+  return result.validity.some((v) => v.status === "stretched");
+}
+
+function ourLabel(result: ConvertResult): string {
+  return stretched(result) ? "✓ this translation (stretched)" : "✓ this translation";
+}
+
+function legendFor(result: ConvertResult): LegendEntry[] {
+  return [
+    stretched(result)
+      ? { mark: "✓", color: SEA, label: "this translation: valid, but a rule-of-thumb condition is exceeded (by at most 10 times) at the limit" }
+      : { mark: "✓", color: SEA, label: "this translation: every validity condition holds at the limit" },
+    { mark: "◆", color: AMBER, label: "published bound on the same quantity, from the catalogue" },
+    { mark: "▬", color: "#5a6467", label: "shaded bar: the side each limit allows" },
+  ];
 }
 
 export function CouplingPlot({ result }: { result: ConvertResult }) {
@@ -38,12 +58,13 @@ export function CouplingPlot({ result }: { result: ConvertResult }) {
       const hi = Math.max(...values) * 10;
       const upper = quantity.side === "upper";
       const unit = unitText(quantity.unit);
+      const symbol = symbolText(quantity.symbol, quantity.latex);
       return Plot.plot({
         width: 560,
         height: 50 + 34 * rows.length,
-        marginLeft: 170,
+        marginLeft: 200,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
-        x: { type: "log", domain: [lo, hi], label: `${quantity.symbol}${unit ? ` (${unit})` : ""} →`, grid: true, tickFormat: decadeLabel },
+        x: { type: "log", domain: [lo, hi], label: `${symbol}${unit ? ` (${unit})` : ""} →`, grid: true, tickFormat: decadeLabel },
         y: { label: null, domain: rows.map((r) => r.label) },
         marks: [
           Plot.ruleY(rows, {
@@ -54,7 +75,9 @@ export function CouplingPlot({ result }: { result: ConvertResult }) {
             strokeWidth: 6,
             strokeOpacity: 0.25,
           }),
-          Plot.dot(rows, { y: "label", x: "value", r: 5, fill: (r: Row) => (r.ours ? SEA : AMBER), title: (r: Row) => `${r.label}: ${formatPlain(r.value)} ${unit}` }),
+          // Ours a circle, published bounds diamonds: told apart by shape, not colour alone.
+          Plot.dot(rows.filter((r) => r.ours), { y: "label", x: "value", r: 5, fill: SEA, title: (r: Row) => `${r.label}: ${formatPlain(r.value)} ${unit}` }),
+          Plot.dot(rows.filter((r) => !r.ours), { y: "label", x: "value", r: 6, symbol: "diamond", fill: AMBER, title: (r: Row) => `${r.label}: ${formatPlain(r.value)} ${unit}` }),
           Plot.text(rows, { y: "label", x: "value", text: (r: Row) => formatPlain(r.value), dy: -10, fontSize: 10 }),
         ],
       });
@@ -65,10 +88,11 @@ export function CouplingPlot({ result }: { result: ConvertResult }) {
   return (
     <PlotFigure
       build={build}
-      title={`${result.theory_name}: ${quantity.side === "upper" ? "upper" : "lower"} limits on ${quantity.symbol}`}
+      title={`${result.theory_name}: ${quantity.side === "upper" ? "upper" : "lower"} limits on ${symbolText(quantity.symbol, quantity.latex)}${result.convention !== "canonical" ? ` (convention ${result.convention})` : ""}`}
       filename={`${result.theory}-${quantity.symbol}-limits`}
       testId={`coupling-plot-${result.theory}`}
-      caption="Shaded: the side each limit allows. Sea: this translation; amber: published bounds in the catalogue."
+      legend={legendFor(result)}
+      caption="Only limits valid at this bound are plotted against published bounds."
     />
   );
 }

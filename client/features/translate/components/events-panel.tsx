@@ -1,4 +1,5 @@
 import { useState } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import { boundShapeLabel, toShape, type BoundShape } from "./bound-form.tsx";
 import { VerdictBadge } from "./results-table.tsx";
 import { eventsRequestSchema, MAX_EVENTS, type EventsRequest, type EventsResponse } from "../../../../common/convert-samples.ts";
@@ -226,7 +227,7 @@ export function EventsResult({ data }: { data: EventsResponse }) {
           <caption className="sr-only">Each event's limit and the combined limit</caption>
           <thead className="bg-paper-deep text-left text-sm">
             <tr>
-              {["Event", `${data.coupling.symbol} limit`, "Validity", "Note"].map((h) => (
+              {["Event", `${symbolText(data.coupling.symbol, data.coupling.latex)} limit`, "Validity", "Note"].map((h) => (
                 <th key={h} scope="col" className="border-b border-paper-edge px-3 py-2 font-semibold">
                   {h}
                 </th>

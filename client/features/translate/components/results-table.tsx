@@ -1,4 +1,5 @@
 import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import { useMemo, useState } from "react";
 import type { ConvertResult, ReferenceComparison } from "../../../../common/convert.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -27,7 +28,7 @@ function SignedInterval({ r, id }: { r: ConvertResult; id: string }) {
   if (!s) return null;
   return (
     <span className="whitespace-nowrap text-sm" data-testid={`signed-${id}`}>
-      signed: <MathTex tex={s.latex} label={s.symbol} /> ∈ [{s.lower === null ? "−∞" : <SciNumber value={s.lower} />}, {s.upper === null ? "+∞" : <SciNumber value={s.upper} />}]{" "}
+      signed: <MathTex tex={s.latex} label={symbolText(s.symbol, s.latex)} /> ∈ [{s.lower === null ? "−∞" : <SciNumber value={s.lower} />}, {s.upper === null ? "+∞" : <SciNumber value={s.upper} />}]{" "}
       {unitText(s.unit)}
     </span>
   );
@@ -39,12 +40,12 @@ function Limit({ r, id }: { r: ConvertResult; id: string }) {
     <div className="flex min-w-[17rem] max-w-[22rem] flex-col gap-1">
       {r.signed_interval && <SignedInterval r={r} id={id} />}
       <span className="whitespace-nowrap" data-testid={`limit-${id}`}>
-        <MathTex tex={r.coupling.latex} label={r.coupling.symbol} /> {rel(r.coupling.side)} <SciNumber value={r.coupling.value} className="font-semibold" />{" "}
+        <MathTex tex={r.coupling.latex} label={symbolText(r.coupling.symbol, r.coupling.latex)} /> {rel(r.coupling.side)} <SciNumber value={r.coupling.value} className="font-semibold" />{" "}
         {unitText(r.coupling.unit)}
       </span>
       {r.also.map((a) => (
         <span key={a.symbol} className="whitespace-nowrap text-sm text-ink-soft" data-testid={`also-${id}-${a.symbol}`}>
-          <MathTex tex={a.latex} label={a.symbol} /> {rel(a.side)} <SciNumber value={a.value} /> {unitText(a.unit)}
+          <MathTex tex={a.latex} label={symbolText(a.symbol, a.latex)} /> {rel(a.side)} <SciNumber value={a.value} /> {unitText(a.unit)}
         </span>
       ))}
       <Comparison r={r} id={id} />
@@ -117,7 +118,7 @@ export function ResultsTable({ results, onConvention }: Props) {
           return (
             <div className="flex min-w-[8rem] max-w-[11rem] flex-col gap-1">
               <span className="font-semibold">{r.theory_name}</span>
-              {multi.has(r.theory) && <span className="text-xs text-ink-soft">coupling {r.coupling_symbol} (one row per coupling)</span>}
+              {multi.has(r.theory) && <span className="text-xs text-ink-soft">coupling {symbolText(r.canonical.symbol, r.canonical.latex)} (one row per coupling)</span>}
               {r.conventions_available.length > 1 ? (
                 <label className="text-xs text-ink-soft">
                   convention{" "}

@@ -1,4 +1,5 @@
 import { useCallback } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesResponse } from "../../../../common/convert-samples.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { PlotFigure } from "./plot-figure.tsx";
@@ -32,7 +33,7 @@ export function SamplesHistogram({ data }: { data: SamplesResponse }) {
         marginLeft: 50,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
         // Within less than two decades powers of ten give too few labels: plain numbers instead.
-        x: { type: "log", label: `${data.coupling.symbol}${unit ? ` (${unit})` : ""} →`, ...(wide ? { tickFormat: decadeLabel } : { ticks: 4, tickFormat: (d: number) => formatPlain(d, 2) }) },
+        x: { type: "log", label: `${symbolText(data.coupling.symbol, data.coupling.latex)}${unit ? ` (${unit})` : ""} →`, ...(wide ? { tickFormat: decadeLabel } : { ticks: 4, tickFormat: (d: number) => formatPlain(d, 2) }) },
         y: { label: "↑ samples", grid: true },
         marks: [
           Plot.rectY(bins, { x1: "x1", x2: "x2", y: "count", fill: SEA, fillOpacity: 0.55, inset: 0.5 }),
@@ -47,10 +48,10 @@ export function SamplesHistogram({ data }: { data: SamplesResponse }) {
   return (
     <PlotFigure
       build={build}
-      title={`${data.theory_name}: ${data.coupling.symbol} per sample`}
+      title={`${data.theory_name}: ${symbolText(data.coupling.symbol, data.coupling.latex)} per sample`}
       filename={`${data.theory}-${data.coupling.symbol}-samples`}
       testId="samples-histogram"
-      caption={`Each sample's ${data.coupling.symbol} at its own binary; brick: the ${Math.round(data.credibility * 1000) / 10}% ${data.coupling.side} bound. Not reweighted for the prior.`}
+      caption={`Each sample's ${symbolText(data.coupling.symbol, data.coupling.latex)} at its own binary; brick: the ${Math.round(data.credibility * 1000) / 10}% ${data.coupling.side} bound. Not reweighted for the prior.`}
     />
   );
 }

@@ -1,4 +1,5 @@
 import { useState, type ChangeEvent } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import { SAMPLE_COLUMNS, samplesRequestSchema, type SamplesRequest, type SamplesResponse } from "../../../../common/convert-samples.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextArea } from "../../../components/ui/field.tsx";
@@ -127,7 +128,7 @@ export function SamplesResult({ data }: { data: SamplesResponse }) {
             {data.theory_name}, b = {data.b}, {pct(data.credibility)} credibility
           </p>
           <p className="mt-1 text-2xl" data-testid="samples-bound">
-            {data.coupling.symbol} {data.coupling.side === "upper" ? "≤" : "≥"} <SciNumber value={data.coupling.value} className="font-semibold" /> {unitText(data.coupling.unit)}
+            {symbolText(data.coupling.symbol, data.coupling.latex)} {data.coupling.side === "upper" ? "≤" : "≥"} <SciNumber value={data.coupling.value} className="font-semibold" /> {unitText(data.coupling.unit)}
           </p>
           <p className="mt-1 text-sm text-ink-soft" data-testid="samples-count">
             {data.samples.used} of {data.samples.total} samples translated{data.samples.dropped > 0 ? `; ${data.samples.dropped} dropped` : ""}.

@@ -35,22 +35,7 @@ export function SciNumber({ value, digits = 3, className = "" }: { value: number
   );
 }
 
-/** "km^2" -> km², "1/yr" -> yr⁻¹, "1" -> "" (dimensionless). */
-export function unitText(unit: string): string {
-  const u = unit.trim();
-  if (u === "" || u === "1") return "";
-  const sup: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹", ".": "·" };
-  const power = (p: string) => [...p].map((c) => sup[c] ?? c).join("");
-  const one = (f: string, sign: 1 | -1) => {
-    const m = /^([A-Za-z_]+)(?:\^\(?(-?[0-9.]+)\)?)?$/.exec(f.trim());
-    if (!m) return f;
-    const name = m[1] === "M_sun" ? "M☉" : m[1] === "um" ? "µm" : m[1]!;
-    const e = (m[2] === undefined ? 1 : Number(m[2])) * sign;
-    return e === 1 ? name : `${name}${power(String(e))}`;
-  };
-  const [num, den] = u.split("/", 2) as [string, string | undefined];
-  return [num === "1" ? "" : one(num, 1), den === undefined ? "" : one(den, -1)].filter(Boolean).join(" ");
-}
+export { unitText } from "../../../../common/number-text.ts";
 
 const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
 

@@ -1,4 +1,5 @@
 import { useState, type ChangeEvent } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import { convertTableRequestSchema, type ConvertRequest, type ConvertTableRequest, type ConvertTableResponse } from "../../../../common/convert.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
@@ -147,7 +148,7 @@ function TableResults({ data }: { data: ConvertTableResponse }) {
                 {i === 0 ? head : <td colSpan={2} />}
                 <td className="px-3 py-2">{r.theory_name}</td>
                 <td className="px-3 py-2 whitespace-nowrap">
-                  {r.coupling.symbol} {r.coupling.side === "upper" ? "≤" : "≥"} <SciNumber value={r.coupling.value} className="font-semibold" /> {unitText(r.coupling.unit)}
+                  {symbolText(r.coupling.symbol, r.coupling.latex)} {r.coupling.side === "upper" ? "≤" : "≥"} <SciNumber value={r.coupling.value} className="font-semibold" /> {unitText(r.coupling.unit)}
                 </td>
                 <td className="px-3 py-2">
                   {!r.valid ? <Badge tone="fail">not valid</Badge> : r.validity.some((v) => !v.ok) ? <Badge tone="caution">valid, with caution</Badge> : <Badge tone="ok">valid</Badge>}

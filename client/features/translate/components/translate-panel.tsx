@@ -14,6 +14,7 @@ import { NotApplicableList } from "./not-applicable-list.tsx";
 import { ResultsTable } from "./results-table.tsx";
 import { TableOverB } from "./table-over-b.tsx";
 import { RequestSummary } from "./request-summary.tsx";
+import { shortTheoryName } from "../../../../common/theory-name.ts";
 import { formSnapshot, readRequestParam, rememberedRequest, rememberRequest, REQUEST_PARAM, requestParam } from "../lib/request-url.ts";
 
 /** Every theory the catalogue knows, at the b values it enters at, from whichever answer is at hand. */
@@ -21,8 +22,8 @@ export function theoryMarks(response: ConvertResponse | undefined, table: Conver
   const marks: TheoryMark[] = [];
   const add = (results: ConvertResponse["results"], na: ConvertResponse["not_applicable"]) => {
     // The plot is over the phase exponent b: amplitude results (alpha at a) have no place on it.
-    for (const r of results) if (r.channel === "phase") marks.push({ b: r.b, theory: r.theory });
-    for (const n of na) for (const b of n.b) marks.push({ b, theory: n.theory });
+    for (const r of results) if (r.channel === "phase") marks.push({ b: r.b, theory: r.theory, name: shortTheoryName(r.theory_name, r.theory), state: r.verdict });
+    for (const n of na) for (const b of n.b) marks.push({ b, theory: n.theory, name: shortTheoryName(n.theory_name, n.theory), state: "not_constrained" });
   };
   if (response) add(response.results, response.not_applicable);
   for (const row of table?.rows ?? []) add(row.results, row.not_applicable);

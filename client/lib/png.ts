@@ -1,4 +1,4 @@
-import { serializeSvg } from "../../../lib/plot.ts";
+import { serializeSvg } from "./plot.ts";
 
 /**
  * PNG of an SVG plot, drawn at twice its size so it stays sharp in slides. The SVG is serialised
