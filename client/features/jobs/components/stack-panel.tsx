@@ -161,7 +161,7 @@ export function StackPanel() {
   return (
     <section aria-labelledby="stack-title" className="flex flex-col gap-4" data-testid="stack-panel">
       <h2 id="stack-title" className="text-2xl">
-        Combine several events (posterior samples)
+        Stack events' coupling posteriors
       </h2>
       <p className="max-w-3xl text-sm text-ink-soft">
         Each event's posterior of the coupling, with its own prior divided out, is multiplied on a common grid under the prior you choose. Events can be samples jobs already done on this
