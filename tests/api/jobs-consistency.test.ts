@@ -74,6 +74,16 @@ describe("POST /api/v1/jobs/consistency", () => {
     expect(r.split_frequency_hz).toBeGreaterThan(100);
   });
 
+  it("when the files are larger than a JSON body may be (over 2 MiB together), then the upload is accepted, not refused after being read", async () => {
+    const inspiral = table(62, 0.68, 2, 0.03, 90_000, 5);
+    const ringdown = table(66, 0.72, 2.5, 0.04, 90_000, 7);
+    expect(inspiral.length + ringdown.length).toBeGreaterThan(2 * 1024 * 1024);
+    const res = await submit({ inspiral, merger_ringdown: ringdown }, { frame: "detector", levels: [0.9] });
+    expect(res.status, JSON.stringify(res.body)).toBe(202);
+    const view = await waitForJob(app, res.body.job.id as string);
+    expect(view.status, JSON.stringify(view.error ?? {})).toBe("done");
+  });
+
   it("when the files give component masses, then each sample goes through the remnant fit", async () => {
     // 36 + 29 non-spinning: chi_f = 0.6800 (Husa et al. 2016, our own computation), identical in both files: a GR injection.
     const rows = (n: number, seed: number) => {

@@ -51,6 +51,7 @@ export function consistencyJobRoutes(db: Knex, config: Config, queue: JobQueue):
       response: jobCreatedSchema,
       errors: [400, 413, 429],
       before: [limit, upload],
+      multipart: true,
       handler: async (req, res) => {
         const raw = (req.body as Record<string, unknown> | undefined)?.request;
         let parsedJson: unknown;
