@@ -2,7 +2,7 @@ import type { CouplingExclusionRequest, CouplingExclusionResponse } from "../../
 import { PhysicsInputError } from "../../physics/input-error.ts";
 import { couplingExclusion, testCovarianceAtGr } from "../../physics/ringdown/coupling-exclusion.ts";
 import { BUILT_IN_CURVES, builtInCurve } from "../../physics/forecast/curves.ts";
-import { inspiralRemnantWidths, ringdownRemnantWidths } from "../../physics/ringdown/forecast-widths.ts";
+import { ringdownRemnantWidths, type InspiralForecastInput, type InspiralWidths } from "../../physics/ringdown/forecast-widths.ts";
 import { summaryCovariance } from "../../physics/ringdown/gaussian-consistency.ts";
 import type { Matrix2 } from "../../physics/ringdown/matrix2.ts";
 import { remnantFromBinary } from "../../physics/ringdown/remnant.ts";
@@ -29,7 +29,10 @@ function describe(c: Matrix2, from: "given" | "forecast") {
  * The widths of the two estimates: as given, or forecast for a detector (inspiral: Fisher forecast on
  * f_low .. split frequency; merger-ringdown: one (2,2,0) damped sinusoid at ringdown_snr).
  */
-function testWidths(request: CouplingExclusionRequest, M: number, chi: number) {
+/** Computes the inspiral widths of a forecast test: in the forecast worker thread when served (a Fisher matrix is not event-loop work). */
+export type InspiralWidthsRunner = (input: InspiralForecastInput) => Promise<InspiralWidths>;
+
+async function testWidths(request: CouplingExclusionRequest, M: number, chi: number, inspiralWidths: InspiralWidthsRunner) {
   const { test, binary: b } = request;
   const cautions: string[] = [];
   let covI: Matrix2;
@@ -44,7 +47,7 @@ function testWidths(request: CouplingExclusionRequest, M: number, chi: number) {
     const scale = b.frame === "detector" ? 1 / (1 + z) : 1;
     let w;
     try {
-      w = inspiralRemnantWidths({
+      w = await inspiralWidths({
         m1: b.m1 * scale,
         m2: b.m2 * scale,
         chi1: b.chi1,
@@ -85,7 +88,7 @@ function testWidths(request: CouplingExclusionRequest, M: number, chi: number) {
 }
 
 /** What coupling would the IMR consistency test exclude, for a theory's ringdown shifts and a test's widths. */
-export async function couplingExclusionFor(catalogue: RingdownCatalogue, request: CouplingExclusionRequest): Promise<CouplingExclusionResponse> {
+export async function couplingExclusionFor(catalogue: RingdownCatalogue, request: CouplingExclusionRequest, inspiralWidths: InspiralWidthsRunner): Promise<CouplingExclusionResponse> {
   const theory = (await catalogue.load()).find((t) => t.slug === request.theory);
   if (!theory) throw new PhysicsInputError("theory", `unknown theory "${request.theory}"`);
   const forMode = theory.mappings.filter((m) => m.mode === request.mode);
@@ -102,7 +105,7 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
   // Husa's fit is scale-free: the remnant mass in the binary's own frame, to match the widths.
   const inFrame = remnantFromBinary({ m1: b.m1, m2: b.m2, chi1: b.chi1, chi2: b.chi2 }, "binary.");
   if (inFrame.chi_f <= 0) throw new PhysicsInputError("binary", `the remnant fit gives chi_f = ${inFrame.chi_f.toFixed(3)}: the QNM fits need a remnant spinning with the orbit`);
-  const widths = testWidths(request, inFrame.M_f, inFrame.chi_f);
+  const widths = await testWidths(request, inFrame.M_f, inFrame.chi_f, inspiralWidths);
   const covI = widths.covI;
   const covR = widths.covR;
   const covariance = testCovarianceAtGr(inFrame.M_f, inFrame.chi_f, covI, covR);

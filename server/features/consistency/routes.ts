@@ -10,6 +10,7 @@ import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
 import { convertRateLimit } from "../convert/rate-limit.ts";
 import type { RingdownCatalogue } from "../ringdown/catalogue.ts";
+import { getForecastPool } from "../forecasts/pool.ts";
 import { couplingExclusionFor } from "./coupling.ts";
 import { gaussianConsistency } from "./gaussian.ts";
 
@@ -51,12 +52,12 @@ export function consistencyRoutes(config: Config, catalogue: RingdownCatalogue):
       tags: ["consistency"],
       body: couplingExclusionRequestSchema,
       response: couplingExclusionResponseSchema,
-      errors: [400, 429],
+      errors: [400, 429, 503],
       before: [limit],
       handler: async (req, res) => {
         const request = parseWith(couplingExclusionRequestSchema, req.body);
         try {
-          res.json(await couplingExclusionFor(catalogue, request));
+          res.json(await couplingExclusionFor(catalogue, request, (input) => getForecastPool().inspiralWidths(input)));
         } catch (err) {
           asValidation(() => {
             throw err;

@@ -19,21 +19,26 @@ if (nice > 0) {
 register();
 const { forecastWithTranslations } = await import("./run.ts");
 const { compileCatalogue } = await import("../convert/compiled-catalogue.ts");
+const { inspiralRemnantWidths } = await import("../../physics/ringdown/forecast-widths.ts");
 
 if (!parentPort) throw new Error("forecast-worker must run as a worker thread");
 const port = parentPort;
 /** @type {{ revision: string, compiled: unknown } | null} */
 let catalogue = null;
-port.on("message", (/** @type {{ id: number, request: any, curves: unknown[], revision: string | null, snapshot: any }} */ job) => {
+port.on("message", (/** @type {{ id: number, kind: "forecast" | "widths", input?: any, request: any, curves: unknown[], revision: string | null, snapshot: any }} */ job) => {
   try {
+    if (job.kind === "widths") {
+      port.postMessage({ id: job.id, ok: true, result: inspiralRemnantWidths(job.input) });
+      return;
+    }
     if (job.snapshot) catalogue = { revision: job.snapshot.revision, compiled: compileCatalogue(job.snapshot) };
     if (job.revision !== null && catalogue?.revision !== job.revision) throw new Error(`the forecast worker lacks catalogue revision ${job.revision}`);
     const compiled = job.revision === null ? null : catalogue?.compiled ?? null;
     // @ts-expect-error - the request was validated and the catalogue compiled by the same code on both sides
     port.postMessage({ id: job.id, ok: true, result: forecastWithTranslations(job.request, job.curves, compiled) });
   } catch (err) {
-    const e = /** @type {{ name?: string, fields?: Record<string, string>, message?: string }} */ (err);
-    port.postMessage({ id: job.id, ok: false, name: e?.name ?? "Error", fields: e?.fields ?? null, message: e?.message ?? String(err) });
+    const e = /** @type {{ name?: string, fields?: Record<string, string>, field?: string, message?: string }} */ (err);
+    port.postMessage({ id: job.id, ok: false, name: e?.name ?? "Error", fields: e?.fields ?? null, field: typeof e?.field === "string" ? e.field : null, message: e?.message ?? String(err) });
   }
 });
 port.postMessage({ ready: true });

@@ -2,6 +2,8 @@ import { Worker } from "node:worker_threads";
 import type { ForecastRequest, ForecastResponse } from "../../../common/forecasts.ts";
 import { ServiceUnavailableError, ValidationError } from "../../errors.ts";
 import type { CustomCurveData } from "../../physics/forecast/forecast.ts";
+import { PhysicsInputError } from "../../physics/input-error.ts";
+import type { InspiralForecastInput, InspiralWidths } from "../../physics/ringdown/forecast-widths.ts";
 import type { CompiledCatalogue } from "../convert/compiled-catalogue.ts";
 import type { CatalogueSnapshot } from "../convert/catalogue-snapshot.ts";
 
@@ -19,19 +21,30 @@ export interface ForecastPoolOptions {
   readonly nice?: number;
 }
 
-interface Job {
-  readonly id: number;
-  readonly request: ForecastRequest;
-  readonly curves: readonly CustomCurveData[];
-  readonly catalogue: CompiledCatalogue | null;
-  readonly resolve: (r: ForecastResponse) => void;
-  readonly reject: (e: Error) => void;
-}
+/** A forecast with its translations, or the inspiral widths of an IMR consistency test (forecast-widths.ts). */
+type Job =
+  | {
+      readonly kind: "forecast";
+      readonly id: number;
+      readonly request: ForecastRequest;
+      readonly curves: readonly CustomCurveData[];
+      readonly catalogue: CompiledCatalogue | null;
+      readonly resolve: (r: ForecastResponse) => void;
+      readonly reject: (e: Error) => void;
+    }
+  | {
+      readonly kind: "widths";
+      readonly id: number;
+      readonly input: InspiralForecastInput;
+      readonly catalogue: null;
+      readonly resolve: (r: InspiralWidths) => void;
+      readonly reject: (e: Error) => void;
+    };
 
 type WorkerMessage =
   | { ready: true }
-  | { id: number; ok: true; result: ForecastResponse }
-  | { id: number; ok: false; name: string; fields: Record<string, string> | null; message: string };
+  | { id: number; ok: true; result: ForecastResponse | InspiralWidths }
+  | { id: number; ok: false; name: string; fields: Record<string, string> | null; field: string | null; message: string };
 
 const WORKER_URL = new URL("./forecast-worker.mjs", import.meta.url);
 
@@ -55,12 +68,28 @@ export class ForecastPool {
   }
 
   run(request: ForecastRequest, curves: readonly CustomCurveData[], catalogue: CompiledCatalogue | null): Promise<ForecastResponse> {
-    if (this.closed) return Promise.reject(new ServiceUnavailableError("the forecast engine is shutting down"));
-    if (this.queue.length >= this.maxQueue) return Promise.reject(new ServiceUnavailableError("too many forecasts are waiting; try again shortly"));
+    const refused = this.refusal();
+    if (refused) return Promise.reject(refused);
     return new Promise((resolve, reject) => {
-      this.queue.push({ id: this.nextId++, request, curves, catalogue, resolve, reject });
+      this.queue.push({ kind: "forecast", id: this.nextId++, request, curves, catalogue, resolve, reject });
       void this.pump();
     });
+  }
+
+  /** The inspiral side of an IMR consistency forecast (a Fisher matrix on f_low .. split frequency), off the event loop. */
+  inspiralWidths(input: InspiralForecastInput): Promise<InspiralWidths> {
+    const refused = this.refusal();
+    if (refused) return Promise.reject(refused);
+    return new Promise((resolve, reject) => {
+      this.queue.push({ kind: "widths", id: this.nextId++, input, catalogue: null, resolve, reject });
+      void this.pump();
+    });
+  }
+
+  private refusal(): Error | null {
+    if (this.closed) return new ServiceUnavailableError("the forecast engine is shutting down");
+    if (this.queue.length >= this.maxQueue) return new ServiceUnavailableError("too many forecasts are waiting; try again shortly");
+    return null;
   }
 
   async close(): Promise<void> {
@@ -114,7 +143,8 @@ export class ForecastPool {
     if (!current || current.job.id !== msg.id) return;
     clearTimeout(current.timer);
     this.running = undefined;
-    if (msg.ok) current.job.resolve(msg.result);
+    if (msg.ok) (current.job.resolve as (r: ForecastResponse | InspiralWidths) => void)(msg.result);
+    else if (msg.name === "PhysicsInputError" && msg.field !== null) current.job.reject(new PhysicsInputError(msg.field, msg.message));
     else if (msg.name === "ValidationError") current.job.reject(new ValidationError(msg.message, msg.fields ?? undefined));
     else current.job.reject(new Error(msg.message));
     void this.pump();
@@ -135,10 +165,11 @@ export class ForecastPool {
     this.running = { job, timer };
     try {
       await this.start();
-      const revision = job.catalogue?.revision ?? null;
+      const revision = job.kind === "forecast" ? (job.catalogue?.revision ?? null) : this.workerRevision;
       const snapshot: CatalogueSnapshot | null =
         job.catalogue && revision !== this.workerRevision ? { revision: job.catalogue.revision, theories: job.catalogue.theories.map((t) => t.theory) } : null;
-      this.worker?.postMessage({ id: job.id, request: job.request, curves: job.curves, revision, snapshot });
+      if (job.kind === "widths") this.worker?.postMessage({ id: job.id, kind: "widths", input: job.input });
+      else this.worker?.postMessage({ id: job.id, kind: "forecast", request: job.request, curves: job.curves, revision, snapshot });
       this.workerRevision = revision ?? this.workerRevision;
     } catch (err) {
       if (this.running?.job === job) {
