@@ -53,7 +53,7 @@ describe("<SheetRecords>", () => {
     render(<SheetRecords sheet={sheetWithOneRecord()} />);
     const card = screen.getByTestId("record-OT-1");
     expect(card.textContent).toMatch(/\|β\| ≤ 0\.001 at b = -7, 90% credibility/);
-    expect(card.textContent).toMatch(/sqrt_alpha ≤ 4\.07 km/);
+    expect(card.textContent).toMatch(/√α ≤ 4\.07 km/);
     expect(card.textContent).toMatch(/not valid/);
     expect(card.textContent).toMatch(/theories not constrained, and why/);
     expect(screen.queryByRole("button", { name: "Remove record" })).toBeNull();
@@ -83,7 +83,7 @@ describe("<SheetRecords>", () => {
     expect(note.textContent).toMatch(/Einstein-dilaton-Gauss-Bonnet gravity \(revision 1 → revision 2\)/);
     expect(note.textContent).toMatch(/kept as it was/);
     // The stored limit is still what is shown.
-    expect(screen.getByTestId("record-OT-1").textContent).toMatch(/sqrt_alpha ≤ 4\.07 km/);
+    expect(screen.getByTestId("record-OT-1").textContent).toMatch(/√α ≤ 4\.07 km/);
     fireEvent.click(screen.getByTestId("retranslate-record"));
     expect(onRetranslate).toHaveBeenCalledWith(sheet.records[0]);
   });

@@ -1,6 +1,7 @@
 import { useEffect, useRef, useState } from "react";
 import { katexCssIfLoaded, katexIfLoaded, loadKatex, loadKatexCss, renderTex } from "../../lib/katex.ts";
 import { useOverflowing } from "./scroll-box.tsx";
+import { latexText } from "../../../common/symbol-text.ts";
 
 interface Props {
   tex: string;
@@ -57,7 +58,7 @@ export function MathTex({ tex, display = false, label, className = "", html }: P
   if (!katex) {
     return (
       <Tag ref={box} className={`${base} font-mono text-sm text-ink-soft ${className}`} aria-busy="true">
-        {label ?? tex}
+        {label ?? latexText(tex)}
       </Tag>
     );
   }

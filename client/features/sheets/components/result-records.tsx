@@ -5,6 +5,7 @@ import type { ConsistencyRecord, SamplesJobRecord, StackRecord } from "../../../
 import { Badge } from "../../../components/ui/badge.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { num, unit } from "./translation-record.tsx";
+import { symbolText } from "../../../../common/symbol-text.ts";
 
 /** Samples, stacking and consistency records: the result as the job (or the test) computed it, with its provenance. */
 
@@ -14,7 +15,7 @@ type Verdict = SamplesJobRecord["result"]["verdict"];
 function couplingText(c: Coupling) {
   return (
     <>
-      <MathTex tex={c.latex} label={c.symbol} />{" "}
+      <MathTex tex={c.latex} label={symbolText(c.symbol, c.latex)} />{" "}
       {c.signed_interval ? `∈ [${num(c.signed_interval[0])}, ${num(c.signed_interval[1])}]` : `${c.side === "lower" ? "≥" : "≤"} ${num(c.value ?? Number.NaN)}`} {unit(c.unit)}
     </>
   );

@@ -6,6 +6,7 @@ import { Button } from "../../../components/ui/button.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { ScrollBox } from "../../../components/ui/scroll-box.tsx";
 import { num, unit } from "./translation-record.tsx";
+import { symbolText } from "../../../../common/symbol-text.ts";
 
 /**
  * What a re-translation would change, record by record, before the owner accepts it: each limit old
@@ -20,7 +21,7 @@ function limitText(l: LimitSnapshot | null) {
   const value = l.signed_interval ? `∈ [${l.signed_interval.lower === null ? "−∞" : num(l.signed_interval.lower)}, ${l.signed_interval.upper === null ? "∞" : num(l.signed_interval.upper)}]` : `${l.side === "upper" ? "≤" : "≥"} ${num(l.value)}`;
   return (
     <>
-      <MathTex tex={l.latex} label={l.symbol} /> {value} {unit(l.unit)} <span className="text-ink-soft">({VERDICT[l.verdict]})</span>
+      <MathTex tex={l.latex} label={symbolText(l.symbol, l.latex)} /> {value} {unit(l.unit)} <span className="text-ink-soft">({VERDICT[l.verdict]})</span>
     </>
   );
 }

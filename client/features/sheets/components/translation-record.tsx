@@ -7,6 +7,7 @@ import { Button } from "../../../components/ui/button.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { ScrollBox } from "../../../components/ui/scroll-box.tsx";
 import { sciText, unitLabel } from "../../../components/ui/text-format.ts";
+import { symbolText } from "../../../../common/symbol-text.ts";
 
 /** A translation record: the bound, the binary, and the translation as it was made when saved. */
 
@@ -65,10 +66,10 @@ function LimitsTable({ label, translation }: { label: string; translation: Conve
             <tr key={`${x.theory}-${x.coupling_symbol}`} className="border-t border-paper-edge align-top">
               <td className="sticky left-0 min-w-[7rem] bg-paper py-1 pr-3">{x.theory_name}</td>
               <td className="whitespace-nowrap py-1 pr-3 tabular-nums">
-                <MathTex tex={x.coupling.latex} label={x.coupling.symbol} /> {x.coupling.side === "upper" ? "≤" : "≥"} {num(x.coupling.value)} {unit(x.coupling.unit)}
+                <MathTex tex={x.coupling.latex} label={symbolText(x.coupling.symbol, x.coupling.latex)} /> {x.coupling.side === "upper" ? "≤" : "≥"} {num(x.coupling.value)} {unit(x.coupling.unit)}
                 {x.also.map((a) => (
                   <span key={a.symbol} className="block text-ink-soft">
-                    <MathTex tex={a.latex} label={a.symbol} /> {a.side === "upper" ? "≤" : "≥"} {num(a.value)} {unit(a.unit)}
+                    <MathTex tex={a.latex} label={symbolText(a.symbol, a.latex)} /> {a.side === "upper" ? "≤" : "≥"} {num(a.value)} {unit(a.unit)}
                   </span>
                 ))}
               </td>
