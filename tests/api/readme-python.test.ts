@@ -17,6 +17,22 @@ import { gaussian, toCsv } from "../helpers/samples-data.ts";
 const run = promisify(execFile);
 
 /**
+ * The python3 that has requests: the one on PATH (it may be a pyenv shim) or Debian's /usr/bin/python3,
+ * where scripts/test.sh installs python3-requests when neither has it.
+ */
+async function pythonWithRequests(): Promise<string> {
+  for (const candidate of ["python3", "/usr/bin/python3"]) {
+    try {
+      await run(candidate, ["-c", "import requests"]);
+      return candidate;
+    } catch {
+      // try the next one
+    }
+  }
+  throw new Error("no python3 with requests: install Debian's python3-requests (scripts/test.sh does)");
+}
+
+/**
  * README's Python example, run as written against a real server with a worker: one conversion and
  * one samples job through `requests` and a personal token. Only the address is changed (the test
  * server's port). The machine needs python3 with requests (Debian's python3-requests).
@@ -70,7 +86,7 @@ describe("README: the Python example", () => {
     const n = 2000;
     await writeFile(path.join(dir, "posterior.csv"), toCsv({ beta: gaussian(7, n, 0, 4e-4), m1: new Float64Array(n).fill(10), m2: new Float64Array(n).fill(5) }));
 
-    const { stdout, stderr } = await run("python3", ["example.py"], { cwd: dir, timeout: 100_000 });
+    const { stdout, stderr } = await run(await pythonWithRequests(), ["example.py"], { cwd: dir, timeout: 100_000 });
     expect(stderr).toBe("");
     const lines = stdout.trim().split("\n");
     // The conversion: EdGB's sqrt(alpha) for |beta| <= 1e-3 at b = -7 on 10 + 5 Msun is 4.07 km, outside validity
