@@ -94,7 +94,10 @@ describe("browser: signing in through the fake GitHub's pick page", () => {
     await expect(page.getByRole("navigation", { name: "Main" }).textContent()).resolves.toContain("People");
     const toggle = page.getByTestId("role-demo-reader-analyst");
     expect(await toggle.isChecked()).toBe(false);
-    await toggle.check();
+    // The box follows the stored roles (it is ticked once the server has saved them), so click and wait
+    // for the saved state rather than asking Playwright's check() to see it change at once.
+    await toggle.click();
+    await expect.poll(() => toggle.isChecked(), { timeout: 15_000 }).toBe(true);
     await page.getByTestId("audit-list").getByText("demo-reader").waitFor();
     await expect(page.getByTestId("audit-list").textContent()).resolves.toMatch(/demo-admin.*changed the roles of.*demo-reader.*none → analyst/s);
     expect(await page.getByTestId("role-demo-reader-analyst").isChecked()).toBe(true);
