@@ -1,7 +1,8 @@
 import type { ForecastResponse } from "../../../../common/forecasts.ts";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { Caution } from "../../../components/ui/states.tsx";
-import { conditionText, texText, thresholdText } from "../../../components/ui/text-format.ts";
+import { conditionText, texText } from "../../../../common/symbol-text.ts";
+import { thresholdText } from "../../../components/ui/text-format.ts";
 import { SciNumber, unitText } from "../../translate/components/sci-number.tsx";
 import { NETWORK_COLOURS, networkName } from "./forecast-plots.tsx";
 
