@@ -62,10 +62,10 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await page.getByTestId("forecast-form").waitFor();
 
     // A bad band is refused with the field named beside the detector.
-    await page.getByTestId("forecast-detector-0").getByLabel("f_low [Hz]").fill("2");
+    await page.getByTestId("forecast-detector-0").getByLabel("flow [Hz]").fill("2");
     await page.getByTestId("forecast-run").click();
     await expect(page.getByTestId("forecast-error").textContent()).resolves.toMatch(/detectors\.0\.f_low/);
-    await page.getByTestId("forecast-detector-0").getByLabel("f_low [Hz]").fill("");
+    await page.getByTestId("forecast-detector-0").getByLabel("flow [Hz]").fill("");
 
     await page.getByTestId("forecast-run").click();
     await page.getByTestId("forecast-results").waitFor({ timeout: 60_000 });

@@ -162,10 +162,10 @@ export function RingdownPanel() {
         <Field label="Credibility" error={shown["bound.credibility"]}>
           {(c) => <TextInput {...c} inputMode="decimal" value={f.credibility} onChange={set("credibility")} />}
         </Field>
-        <Field label="Remnant M_f (M☉)" error={shown["remnant.M_f"]}>
+        <Field label={<>Remnant M<sub>f</sub> (M☉)</>} error={shown["remnant.M_f"]}>
           {(c) => <TextInput {...c} inputMode="decimal" value={f.M_f} onChange={set("M_f")} />}
         </Field>
-        <Field label="Remnant χ_f" error={shown["remnant.chi_f"]}>
+        <Field label={<>Remnant χ<sub>f</sub></>} error={shown["remnant.chi_f"]}>
           {(c) => <TextInput {...c} inputMode="decimal" value={f.chi_f} onChange={set("chi_f")} />}
         </Field>
         <Field label="Remnant frame" error={shown["remnant.frame"]}>
