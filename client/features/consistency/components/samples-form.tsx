@@ -4,7 +4,8 @@ import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
-import { useJob, useSubmitConsistencyJob } from "../api/consistency-job.ts";
+import { useJobView } from "../../jobs/api/use-job-view.ts";
+import { useSubmitConsistencyJob } from "../api/consistency-job.ts";
 
 /**
  * Two posterior-samples files, run as a background job: text tables with a header naming M_f and
@@ -17,7 +18,7 @@ export function SamplesForm({ children }: { children: (result: ConsistencyResult
   const [errors, setErrors] = useState<Record<string, string>>({});
   const submit = useSubmitConsistencyJob();
   const jobId = submit.data?.job.id;
-  const job = useJob(jobId);
+  const job = useJobView(jobId, consistencyResultSchema);
   const serverFields = submit.error instanceof ApiError ? submit.error.fields : {};
   const shown = { ...serverFields, ...errors };
 
@@ -33,8 +34,7 @@ export function SamplesForm({ children }: { children: (result: ConsistencyResult
     submit.mutate({ inspiral: files.inspiral, merger_ringdown: files.merger_ringdown, request: parsed.data });
   };
 
-  const view = job.data;
-  const result = view?.status === "done" ? consistencyResultSchema.safeParse(view.result) : undefined;
+  const { view, result } = job;
 
   return (
     <div className="flex flex-col gap-4">
@@ -88,13 +88,13 @@ export function SamplesForm({ children }: { children: (result: ConsistencyResult
           {view.status === "running" ? `: ${Math.round(view.progress * 100)} %` : ""}
         </p>
       )}
-      {job.isPending && jobId && <Loading what="the job" />}
+      {job.loading && <Loading what="the job" />}
       {view?.status === "failed" && (
         <p role="alert" className="text-brick" data-testid="samples-job-error">
           The job failed: {view.error?.message}
         </p>
       )}
-      {result?.success && view && children(result.data, view.id)}
+      {result && view && children(result, view.id)}
     </div>
   );
 }
