@@ -171,6 +171,14 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await page.screenshot({ path: screenshotPath("forecast-grid"), fullPage: true });
     const job = await tdb.db("analysis_jobs").where({ kind: "forecast" }).orderBy("created_at", "desc").first();
     expect(job.status).toBe("done");
+    // The address names the job beside the request: reloading reads the finished job back, no new job.
+    expect(new URL(page.url()).searchParams.get("job")).toBe(job.id);
+    const jobsBefore = await tdb.db("analysis_jobs").where({ kind: "forecast" }).count<{ count: string }[]>("* as count");
+    await page.reload({ waitUntil: "networkidle" });
+    await page.getByTestId("forecast-results").waitFor({ timeout: 60_000 });
+    await expect(page.getByTestId("forecast-table").locator("tbody tr").count()).resolves.toBe(bs.length);
+    const jobsAfter = await tdb.db("analysis_jobs").where({ kind: "forecast" }).count<{ count: string }[]>("* as count");
+    expect(Number(jobsAfter[0]!.count)).toBe(Number(jobsBefore[0]!.count));
     expect(errors).toEqual([]);
   });
 });

@@ -9,7 +9,7 @@ import { ForecastGrid } from "../../features/forecast/components/forecast-grid.t
 import { BoundPlot, CouplingPlot } from "../../features/forecast/components/forecast-plots.tsx";
 import { ForecastAssumptions, ForecastTable, TranslationTable } from "../../features/forecast/components/forecast-results.tsx";
 import { SaveForecast } from "../../features/forecast/components/save-forecast.tsx";
-import { FORECAST_PARAM, readForecastParam, requestFieldErrors, runsAsJob } from "../../features/forecast/lib/forecast-url.ts";
+import { FORECAST_PARAM, JOB_PARAM, readForecastParam, requestFieldErrors, runsAsJob } from "../../features/forecast/lib/forecast-url.ts";
 import { Button } from "../../components/ui/button.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 
@@ -35,7 +35,20 @@ export function Component() {
     if (fromUrl.kind === "ok") setState(stateFromRequest(fromUrl.request));
   }
 
-  const run = useForecast(fromUrl.kind === "ok" ? { input: fromUrl.input, text: fromUrl.text, job: runsAsJob(fromUrl.request) } : undefined, setProgress);
+  // A background job's id rides in the address beside the request (?job=), so a reload reads it back.
+  const jobId = params.get(JOB_PARAM);
+  const run = useForecast(fromUrl.kind === "ok" ? { input: fromUrl.input, text: fromUrl.text, job: runsAsJob(fromUrl.request) } : undefined, setProgress, {
+    id: jobId,
+    onCreated: (id) =>
+      setParams(
+        (p) => {
+          const next = new URLSearchParams(p);
+          next.set(JOB_PARAM, id);
+          return next;
+        },
+        { replace: true },
+      ),
+  });
   const submit = () => {
     const input = toRequest(state);
     const errors = requestFieldErrors(input);
