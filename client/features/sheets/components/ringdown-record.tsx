@@ -62,7 +62,7 @@ function RingdownLimits({ label, translation }: { label: string; translation: Ri
                   )}
                 </td>
                 <td className="py-1 pr-3">{VERDICT[x.verdict]}</td>
-                <td className="py-1">
+                <td className="min-w-[14rem] py-1">
                   {best && <span className="block">{best.sentence}</span>}
                   {x.references.length > 0 && <span className="block text-xs text-ink-soft">sources: {x.references.map((c) => c.citation).join("; ")}</span>}
                 </td>
