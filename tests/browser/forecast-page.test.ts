@@ -169,6 +169,12 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await grid.getByTestId("forecast-grid-b").selectOption("-7");
     await grid.getByTestId("forecast-grid-cell-1-0").locator("[data-value]").first().waitFor();
     await page.screenshot({ path: screenshotPath("forecast-grid"), fullPage: true });
+    // The second binary's plots and tables on request: its ISCO (a lighter binary) is higher.
+    const isco = async () => (await page.getByTestId("forecast-assumptions").textContent()) ?? "";
+    const firstIsco = await isco();
+    await page.getByTestId("forecast-shown-binary").selectOption("1");
+    await expect.poll(isco).not.toBe(firstIsco);
+    await expect(page.getByTestId("forecast-assumptions").textContent()).resolves.toMatch(/Source: 20\.00 \+ 15\.00 M☉/);
     const job = await tdb.db("analysis_jobs").where({ kind: "forecast" }).orderBy("created_at", "desc").first();
     expect(job.status).toBe("done");
     // The address names the job beside the request: reloading reads the finished job back, no new job.
