@@ -10,7 +10,7 @@ import {
 import { shortTheoryName } from "../../../common/theory-name.ts";
 import { sciText } from "../../../common/number-text.ts";
 import { readJsonParam } from "../../lib/json-param.ts";
-import { texText } from "../../components/ui/text-format.ts";
+import { texText } from "../../../common/symbol-text.ts";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { ApiError } from "../../lib/api-client.ts";
 import { useConsistency } from "../../features/consistency/api/run-consistency.ts";
@@ -32,9 +32,10 @@ function deviationTrack(e: CouplingExclusionResponse): DeviationTrack {
 }
 
 /** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
-/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON. */
+/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON; a samples job by its id (job). */
 const TEST_PARAM = "q";
 const COUPLING_PARAM = "c";
+const JOB_PARAM = "job";
 
 export function Component() {
   const [params, setParams] = useSearchParams();
@@ -53,7 +54,18 @@ export function Component() {
   );
   const setRequest = useCallback((r: ConsistencyRequest) => setParam(TEST_PARAM, r), [setParam]);
   const setCouplingRequest = useCallback((r: CouplingExclusionRequest) => setParam(COUPLING_PARAM, r), [setParam]);
-  const [input, setInput] = useState<"summaries" | "samples">("summaries");
+  const jobFromUrl = params.get(JOB_PARAM) ?? undefined;
+  const setJob = useCallback(
+    (id: string) =>
+      setParams((prev) => {
+        const next = new URLSearchParams(prev);
+        next.set(JOB_PARAM, id);
+        return next;
+      }),
+    [setParams],
+  );
+  // A link to a samples job opens on the samples mode.
+  const [input, setInput] = useState<"summaries" | "samples">(jobFromUrl !== undefined ? "samples" : "summaries");
   const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
   const result = useConsistency(request);
   const fields = result.error instanceof ApiError ? result.error.fields : {};
@@ -99,7 +111,7 @@ export function Component() {
           {result.data && request && <SaveToSheet what="this consistency result" payload={{ kind: "consistency", summaries: request }} defaults={{ analysis_method: "IMR consistency, Gaussian remnant estimates" }} />}
         </>
       ) : (
-        <SamplesForm>
+        <SamplesForm jobId={jobFromUrl} onJob={setJob}>
           {(r, jobId) => (
             <>
               <ConsistencyResultView result={r} track={track} />

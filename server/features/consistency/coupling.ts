@@ -1,7 +1,6 @@
 import type { CouplingExclusionRequest, CouplingExclusionResponse } from "../../../common/consistency.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
 import { couplingExclusion, testCovarianceAtGr } from "../../physics/ringdown/coupling-exclusion.ts";
-import { BUILT_IN_CURVES, builtInCurve } from "../../physics/forecast/curves.ts";
 import { ringdownRemnantWidths, type InspiralForecastInput, type InspiralWidths } from "../../physics/ringdown/forecast-widths.ts";
 import { summaryCovariance } from "../../physics/ringdown/gaussian-consistency.ts";
 import type { Matrix2 } from "../../physics/ringdown/matrix2.ts";
@@ -42,7 +41,6 @@ async function testWidths(request: CouplingExclusionRequest, M: number, chi: num
     covI = summaryCovariance({ M_f: 1, chi_f: 0, ...test.inspiral });
   } else {
     const f = test.forecast!;
-    if (!builtInCurve(f.curve)) throw new PhysicsInputError("test.forecast.curve", `unknown curve "${f.curve}": use a built-in noise curve (${BUILT_IN_CURVES.map((c) => c.id).join(", ")})`);
     const z = b.z!;
     const scale = b.frame === "detector" ? 1 / (1 + z) : 1;
     let w;
@@ -54,7 +52,13 @@ async function testWidths(request: CouplingExclusionRequest, M: number, chi: num
         chi2: b.chi2,
         z,
         ...(f.distance_mpc === undefined ? {} : { distance_mpc: f.distance_mpc }),
-        detector: { curve: f.curve, orientation: f.orientation, ...(f.f_low === undefined ? {} : { f_low: f.f_low }) },
+        detector: {
+          curve: f.curve,
+          orientation: f.orientation,
+          ...(f.f_low === undefined ? {} : { f_low: f.f_low }),
+          ...(f.years_observed === undefined ? {} : { years_observed: f.years_observed }),
+          ...(f.years_before_merger === undefined ? {} : { years_before_merger: f.years_before_merger }),
+        },
       });
     } catch (err) {
       if (err instanceof PhysicsInputError) {

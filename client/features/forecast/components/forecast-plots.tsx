@@ -1,8 +1,9 @@
 import { useCallback, useMemo } from "react";
 import type { ForecastResponse } from "../../../../common/forecasts.ts";
 import { shortTheoryName } from "../../../../common/theory-name.ts";
+import { conditionText, texText } from "../../../../common/symbol-text.ts";
 import { NARROW_PX, PlotFigure, type LegendEntry } from "../../../components/ui/figure.tsx";
-import { conditionText, texText, unitLabel } from "../../../components/ui/text-format.ts";
+import { unitLabel } from "../../../components/ui/text-format.ts";
 import { labelsMarginTop, MARK_ORDER, MARK_STYLE, theoryLabels, theoryRules, widthForLabels, type MarkState, type TheoryMark } from "../../../components/ui/theory-labels.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { decadeLabel, formatPlain } from "../../translate/components/sci-number.tsx";

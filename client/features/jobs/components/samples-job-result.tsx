@@ -1,12 +1,11 @@
 import { useCallback } from "react";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesJobResult } from "../../../../common/jobs.ts";
 import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 import { CautionList } from "../../translate/components/caution-list.tsx";
 import { PlotFigure } from "../../../components/ui/figure.tsx";
-import { conditionText } from "../../../components/ui/text-format.ts";
 import { MARK_STYLE } from "../../../components/ui/theory-labels.ts";
 import { VerdictBadge } from "../../translate/components/results-table.tsx";
 import { decadeLabel, formatPlain, SciNumber, unitText } from "../../translate/components/sci-number.tsx";

@@ -1,7 +1,6 @@
 import { useCallback } from "react";
 import type { StackJobResult } from "../../../../common/jobs.ts";
-import { symbolText } from "../../../../common/symbol-text.ts";
-import { conditionText } from "../../../components/ui/text-format.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { MARK_STYLE } from "../../../components/ui/theory-labels.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
