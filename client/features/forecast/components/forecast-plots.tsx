@@ -202,7 +202,7 @@ export function CouplingPlot({ result }: { result: ForecastResponse }) {
           ticks: narrow ? 3 : undefined,
         },
         // Long theory names would run past the left edge: shortened at the end, the symbol and b kept.
-        y: { label: null, tickFormat: (label: string) => (narrow ? twoLineTheory(label) : shortTheory(label)) },
+        y: { label: null, tickFormat: (label: string) => (narrow ? twoLineTheory(label, 17) : shortTheory(label)) },
         color: { domain: names, range: NETWORK_COLOURS.slice(0, names.length) },
         marks: [
           Plot.ruleX([1], { stroke: INK, strokeWidth: 1.2 }),
