@@ -48,7 +48,7 @@ export function consistencyRoutes(config: Config, catalogue: RingdownCatalogue):
       path: "/v1/consistency/coupling",
       access: access.public,
       summary:
-        "Smallest coupling of a theory at which its ringdown and remnant shifts make the IMR consistency test exclude GR, with the expected deviation track; the test's widths given, or forecast for a detector",
+        "Smallest coupling of a theory at which its ringdown and remnant shifts, and the inspiral bias of its ppE terms, make the IMR consistency test exclude GR, with the expected deviation track; the test's widths given, or forecast for a detector",
       tags: ["consistency"],
       body: couplingExclusionRequestSchema,
       response: couplingExclusionResponseSchema,
