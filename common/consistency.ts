@@ -194,6 +194,8 @@ export const couplingExclusionResponseSchema = z.object({
       terms: z.array(z.object({ b: z.number(), d_ln_M_f_per_beta: z.number(), d_chi_f_per_beta: z.number() })),
     })
     .nullable(),
+  /** What the inspiral side of the test is taken as (biased, or the GR remnant and why); also the first of the cautions. */
+  inspiral_side: z.string(),
   /** Covariance of (dM_f/M_f, dchi_f/chi_f) of the test at the GR point. */
   covariance: z.tuple([point, point]),
   sides: z.array(

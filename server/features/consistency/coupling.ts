@@ -269,6 +269,7 @@ export async function couplingExclusionFor(catalogue: RingdownCatalogue, request
           terms: bias.vectors.map((v) => ({ b: v.b, d_ln_M_f_per_beta: v.remnant[0], d_chi_f_per_beta: v.remnant[1] })),
         }
       : null,
+    inspiral_side: inspiralCaution,
     covariance,
     sides: exact.sides.map((s, i) => {
       const v = s.x === null ? null : assessValidity(validity, s.x, env);
