@@ -96,10 +96,16 @@ const width = z.strictObject({
 /**
  * Widths of the test forecast for a detector instead of given: the inspiral from a Fisher forecast on
  * the band f_low .. split frequency, the merger-ringdown from one (2,2,0) damped sinusoid at
- * ringdown_snr (docs/remnant-consistency.md). Built-in noise curves only.
+ * ringdown_snr (docs/remnant-consistency.md). Any curve the forecasts take: a built-in one, ground or
+ * space, or custom:<id> of the caller's uploaded curve (signed in).
  */
 export const testForecastSchema = z.strictObject({
-  curve: z.string().min(1, "curve is required: a built-in noise curve id (aligo-design, et-b, ...)").max(80),
+  curve: z
+    .string({ error: "curve is required: a noise curve id (aligo-design, et-b, lisa, ... or custom:<id>)" })
+    .regex(/^(?:[a-z0-9-]{1,40}|custom:\d{1,10})$/, 'curve must be a built-in id (e.g. "aligo-design", "lisa") or "custom:<id>" of your uploaded curve'),
+  /** Space detectors: the observing window (years observed, ending this many years before merger... see the forecasts), default 4 and 4. */
+  years_observed: num("years_observed").positive("years_observed must be positive").max(100, "years_observed must be at most 100").optional(),
+  years_before_merger: num("years_before_merger").positive("years_before_merger must be positive").max(100, "years_before_merger must be at most 100").optional(),
   f_low: num("f_low").positive("f_low must be positive (Hz)").optional(),
   orientation: z.enum(["sky_averaged", "optimal"], { error: 'orientation must be "sky_averaged" or "optimal"' }).default("sky_averaged"),
   /** Luminosity distance; from the binary's z through the cosmology when absent. */
@@ -116,11 +122,15 @@ export const DEFAULT_TEST_CURVE = "aligo-design";
  * The inspiral side of a theory's shift: the linear bias of the GR template fitted to a signal carrying
  * the theory's ppE term (Cutler & Vallisneri 2007), from the inspiral Fisher matrix on f_low .. split
  * frequency. When the inspiral widths are forecast, the bias uses the same detector (give no curve
- * here); with given widths it needs a noise curve of its own (default DEFAULT_TEST_CURVE).
+ * here); with given widths it needs a noise curve of its own (default DEFAULT_TEST_CURVE; a built-in one,
+ * or custom:<id> of the caller's uploaded curve).
  */
 export const inspiralBiasOptionsSchema = z.strictObject({
   include: z.boolean({ error: "include must be true or false" }).default(true),
-  curve: z.string().min(1, "curve must name a built-in noise curve (aligo-design, et-b, ...)").max(80).optional(),
+  curve: z
+    .string({ error: 'curve must be a noise curve id (e.g. "aligo-design", "et-b") or "custom:<id>" of your uploaded curve' })
+    .regex(/^(?:[a-z0-9-]{1,40}|custom:\d{1,10})$/, 'curve must be a built-in id (e.g. "aligo-design", "et-b") or "custom:<id>" of your uploaded curve')
+    .optional(),
   f_low: num("f_low").positive("f_low must be positive (Hz)").optional(),
   orientation: z.enum(["sky_averaged", "optimal"], { error: 'orientation must be "sky_averaged" or "optimal"' }).optional(),
   /** Sets the weight of the Gaussian priors against the data; from the binary's z when absent. */

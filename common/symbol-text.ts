@@ -1,7 +1,12 @@
 /**
- * A coupling's symbol as a physicist writes it in plain text (CSV cells, sentences, SVG labels):
- * "\sqrt{\alpha}" -> "√α", "\lambda_g" -> "λ_g", "\dot G/G" -> "Ġ/G", "\omega_{BD}" -> "ω_BD",
- * "\Lambda^2" -> "Λ²". The stored identifier (sqrt_alpha, lambda_g) is for machines; people read this.
+ * Symbols and formulas as a physicist writes them in plain text, for every place KaTeX does not reach
+ * (CSV cells, sentences, cautions, SVG labels, e-mails), on the server and in the client alike:
+ * - latexText / latexRuns: "\sqrt{\alpha}" -> "√α", "\lambda_g" -> "λ_g", "\dot G/G" -> "Ġ/G",
+ *   "\omega_{BD}" -> "ω_BD", "\Lambda^2" -> "Λ²";
+ * - texText: the same with Unicode sub- and superscripts where every character has one (plot labels);
+ * - identifierText / symbolText: a stored identifier (sqrt_alpha, lambda_g) read as its symbol;
+ * - conditionText: ASCII mathematics in prose ("16 pi alpha^2 / m1^4 below 1/6") typeset in Unicode.
+ * The stored identifiers are for machines; people read these.
  */
 
 const GREEK: Readonly<Record<string, string>> = {
@@ -13,6 +18,12 @@ const GREEK: Readonly<Record<string, string>> = {
 
 const SUPER: Readonly<Record<string, string>> = {
   "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹", "-": "⁻", "+": "⁺",
+};
+
+/** Characters Unicode writes as subscripts (enough for indices, "loss", "max", "GR" stays "_GR"). */
+const SUB: Readonly<Record<string, string>> = {
+  "0": "₀", "1": "₁", "2": "₂", "3": "₃", "4": "₄", "5": "₅", "6": "₆", "7": "₇", "8": "₈", "9": "₉", "+": "₊", "-": "₋",
+  a: "ₐ", e: "ₑ", o: "ₒ", x: "ₓ", h: "ₕ", k: "ₖ", l: "ₗ", m: "ₘ", n: "ₙ", p: "ₚ", s: "ₛ", t: "ₜ", i: "ᵢ", r: "ᵣ", u: "ᵤ", v: "ᵥ",
 };
 
 const ACCENT: Readonly<Record<string, string>> = { dot: "\u0307", ddot: "\u0308", hat: "\u0302", tilde: "\u0303", bar: "\u0304" };
@@ -149,4 +160,78 @@ export function identifierText(symbol: string): string {
 export function symbolText(symbol: string, latex?: string | null): string {
   const fromLatex = latex ? latexText(latex) : "";
   return fromLatex || identifierText(symbol);
+}
+
+/** A run as Unicode sub- or superscript when every character has one, else null. */
+function scriptText(text: string, table: Readonly<Record<string, string>>): string | null {
+  const chars = [...text];
+  return chars.length > 0 && chars.every((c) => table[c] !== undefined) ? chars.map((c) => table[c]).join("") : null;
+}
+
+/**
+ * A symbol's TeX as plain text for places KaTeX cannot reach (plot labels, SVG downloads), with
+ * Unicode sub- and superscripts where every character has one: "\sqrt{\alpha}" -> "√α",
+ * "\dot{M}_{\rm loss}" -> "Ṁₗₒₛₛ", "\xi^{1/4}" -> "ξ¹ᐟ⁴", "\lambda_g" -> "λ_g" (no subscript g).
+ */
+export function texText(tex: string): string {
+  const SUPER_SLASH = { ...SUPER, "/": "ᐟ" };
+  return latexRuns(tex.trim())
+    .map((r) => {
+      if (r.shift === "none") return r.text;
+      const t = r.text.trim();
+      const script = scriptText(t, r.shift === "sub" ? SUB : SUPER_SLASH);
+      if (script !== null) return script;
+      return r.shift === "sub" ? `_${t}` : `^${t.length > 1 ? `(${t})` : t}`;
+    })
+    .join("")
+    .trim();
+}
+
+/** Identifiers that prose writes in code style, and how a physicist writes them. */
+const PROSE_NAMES: ReadonlyArray<readonly [RegExp, string]> = [
+  [/\bLambda-CDM\b/g, "ΛCDM"],
+  [/\bOmega_L0\b/g, "Ω_Λ,0"],
+  [/\bOmega_L\b/g, "Ω_Λ"],
+  [/\bh-bar\b/g, "ħ"],
+  [/\bln_Mc\b/g, "ln ℳ"],
+  [/\bMc_z\b/g, "ℳ_z"],
+  [/\bMc\b/g, "ℳ"],
+  [/\bln_eta\b/g, "ln η"],
+  [/\bln_A\b/g, "ln A"],
+  [/\beps(\d)\b/g, "epsilon_$1"],
+  [/\bsqrt_([A-Za-z]+)\b/g, "sqrt($1)"],
+];
+
+/**
+ * ASCII mathematics in prose ("16 pi alpha^2 / m1^4 below 1/6", "omega_BD >> 1", "Gdot/G",
+ * "sqrt(2 omega_BD + 3)", "1.03e13 km") as a physicist writes it: Greek letters by name become
+ * letters, Gdot becomes Ġ, integer powers become superscripts, numeric indices subscripts, >> / << /
+ * <= / >= / <~ / +/- / -> their signs, 1.03e13 becomes 1.03 × 10¹³. Text already in Unicode passes
+ * through unchanged, so it is safe on stored labels written either way.
+ */
+export function conditionText(text: string): string {
+  let s = text;
+  for (const [re, to] of PROSE_NAMES) s = s.replace(re, to);
+  // Indexed masses, spins, charges and sensitivities: m1 -> m₁, chi2 -> χ₂, alpha13 -> α₁₃.
+  s = s.replace(/\b(m|M|q|Q|s|a|chi|sigma|alpha|epsilon)(\d{1,2})\b/g, (_, v: string, d: string) => `${GREEK[v] ?? v}${scriptText(d, SUB)}`);
+  // Dotted rates: Gdot -> Ġ, Mdot_loss -> Ṁ_loss, mdot_i -> ṁ_i.
+  s = s.replace(/\b([A-Za-z])dot(?=\b|_)/g, (_, v: string) => `${v}\u0307`.normalize("NFC"));
+  s = s.replace(/\bsqrt\(([^()]*)\)/g, (_, inner: string) => {
+    const t = conditionText(inner);
+    return [...t].length === 1 ? `√${t}` : `√(${t})`;
+  });
+  // Greek letters by name, as whole words (not inside "alphabet"; "alpha_13" and "omega_BD" are words here).
+  s = s.replace(/(?<![A-Za-z])([A-Za-z]+)(?![A-Za-z])/g, (w: string) => GREEK[w] ?? w);
+  // Integer powers: ^2, ^-2, ^(-8) -> superscripts; fractional powers keep their caret, ^(1/3).
+  s = s.replace(/\^\((-?\d+)\)|\^(-?\d+)(?![\d./])/g, (_, g: string | undefined, one: string | undefined) => scriptText(g ?? one ?? "", SUPER) ?? `^${g ?? one}`);
+  // Numeric and i indices: D_0 -> D₀, epsilon_3 -> ε₃, m_i -> mᵢ.
+  s = s.replace(/([A-Za-zα-ωΑ-Ωħ])_(\d+|i)(?![\w])/g, (_, v: string, d: string) => `${v}${scriptText(d, SUB)}`);
+  // Scientific notation: 1.03e13 -> 1.03 × 10¹³.
+  s = s.replace(/\b(\d+(?:\.\d+)?)e([+-]?)(\d+)\b/g, (_, m: string, sign: string, e: string) => `${m} × 10${scriptText(`${sign === "-" ? "-" : ""}${String(Number(e))}`, SUPER)}`);
+  s = s.replace(/>>/g, "≫").replace(/<</g, "≪").replace(/<=/g, "≤").replace(/>=/g, "≥").replace(/<~/g, "≲").replace(/>~/g, "≳");
+  s = s.replace(/\+\/-/g, "±").replace(/ -> /g, " → ").replace(/\s\*\s|\*/g, " ");
+  // "16 π α²" -> "16π α²"; "α² / m₁⁴" -> "α²/m₁⁴" (a quotient of symbols reads as one term).
+  s = s.replace(/(\d) (?=[α-ωΑ-Ω])/g, "$1");
+  s = s.replace(/([^\s([,;:]) \/ (?=[^\s\d])/g, "$1/");
+  return s;
 }

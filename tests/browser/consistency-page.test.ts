@@ -146,7 +146,13 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     const row = page.getByTestId("ringdown-result-johannsen");
     await row.waitFor();
     // df = -alpha13/27 and |df| <= 0.05: |alpha13| <= 1.35 (light ring; tests/api/convert-ringdown.test.ts checks it against the metric).
-    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ alpha13 ≤ 1\.35/);
+    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ α_13 ≤ 1\.35\|α_13\| ≤ 1\.35/);
+    // The mapping's source beside the row, and every cited reference in the answer's bibliography with its BibTeX.
+    await expect(row.textContent()).resolves.toMatch(/sources: Cardoso et al\. 2009/);
+    const bibliography = page.getByTestId("ringdown-bibliography");
+    await expect(bibliography.textContent()).resolves.toMatch(/Geodesic stability, Lyapunov exponents and quasinormal modes/);
+    await bibliography.getByRole("button", { name: "BibTeX of these references" }).click();
+    await expect(page.getByTestId("ringdown-bibliography-bibtex").textContent()).resolves.toMatch(/@article\{cardoso-et-al-2009,/);
     // |alpha13| < 1 is a rule of thumb exceeded 1.35 times: valid, stretched (the translator's rule, at most 10 times).
     await expect(row.textContent()).resolves.toMatch(/valid/);
     await expect(row.textContent()).resolves.toMatch(/stretched, kept as valid/);
@@ -190,5 +196,31 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await expect(page.getByTestId("consistency-cautions").textContent()).resolves.toMatch(/random \(inspiral, merger-ringdown\) pairs/);
     await page.screenshot({ path: screenshotPath("consistency-samples"), fullPage: true });
     expect(errors).toEqual([]);
+
+    // The address holds the job: reloading (or opening the link later) shows the same result without uploading again.
+    const job = new URL(page.url()).searchParams.get("job");
+    expect(job).toMatch(/^[A-Za-z0-9_-]{24}$/);
+    const quantileText = await page.getByTestId("gr-quantile").textContent();
+    await page.reload({ waitUntil: "networkidle" });
+    await expect(page.getByTestId("input-samples").isChecked()).resolves.toBe(true);
+    await page.getByTestId("gr-quantile").waitFor({ timeout: 30_000 });
+    await expect(page.getByTestId("gr-quantile").textContent()).resolves.toBe(quantileText);
+    expect(errors).toEqual([]);
+  });
+
+  it("when a link names a job that is gone or is not a job id, then the page says the result cannot be shown", { timeout: 60_000 }, async () => {
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    // A well-formed id no job has (expired, or never issued): the server's 404 message is shown in words.
+    await page.goto(`${stack.baseUrl}/consistency?job=${"A".repeat(24)}`, { waitUntil: "networkidle" });
+    await expect(page.getByTestId("samples-job-unavailable").textContent()).resolves.toMatch(/cannot be shown: No job A{24}: it never existed or has expired/);
+    await expect(page.getByTestId("gr-quantile").count()).resolves.toBe(0);
+    // A mangled id is not sent at all.
+    await page.goto(`${stack.baseUrl}/consistency?job=not-a-job`, { waitUntil: "networkidle" });
+    await expect(page.getByTestId("samples-job-unavailable").textContent()).resolves.toMatch(/not a job id/);
+    await page.setViewportSize({ width: 375, height: 800 });
+    await page.screenshot({ path: screenshotPath("consistency-job-link-gone-375"), fullPage: true });
+    // The 404 of the first link is the only error the browser logs (a failed request, not a crash).
+    expect(errors.every((e) => /404/.test(e))).toBe(true);
   });
 });

@@ -62,10 +62,10 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await page.getByTestId("forecast-form").waitFor();
 
     // A bad band is refused with the field named beside the detector.
-    await page.getByTestId("forecast-detector-0").getByLabel("f_low [Hz]").fill("2");
+    await page.getByTestId("forecast-detector-0").getByLabel("flow [Hz]").fill("2");
     await page.getByTestId("forecast-run").click();
     await expect(page.getByTestId("forecast-error").textContent()).resolves.toMatch(/detectors\.0\.f_low/);
-    await page.getByTestId("forecast-detector-0").getByLabel("f_low [Hz]").fill("");
+    await page.getByTestId("forecast-detector-0").getByLabel("flow [Hz]").fill("");
 
     await page.getByTestId("forecast-run").click();
     await page.getByTestId("forecast-results").waitFor({ timeout: 60_000 });
@@ -169,8 +169,22 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await grid.getByTestId("forecast-grid-b").selectOption("-7");
     await grid.getByTestId("forecast-grid-cell-1-0").locator("[data-value]").first().waitFor();
     await page.screenshot({ path: screenshotPath("forecast-grid"), fullPage: true });
+    // The second binary's plots and tables on request: its ISCO (a lighter binary) is higher.
+    const isco = async () => (await page.getByTestId("forecast-assumptions").textContent()) ?? "";
+    const firstIsco = await isco();
+    await page.getByTestId("forecast-shown-binary").selectOption("1");
+    await expect.poll(isco).not.toBe(firstIsco);
+    await expect(page.getByTestId("forecast-assumptions").textContent()).resolves.toMatch(/Source: 20\.00 \+ 15\.00 M☉/);
     const job = await tdb.db("analysis_jobs").where({ kind: "forecast" }).orderBy("created_at", "desc").first();
     expect(job.status).toBe("done");
+    // The address names the job beside the request: reloading reads the finished job back, no new job.
+    expect(new URL(page.url()).searchParams.get("job")).toBe(job.id);
+    const jobsBefore = await tdb.db("analysis_jobs").where({ kind: "forecast" }).count<{ count: string }[]>("* as count");
+    await page.reload({ waitUntil: "networkidle" });
+    await page.getByTestId("forecast-results").waitFor({ timeout: 60_000 });
+    await expect(page.getByTestId("forecast-table").locator("tbody tr").count()).resolves.toBe(bs.length);
+    const jobsAfter = await tdb.db("analysis_jobs").where({ kind: "forecast" }).count<{ count: string }[]>("* as count");
+    expect(Number(jobsAfter[0]!.count)).toBe(Number(jobsBefore[0]!.count));
     expect(errors).toEqual([]);
   });
 });

@@ -1,25 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { conditionText, texText } from "../../client/components/ui/text-format.ts";
 import { presetState, stateFromRequest, toRequest } from "../../client/features/forecast/components/forecast-form.tsx";
 import { readForecastParam, requestFieldErrors, runsAsJob } from "../../client/features/forecast/lib/forecast-url.ts";
-
-describe("symbols and conditions as a physicist writes them", () => {
-  it("when a coupling's TeX is shown where KaTeX cannot go (plot labels), then it reads as symbols, not code names", () => {
-    expect(texText("\\sqrt{\\alpha}")).toBe("√α");
-    expect(texText("\\dot{M}_{\\rm loss}")).toBe("M\u0307ₗₒₛₛ"); // M with a combining dot above
-    expect(texText("\\lambda_g")).toBe("λ_g");
-    expect(texText("\\xi^{1/4}")).toBe("ξ¹ᐟ⁴");
-  });
-
-  it("when a validity condition is written in ASCII, then Greek letters, powers, indices and signs are typeset", () => {
-    expect(conditionText("EdGB coupling on body 1: 16 pi alpha^2 / m1^4 below 1/6")).toBe("EdGB coupling on body 1: 16 π α² / m₁⁴ below 1/6");
-    expect(conditionText("omega_BD >> 1")).toBe("ω_BD ≫ 1");
-    expect(conditionText("small deformation: |epsilon_3 - 2 alpha_13| below 1")).toBe("small deformation: |ε₃ - 2 α₁₃| below 1");
-    expect(conditionText("slow rotation: |chi2| <= 0.5")).toBe("slow rotation: |χ₂| ≤ 0.5");
-    // words that merely contain a Greek name are left alone
-    expect(conditionText("the alphabet and a phi-meson")).toBe("the alphabet and a φ-meson");
-  });
-});
 
 describe("the forecast page's address", () => {
   it("when the form's request goes into ?q= and comes back, then the form shows the same request", () => {

@@ -18,9 +18,10 @@ import { SummariesForm } from "../../features/consistency/components/summaries-f
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 
 /** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
-/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON. */
+/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON; a samples job by its id (job). */
 const TEST_PARAM = "q";
 const COUPLING_PARAM = "c";
+const JOB_PARAM = "job";
 
 export function Component() {
   const [params, setParams] = useSearchParams();
@@ -39,7 +40,18 @@ export function Component() {
   );
   const setRequest = useCallback((r: ConsistencyRequest) => setParam(TEST_PARAM, r), [setParam]);
   const setCouplingRequest = useCallback((r: CouplingExclusionRequest) => setParam(COUPLING_PARAM, r), [setParam]);
-  const [input, setInput] = useState<"summaries" | "samples">("summaries");
+  const jobFromUrl = params.get(JOB_PARAM) ?? undefined;
+  const setJob = useCallback(
+    (id: string) =>
+      setParams((prev) => {
+        const next = new URLSearchParams(prev);
+        next.set(JOB_PARAM, id);
+        return next;
+      }),
+    [setParams],
+  );
+  // A link to a samples job opens on the samples mode.
+  const [input, setInput] = useState<"summaries" | "samples">(jobFromUrl !== undefined ? "samples" : "summaries");
   const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
   const result = useConsistency(request);
   const fields = result.error instanceof ApiError ? result.error.fields : {};
@@ -85,7 +97,7 @@ export function Component() {
           {result.data && request && <SaveToSheet what="this consistency result" payload={{ kind: "consistency", summaries: request }} defaults={{ analysis_method: "IMR consistency, Gaussian remnant estimates" }} />}
         </>
       ) : (
-        <SamplesForm>
+        <SamplesForm jobId={jobFromUrl} onJob={setJob}>
           {(r, jobId) => (
             <>
               <ConsistencyResultView result={r} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />

@@ -1,4 +1,4 @@
-/** Small text formatting used by more than one feature (units, author names, numbers). */
+/** Small text formatting used by more than one feature (units, author names, numbers). Symbols and formulas as text: common/symbol-text.ts. */
 
 /** "Yunes, Nicolas" → "Nicolas Yunes", so a list of names can be joined with commas unambiguously. */
 export function displayName(name: string): string {
@@ -22,49 +22,3 @@ export function shortNumber(x: number): string {
 }
 
 export { sciText, thresholdText } from "../../../common/number-text.ts";
-
-const GREEK: Record<string, string> = {
-  alpha: "α", beta: "β", gamma: "γ", delta: "δ", epsilon: "ε", varepsilon: "ε", zeta: "ζ", eta: "η", theta: "θ", kappa: "κ", lambda: "λ", mu: "μ", nu: "ν",
-  xi: "ξ", pi: "π", rho: "ρ", sigma: "σ", tau: "τ", phi: "φ", varphi: "φ", chi: "χ", psi: "ψ", omega: "ω", Gamma: "Γ", Delta: "Δ", Theta: "Θ", Lambda: "Λ",
-  Phi: "Φ", Psi: "Ψ", Omega: "Ω", ell: "ℓ",
-};
-const SUBSCRIPT: Record<string, string> = { "0": "₀", "1": "₁", "2": "₂", "3": "₃", "4": "₄", "5": "₅", "6": "₆", "7": "₇", "8": "₈", "9": "₉", "+": "₊", "-": "₋", a: "ₐ", e: "ₑ", o: "ₒ", x: "ₓ", h: "ₕ", k: "ₖ", l: "ₗ", m: "ₘ", n: "ₙ", p: "ₚ", s: "ₛ", t: "ₜ", i: "ᵢ", r: "ᵣ", u: "ᵤ", v: "ᵥ" };
-
-/**
- * A symbol's TeX as plain text for places KaTeX cannot reach (plot labels, SVG downloads):
- * "\sqrt{\alpha}" → "√α", "\dot{M}_{\rm loss}" → "Ṁ_loss", "m_g" → "m_g" with a subscript where
- * Unicode has one. Anything it does not know is kept, minus the backslash.
- */
-export function texText(tex: string): string {
-  let s = tex.trim();
-  s = s.replace(/\\(?:mathrm|rm|text|mathit|operatorname)\s*\{([^{}]*)\}/g, "$1").replace(/\\(?:rm|it)\s+/g, "");
-  s = s.replace(/\\dot\s*\{?\s*([A-Za-z])\s*\}?/g, "$1\u0307").replace(/\\ddot\s*\{?\s*([A-Za-z])\s*\}?/g, "$1\u0308");
-  s = s.replace(/\\bar\s*\{?\s*([A-Za-z])\s*\}?/g, "$1\u0304").replace(/\\tilde\s*\{?\s*([A-Za-z])\s*\}?/g, "$1\u0303");
-  s = s.replace(/\\sqrt\s*\{([^{}]*)\}/g, (_, inner: string) => (inner.length === 1 || /^\\[A-Za-z]+$/.test(inner) ? `√${inner}` : `√(${inner})`));
-  s = s.replace(/\\([A-Za-z]+)/g, (m, name: string) => GREEK[name] ?? (name === "cdot" ? "·" : name === "times" ? "×" : name === "infty" ? "∞" : name));
-  s = s.replace(/_\{([^{}]*)\}|_([A-Za-z0-9])/g, (_, group: string | undefined, one: string | undefined) => {
-    const t = (group ?? one ?? "").trim();
-    const all = [...t].every((ch) => SUBSCRIPT[ch] !== undefined);
-    return all && t.length > 0 ? [...t].map((ch) => SUBSCRIPT[ch]).join("") : `_${t}`;
-  });
-  s = s.replace(/\^\{([^{}]*)\}|\^([A-Za-z0-9])/g, (_, group: string | undefined, one: string | undefined) => {
-    const t = (group ?? one ?? "").trim();
-    const all = [...t].every((ch) => SUPERSCRIPT[ch] !== undefined);
-    return all && t.length > 0 ? [...t].map((ch) => SUPERSCRIPT[ch]).join("") : `^${t}`;
-  });
-  return s.replace(/[{}]/g, "").replace(/\\,|\\;|\\!/g, "").replace(/\s+/g, " ").trim();
-}
-
-/**
- * A condition written in plain ASCII ("16 pi alpha^2 / m1^4 below 1/6", "omega_BD >> 1") as a
- * physicist writes it: Greek letters by name become letters, powers become superscripts, a mass or
- * spin index becomes a subscript, and >> / << / <= / >= become their signs.
- */
-export function conditionText(text: string): string {
-  let s = text.replace(/\b(m|chi|q|M)(\d)\b/g, (_, v: string, d: string) => `${v}${SUBSCRIPT[d]}`);
-  s = s.replace(/(?<![A-Za-z])([A-Za-z]+)(?![A-Za-z])/g, (w: string) => GREEK[w] ?? w);
-  s = s.replace(/\b(χ|m|q|M)(\d)/g, (_, v: string, d: string) => `${v}${SUBSCRIPT[d]}`);
-  s = s.replace(/\^\((-?[0-9/ ]+)\)|\^(-?[0-9/]+)/g, (_, g: string | undefined, one: string | undefined) => [...(g ?? one ?? "").replace(/\s+/g, "")].map((ch) => SUPERSCRIPT[ch] ?? ch).join(""));
-  s = s.replace(/([A-Za-zα-ωΑ-Ω])_(\d+)(?![\w])/g, (_, v: string, d: string) => `${v}${[...d].map((ch) => SUBSCRIPT[ch]).join("")}`);
-  return s.replace(/>>/g, "≫").replace(/<</g, "≪").replace(/<=/g, "≤").replace(/>=/g, "≥").replace(/\s\*\s|\*/g, " ");
-}

@@ -3,7 +3,6 @@ import type { CompiledMapping } from "../../physics/catalogue-mapping.ts";
 import { createConversionContext } from "../../physics/convert.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
 import { couplingExclusion, testCovarianceAtGr, type RemnantShiftFunctions } from "../../physics/ringdown/coupling-exclusion.ts";
-import { BUILT_IN_CURVES, builtInCurve } from "../../physics/forecast/curves.ts";
 import type { ForecastDetectorInput } from "../../physics/forecast/forecast.ts";
 import { ringdownRemnantWidths, type InspiralBiasVector, type InspiralForecastInput, type InspiralWidths } from "../../physics/ringdown/forecast-widths.ts";
 import { summaryCovariance } from "../../physics/ringdown/gaussian-consistency.ts";
@@ -34,10 +33,6 @@ export type InspiralWidthsRunner = (input: InspiralForecastInput) => Promise<Ins
 
 /** Where the bias's detector was named (the request's fields, or the default curve). */
 type CurveFrom = "test.forecast" | "test.inspiral_bias" | "default";
-
-function checkCurve(curve: string, field: string): void {
-  if (!builtInCurve(curve)) throw new PhysicsInputError(field, `unknown curve "${curve}": use a built-in noise curve (${BUILT_IN_CURVES.map((c) => c.id).join(", ")})`);
-}
 
 /** Runs the inspiral Fisher matrix (widths and, for bias_b, the bias) with the engine's field names turned into the request's. */
 async function runInspiral(run: InspiralWidthsRunner, input: InspiralForecastInput, detectorPrefix: string): Promise<InspiralWidths> {
@@ -72,13 +67,18 @@ async function testWidths(request: CouplingExclusionRequest, M: number, chi: num
     covI = summaryCovariance({ M_f: 1, chi_f: 0, ...test.inspiral });
   } else {
     const f = test.forecast!;
-    checkCurve(f.curve, "test.forecast.curve");
     const w = await runInspiral(
       inspiralWidths,
       {
         ...source,
         ...(f.distance_mpc === undefined ? {} : { distance_mpc: f.distance_mpc }),
-        detector: { curve: f.curve, orientation: f.orientation, ...(f.f_low === undefined ? {} : { f_low: f.f_low }) },
+        detector: {
+          curve: f.curve,
+          orientation: f.orientation,
+          ...(f.f_low === undefined ? {} : { f_low: f.f_low }),
+          ...(f.years_observed === undefined ? {} : { years_observed: f.years_observed }),
+          ...(f.years_before_merger === undefined ? {} : { years_before_merger: f.years_before_merger }),
+        },
         ...(biasB.length > 0 ? { bias_b: biasB } : {}),
       },
       "test.forecast",
@@ -94,10 +94,17 @@ async function testWidths(request: CouplingExclusionRequest, M: number, chi: num
     const curve = o?.curve ?? test.forecast?.curve ?? DEFAULT_TEST_CURVE;
     const from: CurveFrom = o?.curve !== undefined ? "test.inspiral_bias" : test.forecast ? "test.forecast" : "default";
     const prefix = from === "test.forecast" ? "test.forecast" : "test.inspiral_bias";
-    checkCurve(curve, `${prefix}.curve`);
     const fLow = o?.f_low ?? test.forecast?.f_low;
     const distance = o?.distance_mpc ?? test.forecast?.distance_mpc;
-    const detector: ForecastDetectorInput = { curve, orientation: o?.orientation ?? test.forecast?.orientation ?? "sky_averaged", ...(fLow === undefined ? {} : { f_low: fLow }) };
+    // The years of a space detector's window follow test.forecast when it names the same curve (the engine's defaults otherwise).
+    const years = test.forecast && test.forecast.curve === curve ? test.forecast : undefined;
+    const detector: ForecastDetectorInput = {
+      curve,
+      orientation: o?.orientation ?? test.forecast?.orientation ?? "sky_averaged",
+      ...(fLow === undefined ? {} : { f_low: fLow }),
+      ...(years?.years_observed === undefined ? {} : { years_observed: years.years_observed }),
+      ...(years?.years_before_merger === undefined ? {} : { years_before_merger: years.years_before_merger }),
+    };
     const w = await runInspiral(inspiralWidths, { ...source, ...(distance === undefined ? {} : { distance_mpc: distance }), detector, bias_b: biasB }, prefix);
     bias = { vectors: w.bias, run: w, curve, from };
   }

@@ -1,6 +1,7 @@
 import { theoryEntrySchema, type TheoryEntry } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
 import { compileMapping, type CatalogueTheory, type CompiledMapping } from "../../physics/catalogue-mapping.ts";
+import { catalogueRevision } from "../catalogue/read-repository.ts";
 import { compileRemnantMapping, compileRingdownMapping, type CompiledRemnantMapping, type CompiledRingdownMapping } from "../../physics/ringdown/ringdown-mapping.ts";
 
 /**
@@ -63,22 +64,17 @@ function inspiralShape(entry: TheoryEntry): CatalogueTheory {
 
 export interface RingdownCatalogue {
   load(): Promise<RingdownTheory[]>;
+  /** The same, with the catalogue version it was read at (the token the translator and sheets use). */
+  loadVersioned(): Promise<{ revision: string; theories: RingdownTheory[] }>;
 }
 
 export function ringdownCatalogue(db: Knex): RingdownCatalogue {
   let cached: { token: string; theories: RingdownTheory[] } | undefined;
-  const token = async (): Promise<string> => {
-    const row = await db("theories").first<{ n: number; s: number; u: Date | null }>(
-      db.raw("count(*)::int as n"),
-      db.raw("coalesce(sum(current_revision), 0)::int as s"),
-      db.raw("max(updated_at) as u"),
-    );
-    return `${row.n}.${row.s}.${row.u ? row.u.getTime().toString(36) : "0"}`;
-  };
-  return {
-    async load() {
+  // The convert translator's token: a ringdown answer and an inspiral one name the same catalogue version.
+  const token = (): Promise<string> => catalogueRevision(db);
+  const loadVersioned = async (): Promise<{ revision: string; theories: RingdownTheory[] }> => {
       const now = await token();
-      if (cached?.token === now) return cached.theories;
+      if (cached?.token === now) return { revision: now, theories: cached.theories };
       const rows = await db("theories as t")
         .join("theory_revisions as r", function join() {
           this.on("r.theory_id", "t.id").andOn("r.number", "t.current_revision");
@@ -121,7 +117,10 @@ export function ringdownCatalogue(db: Knex): RingdownCatalogue {
         theories.push({ slug: row.slug, name: row.name, revision: row.number, entry, mappings, remnant, inspiral, inspiralBroken, hasAmplitude, broken });
       }
       cached = { token: now, theories };
-      return theories;
-    },
+      return { revision: now, theories };
+  };
+  return {
+    loadVersioned,
+    load: async () => (await loadVersioned()).theories,
   };
 }

@@ -24,7 +24,7 @@
  * priors both Gamma and the column scale with the amplitude squared and the bias would not depend on
  * the distance at all; with them it does, weakly.
  */
-import { DEFAULT_PRIORS, addPriors, runForecast, type ForecastDetectorInput } from "../forecast/forecast.ts";
+import { DEFAULT_PRIORS, addPriors, runForecast, type CustomCurveData, type ForecastDetectorInput } from "../forecast/forecast.ts";
 import { invertFisher } from "../forecast/linalg.ts";
 import { BETA_INDEX } from "../forecast/phase.ts";
 import { PhysicsInputError } from "../input-error.ts";
@@ -42,7 +42,10 @@ export interface InspiralForecastInput {
   readonly chi2: number;
   readonly z: number;
   readonly distance_mpc?: number | undefined;
+  /** Any curve the forecasts take: a built-in id (ground or space) or custom:<id> with its table in `curves`. */
   readonly detector: ForecastDetectorInput;
+  /** The uploaded curve the detector names (custom:<id>), already checked to be the caller's. */
+  readonly curves?: readonly CustomCurveData[] | undefined;
   /** ppE exponents whose linear bias of the inspiral estimate is wanted (each within [-20, 10]). */
   readonly bias_b?: readonly number[] | undefined;
 }
@@ -97,7 +100,7 @@ export function inspiralRemnantWidths(input: InspiralForecastInput): InspiralWid
     include_matrices: true,
     // A one-decade band: 2000 log-spaced points keep the trapezoid sums well inside a per-mille.
     grid_points: 2000,
-  });
+  }, [...(input.curves ?? [])]);
   const band = forecast.detectors[0]!;
   const full = forecast.matrices![0]!.per_detector[0]!.map((row) => [...row]);
   addPriors(full, DEFAULT_PRIORS);

@@ -21,11 +21,15 @@ export function ConsistencyResultView({ result, track, marks }: { result: Consis
         </p>
       </div>
       <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-4">
-        <dt className="text-ink-faint">ΔM_f/M̄_f</dt>
+        <dt className="text-ink-faint">
+          ΔM<sub>f</sub>/M̄<sub>f</sub>
+        </dt>
         <dd>
           {m0.toFixed(3)} ± {s0.toFixed(3)}
         </dd>
-        <dt className="text-ink-faint">Δχ_f/χ̄_f</dt>
+        <dt className="text-ink-faint">
+          Δχ<sub>f</sub>/χ̄<sub>f</sub>
+        </dt>
         <dd>
           {m1.toFixed(3)} ± {s1.toFixed(3)}
         </dd>
@@ -38,8 +42,8 @@ export function ConsistencyResultView({ result, track, marks }: { result: Consis
       </dl>
       {result.split && (
         <p className="text-sm text-ink-soft" data-testid="split-source">
-          Split frequency at twice the orbital frequency of the ISCO of the {result.split.from === "full_signal" ? "full-signal" : "inspiral estimate's"} remnant (M_f ={" "}
-          {result.split.M_f.toPrecision(4)} M☉ in the detector frame, χ_f = {result.split.chi_f.toFixed(3)}; Ghosh et al. 2016, 2018)
+          Split frequency at twice the orbital frequency of the ISCO of the {result.split.from === "full_signal" ? "full-signal" : "inspiral estimate's"} remnant (M<sub>f</sub> ={" "}
+          {result.split.M_f.toPrecision(4)} M☉ in the detector frame, χ<sub>f</sub> = {result.split.chi_f.toFixed(3)}; Ghosh et al. 2016, 2018)
           {result.split.from === "inspiral" ? ". The published analyses split at the full-signal remnant: give it under “full-signal remnant” when you have it." : "."}
         </p>
       )}

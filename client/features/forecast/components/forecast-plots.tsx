@@ -1,6 +1,7 @@
 import { useCallback } from "react";
 import type { ForecastResponse } from "../../../../common/forecasts.ts";
-import { texText, unitLabel } from "../../../components/ui/text-format.ts";
+import { texText } from "../../../../common/symbol-text.ts";
+import { unitLabel } from "../../../components/ui/text-format.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { decadeLabel, formatPlain } from "../../translate/components/sci-number.tsx";
 import { ForecastFigure } from "./forecast-figure.tsx";
