@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
@@ -6,7 +6,7 @@ import { createLogger } from "../../server/logger.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
-import { clientIsBuilt, launchBrowser, screenshotPath } from "../helpers/browser.ts";
+import { clientIsBuilt, expectPng, launchBrowser, screenshotPath } from "../helpers/browser.ts";
 import { testConfig } from "../helpers/app.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
@@ -98,11 +98,27 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/one standard deviation/);
     await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/inspiral bias past 1σ from/);
 
+    // The excluded couplings are marked on the track in symbols, with their verdict's mark.
+    await expect(page.locator('[data-testid="deviation-plot"] [data-role="deviation-mark"]').first().textContent()).resolves.toMatch(/^[✓✕?] α₁₃ = /);
     const [download] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-svg").click()])) as [Download, void];
     const svg = readFileSync(await download.path(), "utf8");
     expect(download.suggestedFilename()).toBe("imr-consistency.svg");
     expect(svg).toMatch(/<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
     expect(svg).toMatch(/data-level="0.9"/);
+    // The file keeps the title, the legend with the verdict marks, the cautions and the symbols (no identifiers).
+    expect(svg).toContain("<title>Deviation from the remnant estimates</title>");
+    expect(svg).toMatch(/data-role="figure-title"[^>]*>Deviation from the remnant estimates</);
+    expect(svg).toMatch(/data-role="deviation-mark" data-verdict="(valid|outside_validity|not_assessed)"/);
+    expect(svg).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan><tspan[^>]*>smallest excluded coupling, /);
+    expect(svg).toMatch(/data-role="figure-caution"[^>]*><tspan[^>]*>⚠<\/tspan><tspan[^>]*>[^<]*Gaussian approximation/);
+    expect(svg).toMatch(/[✓✕?] α₁₃ = /);
+    expect(svg).toMatch(/Δχ<tspan baseline-shift="sub"[^>]*>f<\/tspan>/);
+    for (const id of ["alpha13", "johannsen", "chi_f", "M_f"]) expect(svg).not.toContain(id);
+    const [pngDownload] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-png").click()])) as [Download, void];
+    expect(pngDownload.suggestedFilename()).toBe("imr-consistency.png");
+    const png = readFileSync(await pngDownload.path());
+    expectPng(png, 560 * 2);
+    writeFileSync(screenshotPath("consistency-plot-download"), png);
     await page.screenshot({ path: screenshotPath("consistency-page"), fullPage: true });
     await expect(page.getByTestId("split-source").textContent()).resolves.toMatch(/inspiral estimate's remnant/);
 

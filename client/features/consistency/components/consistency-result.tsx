@@ -1,11 +1,19 @@
 import type { ConsistencyResult } from "../../../../common/consistency.ts";
 import { Caution } from "../../../components/ui/states.tsx";
-import { DeviationPlot } from "./deviation-plot.tsx";
+import { DeviationPlot, type DeviationMark } from "./deviation-plot.tsx";
 
 const pct = (q: number) => `${(q * 100).toFixed(q > 0.999 ? 2 : 1)} %`;
 
+/** A theory's expected deviation drawn over the contours, with its excluded couplings marked. */
+export interface DeviationTrack {
+  theory: string;
+  track: { x: number; mean: [number, number] }[];
+  marks: DeviationMark[];
+  cautions: string[];
+}
+
 /** The quantile, the deviation's centre and widths, the plot and the cautions. */
-export function ConsistencyResultView({ result, track, marks }: { result: ConsistencyResult; track?: { x: number; mean: [number, number] }[]; marks?: { x: number; label: string }[] }) {
+export function ConsistencyResultView({ result, track }: { result: ConsistencyResult; track?: DeviationTrack | undefined }) {
   const [m0, m1] = result.deviation.mean;
   const c = result.deviation.covariance;
   const s0 = Math.sqrt(c[0][0]);
@@ -50,8 +58,8 @@ export function ConsistencyResultView({ result, track, marks }: { result: Consis
       <DeviationPlot
         contours={result.contours}
         mean={result.deviation.mean}
-        {...(track ? { track } : {})}
-        {...(marks ? { marks } : {})}
+        {...(track ? { track: track.track, marks: track.marks, trackName: track.theory } : {})}
+        cautions={[...result.cautions, ...(track?.cautions ?? []).map((c) => `${track?.theory}: ${c}`)]}
         title="Deviation from the remnant estimates"
         filename="imr-consistency"
       />
