@@ -203,7 +203,8 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
   });
 
   it("POST /api/v1/consistency/coupling: when the Johannsen entry's light-ring shifts meet a test's widths, then the excluded alpha13 follows the same closed form", async () => {
-    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 } };
+    // The entry's inspiral term (b = -1) is left out here, so the ringdown side alone is checked (tests/api/consistency-coupling-bias.test.ts adds it).
+    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 }, inspiral_bias: { include: false } };
     const res = await request(app).post("/api/v1/consistency/coupling").send({ theory: "johannsen", binary: { m1: 39, m2: 32, frame: "detector", z: 0.09 }, test });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const body = res.body;

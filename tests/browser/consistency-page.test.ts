@@ -93,6 +93,10 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await page.getByTestId("exclusion-table").waitFor();
     await page.getByTestId("deviation-track").waitFor();
     await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/alpha13 > 0/);
+    // The entry's 2PN term biases the inspiral estimate: the note beside the table says so, with the detector used.
+    await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/inspiral bias included.*b = -1.*Advanced LIGO design \(the detector chosen for the bias\)/);
+    await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/one standard deviation/);
+    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/inspiral bias past 1σ from/);
 
     // The excluded couplings are marked on the track in symbols, with their verdict's mark.
     await expect(page.locator('[data-testid="deviation-plot"] [data-role="deviation-mark"]').first().textContent()).resolves.toMatch(/^[✓✕?] α₁₃ = /);
@@ -107,7 +111,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     expect(svg).toMatch(/data-role="deviation-mark" data-verdict="(valid|outside_validity|not_assessed)"/);
     expect(svg).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan><tspan[^>]*>smallest excluded coupling, /);
     expect(svg).toMatch(/data-role="figure-caution"[^>]*><tspan[^>]*>⚠<\/tspan><tspan[^>]*>[^<]*Gaussian approximation/);
-    expect(svg).toMatch(/[✓✕?] α₁₃ = /);
+    expect(svg).toMatch(/[✓✕?] α₁₃ = −?\d/);
     expect(svg).toMatch(/Δχ<tspan baseline-shift="sub"[^>]*>f<\/tspan>/);
     for (const id of ["alpha13", "johannsen", "chi_f", "M_f"]) expect(svg).not.toContain(id);
     const [pngDownload] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-png").click()])) as [Download, void];
@@ -131,6 +135,8 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await again.getByTestId("exclusion-table").waitFor();
     await expect(again.locator('input[name="inspiral.chi_f"]').inputValue()).resolves.toBe("0.66");
     await again.screenshot({ path: screenshotPath("consistency-page-375"), fullPage: true });
+    await expect(again.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/inspiral bias included/);
+    await again.getByTestId("exclusion-panel").screenshot({ path: screenshotPath("consistency-exclusion-375") });
     // A damaged link says which field is wrong and falls back to the example.
     await again.goto(`${stack.baseUrl}/consistency?q=${encodeURIComponent('{"inspiral":{"M_f":-1}}')}`, { waitUntil: "networkidle" });
     await expect(again.getByTestId("bad-link").textContent()).resolves.toMatch(/inspiral\.M_f/);
@@ -141,6 +147,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await page.locator('input[name="test.forecast.distance_mpc"]').fill("410");
     await page.getByTestId("run-exclusion").click();
     await expect.poll(async () => (await page.getByTestId("exclusion-table").textContent()) ?? "", { timeout: 20_000 }).toMatch(/\(forecast\).*inspiral SNR/);
+    await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/the forecast's detector/);
     await page.getByTestId("exclusion-panel").screenshot({ path: screenshotPath("consistency-forecast-widths") });
     expect(new URL(page.url()).searchParams.get("c")).toMatch(/"forecast"/);
     expect(errors).toEqual([]);

@@ -31,11 +31,11 @@ export function asValidation<T>(fn: () => T): T {
  * The uploaded curve a forecast test names (custom:<id>), with the forecasts' rule: only its owner,
  * signed in, may use it. A 400 names test.forecast.curve otherwise. Built-in ids need nothing.
  */
-async function uploadedCurves(curves: CurvesRepository | undefined, who: Identity | undefined, curve: string | undefined): Promise<CustomCurveData[]> {
+async function uploadedCurves(curves: CurvesRepository | undefined, who: Identity | undefined, curve: string | undefined, field = "test.forecast.curve"): Promise<CustomCurveData[]> {
   const m = curve === undefined ? null : /^custom:(\d+)$/.exec(curve);
   if (!m) return [];
   const refuse = (message: string): never => {
-    throw new ValidationError(`Invalid request body: test.forecast.curve: ${message}`, { "test.forecast.curve": message });
+    throw new ValidationError(`Invalid request body: ${field}: ${message}`, { [field]: message });
   };
   if (!who || !curves) return refuse("sign in to use your uploaded curves");
   const [row] = await curves.findOwned(who.id, [Number(m[1])]);
@@ -67,7 +67,7 @@ export function consistencyRoutes(config: Config, catalogue: RingdownCatalogue, 
       path: "/v1/consistency/coupling",
       access: access.public,
       summary:
-        "Smallest coupling of a theory at which its ringdown and remnant shifts make the IMR consistency test exclude GR, with the expected deviation track; the test's widths given, or forecast for a detector",
+        "Smallest coupling of a theory at which its ringdown and remnant shifts, and the inspiral bias of its ppE terms, make the IMR consistency test exclude GR, with the expected deviation track; the test's widths given, or forecast for a detector",
       tags: ["consistency"],
       body: couplingExclusionRequestSchema,
       response: couplingExclusionResponseSchema,
@@ -75,7 +75,11 @@ export function consistencyRoutes(config: Config, catalogue: RingdownCatalogue, 
       before: [limit],
       handler: async (req, res) => {
         const request = parseWith(couplingExclusionRequestSchema, req.body);
-        const uploaded = await uploadedCurves(curves, req.identity, request.test.forecast?.curve);
+        const uploaded = [
+          ...(await uploadedCurves(curves, req.identity, request.test.forecast?.curve)),
+          // The inspiral bias's own detector, with given widths (the same rule: the owner's uploaded curves only).
+          ...(await uploadedCurves(curves, req.identity, request.test.inspiral_bias?.curve, "test.inspiral_bias.curve")),
+        ];
         try {
           res.json(await couplingExclusionFor(catalogue, request, (input) => getForecastPool().inspiralWidths({ ...input, curves: uploaded })));
         } catch (err) {
