@@ -1,4 +1,5 @@
 import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { useMemo, useState } from "react";
 import { Link } from "react-router-dom";
 import { FAMILY_LABELS, type TheorySummary } from "../../../../common/catalogue.ts";
@@ -28,7 +29,7 @@ const columns = [
           <Link to={paths.theory(t.slug)} className="font-semibold">
             {t.name}
           </Link>
-          <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{t.summary}</p>
+          <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{conditionText(t.summary)}</p>
           <SourceStatusTally statuses={t.mappings.filter((m) => !m.retired).map((m) => m.source_status)} className="mt-1" />
           {t.retired && <RetiredBadge retired={t.retired} className="mt-1 mr-1" />}
           {t.source_to_be_confirmed && (

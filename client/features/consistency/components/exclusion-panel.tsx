@@ -1,3 +1,5 @@
+import { thresholdText } from "../../../../common/number-text.ts";
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { useEffect, useState, type FormEvent } from "react";
 import { couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -46,7 +48,7 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
                 .filter((c) => c.status !== "ok")
                 .map((c) => (
                   <p key={c.label} className={`text-xs ${c.status === "fails" ? "text-brick" : "text-amber"}`}>
-                    {c.label}: {sig(c.value ?? 0)} vs {c.max}
+                    {conditionText(c.label)}: {sig(c.value ?? 0)} vs {thresholdText(c.max)}
                     {c.factor === null ? "" : ` (× ${sig(c.factor)}${c.status === "stretched" ? ", stretched: kept as valid" : ""})`}
                   </p>
                 ))}
@@ -214,7 +216,7 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
           <Caution title="Where this estimate stops being trustworthy">
             <ul className="list-disc pl-5">
               {data.cautions.map((c) => (
-                <li key={c}>{c}</li>
+                <li key={c}>{conditionText(c)}</li>
               ))}
             </ul>
           </Caution>
