@@ -77,24 +77,27 @@ describe("browser: the catalogue table at 1366 px and 375 px", () => {
     for (const width of [1366, 375]) {
       const page = await browser.newPage();
       await page.setViewportSize({ width, height: width === 375 ? 740 : 860 });
-      await page.goto(`${stack.baseUrl}/catalogue/brans-dicke`, { waitUntil: "networkidle" });
+      await page.goto(`${stack.baseUrl}/catalogue/edgb`, { waitUntil: "networkidle" });
       const mapping = page.getByTestId("mapping-0");
       await mapping.waitFor();
       const constrains = await mapping.locator("dd").first().textContent();
-      expect(constrains).toMatch(/Brans-Dicke coupling/);
-      expect(constrains).toMatch(/API name\s*omega_BD/);
+      expect(constrains).toMatch(/Gauss-Bonnet coupling in convention A/);
+      expect(constrains).toMatch(/API name\s*alpha/);
       // The validity condition and the prose read as mathematics.
-      await expect(page.getByTestId("validity-0-0").textContent()).resolves.toMatch(/ω_BD ≫ 1/);
+      await expect(page.getByTestId("validity-0-0").textContent()).resolves.toMatch(/16π α²\/m₁⁴ < 1\/6/);
       // Apart from what is marked as the machine form (API names, the engine's expression), nothing reads as code.
       const read = await page.evaluate(() => {
         const main = document.querySelector("main")!.cloneNode(true) as HTMLElement;
-        for (const el of main.querySelectorAll("[data-machine]")) el.remove();
+        // KaTeX keeps the TeX source in a hidden MathML annotation for screen readers: not read as text here.
+        for (const el of main.querySelectorAll("[data-machine], .katex-mathml")) el.remove();
         return main.textContent ?? "";
       });
-      expect(read).toMatch(/ω_BD/);
-      expect(read).not.toMatch(/omega_BD|sqrt\(|\balpha\b/);
+      expect(read).toMatch(/√α/);
+      expect(read).not.toMatch(/sqrt_alpha|sqrt\(|\balpha\b|\bpi\b|\^2/);
       expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
-      await page.screenshot({ path: screenshotPath(`catalogue-entry-brans-dicke-${width}`), fullPage: width !== 375 });
+      await page.screenshot({ path: screenshotPath(`catalogue-entry-edgb-${width}`), fullPage: width !== 375 });
+      await mapping.screenshot({ path: screenshotPath(`catalogue-entry-edgb-mapping-${width}`) });
+      await page.getByTestId("coupling-alpha").screenshot({ path: screenshotPath(`catalogue-entry-edgb-coupling-${width}`) });
       await page.close();
     }
   });
