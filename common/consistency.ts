@@ -96,10 +96,16 @@ const width = z.strictObject({
 /**
  * Widths of the test forecast for a detector instead of given: the inspiral from a Fisher forecast on
  * the band f_low .. split frequency, the merger-ringdown from one (2,2,0) damped sinusoid at
- * ringdown_snr (docs/remnant-consistency.md). Built-in noise curves only.
+ * ringdown_snr (docs/remnant-consistency.md). Any curve the forecasts take: a built-in one, ground or
+ * space, or custom:<id> of the caller's uploaded curve (signed in).
  */
 export const testForecastSchema = z.strictObject({
-  curve: z.string().min(1, "curve is required: a built-in noise curve id (aligo-design, et-b, ...)").max(80),
+  curve: z
+    .string({ error: "curve is required: a noise curve id (aligo-design, et-b, lisa, ... or custom:<id>)" })
+    .regex(/^(?:[a-z0-9-]{1,40}|custom:\d{1,10})$/, 'curve must be a built-in id (e.g. "aligo-design", "lisa") or "custom:<id>" of your uploaded curve'),
+  /** Space detectors: the observing window (years observed, ending this many years before merger... see the forecasts), default 4 and 4. */
+  years_observed: num("years_observed").positive("years_observed must be positive").max(100, "years_observed must be at most 100").optional(),
+  years_before_merger: num("years_before_merger").positive("years_before_merger must be positive").max(100, "years_before_merger must be at most 100").optional(),
   f_low: num("f_low").positive("f_low must be positive (Hz)").optional(),
   orientation: z.enum(["sky_averaged", "optimal"], { error: 'orientation must be "sky_averaged" or "optimal"' }).default("sky_averaged"),
   /** Luminosity distance; from the binary's z through the cosmology when absent. */
@@ -108,6 +114,29 @@ export const testForecastSchema = z.strictObject({
   ringdown_snr: num("ringdown_snr").positive("ringdown_snr must be positive").max(1e4, "ringdown_snr must be at most 1e4").optional(),
 });
 export type TestForecast = z.output<typeof testForecastSchema>;
+
+/** The noise curve a test is forecast for, and the inspiral bias computed with, when the request names none. */
+export const DEFAULT_TEST_CURVE = "aligo-design";
+
+/**
+ * The inspiral side of a theory's shift: the linear bias of the GR template fitted to a signal carrying
+ * the theory's ppE term (Cutler & Vallisneri 2007), from the inspiral Fisher matrix on f_low .. split
+ * frequency. When the inspiral widths are forecast, the bias uses the same detector (give no curve
+ * here); with given widths it needs a noise curve of its own (default DEFAULT_TEST_CURVE; a built-in one,
+ * or custom:<id> of the caller's uploaded curve).
+ */
+export const inspiralBiasOptionsSchema = z.strictObject({
+  include: z.boolean({ error: "include must be true or false" }).default(true),
+  curve: z
+    .string({ error: 'curve must be a noise curve id (e.g. "aligo-design", "et-b") or "custom:<id>" of your uploaded curve' })
+    .regex(/^(?:[a-z0-9-]{1,40}|custom:\d{1,10})$/, 'curve must be a built-in id (e.g. "aligo-design", "et-b") or "custom:<id>" of your uploaded curve')
+    .optional(),
+  f_low: num("f_low").positive("f_low must be positive (Hz)").optional(),
+  orientation: z.enum(["sky_averaged", "optimal"], { error: 'orientation must be "sky_averaged" or "optimal"' }).optional(),
+  /** Sets the weight of the Gaussian priors against the data; from the binary's z when absent. */
+  distance_mpc: num("distance_mpc").positive("distance_mpc must be positive (Mpc)").optional(),
+});
+export type InspiralBiasOptions = z.output<typeof inspiralBiasOptionsSchema>;
 
 export const couplingExclusionRequestSchema = z
   .strictObject({
@@ -121,7 +150,7 @@ export const couplingExclusionRequestSchema = z
       z: num("z").min(0, "z must be >= 0").optional(),
     }),
     /** Widths of the two remnant estimates (masses in the binary's frame), e.g. from a past analysis or a forecast. */
-    test: z.strictObject({ inspiral: width.optional(), merger_ringdown: width.optional(), forecast: testForecastSchema.optional() }),
+    test: z.strictObject({ inspiral: width.optional(), merger_ringdown: width.optional(), forecast: testForecastSchema.optional(), inspiral_bias: inspiralBiasOptionsSchema.optional() }),
     credibility: num("credibility").gt(0, "credibility must lie strictly between 0 and 1").lt(1, "credibility must lie strictly between 0 and 1").default(0.9),
     mode: z.enum(["220", "221", "330", "210", "440"], { error: "mode must be one of 220, 221, 330, 210, 440" }).default("220"),
   })
@@ -132,6 +161,14 @@ export const couplingExclusionRequestSchema = z
       ctx.addIssue({ code: "custom", path: ["test", "merger_ringdown"], message: "give the merger-ringdown estimate's widths, or test.forecast.ringdown_snr to forecast them" });
     }
     if (r.test.forecast && r.binary.z === undefined) ctx.addIssue({ code: "custom", path: ["binary", "z"], message: "a forecast needs the binary's redshift z" });
+    const bias = r.test.inspiral_bias;
+    if (bias && !r.test.inspiral && r.test.forecast) {
+      for (const key of ["curve", "f_low", "orientation", "distance_mpc"] as const) {
+        if (bias[key] !== undefined) {
+          ctx.addIssue({ code: "custom", path: ["test", "inspiral_bias", key], message: `the inspiral widths are forecast with test.forecast, and the bias uses the same detector: leave test.inspiral_bias.${key} out` });
+        }
+      }
+    }
   });
 export type CouplingExclusionRequest = z.output<typeof couplingExclusionRequestSchema>;
 export type CouplingExclusionRequestInput = z.input<typeof couplingExclusionRequestSchema>;
@@ -152,6 +189,23 @@ export const couplingExclusionResponseSchema = z.object({
       .object({ curve: z.string(), f_low: z.number(), f_high: z.number(), high_cut: z.string(), snr: z.number(), split_frequency_hz: z.number(), ringdown_snr: z.number().nullable() })
       .optional(),
   }),
+  /**
+   * The inspiral bias when modelled: the detector and band of the Fisher matrix it came from, where that
+   * detector was named, and per ppE term the shift of the inspiral estimate per unit beta.
+   */
+  inspiral_bias: z
+    .object({
+      curve: z.string(),
+      label: z.string(),
+      curve_from: z.enum(["test.forecast", "test.inspiral_bias", "default"]),
+      f_low: z.number(),
+      f_high: z.number(),
+      snr: z.number(),
+      terms: z.array(z.object({ b: z.number(), d_ln_M_f_per_beta: z.number(), d_chi_f_per_beta: z.number() })),
+    })
+    .nullable(),
+  /** What the inspiral side of the test is taken as (biased, or the GR remnant and why); also the first of the cautions. */
+  inspiral_side: z.string(),
   /** Covariance of (dM_f/M_f, dchi_f/chi_f) of the test at the GR point. */
   covariance: z.tuple([point, point]),
   sides: z.array(
@@ -164,6 +218,10 @@ export const couplingExclusionResponseSchema = z.object({
       reason: z.string().optional(),
       /** Where the linear and exact readings part by more than 10 %. */
       linear_breaks_at: z.number().nullable(),
+      /** Smallest |coupling| (signed) up to the bound at which the inspiral bias exceeds one standard deviation of the inspiral estimate (either M_f or chi_f), or null. */
+      bias_exceeds_sigma_at: z.number().nullable(),
+      /** The inspiral bias at the bound in standard deviations of the inspiral estimate (the larger of M_f and chi_f), or null. */
+      bias_sigmas_at_bound: z.number().nullable(),
       /** The translator's verdict rule at the limit (common/convert.ts): stretched rules of thumb stay valid. */
       verdict: verdictSchema,
       failing: failingConditionSchema.nullable(),

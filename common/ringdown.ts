@@ -1,6 +1,10 @@
 import { z } from "zod";
 import {
+  bibliographyEntrySchema,
   cautionSchema,
+  citedReferenceSchema,
+  quotedValueSchema,
+  referenceComparisonSchema,
   checkBoundValue,
   convertRequestSchema,
   convertResponseSchema,
@@ -104,6 +108,16 @@ export const ringdownResultSchema = z.object({
   upper: sideLimitSchema.nullable(),
   unconstrained: z.array(z.object({ side: z.enum(["negative", "positive"]), reason: z.string() })),
   verdict: verdictSchema,
+  /**
+   * The limit on the coupling's magnitude in the unit the literature quotes (sqrt(alpha) in km): the
+   * positive side of a coupling that cannot be negative, or max(|lower|, |upper|) when both sides are
+   * limited. Null for a signed end alone or when there is no limit.
+   */
+  limit: quotedValueSchema.nullable().default(null),
+  /** The entry's published bounds on this coupling, compared with the limit (only a valid limit on the magnitude is compared). */
+  reference_bounds: z.array(referenceComparisonSchema).default([]),
+  /** The sources of the mapping used and of the published bounds. */
+  references: z.array(citedReferenceSchema).default([]),
   cautions: z.array(cautionSchema),
 });
 export type RingdownResult = z.infer<typeof ringdownResultSchema>;
@@ -124,8 +138,12 @@ export const ringdownConvertResponseSchema = z.object({
   }),
   /** The Kerr mode at that remnant (detector frame when z is known, else source frame). */
   qnm: z.object({ mode: z.string(), frequency_hz: z.number(), damping_time_s: z.number(), frame: z.enum(["detector", "source"]) }),
+  /** The catalogue version translated against (the same token as an inspiral answer's). */
+  catalogue_revision: z.string().default(""),
   results: z.array(ringdownResultSchema),
   cautions: z.array(cautionSchema),
+  /** Every reference the results cite, with full details (BibTeX exports of a saved record need nothing else). */
+  bibliography: z.array(bibliographyEntrySchema).default([]),
 });
 export type RingdownConvertResponse = z.infer<typeof ringdownConvertResponseSchema>;
 

@@ -136,7 +136,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", samplesRoutes(translator, config));
   table.mount(api, "/api", jobsRoutes(jobsService(db, config, jobQueue, translator), config));
   table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
-  table.mount(api, "/api", consistencyRoutes(config, ringdown));
+  table.mount(api, "/api", consistencyRoutes(config, ringdown, curvesRepository(db)));
   table.mount(api, "/api", ringdownRoutes(ringdownTranslator, config));
   table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
   const forecasts = forecastsService(curvesRepository(db), getForecastPool({ nice: config.WORKER_NICE }), translator);

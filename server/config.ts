@@ -59,8 +59,9 @@ export const configSchema = z
     CHECK_TIMEOUT_MS: z.coerce.number().int().min(100).default(8000),
     CHECK_IN_FLIGHT_PER_CLIENT: z.coerce.number().int().min(1).default(2),
     CHECK_QUEUE_MAX: z.coerce.number().int().min(1).default(32),
-    // Scheduling priority (Linux nice, 0-19) of the check and symbolic worker threads: above 0 the
-    // threads that answer requests (and PostgreSQL) get the cores first when checks keep them busy.
+    // Scheduling priority (Linux nice, 0-19) of the check and symbolic worker threads and of the job
+    // worker process (server/jobs/worker-main.ts): above 0 the threads that answer requests (and
+    // PostgreSQL) get the cores first when checks and jobs keep them busy.
     WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
     // Largest CSV accepted by POST /api/v1/convert/table (bytes); 256 kB is some thousand rows.
     CONVERT_UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(262_144),

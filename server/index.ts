@@ -4,6 +4,7 @@ import { ConfigError, parseConfig, type Config } from "./config.ts";
 import { createDb } from "./db/knex.ts";
 import { createLogger } from "./logger.ts";
 import { closeForecastPool } from "./features/forecasts/pool.ts";
+import { closeBodyPool, configureBodyPool, getBodyPool } from "./http/body-pool.ts";
 import { closeSymbolicPool, configureSymbolicPool, getSymbolicPool } from "./physics/expr/pool.ts";
 
 export interface RunningServer {
@@ -35,6 +36,7 @@ export function createHttpServer(app: RequestListener, config: Pick<Config, "REQ
 export async function startServer(config: Config, extra: Partial<AppDeps> = {}): Promise<RunningServer> {
   const logger = extra.logger ?? createLogger(config);
   configureSymbolicPool({ nice: config.WORKER_NICE });
+  configureBodyPool({ nice: config.WORKER_NICE });
   const db = extra.db ?? createDb(config.DATABASE_URL);
   const app = createApp({ db, config, logger, ...extra });
   const server = await new Promise<Server>((resolve, reject) => {
@@ -51,6 +53,9 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
     .warm()
     .catch((err: unknown) => logger.warn({ err }, "symbolic workers did not warm up"));
   app.locals.checkPool.warm().catch((err: unknown) => logger.warn({ err }, "check workers did not warm up"));
+  getBodyPool()
+    .warm()
+    .catch((err: unknown) => logger.warn({ err }, "the body worker did not warm up"));
   const addr = server.address();
   const port = typeof addr === "object" && addr ? addr.port : config.PORT;
   const url = `http://${config.HOST}:${port}`;
@@ -66,6 +71,7 @@ export async function startServer(config: Config, extra: Partial<AppDeps> = {}):
       await app.locals.jobQueue.stop();
       await closeSymbolicPool();
       await closeForecastPool();
+      await closeBodyPool();
       if (!extra.db) {
         app.locals.dbBreaker.stop();
         await db.destroy();

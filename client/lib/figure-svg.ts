@@ -17,10 +17,15 @@ export interface FigureText {
   title: string;
   legend?: readonly LegendEntry[] | undefined;
   caption?: string | undefined;
+  /** What the reader must know before trusting the plot; each line is written with a caution mark. */
+  cautions?: readonly string[] | undefined;
 }
 
 const INK = "#1d2528";
 const SOFT = "#4a5458";
+const AMBER = "#7f520f";
+/** The mark written before each caution in a downloaded figure. */
+export const CAUTION_MARK = "⚠";
 const PAD = 12;
 
 /** Splits text into lines of at most `chars` characters, at spaces (a long word gets a line of its own). */
@@ -59,12 +64,16 @@ export function figureSvg(plot: SVGSVGElement, text: FigureText): SVGSVGElement 
   const titleLines = wrapText(text.title, Math.floor(chars * 0.8));
   const legend = text.legend ?? [];
   const captionLines = text.caption ? wrapText(text.caption, chars) : [];
+  const cautionLines = (text.cautions ?? []).map((c) => wrapText(c, chars - 3));
 
   const titleHeight = PAD + titleLines.length * 20;
   const legendTop = titleHeight + height + 6;
-  const legendHeight = legend.length * 17;
+  // Legend lines are 12 px text (about 6.6 px a character): long ones wrap under their words, not under the mark.
+  const legendLines = legend.map((entry) => wrapText(entry.label, Math.max(24, Math.floor((width - 2 * PAD - 18) / 6.6))));
+  const legendHeight = legendLines.reduce((n, lines) => n + lines.length * 17, 0);
   const captionTop = legendTop + legendHeight + (legend.length ? 6 : 0);
-  const total = captionTop + captionLines.length * 15 + PAD;
+  const cautionsTop = captionTop + captionLines.length * 15 + (cautionLines.length ? 8 : 0);
+  const total = cautionsTop + cautionLines.reduce((n, lines) => n + lines.length * 15 + 3, 0) + PAD;
 
   const root = el("svg", { xmlns: SVG_NS, width, height: total, viewBox: `0 0 ${width} ${total}`, "font-family": '"Source Serif 4", Georgia, serif' });
   root.append(el("title", {}, text.title));
@@ -79,13 +88,29 @@ export function figureSvg(plot: SVGSVGElement, text: FigureText): SVGSVGElement 
   copy.setAttribute("height", String(height));
   root.append(copy);
 
+  let legendY = legendTop;
   legend.forEach((entry, i) => {
-    const y = legendTop + 12 + i * 17;
-    const row = el("text", { x: PAD, y, "font-size": 12, fill: INK, "data-role": "figure-legend" });
-    row.append(el("tspan", { fill: entry.color, "font-weight": 700 }, entry.mark));
-    row.append(el("tspan", { dx: 6 }, entry.label));
-    root.append(row);
+    const lines = legendLines[i] ?? [entry.label];
+    lines.forEach((line, j) => {
+      const row = el("text", { x: PAD, y: legendY + 12 + j * 17, "font-size": 12, fill: INK, "data-role": "figure-legend" });
+      if (j === 0) {
+        row.append(el("tspan", { fill: entry.color, "font-weight": 700 }, entry.mark));
+        row.append(el("tspan", { dx: 6 }, line));
+      } else row.append(el("tspan", { x: PAD + 18 }, line));
+      root.append(row);
+    });
+    legendY += lines.length * 17;
   });
   captionLines.forEach((line, i) => root.append(el("text", { x: PAD, y: captionTop + 11 + i * 15, "font-size": 11, fill: SOFT, "data-role": "figure-caption" }, line)));
+  let y = cautionsTop;
+  for (const lines of cautionLines) {
+    lines.forEach((line, i) => {
+      const row = el("text", { x: PAD, y: y + 11 + i * 15, "font-size": 11, fill: INK, "data-role": "figure-caution" });
+      if (i === 0) row.append(el("tspan", { fill: AMBER, "font-weight": 700 }, CAUTION_MARK));
+      row.append(el("tspan", i === 0 ? { dx: 5 } : { x: PAD + 16 }, line));
+      root.append(row);
+    });
+    y += lines.length * 15 + 3;
+  }
   return root;
 }

@@ -14,10 +14,13 @@ export function loadPlot(): Promise<PlotModule> {
   return pending;
 }
 
-/** The SVG element a Plot call returned (a figure wraps it when the plot has a legend or caption). */
+/**
+ * The SVG element a Plot call returned. A figure wraps it when the plot has a legend or caption, and
+ * a swatch legend holds small SVGs of its own before it: the plot is the figure's own SVG child.
+ */
 export function svgOf(node: Element): SVGSVGElement | null {
   if (node instanceof SVGSVGElement) return node;
-  return node.querySelector("svg");
+  return node.querySelector(":scope > svg") ?? node.querySelector("svg");
 }
 
 export function serializeSvg(svg: SVGSVGElement, fontFamily = '"Source Serif 4", Georgia, serif'): string {

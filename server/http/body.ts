@@ -1,5 +1,5 @@
 import express, { type RequestHandler } from "express";
-import { PayloadTooLargeError } from "../errors.ts";
+import { AppError, PayloadTooLargeError } from "../errors.ts";
 import { bodyTextGuard } from "./text-guard.ts";
 
 /** "1 MiB", "512 KiB", "300 bytes": a limit as people read it. */
@@ -16,6 +16,27 @@ export function formatBytes(n: number): string {
  * is cut off as soon as it passes the limit while streaming. Then the text guard walks what was parsed.
  */
 export function jsonBody(limit: number): RequestHandler[] {
+  return [...limitedRead(express.json({ limit }), limit), yieldAfterLargeBody, bodyTextGuard, yieldAfterLargeBody];
+}
+
+/**
+ * The same reading, within the same limits, but the body stays bytes (a Buffer in req.body): its
+ * route parses and validates it with readJsonBody (json-body.ts), off the event loop when it is large.
+ * Only UTF-8 is read (JSON's own encoding; other charsets get 415 before the body is read).
+ */
+export function rawJsonBody(limit: number): RequestHandler[] {
+  const charset: RequestHandler = (req, _res, next) => {
+    const declared = /;\s*charset\s*=\s*"?([^";\s]+)/i.exec(req.headers["content-type"] ?? "")?.[1]?.toLowerCase();
+    if (declared !== undefined && declared !== "utf-8" && declared !== "utf8" && req.is("application/json")) {
+      return next(new AppError(415, "unsupported_charset", `The request body's charset "${declared}" is not read here: send JSON as UTF-8.`, { body: `charset ${declared}: send UTF-8` }));
+    }
+    next();
+  };
+  return [charset, ...limitedRead(express.raw({ type: "application/json", limit }), limit)];
+}
+
+/** A body parser behind a check of the announced length, with "too large while streaming" as the same 413. */
+function limitedRead(parse: RequestHandler, limit: number): RequestHandler[] {
   const tooLarge = (got: string) =>
     new PayloadTooLargeError(`The request body is too large: ${got}; this route accepts at most ${formatBytes(limit)} (${limit} bytes).`, {
       body: `larger than the limit of ${limit} bytes`,
@@ -28,7 +49,6 @@ export function jsonBody(limit: number): RequestHandler[] {
     }
     next();
   };
-  const parse = express.json({ limit });
   const parseWithLimit: RequestHandler = (req, res, next) => {
     parse(req, res, (err?: unknown) => {
       if (err !== undefined && err !== null && typeof err === "object" && (err as { type?: string }).type === "entity.too.large") {
@@ -38,7 +58,7 @@ export function jsonBody(limit: number): RequestHandler[] {
       next(err);
     });
   };
-  return [early, parseWithLimit, yieldAfterLargeBody, bodyTextGuard, yieldAfterLargeBody];
+  return [early, parseWithLimit];
 }
 
 /** Bodies above this size give the event loop a turn between parsing, guarding and the handler. */

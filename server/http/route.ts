@@ -1,8 +1,11 @@
 import type { NextFunction, Request, RequestHandler, Response, Router } from "express";
 import type { z } from "zod";
-import { ForbiddenError, UnauthorizedError, ValidationError, type FieldErrors } from "../errors.ts";
-import { jsonBody } from "./body.ts";
+import { ForbiddenError, UnauthorizedError } from "../errors.ts";
+import { jsonBody, rawJsonBody } from "./body.ts";
 import type { Role } from "./identity.ts";
+
+// parseWith lives in its own module (no Express), so worker threads can read bodies with it too.
+export { parseWith } from "./parse-with.ts";
 
 /**
  * Every API route is declared here, with who may call it. mountRoutes is the only way routes reach
@@ -41,6 +44,11 @@ export interface RouteSpec {
   bodyLimit?: number;
   /** The body is a multipart upload read (within its own limits) by a `before` handler: no JSON body is read. */
   multipart?: boolean;
+  /**
+   * The JSON body is read as bytes (same limits) and left in req.body as a Buffer: the handler parses
+   * and validates it with readJsonBody (server/http/json-body.ts), in a worker thread when it is large.
+   */
+  rawJsonBody?: boolean;
   handler: (req: Request, res: Response, next: NextFunction) => unknown;
 }
 
@@ -60,7 +68,8 @@ export class RouteTable {
       this.routes.push({ ...spec, fullPath: prefix + spec.path });
       const guard = accessGuard(spec.access, () => this.devRoutesEnabled);
       // Access, then rate limits and uploads, then the body: nothing is read for a request that is refused.
-      const body = spec.method === "get" || spec.method === "delete" || spec.multipart ? [] : jsonBody(spec.bodyLimit ?? this.defaultBodyLimit);
+      const limit = spec.bodyLimit ?? this.defaultBodyLimit;
+      const body = spec.method === "get" || spec.method === "delete" || spec.multipart ? [] : spec.rawJsonBody ? rawJsonBody(limit) : jsonBody(limit);
       router[spec.method](spec.path, guard, ...(spec.before ?? []), ...body, async (req, res, next) => {
         await spec.handler(req, res, next);
       });
@@ -102,25 +111,4 @@ export function accessGuard(a: Access, devEnabled: () => boolean): RequestHandle
       }),
     );
   };
-}
-
-/** Parse with a zod schema; a failure becomes a 400 whose fields name each offending path. */
-export function parseWith<S extends z.ZodType>(schema: S, value: unknown, what = "request body"): z.output<S> {
-  const result = schema.safeParse(value);
-  if (result.success) return result.data;
-  const fields: FieldErrors = {};
-  for (const issue of result.error.issues) {
-    if (issue.code === "unrecognized_keys") {
-      // Strict schemas: each unknown field is named by its own path, so a typo is never silently dropped.
-      for (const name of issue.keys) {
-        const key = [...issue.path.map(String), name].join(".");
-        fields[key] ??= `unknown field "${name}": this request does not take it`;
-      }
-      continue;
-    }
-    const key = issue.path.map(String).join(".") || what;
-    fields[key] ??= issue.message;
-  }
-  const first = Object.entries(fields)[0];
-  throw new ValidationError(first ? `Invalid ${what}: ${first[0]}: ${first[1]}` : `Invalid ${what}`, fields);
 }

@@ -70,12 +70,15 @@ export const textGuard: RequestHandler = (req, _res, next) => {
   next();
 };
 
+/** The 400 for the first string of a parsed body that no column could hold, if any. */
+export function bodyTextProblem(body: unknown): ValidationError | undefined {
+  const found = body === undefined ? undefined : findBad(body);
+  if (!found) return undefined;
+  const [field, why] = found;
+  return new ValidationError(`${field} ${why}.`, { [field]: why });
+}
+
 /** The same gate for a body parsed later, by its route (server/http/body.ts). */
 export const bodyTextGuard: RequestHandler = (req, _res, next) => {
-  const found = req.body === undefined ? undefined : findBad(req.body);
-  if (found) {
-    const [field, why] = found;
-    return next(new ValidationError(`${field} ${why}.`, { [field]: why }));
-  }
-  next();
+  next(bodyTextProblem(req.body));
 };

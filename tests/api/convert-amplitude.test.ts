@@ -1,10 +1,8 @@
 import request from "supertest";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { convertResponseSchema, type ConvertResponse, type ConvertResult } from "../../common/convert.ts";
+import { describe, expect, it } from "vitest";
 import { amplitudeCatalogueSeed } from "../../seeds/amplitude-catalogue.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
-import { buildTestApp } from "../helpers/app.ts";
-import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+import { convertSuite, KM_PER_MSUN, rel } from "../helpers/convert.ts";
 
 /**
  * POST /api/v1/convert with amplitude bounds: ppe_alpha at an exponent a, and the distance ratio
@@ -12,12 +10,9 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * distances integrated here independently of the server's cosmology code.
  */
 
-// IAU 2015 B3 nominal (G M)_sun and exact c: G M_sun / c^2 in km.
-const KM_PER_MSUN = 1.3271244e20 / 299_792_458 ** 2 / 1000;
 const C_KM_S = 299_792.458;
 const GPC_KM = 3.085677581491367e22;
 const F_REF_PER_KM = 100 / C_KM_S;
-const rel = (a: number, b: number) => Math.abs(a / b - 1);
 // Planck 2018 defaults of the API (value from memory), flat Lambda-CDM.
 const H0 = 67.66;
 const OM = 0.3111;
@@ -34,36 +29,7 @@ function comovingKm(z: number): number {
 }
 
 describe("POST /api/v1/convert with amplitude bounds", () => {
-  let tdb: TestDatabase;
-  let app: ReturnType<typeof buildTestApp>;
-
-  beforeAll(async () => {
-    tdb = await createTestDatabase();
-    await tdb.db.transaction(async (trx) => {
-      await catalogueSeed.run(trx);
-      await amplitudeCatalogueSeed.run(trx);
-    });
-    app = buildTestApp(tdb, { RATE_LIMIT_PER_MINUTE: "1000" });
-  }, 120_000);
-  afterAll(async () => {
-    await tdb?.drop();
-  });
-
-  async function convert(body: object): Promise<ConvertResponse> {
-    const res = await request(app).post("/api/v1/convert").send(body);
-    expect(res.status, JSON.stringify(res.body)).toBe(200);
-    return convertResponseSchema.parse(res.body);
-  }
-  const resultFor = (r: ConvertResponse, theory: string, symbol?: string): ConvertResult => {
-    const found = r.results.find((x) => x.theory === theory && (symbol === undefined || x.coupling_symbol === symbol));
-    if (!found) throw new Error(`no result for ${theory} ${symbol ?? ""}; not applicable: ${JSON.stringify(r.not_applicable.filter((n) => n.theory === theory))}`);
-    return found;
-  };
-  async function refused(body: object): Promise<Record<string, string>> {
-    const res = await request(app).post("/api/v1/convert").send(body);
-    expect(res.status, JSON.stringify(res.body)).toBe(400);
-    return res.body.error.fields as Record<string, string>;
-  }
+  const { app, convert, resultFor, refused } = convertSuite([catalogueSeed, amplitudeCatalogueSeed]);
 
   const m1 = 36 * KM_PER_MSUN;
   const m2 = 29 * KM_PER_MSUN;
@@ -184,7 +150,7 @@ describe("POST /api/v1/convert with amplitude bounds", () => {
 
   it("POST /convert/events: when two identical events bound alpha at a = 3, then each equals /convert and the combination is 1/sqrt(2) of one (linear mapping, p = 1)", async () => {
     const event = { label: "ev", binary: heavy, upper: 0.05 };
-    const res = await request(app)
+    const res = await request(app())
       .post("/api/v1/convert/events")
       .send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event, { ...event, label: "ev2" }] });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
@@ -195,16 +161,16 @@ describe("POST /api/v1/convert with amplitude bounds", () => {
     expect(rel(res.body.combined.limit, single.coupling.value / Math.SQRT2)).toBeLessThan(1e-9);
     expect(res.body.cautions.some((c: { code: string }) => c.code === "amplitude")).toBe(true);
     // a is required, and a theory without an amplitude term at a is named.
-    const noA = await request(app).post("/api/v1/convert/events").send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", credibility: 0.9, events: [event] });
+    const noA = await request(app()).post("/api/v1/convert/events").send({ theory: "amplitude-birefringence", parameter: "ppe_alpha", credibility: 0.9, events: [event] });
     expect(noA.status).toBe(400);
     expect(noA.body.error.fields).toHaveProperty("a");
-    const wrongA = await request(app).post("/api/v1/convert/events").send({ theory: "edgb", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event] });
+    const wrongA = await request(app()).post("/api/v1/convert/events").send({ theory: "edgb", parameter: "ppe_alpha", a: 3, credibility: 0.9, events: [event] });
     expect(wrongA.status).toBe(400);
     expect(wrongA.body.error.fields.a).toMatch(/no amplitude mapping at a = 3/);
   });
 
   it("POST /expressions/derive: when a -1PN flux change is given, then the amplitude's drift piece comes back at a = -2 with what it leaves out", async () => {
-    const res = await request(app)
+    const res = await request(app())
       .post("/api/v1/expressions/derive")
       .send({ flux: { order: -1, coefficient: "B" }, couplings: [{ symbol: "B", dimension: 0 }], evaluate_at: { m1: 10, m2: 5, B: 0.01 } });
     expect(res.status, JSON.stringify(res.body)).toBe(200);

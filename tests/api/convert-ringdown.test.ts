@@ -203,7 +203,8 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
   });
 
   it("POST /api/v1/consistency/coupling: when the Johannsen entry's light-ring shifts meet a test's widths, then the excluded alpha13 follows the same closed form", async () => {
-    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 } };
+    // The entry's inspiral term (b = -1) is left out here, so the ringdown side alone is checked (tests/api/consistency-coupling-bias.test.ts adds it).
+    const test = { inspiral: { sigma_M_f: 4.34, sigma_chi_f: 0.028, rho: -0.83 }, merger_ringdown: { sigma_M_f: 3.84, sigma_chi_f: 0.078, rho: 0.97 }, inspiral_bias: { include: false } };
     const res = await request(app).post("/api/v1/consistency/coupling").send({ theory: "johannsen", binary: { m1: 39, m2: 32, frame: "detector", z: 0.09 }, test });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const body = res.body;
@@ -348,5 +349,54 @@ describe("POST /api/v1/convert with a ringdown bound (and /convert/ringdown, whi
     const spinning = await convert({ bound: { parameter: "qnm_dfreq", upper: U, credibility: 0.9 }, remnant: { M_f: Mf, chi_f: 0.68, frame: "source" }, theories: ["edgb"] });
     expect(spinning.results[0]?.verdict).toBe("outside_validity");
     expect(spinning.results[0]?.upper?.failing?.label).toMatch(/non-rotating/);
+  });
+
+  it("when a ringdown bound limits EdGB validly, then the limit is quoted as sqrt(alpha) in km and compared with the entry's published bounds", async () => {
+    // |df| <= U at a slowly spinning remnant: alpha^2 = U M_f^4 / ((4397/21870) 16 pi) with M_f in km (the mapping's own form, derived).
+    const U = 0.01;
+    const MfKm = 20 * 1.4766250385;
+    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: U, credibility: 0.9 }, remnant: { M_f: 20, chi_f: 0.1, frame: "source" }, theories: ["edgb"] });
+    const r = body.results[0]!;
+    const alpha = Math.sqrt((U * MfKm ** 4) / ((4397 / 21870) * 16 * Math.PI));
+    expect(r.verdict).toBe("valid");
+    expect(r.limit).toMatchObject({ symbol: "sqrt_alpha", unit: "km", side: "upper" });
+    expect(r.limit?.value).toBeCloseTo(Math.sqrt(alpha), 3);
+    // Lyu, Jiang & Yagi 2022: sqrt(alpha) <= 1.33 km at 90 % in convention A (the entry's published bound).
+    const lyu = r.reference_bounds.find((c) => c.reference.key === "lyu-jiang-yagi-2022");
+    expect(lyu?.value).toBe(1.33);
+    expect(lyu?.ratio).toBeCloseTo(1.33 / Math.sqrt(alpha), 3);
+    expect(lyu?.verdict).toBe(1.33 / Math.sqrt(alpha) > 1 ? "tighter" : "weaker");
+    expect(lyu?.sentence).toMatch(/Lyu et al\. 2022/);
+    // Only bounds on this coupling; the references are the mapping's and the bounds' sources, each in the bibliography.
+    expect(r.reference_bounds.every((c) => c.symbol === "sqrt_alpha")).toBe(true);
+    const keys = r.references.map((c) => c.key);
+    expect(keys).toContain("cardoso-et-al-2009");
+    expect(keys).toContain("lyu-jiang-yagi-2022");
+    for (const k of keys) expect(body.bibliography.find((b) => b.key === k)?.title.length).toBeGreaterThan(0);
+    expect(body.catalogue_revision).toMatch(/^\d+\.\d+\./);
+  });
+
+  it("when the ringdown limit is outside validity, then the published bounds are listed but not compared", async () => {
+    // chi_f = 0.68 breaks the non-rotating condition chi_f <= 0.3 (hard): no comparison may be made.
+    const body = await convert({ bound: { parameter: "qnm_dfreq", upper: 0.01, credibility: 0.9 }, remnant: { M_f: 20, chi_f: 0.68, frame: "source" }, theories: ["edgb"] });
+    const r = body.results[0]!;
+    expect(r.verdict).toBe("outside_validity");
+    expect(r.reference_bounds.length).toBeGreaterThan(0);
+    for (const c of r.reference_bounds) {
+      expect(c.verdict).toBe("not_compared");
+      expect(c.ratio).toBeNull();
+      expect(c.sentence).toMatch(/outside the validity/);
+    }
+  });
+
+  it("when a signed coupling is limited on both sides, then its magnitude limit is max(|lower|, |upper|); on one side only, there is none", async () => {
+    const both = await convert({ bound: { parameter: "qnm_dfreq", interval: [-0.02, 0.05], credibility: 0.9 }, remnant: { M_f: 67.5, chi_f: 0.68, frame: "detector", z: 0.09 }, theories: ["ringdown-deviation"] });
+    // Identity mapping: dfreq220 in [-0.02, 0.05], so |dfreq220| <= 0.05.
+    expect(both.results[0]?.limit?.value).toBeCloseTo(0.05, 12);
+    expect(both.results[0]?.references.map((c) => c.key)).toEqual(["gossan-veitch-sathyaprakash-2012", "berti-cardoso-will-2006"]);
+    expect(both.bibliography.map((b) => b.key).sort()).toEqual(["berti-cardoso-will-2006", "gossan-veitch-sathyaprakash-2012"]);
+    const one = await convert({ bound: { parameter: "qnm_dfreq", interval: [null, 0.05], credibility: 0.9 }, remnant: { M_f: 67.5, chi_f: 0.68, frame: "detector", z: 0.09 }, theories: ["ringdown-deviation"] });
+    expect(one.results[0]?.upper?.value).toBeCloseTo(0.05, 12);
+    expect(one.results[0]?.limit).toBeNull();
   });
 });

@@ -1,48 +1,17 @@
 import request from "supertest";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { convertResponseSchema, type ConvertResponse, type ConvertResult } from "../../common/convert.ts";
+import { describe, expect, it } from "vitest";
+import { convertResponseSchema } from "../../common/convert.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { catalogueWave2bSeed, catalogueWave2cSeed, catalogueWave2Seed } from "../../seeds/catalogue-wave2.ts";
-import { buildTestApp } from "../helpers/app.ts";
-import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
+import { convertSuite, KM_PER_MSUN, rel } from "../helpers/convert.ts";
 
 /**
  * POST /api/v1/convert through the second batch of entries: each limit against a formula written
  * here from the entry's source or derivation, with the constants typed in again.
  */
 
-// IAU 2015 B3 nominal (G M)_sun and exact c: G M_sun / c^2 in km.
-const KM_PER_MSUN = 1.3271244e20 / 299_792_458 ** 2 / 1000;
-const rel = (a: number, b: number) => Math.abs(a / b - 1);
-
 describe("POST /api/v1/convert with the second batch of entries", () => {
-  let tdb: TestDatabase;
-  let app: ReturnType<typeof buildTestApp>;
-
-  beforeAll(async () => {
-    tdb = await createTestDatabase();
-    await tdb.db.transaction(async (trx) => {
-      await catalogueSeed.run(trx);
-      await catalogueWave2Seed.run(trx);
-      await catalogueWave2bSeed.run(trx);
-      await catalogueWave2cSeed.run(trx);
-    });
-    app = buildTestApp(tdb, { RATE_LIMIT_PER_MINUTE: "1000" });
-  }, 120_000);
-  afterAll(async () => {
-    await tdb?.drop();
-  });
-
-  async function convert(body: object): Promise<ConvertResponse> {
-    const res = await request(app).post("/api/v1/convert").send(body);
-    expect(res.status, JSON.stringify(res.body)).toBe(200);
-    return convertResponseSchema.parse(res.body);
-  }
-  const resultFor = (r: ConvertResponse, theory: string): ConvertResult => {
-    const found = r.results.find((x) => x.theory === theory);
-    if (!found) throw new Error(`no result for ${theory}; not applicable: ${JSON.stringify(r.not_applicable.find((n) => n.theory === theory))}`);
-    return found;
-  };
+  const { app, convert, resultFor } = convertSuite([catalogueSeed, catalogueWave2Seed, catalogueWave2bSeed, catalogueWave2cSeed]);
 
   const m1 = 10 * KM_PER_MSUN;
   const m2 = 5 * KM_PER_MSUN;
@@ -86,7 +55,7 @@ describe("POST /api/v1/convert with the second batch of entries", () => {
   });
 
   it("when a bound at b = 3 is asked for, then no limit comes back: a constant speed of GWs is degenerate with the coalescence time", async () => {
-    const res = await request(app).post("/api/v1/convert").send({ bound: { parameter: "ppe_beta", b: 3, upper: 1, credibility: 0.9 }, binary, theories: ["gw-speed"] });
+    const res = await request(app()).post("/api/v1/convert").send({ bound: { parameter: "ppe_beta", b: 3, upper: 1, credibility: 0.9 }, binary, theories: ["gw-speed"] });
     // Yunes & Pretorius 2009: b = 3 (4PN) is degenerate with t_c; the entry documents the term and cites the GW-EM bound instead.
     expect(res.status).toBe(200);
     const r = convertResponseSchema.parse(res.body);

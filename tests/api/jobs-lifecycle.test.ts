@@ -1,4 +1,6 @@
 import { spawn, type ChildProcess } from "node:child_process";
+import { readdirSync, readFileSync } from "node:fs";
+import { getPriority } from "node:os";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { DragomanApp } from "../../server/app.ts";
@@ -13,6 +15,7 @@ import { filled, gaussian, toCsv } from "../helpers/samples-data.ts";
 /**
  * DELETE /api/v1/jobs/:id mid-job, and a worker process killed mid-job. The worker pauses halfway
  * (JOBS_TEST_PAUSE_MS, refused in production) so "mid-job" is a state the test waits for, not a race.
+ * The worker process runs at the lower priority WORKER_NICE, read back while it is mid-job.
  */
 
 const n = 5000;
@@ -60,7 +63,20 @@ describe("DELETE /api/v1/jobs/:id", () => {
   });
 });
 
-describe("a worker killed mid-job", () => {
+const WORKER_NICE = 7;
+
+/** The nice value of every thread of a process, from /proc (field 19 of stat, after the parenthesised name). */
+function threadNices(pid: number): number[] {
+  return readdirSync(`/proc/${pid}/task`).flatMap((tid) => {
+    try {
+      return [Number(readFileSync(`/proc/${pid}/task/${tid}/stat`, "utf8").split(") ")[1]?.split(" ")[16])];
+    } catch {
+      return []; // the thread ended meanwhile
+    }
+  });
+}
+
+describe("a worker process killed mid-job (running at the lower priority WORKER_NICE)", () => {
   let tdb: TestDatabase;
   let child: ChildProcess | undefined;
   const workers: RunningWorker[] = [];
@@ -77,10 +93,10 @@ describe("a worker killed mid-job", () => {
     await tdb?.drop();
   });
 
-  /** A worker in its own process, the way `npm run worker` starts one, pausing halfway. */
+  /** A worker in its own process, the way `npm run worker` starts one, pausing halfway, at nice WORKER_NICE. */
   function spawnWorker(env: Record<string, string>): ChildProcess {
     return spawn(process.execPath, ["--import", "tsx", "server/jobs/worker-main.ts"], {
-      env: { ...process.env, NODE_ENV: "test", LOG_LEVEL: "silent", DATABASE_URL: tdb.url, JOBS_TEST_PAUSE_MS: "60000", ...env },
+      env: { ...process.env, NODE_ENV: "test", LOG_LEVEL: "silent", DATABASE_URL: tdb.url, JOBS_TEST_PAUSE_MS: "60000", WORKER_NICE: String(WORKER_NICE), ...env },
       stdio: "ignore",
     });
   }
@@ -94,6 +110,11 @@ describe("a worker killed mid-job", () => {
     expect(res.status).toBe(202);
     const id = res.body.job.id as string;
     await waitForJob(app, id, midway);
+    // Mid-job, so the process has set its priority long before: its main thread, and (Linux, where a
+    // nice value is per thread) every thread it runs, are at WORKER_NICE; this test process is not.
+    expect(getPriority(child.pid!)).toBe(WORKER_NICE);
+    expect(getPriority()).not.toBe(WORKER_NICE);
+    if (process.platform === "linux") expect(new Set(threadNices(child.pid!))).toEqual(new Set([WORKER_NICE]));
     child.kill("SIGKILL");
     await new Promise((r) => child!.once("exit", r));
     // A healthy worker (no pause) supervises the queue: it expires the dead worker's claim.
@@ -102,7 +123,8 @@ describe("a worker killed mid-job", () => {
     return { app, id };
   }
 
-  it("when retries are left, then the job is retried by another worker and finishes", async () => {
+  // Each starts a worker process (tsx compiles it at the lower priority) and waits out the queue's expiry: minutes on a loaded machine.
+  it("when retries are left, then the job is retried by another worker and finishes", { timeout: 120_000 }, async () => {
     const { app, id } = await killMidway("1");
     const view = await waitForJob(app, id, (v) => v.status === "done" || v.status === "failed");
     expect(view.status).toBe("done");
@@ -111,7 +133,7 @@ describe("a worker killed mid-job", () => {
     await workers.pop()!.stop();
   });
 
-  it("when no retry is left, then the job is failed with a message, never left running", async () => {
+  it("when no retry is left, then the job is failed with a message, never left running", { timeout: 120_000 }, async () => {
     const { app, id } = await killMidway("0");
     const view = await waitForJob(app, id, (v) => v.status !== "running" && v.status !== "queued");
     expect(view.status).toBe("failed");

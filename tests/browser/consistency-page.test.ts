@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
 import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
@@ -6,7 +6,7 @@ import { createLogger } from "../../server/logger.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
-import { clientIsBuilt, launchBrowser, screenshotPath } from "../helpers/browser.ts";
+import { clientIsBuilt, expectPng, launchBrowser, screenshotPath } from "../helpers/browser.ts";
 import { testConfig } from "../helpers/app.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
@@ -93,12 +93,32 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await page.getByTestId("exclusion-table").waitFor();
     await page.getByTestId("deviation-track").waitFor();
     await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/alpha13 > 0/);
+    // The entry's 2PN term biases the inspiral estimate: the note beside the table says so, with the detector used.
+    await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/inspiral bias included.*b = -1.*Advanced LIGO design \(the detector chosen for the bias\)/);
+    await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/one standard deviation/);
+    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/inspiral bias past 1σ from/);
 
+    // The excluded couplings are marked on the track in symbols, with their verdict's mark.
+    await expect(page.locator('[data-testid="deviation-plot"] [data-role="deviation-mark"]').first().textContent()).resolves.toMatch(/^[✓✕?] α₁₃ = /);
     const [download] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-svg").click()])) as [Download, void];
     const svg = readFileSync(await download.path(), "utf8");
     expect(download.suggestedFilename()).toBe("imr-consistency.svg");
     expect(svg).toMatch(/<svg[^>]+xmlns="http:\/\/www.w3.org\/2000\/svg"/);
     expect(svg).toMatch(/data-level="0.9"/);
+    // The file keeps the title, the legend with the verdict marks, the cautions and the symbols (no identifiers).
+    expect(svg).toContain("<title>Deviation from the remnant estimates</title>");
+    expect(svg).toMatch(/data-role="figure-title"[^>]*>Deviation from the remnant estimates</);
+    expect(svg).toMatch(/data-role="deviation-mark" data-verdict="(valid|outside_validity|not_assessed)"/);
+    expect(svg).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan><tspan[^>]*>smallest excluded coupling, /);
+    expect(svg).toMatch(/data-role="figure-caution"[^>]*><tspan[^>]*>⚠<\/tspan><tspan[^>]*>[^<]*Gaussian approximation/);
+    expect(svg).toMatch(/[✓✕?] α₁₃ = /);
+    expect(svg).toMatch(/Δχ<tspan baseline-shift="sub"[^>]*>f<\/tspan>/);
+    for (const id of ["alpha13", "johannsen", "chi_f", "M_f"]) expect(svg).not.toContain(id);
+    const [pngDownload] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-png").click()])) as [Download, void];
+    expect(pngDownload.suggestedFilename()).toBe("imr-consistency.png");
+    const png = readFileSync(await pngDownload.path());
+    expectPng(png, 560 * 2);
+    writeFileSync(screenshotPath("consistency-plot-download"), png);
     await page.screenshot({ path: screenshotPath("consistency-page"), fullPage: true });
     await expect(page.getByTestId("split-source").textContent()).resolves.toMatch(/inspiral estimate's remnant/);
 
@@ -115,6 +135,8 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await again.getByTestId("exclusion-table").waitFor();
     await expect(again.locator('input[name="inspiral.chi_f"]').inputValue()).resolves.toBe("0.66");
     await again.screenshot({ path: screenshotPath("consistency-page-375"), fullPage: true });
+    await expect(again.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/inspiral bias included/);
+    await again.getByTestId("exclusion-panel").screenshot({ path: screenshotPath("consistency-exclusion-375") });
     // A damaged link says which field is wrong and falls back to the example.
     await again.goto(`${stack.baseUrl}/consistency?q=${encodeURIComponent('{"inspiral":{"M_f":-1}}')}`, { waitUntil: "networkidle" });
     await expect(again.getByTestId("bad-link").textContent()).resolves.toMatch(/inspiral\.M_f/);
@@ -125,6 +147,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await page.locator('input[name="test.forecast.distance_mpc"]').fill("410");
     await page.getByTestId("run-exclusion").click();
     await expect.poll(async () => (await page.getByTestId("exclusion-table").textContent()) ?? "", { timeout: 20_000 }).toMatch(/\(forecast\).*inspiral SNR/);
+    await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/the forecast's detector/);
     await page.getByTestId("exclusion-panel").screenshot({ path: screenshotPath("consistency-forecast-widths") });
     expect(new URL(page.url()).searchParams.get("c")).toMatch(/"forecast"/);
     expect(errors).toEqual([]);
@@ -139,7 +162,13 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     const row = page.getByTestId("ringdown-result-johannsen");
     await row.waitFor();
     // df = -alpha13/27 and |df| <= 0.05: |alpha13| <= 1.35 (light ring; tests/api/convert-ringdown.test.ts checks it against the metric).
-    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ alpha13 ≤ 1\.35/);
+    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ α_13 ≤ 1\.35\|α_13\| ≤ 1\.35/);
+    // The mapping's source beside the row, and every cited reference in the answer's bibliography with its BibTeX.
+    await expect(row.textContent()).resolves.toMatch(/sources: Cardoso et al\. 2009/);
+    const bibliography = page.getByTestId("ringdown-bibliography");
+    await expect(bibliography.textContent()).resolves.toMatch(/Geodesic stability, Lyapunov exponents and quasinormal modes/);
+    await bibliography.getByRole("button", { name: "BibTeX of these references" }).click();
+    await expect(page.getByTestId("ringdown-bibliography-bibtex").textContent()).resolves.toMatch(/@article\{cardoso-et-al-2009,/);
     // |alpha13| < 1 is a rule of thumb exceeded 1.35 times: valid, stretched (the translator's rule, at most 10 times).
     await expect(row.textContent()).resolves.toMatch(/valid/);
     await expect(row.textContent()).resolves.toMatch(/stretched, kept as valid/);
@@ -183,5 +212,31 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await expect(page.getByTestId("consistency-cautions").textContent()).resolves.toMatch(/random \(inspiral, merger-ringdown\) pairs/);
     await page.screenshot({ path: screenshotPath("consistency-samples"), fullPage: true });
     expect(errors).toEqual([]);
+
+    // The address holds the job: reloading (or opening the link later) shows the same result without uploading again.
+    const job = new URL(page.url()).searchParams.get("job");
+    expect(job).toMatch(/^[A-Za-z0-9_-]{24}$/);
+    const quantileText = await page.getByTestId("gr-quantile").textContent();
+    await page.reload({ waitUntil: "networkidle" });
+    await expect(page.getByTestId("input-samples").isChecked()).resolves.toBe(true);
+    await page.getByTestId("gr-quantile").waitFor({ timeout: 30_000 });
+    await expect(page.getByTestId("gr-quantile").textContent()).resolves.toBe(quantileText);
+    expect(errors).toEqual([]);
+  });
+
+  it("when a link names a job that is gone or is not a job id, then the page says the result cannot be shown", { timeout: 60_000 }, async () => {
+    const page = await visitor.newPage();
+    const errors = watch(page);
+    // A well-formed id no job has (expired, or never issued): the server's 404 message is shown in words.
+    await page.goto(`${stack.baseUrl}/consistency?job=${"A".repeat(24)}`, { waitUntil: "networkidle" });
+    await expect(page.getByTestId("samples-job-unavailable").textContent()).resolves.toMatch(/cannot be shown: No job A{24}: it never existed or has expired/);
+    await expect(page.getByTestId("gr-quantile").count()).resolves.toBe(0);
+    // A mangled id is not sent at all.
+    await page.goto(`${stack.baseUrl}/consistency?job=not-a-job`, { waitUntil: "networkidle" });
+    await expect(page.getByTestId("samples-job-unavailable").textContent()).resolves.toMatch(/not a job id/);
+    await page.setViewportSize({ width: 375, height: 800 });
+    await page.screenshot({ path: screenshotPath("consistency-job-link-gone-375"), fullPage: true });
+    // The 404 of the first link is the only error the browser logs (a failed request, not a crash).
+    expect(errors.every((e) => /404/.test(e))).toBe(true);
   });
 });

@@ -5,6 +5,7 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { seedDemo } from "../../seeds/index.ts";
 import { bearerFor, ensureUser, startSignInStack, type SignInStack } from "../helpers/auth.ts";
+import { axeSerious } from "../helpers/axe.ts";
 import { clientIsBuilt, launchBrowser, screenshotPath } from "../helpers/browser.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
@@ -17,33 +18,12 @@ import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
  * what is checked).
  */
 
-const AXE_SOURCE = readFileSync(path.resolve("node_modules", "axe-core", "axe.min.js"), "utf8");
 const WIDTHS = [375, 1366] as const;
 
 /** The paths declared in the router, in order ("*" last). */
 function routerPaths(): string[] {
   const source = readFileSync(path.resolve("client", "app", "router.tsx"), "utf8");
   return [...source.matchAll(/path:\s*"([^"]+)"/g)].map((m) => m[1]!);
-}
-
-interface Violation {
-  id: string;
-  impact: string | null;
-  help: string;
-  nodes: { target: string[]; failureSummary?: string }[];
-}
-
-async function axeSerious(page: Page): Promise<string[]> {
-  // Evaluated through the DevTools protocol: the app's CSP (script-src 'self') rightly refuses an inline script tag.
-  await page.evaluate(AXE_SOURCE);
-  const violations = (await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: unknown[] }> } }).axe;
-    const result = await axe.run(document, { resultTypes: ["violations"] });
-    return result.violations;
-  })) as Violation[];
-  return violations
-    .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => `${v.id} (${v.impact}): ${v.help} at ${v.nodes.slice(0, 3).map((n) => `${n.target.join(" ")} [${n.failureSummary ?? ""}]`).join("; ")}`);
 }
 
 /** The outermost elements that stick out on the right (inside a scrolling box is fine), to name the culprit. */

@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
 import { createLogger } from "../../server/logger.ts";
 import { testConfig } from "../helpers/app.ts";
@@ -6,7 +6,7 @@ import type { BrowserContext, Download, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
-import { clientIsBuilt, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
+import { clientIsBuilt, expectPng, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
 /**
@@ -62,10 +62,10 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await page.getByTestId("forecast-form").waitFor();
 
     // A bad band is refused with the field named beside the detector.
-    await page.getByTestId("forecast-detector-0").getByLabel("f_low [Hz]").fill("2");
+    await page.getByTestId("forecast-detector-0").getByLabel("flow [Hz]").fill("2");
     await page.getByTestId("forecast-run").click();
     await expect(page.getByTestId("forecast-error").textContent()).resolves.toMatch(/detectors\.0\.f_low/);
-    await page.getByTestId("forecast-detector-0").getByLabel("f_low [Hz]").fill("");
+    await page.getByTestId("forecast-detector-0").getByLabel("flow [Hz]").fill("");
 
     await page.getByTestId("forecast-run").click();
     await page.getByTestId("forecast-results").waitFor({ timeout: 60_000 });
@@ -89,7 +89,24 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     const [download] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("forecast-bound-plot-png").click()])) as [Download, void];
     expect(download.suggestedFilename()).toBe("forecast-beta-against-b.png");
     const png = readFileSync(await download.path());
-    expect(png.subarray(1, 4).toString()).toBe("PNG");
+    expectPng(png, 780 * 2);
+    writeFileSync(screenshotPath("forecast-bound-plot-download"), png);
+    // The downloaded SVG keeps the title, each theory's verdict mark, the low-SNR caution and the cautions, in symbols.
+    const [boundSvg] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("forecast-bound-plot-svg").click()])) as [Download, void];
+    expect(boundSvg.suggestedFilename()).toBe("forecast-beta-against-b.svg");
+    const bound = readFileSync(await boundSvg.path(), "utf8");
+    expect(bound).toContain("<title>Forecast bound on |β| against b</title>");
+    expect(bound).toMatch(/data-role="figure-title"[^>]*>Forecast bound on \|β\| against b</);
+    expect(bound).toMatch(/data-role="theory-label"[^>]*>[✓✕?] EdGB/);
+    expect(bound).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>○<\/tspan><tspan[^>]*>hollow point: network SNR below 10/);
+    expect(bound).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan><tspan[^>]*>(limit valid|outside validity|validity not assessed)/);
+    expect(bound).toMatch(/data-role="figure-caution"[^>]*><tspan[^>]*>⚠<\/tspan>/);
+    const [couplingSvg] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("forecast-coupling-plot-svg").click()])) as [Download, void];
+    const coupling = readFileSync(await couplingSvg.path(), "utf8");
+    expect(coupling).toContain("<title>Theories: forecast coupling limit beside published bounds</title>");
+    expect(coupling).toMatch(/EdGB, √α \(b = -7\)/);
+    expect(coupling).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan>/);
+    for (const file of [bound, coupling]) for (const id of ["sqrt_alpha", ">edgb<", "brans-dicke", "omega_BD", "lambda_g"]) expect(file).not.toContain(id);
     // Symbols, not code names: the limits are typeset (KaTeX) and no ASCII condition text is left.
     await translations.locator(".katex").first().waitFor();
     const translated = (await translations.textContent()) ?? "";
@@ -169,8 +186,22 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     await grid.getByTestId("forecast-grid-b").selectOption("-7");
     await grid.getByTestId("forecast-grid-cell-1-0").locator("[data-value]").first().waitFor();
     await page.screenshot({ path: screenshotPath("forecast-grid"), fullPage: true });
+    // The second binary's plots and tables on request: its ISCO (a lighter binary) is higher.
+    const isco = async () => (await page.getByTestId("forecast-assumptions").textContent()) ?? "";
+    const firstIsco = await isco();
+    await page.getByTestId("forecast-shown-binary").selectOption("1");
+    await expect.poll(isco).not.toBe(firstIsco);
+    await expect(page.getByTestId("forecast-assumptions").textContent()).resolves.toMatch(/Source: 20\.00 \+ 15\.00 M☉/);
     const job = await tdb.db("analysis_jobs").where({ kind: "forecast" }).orderBy("created_at", "desc").first();
     expect(job.status).toBe("done");
+    // The address names the job beside the request: reloading reads the finished job back, no new job.
+    expect(new URL(page.url()).searchParams.get("job")).toBe(job.id);
+    const jobsBefore = await tdb.db("analysis_jobs").where({ kind: "forecast" }).count<{ count: string }[]>("* as count");
+    await page.reload({ waitUntil: "networkidle" });
+    await page.getByTestId("forecast-results").waitFor({ timeout: 60_000 });
+    await expect(page.getByTestId("forecast-table").locator("tbody tr").count()).resolves.toBe(bs.length);
+    const jobsAfter = await tdb.db("analysis_jobs").where({ kind: "forecast" }).count<{ count: string }[]>("* as count");
+    expect(Number(jobsAfter[0]!.count)).toBe(Number(jobsBefore[0]!.count));
     expect(errors).toEqual([]);
   });
 });

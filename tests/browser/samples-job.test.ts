@@ -1,8 +1,8 @@
-import { mkdtemp, rm, writeFile } from "node:fs/promises";
+import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import type { Server } from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import type { BrowserContext } from "playwright-core";
+import type { BrowserContext, Download } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { DragomanApp } from "../../server/app.ts";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
@@ -119,15 +119,26 @@ describe("browser: a posterior file as a background job", () => {
     await stack.getByTestId("stack-progress").waitFor({ timeout: 30_000 });
     await expect(stack.getByTestId("stack-cancel").isVisible()).resolves.toBe(true);
     await stack.getByTestId("stack-result").waitFor({ timeout: 60_000 });
-    await expect(stack.getByTestId("stack-bound").textContent()).resolves.toMatch(/sqrt_alpha\s*≤\s*[\d.]+/);
+    await expect(stack.getByTestId("stack-bound").textContent()).resolves.toMatch(/√α\s*≤\s*[\d.]+/);
     await expect(stack.getByTestId("stack-verdict").getAttribute("data-verdict")).resolves.toMatch(/^(valid|outside_validity|not_assessed)$/);
     await expect(stack.getByTestId("stack-event-0").textContent()).resolves.toMatch(/KV-a.*samples job/);
     await expect(stack.getByTestId("stack-event-1").textContent()).resolves.toMatch(/KV-b.*summary/);
     await expect(stack.getByTestId("stack-cautions").textContent()).resolves.toMatch(/Quick estimate/);
     await stack.getByTestId("stack-plot").locator("svg").first().waitFor({ timeout: 20_000 });
+    // The downloaded plot keeps the events' legend, the verdict on the combined bound and the cautions, in symbols.
+    const [download] = (await Promise.all([page.waitForEvent("download"), stack.getByTestId("stack-plot-svg").click()])) as [Download, void];
+    const svg = await readFile((await download.path())!, "utf8");
+    expect(svg).toMatch(/data-role="figure-title"[^>]*>[^<]*posterior of √α/);
+    expect(svg).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>╌<\/tspan><tspan[^>]*>KV-a</);
+    expect(svg).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan><tspan[^>]*>combined bound \(brick line\)/);
+    expect(svg).toMatch(/data-role="figure-caution"[^>]*><tspan[^>]*>⚠<\/tspan><tspan[^>]*>[^<]*Quick estimate/);
+    expect(svg).not.toContain("sqrt_alpha");
     // Saving needs the analyst role: a visitor is told so beside the result.
     await expect(stack.getByTestId("save-to-sheet-gate").textContent()).resolves.toMatch(/analyst role/);
     await stack.screenshot({ path: screenshotPath("stack-result") });
+    await page.setViewportSize({ width: 375, height: 800 });
+    await expect.poll(async () => Number(await stack.getByTestId("stack-plot").locator('[data-role="plot-host"]').getAttribute("data-drawn-width"))).toBeLessThan(375);
+    await stack.getByTestId("stack-plot").screenshot({ path: screenshotPath("stack-plot-375") });
     expect(errors).toEqual([]);
   });
 });

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readBibtexFile } from "../helpers/bibtex.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
 import { startSignInStack, type SignInStack } from "../helpers/auth.ts";
-import { clientIsBuilt, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
+import { clientIsBuilt, expectPng, launchBrowser, offLoopback, recordRequests, screenshotPath } from "../helpers/browser.ts";
 import { createTestDatabase, type TestDatabase } from "../helpers/db.ts";
 
 /**
@@ -53,13 +53,6 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
   }
 
   /** A PNG file (signature, then the IHDR chunk's width) at twice the plot's width. */
-  function expectPng(bytes: Buffer, width: number) {
-    expect([...bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
-    expect(bytes.subarray(12, 16).toString("ascii")).toBe("IHDR");
-    expect(bytes.readUInt32BE(16)).toBe(width);
-    expect(bytes.length).toBeGreaterThan(5000);
-  }
-
   async function downloaded(page: Page, click: () => Promise<void>): Promise<{ name: string; text: string }> {
     const [download] = (await Promise.all([page.waitForEvent("download"), click()])) as [Download, void];
     const file = await download.path();
@@ -100,7 +93,7 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     await expect(page.getByTestId("beta-plot-legend").textContent()).resolves.toMatch(/✕\s*outside validity/);
     // EdGB's limit is outside validity here, so it is not plotted against published bounds.
     await expect(page.getByTestId("coupling-plot-edgb").count()).resolves.toBe(0);
-    const svg = await downloaded(page, () => page.getByTestId("beta-plot-download").click());
+    const svg = await downloaded(page, () => page.getByTestId("beta-plot-svg").click());
     expect(svg.name).toBe("beta-against-b.svg");
     expect(svg.text).toMatch(/^<\?xml/);
     expect(svg.text).toContain('xmlns="http://www.w3.org/2000/svg"');
@@ -145,7 +138,7 @@ describe("browser: translating a bound, plotting it and saving it to a sheet", (
     expect(drawn).toContain("√α (km) →");
     expect(drawn).toContain("✓ this translation");
     expect(drawn).toContain("◆ Lyu et al. 2022");
-    const svg = await downloaded(page, () => page.getByTestId("coupling-plot-edgb-download").click());
+    const svg = await downloaded(page, () => page.getByTestId("coupling-plot-edgb-svg").click());
     expect(svg.name).toBe("edgb-sqrt_alpha-limits.svg");
     expect(svg.text).toMatch(/<title>Einstein-dilaton-Gauss-Bonnet[^<]*: upper limits on √α[^<]*<\/title>/);
     expect(svg.text).toContain("√α (km) →");

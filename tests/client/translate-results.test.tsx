@@ -2,7 +2,8 @@
 import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { convertRequestSchema, type ConvertResponse } from "../../common/convert.ts";
-import { BetaPlot, MARK_STYLE, plotName, spreadLabels, theoryLabels } from "../../client/features/translate/components/beta-plot.tsx";
+import { BetaPlot } from "../../client/features/translate/components/beta-plot.tsx";
+import { MARK_STYLE, plotName, theoryLabels } from "../../client/components/ui/theory-labels.ts";
 import { comparableQuantity, CouplingPlot } from "../../client/features/translate/components/coupling-plot.tsx";
 import { NotApplicableList } from "../../client/features/translate/components/not-applicable-list.tsx";
 import { ResultsTable } from "../../client/features/translate/components/results-table.tsx";
@@ -93,16 +94,7 @@ describe("plots", () => {
     expect(labels[1]?.title).toBe("EdGB: outside validity: a validity condition of the mapping fails at this limit");
   });
 
-  it("when labels crowd together, then they are spread at least a gap apart, inside the frame, and a lone label stays where it belongs", () => {
-    const desired = [100, 100, 100, 112, 300, 745, 750];
-    const placed = spreadLabels(desired, 13, 64, 740);
-    expect(placed).toHaveLength(desired.length);
-    for (let i = 1; i < placed.length; i++) expect(placed[i]! - placed[i - 1]!).toBeGreaterThanOrEqual(13 - 1e-9);
-    expect(Math.min(...placed)).toBeGreaterThanOrEqual(64);
-    expect(Math.max(...placed)).toBeLessThanOrEqual(740);
-    expect(placed[4]).toBe(300);
-    // The crowded run at 100 is centred on its members' own places (mean 103), not pushed to one side.
-    expect((placed[0]! + placed[1]! + placed[2]! + placed[3]!) / 4).toBeCloseTo(103, 6);
+  it("when a theory's name is long, then it is cut at a word, keeping what tells entries apart", () => {
     expect(plotName("Johannsen-Psaltis parameterized black-hole spacetime")).toBe("Johannsen-Psaltis parameterized…");
     expect(plotName("EdGB")).toBe("EdGB");
     expect(plotName("Modified dispersion relation, α = 3.5")).toBe("Modified dispersion, α = 3.5");
@@ -138,7 +130,7 @@ describe("plots", () => {
     expect(file).toContain("<title>Bound on |β|</title>");
     expect(file).toMatch(/data-role="figure-legend"[^>]*><tspan fill="#8f3a2c"[^>]*>✕<\/tspan><tspan[^>]*>outside validity/);
     expect(file).toContain("A caption.");
-    expect(screen.getByTestId("beta-plot-download").hasAttribute("disabled")).toBe(false);
+    expect(screen.getByTestId("beta-plot-svg").hasAttribute("disabled")).toBe(false);
     expect(screen.getByTestId("beta-plot-png").hasAttribute("disabled")).toBe(false);
   });
 

@@ -3,6 +3,7 @@ import { createServer, type RequestListener, type Server } from "node:http";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
+import { expect } from "vitest";
 
 /** Debian's chromium, driven by playwright-core. Never a downloaded browser. */
 export const CHROMIUM = existsSync("/usr/lib/chromium/chromium") ? "/usr/lib/chromium/chromium" : "/usr/bin/chromium";
@@ -60,4 +61,12 @@ export async function listen(handler: RequestListener): Promise<{ server: Server
 
 export function screenshotPath(name: string): string {
   return path.join(OUTPUT_DIR, `${name}.png`);
+}
+
+/** A downloaded PNG: the PNG signature, an IHDR chunk of the width asked, and more bytes than a blank canvas takes. */
+export function expectPng(bytes: Buffer, width: number): void {
+  expect([...bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+  expect(bytes.subarray(12, 16).toString("ascii")).toBe("IHDR");
+  expect(bytes.readUInt32BE(16)).toBe(width);
+  expect(bytes.length).toBeGreaterThan(5000);
 }

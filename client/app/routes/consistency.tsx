@@ -7,20 +7,35 @@ import {
   type CouplingExclusionRequest,
   type CouplingExclusionResponse,
 } from "../../../common/consistency.ts";
+import { shortTheoryName } from "../../../common/theory-name.ts";
+import { sciText } from "../../../common/number-text.ts";
 import { readJsonParam } from "../../lib/json-param.ts";
+import { texText } from "../../../common/symbol-text.ts";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { ApiError } from "../../lib/api-client.ts";
 import { useConsistency } from "../../features/consistency/api/run-consistency.ts";
-import { ConsistencyResultView } from "../../features/consistency/components/consistency-result.tsx";
+import { ConsistencyResultView, type DeviationTrack } from "../../features/consistency/components/consistency-result.tsx";
 import { ExclusionPanel } from "../../features/consistency/components/exclusion-panel.tsx";
 import { SamplesForm } from "../../features/consistency/components/samples-form.tsx";
 import { SummariesForm } from "../../features/consistency/components/summaries-form.tsx";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
 
+/** The coupling question's answer as the plot draws it: the track, and each side's excluded coupling in symbols with its verdict. */
+function deviationTrack(e: CouplingExclusionResponse): DeviationTrack {
+  const symbol = e.coupling.latex ? texText(e.coupling.latex) : e.coupling.symbol;
+  return {
+    theory: shortTheoryName(e.theory.name, e.theory.slug),
+    track: e.track,
+    marks: e.sides.flatMap((s) => (s.x === null ? [] : [{ x: s.x, label: `${symbol} = ${sciText(s.x, 3)}`, verdict: s.verdict }])),
+    cautions: e.cautions,
+  };
+}
+
 /** The inspiral-merger-ringdown consistency test: two remnant estimates in, the deviation plane and the GR quantile out. */
-/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON. */
+/** Address parameters: the summaries test (q) and the coupling question (c), each the request as JSON; a samples job by its id (job). */
 const TEST_PARAM = "q";
 const COUPLING_PARAM = "c";
+const JOB_PARAM = "job";
 
 export function Component() {
   const [params, setParams] = useSearchParams();
@@ -39,11 +54,22 @@ export function Component() {
   );
   const setRequest = useCallback((r: ConsistencyRequest) => setParam(TEST_PARAM, r), [setParam]);
   const setCouplingRequest = useCallback((r: CouplingExclusionRequest) => setParam(COUPLING_PARAM, r), [setParam]);
-  const [input, setInput] = useState<"summaries" | "samples">("summaries");
+  const jobFromUrl = params.get(JOB_PARAM) ?? undefined;
+  const setJob = useCallback(
+    (id: string) =>
+      setParams((prev) => {
+        const next = new URLSearchParams(prev);
+        next.set(JOB_PARAM, id);
+        return next;
+      }),
+    [setParams],
+  );
+  // A link to a samples job opens on the samples mode.
+  const [input, setInput] = useState<"summaries" | "samples">(jobFromUrl !== undefined ? "samples" : "summaries");
   const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
   const result = useConsistency(request);
   const fields = result.error instanceof ApiError ? result.error.fields : {};
-  const marks = exclusion?.sides.filter((s) => s.x !== null).map((s) => ({ x: s.x!, label: `${exclusion.coupling.symbol} = ${Number(s.x!.toPrecision(3))}` }));
+  const track = exclusion ? deviationTrack(exclusion) : undefined;
   return (
     <article className="flex flex-col gap-6">
       <header className="max-w-3xl">
@@ -81,14 +107,14 @@ export function Component() {
               {result.error.message}
             </p>
           )}
-          {result.data && <ConsistencyResultView result={result.data} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />}
+          {result.data && <ConsistencyResultView result={result.data} track={track} />}
           {result.data && request && <SaveToSheet what="this consistency result" payload={{ kind: "consistency", summaries: request }} defaults={{ analysis_method: "IMR consistency, Gaussian remnant estimates" }} />}
         </>
       ) : (
-        <SamplesForm>
+        <SamplesForm jobId={jobFromUrl} onJob={setJob}>
           {(r, jobId) => (
             <>
-              <ConsistencyResultView result={r} {...(exclusion ? { track: exclusion.track, marks: marks ?? [] } : {})} />
+              <ConsistencyResultView result={r} track={track} />
               <SaveToSheet what="this consistency result" payload={{ kind: "consistency", job: jobId }} defaults={{ analysis_method: "IMR consistency, posterior samples" }} />
             </>
           )}

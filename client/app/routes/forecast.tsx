@@ -9,8 +9,9 @@ import { ForecastGrid } from "../../features/forecast/components/forecast-grid.t
 import { BoundPlot, CouplingPlot } from "../../features/forecast/components/forecast-plots.tsx";
 import { ForecastAssumptions, ForecastTable, TranslationTable } from "../../features/forecast/components/forecast-results.tsx";
 import { SaveForecast } from "../../features/forecast/components/save-forecast.tsx";
-import { FORECAST_PARAM, readForecastParam, requestFieldErrors, runsAsJob } from "../../features/forecast/lib/forecast-url.ts";
+import { FORECAST_PARAM, JOB_PARAM, readForecastParam, requestFieldErrors, runsAsJob } from "../../features/forecast/lib/forecast-url.ts";
 import { Button } from "../../components/ui/button.tsx";
+import { Field, Select } from "../../components/ui/field.tsx";
 import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 
 /**
@@ -35,7 +36,20 @@ export function Component() {
     if (fromUrl.kind === "ok") setState(stateFromRequest(fromUrl.request));
   }
 
-  const run = useForecast(fromUrl.kind === "ok" ? { input: fromUrl.input, text: fromUrl.text, job: runsAsJob(fromUrl.request) } : undefined, setProgress);
+  // A background job's id rides in the address beside the request (?job=), so a reload reads it back.
+  const jobId = params.get(JOB_PARAM);
+  const run = useForecast(fromUrl.kind === "ok" ? { input: fromUrl.input, text: fromUrl.text, job: runsAsJob(fromUrl.request) } : undefined, setProgress, {
+    id: jobId,
+    onCreated: (id) =>
+      setParams(
+        (p) => {
+          const next = new URLSearchParams(p);
+          next.set(JOB_PARAM, id);
+          return next;
+        },
+        { replace: true },
+      ),
+  });
   const submit = () => {
     const input = toRequest(state);
     const errors = requestFieldErrors(input);
@@ -46,6 +60,11 @@ export function Component() {
     else setParams({ [FORECAST_PARAM]: text });
   };
   const cancel = () => void qc.cancelQueries({ queryKey: [...forecastKeys.all, "run", urlText] });
+  // Which binary of a grid the plots, tables and save show (the first unless chosen; reset by a new request).
+  const [shown, setShown] = useState<{ text: string | null; index: number }>({ text: null, index: 0 });
+  const grid = run.data?.grid ?? null;
+  const shownIndex = shown.text === urlText && grid && shown.index < grid.length ? shown.index : 0;
+  const main = grid ? grid[shownIndex] : run.data?.main;
   const stale = run.data !== undefined && urlText !== null && JSON.stringify(toRequest(state)) !== urlText;
 
   return (
@@ -90,7 +109,7 @@ export function Component() {
           </Button>
         </div>
       )}
-      {run.data && (
+      {run.data && main && (
         <section className="flex flex-col gap-5" data-testid="forecast-results" aria-live="polite">
           <h2 className="text-2xl">Forecast</h2>
           {stale && (
@@ -98,14 +117,27 @@ export function Component() {
               The form has changed since this forecast was made: run it again to update the numbers below.
             </p>
           )}
-          <BoundPlot result={run.data.main} />
-          <ForecastTable result={run.data.main} />
-          <ForecastAssumptions result={run.data.main} />
+          {grid && (
+            <Field label="Plots, tables and saving for the binary">
+              {(c) => (
+                <Select {...c} value={String(shownIndex)} onChange={(e) => setShown({ text: urlText, index: Number(e.target.value) })} data-testid="forecast-shown-binary" className="max-w-xs">
+                  {grid.map((f, i) => (
+                    <option key={i} value={i}>
+                      {Number(f.source.m1.toPrecision(4))} + {Number(f.source.m2.toPrecision(4))} M☉ (source frame)
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+          )}
+          <BoundPlot result={main} />
+          <ForecastTable result={main} />
+          <ForecastAssumptions result={main} />
           {run.data.grid && <ForecastGrid forecasts={run.data.grid} />}
           <h2 className="text-2xl">What it would mean for the theories</h2>
-          <CouplingPlot result={run.data.main} />
-          <TranslationTable result={run.data.main} />
-          <SaveForecast result={run.data.main} />
+          <CouplingPlot result={main} />
+          <TranslationTable result={main} />
+          <SaveForecast result={main} />
         </section>
       )}
     </article>

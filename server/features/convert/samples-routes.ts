@@ -3,13 +3,14 @@ import multer from "multer";
 import { eventsRequestSchema, eventsResponseSchema, samplesRequestSchema, samplesResponseSchema } from "../../../common/convert-samples.ts";
 import type { Config } from "../../config.ts";
 import { ValidationError } from "../../errors.ts";
+import { readJsonBody } from "../../http/json-body.ts";
 import { access, parseWith, type RouteSpec } from "../../http/route.ts";
 import { convertEvents } from "./events.ts";
 import { withCsvLines } from "./csv-rows.ts";
 import { convertRateLimit } from "./rate-limit.ts";
 import { formField, uploadedCsv } from "./upload-fields.ts";
 import { parseSamplesCsv } from "./samples-csv.ts";
-import { convertSamples } from "./samples.ts";
+import { convertSamples, type SamplesInput } from "./samples.ts";
 import type { ConvertService } from "./service.ts";
 
 /**
@@ -56,13 +57,18 @@ export function samplesRoutes(service: ConvertService, config: Config): RouteSpe
       before: [limit, csvUpload],
       // Posterior samples arrive as JSON columns (up to MAX_SAMPLES rows): this route has its own limit; larger posteriors go to the jobs.
       bodyLimit: config.CONVERT_SAMPLES_MAX_BYTES,
+      rawJsonBody: true,
       handler: async (req, res) => {
-        const fromUpload = Boolean(req.is("multipart/form-data"));
-        let request;
-        try {
-          request = parseWith(samplesRequestSchema, fromUpload ? samplesFromUpload(req) : req.body);
-        } catch (err) {
-          throw fromUpload && err instanceof ValidationError ? withCsvLines(err, SAMPLE_ROW) : err;
+        let request: SamplesInput;
+        if (req.is("multipart/form-data")) {
+          try {
+            request = parseWith(samplesRequestSchema, samplesFromUpload(req));
+          } catch (err) {
+            throw err instanceof ValidationError ? withCsvLines(err, SAMPLE_ROW) : err;
+          }
+        } else {
+          // JSON: parsed and validated in the body worker thread when large (up to 20 000 rows, 4 MiB).
+          request = await readJsonBody(req, "convert-samples");
         }
         // A turn of the event loop between validating up to 20 000 rows and converting them (which
         // yields every few thousand samples itself), so the two never run as one stall.

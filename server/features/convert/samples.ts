@@ -2,6 +2,7 @@ import { symbolText } from "../../../common/symbol-text.ts";
 import { HISTOGRAM_BINS, type SampleColumn, type SamplesRequest, type SamplesResponse } from "../../../common/convert-samples.ts";
 import { DEFAULT_COSMOLOGY, type Caution } from "../../../common/convert.ts";
 import { ValidationError } from "../../errors.ts";
+import type { PackedSamplesRequest } from "../../http/body-kinds.ts";
 import { makeBinary } from "../../physics/binary.ts";
 import { createConversionContext } from "../../physics/convert.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
@@ -71,10 +72,13 @@ function columnField(field: string): SampleColumn | null {
 const YIELD_AFTER_MS = 4;
 const YIELD_CHECK = 64;
 
-export async function convertSamples(catalogue: CompiledCatalogue, request: SamplesRequest): Promise<SamplesResponse> {
+/** A validated request, its columns as arrays (CSV upload) or typed arrays (JSON read in the body worker). */
+export type SamplesInput = SamplesRequest | PackedSamplesRequest;
+
+export async function convertSamples(catalogue: CompiledCatalogue, request: SamplesInput): Promise<SamplesResponse> {
   const target = selectTarget(catalogue, request);
   const mapping = target.ready.compiled;
-  const cols = request.columns as Record<SampleColumn, number[] | undefined>;
+  const cols = request.columns as Record<SampleColumn, ArrayLike<number> | undefined>;
   const n = cols.beta!.length;
   const cosmology = request.cosmology ?? { ...DEFAULT_COSMOLOGY };
   const validity = mapping.validity ?? [];

@@ -8,6 +8,7 @@ import type { Identity } from "../../http/identity.ts";
 import type { ConvertService } from "../convert/service.ts";
 import { selectTarget } from "../convert/samples-common.ts";
 import type { JobQueue } from "./queue.ts";
+import { nonMonotonicRefusal } from "./monotonic-check.ts";
 import { jobsRepository, type JobRow } from "./repository.ts";
 import { VALUES_CSV } from "../../jobs/samples-job.ts";
 import { sniffFormat, type StoredUpload } from "./upload.ts";
@@ -62,8 +63,9 @@ export function jobsService(db: Knex, config: Config, queue: JobQueue, translato
     repo,
     async createSamples(request: SamplesJobRequest, upload: StoredUpload, identity: Identity | undefined): Promise<JobView> {
       try {
-        // Cheap checks now (theory, b): a wrong theory is a 400, not a failed job.
-        selectTarget(await translator.catalogue(), request);
+        // Cheap checks now (theory, b, a mapping that turns for every plausible binary): a 400, not a failed job.
+        const refusal = nonMonotonicRefusal(selectTarget(await translator.catalogue(), request), request);
+        if (refusal) throw refusal;
         const format = await sniffFormat(upload.path);
         if (format !== "hdf5" && request.table && format === "text") {
           throw new ValidationError("Invalid table: a text file has one table; leave table out", { table: "only HDF5 and JSON files have tables" });

@@ -1,5 +1,7 @@
 import { theoryEntrySchema, type TheoryEntry } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
+import { compileMapping, type CatalogueTheory, type CompiledMapping } from "../../physics/catalogue-mapping.ts";
+import { catalogueRevision } from "../catalogue/read-repository.ts";
 import { compileRemnantMapping, compileRingdownMapping, type CompiledRemnantMapping, type CompiledRingdownMapping } from "../../physics/ringdown/ringdown-mapping.ts";
 
 /**
@@ -15,27 +17,64 @@ export interface RingdownTheory {
   mappings: CompiledRingdownMapping[];
   /** Remnant mappings: the fractional shift of the remnant's mass or spin the theory causes. */
   remnant: CompiledRemnantMapping[];
+  /** Inspiral-phase mappings (beta at b), compiled as the translator compiles them: the inspiral side of the IMR test. */
+  inspiral: CompiledMapping[];
+  /** True when the entry has amplitude mappings, which the IMR-test bias does not model. */
+  hasAmplitude: boolean;
+  /** Inspiral-phase mappings that do not compile (kept apart: the ringdown translator lists only its own). */
+  inspiralBroken: { index: number; reason: string }[];
   broken: { index: number; reason: string }[];
+}
+
+/** The entry in the shape the inspiral compiler reads (only what compiling a phase mapping needs). */
+function inspiralShape(entry: TheoryEntry): CatalogueTheory {
+  return {
+    slug: entry.slug,
+    couplings: entry.couplings.map((c) => ({
+      symbol: c.symbol,
+      latex: c.latex,
+      dimension: c.dimension === 0 ? "1" : c.dimension === 1 ? "L" : `L^${c.dimension}`,
+      unit: c.unit,
+      ...(c.range ? { range: c.range } : {}),
+      ...(c.gr_value ? { gr_value: c.gr_value } : {}),
+    })),
+    definitions: entry.definitions.map((d) => ({ symbol: d.symbol, expression: d.expression })),
+    mappings: entry.mappings.map((m) => ({
+      kind: m.kind,
+      b: m.b ?? Number.NaN,
+      ...(m.a === undefined ? {} : { a: m.a }),
+      expression: m.expression,
+      ...(m.coupling ? { coupling: m.coupling } : {}),
+      ...(m.held_fixed ? { held_fixed: m.held_fixed } : {}),
+      ...(m.alpha_md === undefined ? {} : { alpha_md: m.alpha_md }),
+      validity: m.validity.map((v) => ({
+        expression: v.expression,
+        max: v.max,
+        label: v.label,
+        kind: v.kind,
+        ...(v.body === undefined ? {} : { body: v.body }),
+        ...(v.applies_to ? { applies_to: v.applies_to } : {}),
+      })),
+      body_rules: m.body_rules.map((r) => ({ kind: r.kind, description: r.description, ...(r.bodies ? { bodies: r.bodies } : {}) })),
+      source_status: m.source_status,
+      ...(m.caution ? { caution: m.caution } : {}),
+    })),
+  };
 }
 
 export interface RingdownCatalogue {
   load(): Promise<RingdownTheory[]>;
+  /** The same, with the catalogue version it was read at (the token the translator and sheets use). */
+  loadVersioned(): Promise<{ revision: string; theories: RingdownTheory[] }>;
 }
 
 export function ringdownCatalogue(db: Knex): RingdownCatalogue {
   let cached: { token: string; theories: RingdownTheory[] } | undefined;
-  const token = async (): Promise<string> => {
-    const row = await db("theories").first<{ n: number; s: number; u: Date | null }>(
-      db.raw("count(*)::int as n"),
-      db.raw("coalesce(sum(current_revision), 0)::int as s"),
-      db.raw("max(updated_at) as u"),
-    );
-    return `${row.n}.${row.s}.${row.u ? row.u.getTime().toString(36) : "0"}`;
-  };
-  return {
-    async load() {
+  // The convert translator's token: a ringdown answer and an inspiral one name the same catalogue version.
+  const token = (): Promise<string> => catalogueRevision(db);
+  const loadVersioned = async (): Promise<{ revision: string; theories: RingdownTheory[] }> => {
       const now = await token();
-      if (cached?.token === now) return cached.theories;
+      if (cached?.token === now) return { revision: now, theories: cached.theories };
       const rows = await db("theories as t")
         .join("theory_revisions as r", function join() {
           this.on("r.theory_id", "t.id").andOn("r.number", "t.current_revision");
@@ -49,9 +88,21 @@ export function ringdownCatalogue(db: Knex): RingdownCatalogue {
         const entry = parsed.data;
         const mappings: CompiledRingdownMapping[] = [];
         const remnant: CompiledRemnantMapping[] = [];
+        const inspiral: CompiledMapping[] = [];
+        const inspiralBroken: { index: number; reason: string }[] = [];
         const broken: { index: number; reason: string }[] = [];
+        let shape: CatalogueTheory | undefined;
         entry.mappings.forEach((m, i) => {
           if (m.retired) return;
+          if (m.kind === "inspiral_phase") {
+            try {
+              shape ??= inspiralShape(entry);
+              inspiral.push(compileMapping(shape, i));
+            } catch (err) {
+              inspiralBroken.push({ index: i, reason: err instanceof Error ? err.message : String(err) });
+            }
+            return;
+          }
           const isRingdown = m.kind === "ringdown_frequency" || m.kind === "ringdown_damping";
           const isRemnant = m.kind === "remnant_mass" || m.kind === "remnant_spin";
           if (!isRingdown && !isRemnant) return;
@@ -62,10 +113,14 @@ export function ringdownCatalogue(db: Knex): RingdownCatalogue {
             broken.push({ index: i, reason: err instanceof Error ? err.message : String(err) });
           }
         });
-        theories.push({ slug: row.slug, name: row.name, revision: row.number, entry, mappings, remnant, broken });
+        const hasAmplitude = entry.mappings.some((m) => !m.retired && m.kind === "inspiral_amplitude");
+        theories.push({ slug: row.slug, name: row.name, revision: row.number, entry, mappings, remnant, inspiral, inspiralBroken, hasAmplitude, broken });
       }
       cached = { token: now, theories };
-      return theories;
-    },
+      return { revision: now, theories };
+  };
+  return {
+    loadVersioned,
+    load: async () => (await loadVersioned()).theories,
   };
 }

@@ -1,4 +1,4 @@
-import { intervalOf, type Caution } from "../../../common/convert.ts";
+import { intervalOf, type BibliographyEntry, type Caution } from "../../../common/convert.ts";
 import type { RingdownConvertRequest, RingdownConvertResponse, RingdownResult, RingdownSideLimit } from "../../../common/ringdown.ts";
 import { ValidationError } from "../../errors.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
@@ -8,6 +8,7 @@ import { failingDto, validityItemDto } from "../convert/build-result.ts";
 import { validityCautions } from "../convert/cautions.ts";
 import type { RingdownCatalogue } from "./catalogue.ts";
 import { resolveRemnant } from "./remnant-input.ts";
+import { ringdownCitations } from "./references.ts";
 
 const KIND_OF = { qnm_dfreq: "ringdown_frequency", qnm_dtau: "ringdown_damping" } as const;
 
@@ -71,7 +72,8 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
   const mode = qnm(bound.mode, massForMode, remnant.chi_f);
   const shift: ShiftBound = bound.upper !== undefined ? { upper: bound.upper } : { interval: bound.interval! };
   const kind = KIND_OF[bound.parameter];
-  const theories = await catalogue.load();
+  const { revision, theories } = await catalogue.loadVersioned();
+  const bibliography = new Map<string, BibliographyEntry>();
   const wanted = request.theories ? new Set(request.theories) : undefined;
   if (wanted) {
     const known = new Set(theories.map((t) => t.slug));
@@ -82,7 +84,7 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
   for (const t of theories) {
     if (wanted && !wanted.has(t.slug)) continue;
     const matching = t.mappings.filter((m) => m.kind === kind && m.mode === bound.mode);
-    const base = { slug: t.slug, name: t.name, revision: t.revision, lower: null, upper: null, unconstrained: [], verdict: "not_assessed" as const, cautions: [] };
+    const base = { slug: t.slug, name: t.name, revision: t.revision, lower: null, upper: null, unconstrained: [], verdict: "not_assessed" as const, limit: null, reference_bounds: [], references: [], cautions: [] };
     if (matching.length === 0) {
       if (!wanted) continue;
       const other = t.mappings.length > 0 ? `its ringdown mappings are for ${[...new Set(t.mappings.map((m) => `${m.kind} (${m.mode})`))].join(", ")}` : "it has no ringdown mapping";
@@ -101,12 +103,31 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
       try {
         const tr = translateRingdownBound(m, shift, remnant.env);
         if (tr.lower === null && tr.upper === null) {
-          results.push({ ...base, ...described, status: "no_constraint", reason: tr.unconstrained.map((u) => `${u.side} side: ${u.reason}`).join("; "), unconstrained: tr.unconstrained, cautions });
+          const cited = ringdownCitations(t.entry, m, { status: "no_constraint", lower: null, upper: null, verdict: "not_assessed" });
+          for (const b of cited.bibliography) if (!bibliography.has(b.key)) bibliography.set(b.key, b);
+          const reason = tr.unconstrained.map((u) => `${u.side} side: ${u.reason}`).join("; ");
+          results.push({ ...base, ...described, status: "no_constraint", reason, unconstrained: tr.unconstrained, reference_bounds: cited.reference_bounds, references: cited.references, cautions });
           continue;
         }
         if (m.coupling.range !== "any_sign") cautions.push({ code: "one_signed", message: `The coupling is ${m.coupling.range === "positive" ? "positive" : "non-negative"}: only x > 0 is searched.` });
         cautions.unshift(...sideCautions(tr.lower, tr.upper));
-        results.push({ ...base, ...described, status: "bounded", lower: sideDto(tr.lower), upper: sideDto(tr.upper), unconstrained: tr.unconstrained, verdict: tr.verdict, cautions });
+        const lower = sideDto(tr.lower);
+        const upper = sideDto(tr.upper);
+        const cited = ringdownCitations(t.entry, m, { status: "bounded", lower, upper, verdict: tr.verdict });
+        for (const b of cited.bibliography) if (!bibliography.has(b.key)) bibliography.set(b.key, b);
+        results.push({
+          ...base,
+          ...described,
+          status: "bounded",
+          lower,
+          upper,
+          unconstrained: tr.unconstrained,
+          verdict: tr.verdict,
+          limit: cited.limit,
+          reference_bounds: cited.reference_bounds,
+          references: cited.references,
+          cautions,
+        });
       } catch (err) {
         if (!(err instanceof PhysicsInputError)) throw err;
         results.push({ ...base, ...described, status: "not_applicable", reason: `${err.message}`, cautions });
@@ -137,8 +158,10 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
       ...(remnant.z === undefined ? {} : { z: remnant.z }),
       ...(remnant.chi_f_alternative === undefined ? {} : { chi_f_alternative: remnant.chi_f_alternative, chi_f_fit_spread: remnant.chi_f_fit_spread! }),
     },
+    catalogue_revision: revision,
     qnm: { mode: bound.mode, frequency_hz: mode.frequency_hz, damping_time_s: mode.damping_time_s, frame: remnant.z === undefined ? "source" : "detector" },
     results,
     cautions,
+    bibliography: [...bibliography.values()],
   };
 }

@@ -2,7 +2,8 @@
  * The coupling at which a theory's shifts of the ringdown would make the IMR consistency test exclude
  * GR (the method of Carson & Yagi 2020, arXiv:2002.08559, as reconstructed here [derived]):
  *
- * 1. inspiral estimate: the GR remnant of the binary (no inspiral bias is modelled here);
+ * 1. inspiral estimate: the GR remnant of the binary, moved by the linear bias of a GR template fitted to
+ *    the theory's ppE term when the caller supplies it (`inspiral`, from forecast-widths.ts);
  * 2. merger-ringdown estimate: the Kerr remnant a GR template infers from the theory's shifted
  *    (2,2,0) mode, by the exact inversion of the Kerr fit (C.2);
  * 3. the deviation mu(x) and the test's covariance give d^2(x) and Q_GR(x) = 1 - exp(-d^2/2); the
@@ -45,6 +46,11 @@ export interface ExclusionInput {
   readonly remnant?: RemnantShiftFunctions;
   /** The bias of the inspiral estimate at coupling x (from the theory's inspiral term), when modelled. */
   readonly inspiral?: RemnantShiftFunctions;
+  /**
+   * One standard deviation of the inspiral estimate, as (sigma(ln M_f), sigma(chi_f)/chi): the linear
+   * bias is trusted only while the shift it gives stays within about one (Cutler & Vallisneri 2007).
+   */
+  readonly inspiralSigma?: Vector2;
   /** Covariance of the deviation variables (dM, dchi) of the test. */
   readonly covariance: Matrix2;
   readonly credibility: number;
@@ -66,6 +72,10 @@ export interface SideExclusion {
   readonly reason?: string;
   /** Smallest |x| (signed) at which the linear and exact deviations differ by more than 10 %. */
   readonly linear_breaks_at: number | null;
+  /** Smallest |x| (signed), up to the bound, at which the inspiral bias exceeds one standard deviation of the inspiral estimate. */
+  readonly bias_exceeds_sigma_at: number | null;
+  /** The inspiral bias at the bound, in standard deviations of the inspiral estimate (the larger of the two). */
+  readonly bias_sigmas_at_bound: number | null;
 }
 
 export interface ExclusionResult {
@@ -100,6 +110,15 @@ export function evaluateAt(input: ExclusionInput, x: number, inv: Matrix2): Trac
   return { x, mean, linear_mean, gr_quantile: 1 - Math.exp(-quadraticForm2(inv, used) / 2) };
 }
 
+/** The inspiral bias at x in standard deviations of the inspiral estimate (the larger of M_f and chi_f), or null when not modelled. */
+export function inspiralBiasSigmas(input: ExclusionInput, x: number): number | null {
+  if (!input.inspiral || !input.inspiralSigma) return null;
+  const dM = input.inspiral.dM(x);
+  const dChi = input.inspiral.dchi(x);
+  if (!(dM > -1) || !Number.isFinite(dChi)) return Infinity;
+  return Math.max(Math.abs(Math.log1p(dM)) / input.inspiralSigma[0], Math.abs(dChi) / input.inspiralSigma[1]);
+}
+
 function linearGap(p: TrackPoint): number {
   const dx = p.mean[0] - p.linear_mean[0];
   const dy = p.mean[1] - p.linear_mean[1];
@@ -119,13 +138,17 @@ export function couplingExclusion(input: ExclusionInput): ExclusionResult {
     let found: number | null = null;
     let reason: string | undefined;
     let linearBreak: number | null = null;
+    let biasPast: number | null = null;
+    let biasPrev = MIN_T;
     for (let t = MIN_T * factor; t <= MAX_T; t *= factor) {
       const p = evaluateAt(input, side * t, inv);
       if (!p) {
-        reason = `beyond |x| ~ ${prev.toPrecision(3)} the shifted mode matches no Kerr remnant (or a shift reaches -100 %), before the test excludes GR`;
+        reason = `beyond |x| ~ ${prev.toPrecision(3)} the shifted mode matches no Kerr remnant (or a shift reaches -100 %, or a spin leaves (0, 1)), before the test excludes GR`;
         break;
       }
       if (linearBreak === null && linearGap(p) > 0.1) linearBreak = side * t;
+      if (biasPast === null && (inspiralBiasSigmas(input, side * t) ?? 0) > 1) biasPast = t;
+      else if (biasPast === null) biasPrev = t;
       if (p.gr_quantile >= input.credibility) {
         let a = prev;
         let b = t;
@@ -142,7 +165,28 @@ export function couplingExclusion(input: ExclusionInput): ExclusionResult {
     }
     if (found === null && reason === undefined) reason = "the test never excludes GR on this side (the theory's shift saturates or vanishes)";
     if (found !== null) xMax = Math.max(xMax, Math.abs(found));
-    sides.push({ side, x: found, ...(reason ? { reason } : {}), linear_breaks_at: linearBreak });
+    // Between the last grid point and the bound the bias may still have passed one standard deviation.
+    if (biasPast === null && found !== null && (inspiralBiasSigmas(input, found) ?? 0) > 1) biasPast = Math.abs(found);
+    // Where the bias passes one standard deviation, to the grid's precision refined by bisection; not past the bound.
+    let biasAt: number | null = null;
+    if (biasPast !== null) {
+      let a = biasPrev;
+      let b = biasPast;
+      for (let k = 0; k < 200 && b / a - 1 > 1e-12; k += 1) {
+        const mid = Math.sqrt(a * b);
+        if ((inspiralBiasSigmas(input, side * mid) ?? 0) > 1) b = mid;
+        else a = mid;
+      }
+      if (found === null || b <= Math.abs(found)) biasAt = side * b;
+    }
+    sides.push({
+      side,
+      x: found,
+      ...(reason ? { reason } : {}),
+      linear_breaks_at: linearBreak,
+      bias_exceeds_sigma_at: biasAt,
+      bias_sigmas_at_bound: found === null ? null : inspiralBiasSigmas(input, found),
+    });
   }
   // Track for the plot: 60 points out to 1.5 times the largest bound, on each physical side.
   const track: TrackPoint[] = [];

@@ -13,8 +13,18 @@
  *   fit. Ignoring the merger makes it conservative.
  *
  * Both covariances are returned in (ln M_f, chi_f), frame-free.
+ *
+ * The same Fisher matrix gives the inspiral estimate's bias when the signal carries a ppE term the GR
+ * template lacks (Cutler & Vallisneri 2007, arXiv:0707.2982, linear bias from an inaccurate template;
+ * applied to the IMR test as in Carson & Yagi 2020, arXiv:2002.08559; our reconstruction, derived):
+ * the best-fit GR parameters move by d theta = Gamma^-1 (d_i h | d_beta h) beta, so the beta column of
+ * the matrix at exponent b, multiplied by the inverse of the GR block, is the bias per unit beta. It is
+ * pushed through the same remnant-fit Jacobian J as the widths. Gamma is the prior-augmented GR block,
+ * the one the widths use (priors centred on the true values, so beta = 0 gives no bias); without the
+ * priors both Gamma and the column scale with the amplitude squared and the bias would not depend on
+ * the distance at all; with them it does, weakly.
  */
-import { DEFAULT_PRIORS, addPriors, runForecast, type ForecastDetectorInput } from "../forecast/forecast.ts";
+import { DEFAULT_PRIORS, addPriors, runForecast, type CustomCurveData, type ForecastDetectorInput } from "../forecast/forecast.ts";
 import { invertFisher } from "../forecast/linalg.ts";
 import { BETA_INDEX } from "../forecast/phase.ts";
 import { PhysicsInputError } from "../input-error.ts";
@@ -32,7 +42,21 @@ export interface InspiralForecastInput {
   readonly chi2: number;
   readonly z: number;
   readonly distance_mpc?: number | undefined;
+  /** Any curve the forecasts take: a built-in id (ground or space) or custom:<id> with its table in `curves`. */
   readonly detector: ForecastDetectorInput;
+  /** The uploaded curve the detector names (custom:<id>), already checked to be the caller's. */
+  readonly curves?: readonly CustomCurveData[] | undefined;
+  /** ppE exponents whose linear bias of the inspiral estimate is wanted (each within [-20, 10]). */
+  readonly bias_b?: readonly number[] | undefined;
+}
+
+/** The linear bias of the inspiral estimate per unit ppE beta at exponent b. */
+export interface InspiralBiasVector {
+  readonly b: number;
+  /** d ln M_f and d chi_f of the inspiral estimate per unit beta. */
+  readonly remnant: [number, number];
+  /** d theta per unit beta over the GR parameters, in the order of `parameters`. */
+  readonly theta: number[];
 }
 
 export interface InspiralWidths {
@@ -45,6 +69,12 @@ export interface InspiralWidths {
   readonly high_cut: string;
   readonly split_frequency_hz: number;
   readonly cautions: string[];
+  /** The detector's name and the orientation of the forecast. */
+  readonly label: string;
+  /** The GR parameters of the bias vectors (ln_A, phi_c, t_c, ln_Mc, ln_eta or delta, chi_s, chi_a). */
+  readonly parameters: string[];
+  /** One per bias_b, in its order. */
+  readonly bias: InspiralBiasVector[];
 }
 
 /** The remnant of (ln Mc, p, chi_s, chi_a), p = ln eta or delta = (m1 - m2)/M, through the Husa et al. 2016 fits. */
@@ -64,13 +94,13 @@ export function inspiralRemnantWidths(input: InspiralForecastInput): InspiralWid
     source: { m1: input.m1, m2: input.m2, chi1: input.chi1, chi2: input.chi2, frame: "source", z: input.z, ...(input.distance_mpc === undefined ? {} : { distance_mpc: input.distance_mpc }) },
     detectors: [{ ...input.detector, f_high: Math.min(fc, input.detector.f_high ?? Infinity) }],
     networks: [[0]],
-    // Any b: only the GR block of the matrix is used.
-    b: [-7],
+    // The GR block is the same for every b; each b adds its beta row and column (used for the bias only).
+    b: input.bias_b && input.bias_b.length > 0 ? [...input.bias_b] : [-7],
     upper_cut: "merger_extrapolated",
     include_matrices: true,
     // A one-decade band: 2000 log-spaced points keep the trapezoid sums well inside a per-mille.
     grid_points: 2000,
-  });
+  }, [...(input.curves ?? [])]);
   const band = forecast.detectors[0]!;
   const full = forecast.matrices![0]!.per_detector[0]!.map((row) => [...row]);
   addPriors(full, DEFAULT_PRIORS);
@@ -114,6 +144,16 @@ export function inspiralRemnantWidths(input: InspiralForecastInput): InspiralWid
     for (let i = 0; i < 4; i++) for (let j = 0; j < 4; j++) s += J[r]![i]! * sigmaTheta[i]![j]! * J[c]![j]!;
     cov[r]![c] = s;
   }
+  // Linear bias per unit beta at each exponent: Sigma_GR times the beta column of the GR rows (no prior on beta).
+  const bias = (input.bias_b ?? []).map((b, bi): InspiralBiasVector => {
+    const g = forecast.matrices![bi]!.per_detector[0]!;
+    const column = keep.map((i) => g[i]![BETA_INDEX]!);
+    const theta = inv.covariance!.map((row) => row.reduce((s, v, j) => s + v * column[j]!, 0));
+    const d = idx.map((i) => theta[i]!);
+    const row = (r: number) => d.reduce((s, v, k) => s + J[r]![k]! * v, 0);
+    const remnant: [number, number] = [row(0), row(1)];
+    return { b, remnant, theta };
+  });
   const cautions = [
     `Inspiral widths from a Fisher forecast on ${band.label}, ${band.f_low.toPrecision(3)}–${band.f_high.toPrecision(4)} Hz (ending at ${band.high_cut === "f_high as given" ? "the split frequency" : `the ${band.high_cut}, below the split frequency ${fc.toPrecision(4)} Hz`}), SNR ${band.snr.toFixed(1)}: TaylorF2 past the ISCO of the total mass, so an illustration of the test's reach, not a measurement.`,
     ...forecast.networks[0]!.cautions,
@@ -127,6 +167,9 @@ export function inspiralRemnantWidths(input: InspiralForecastInput): InspiralWid
     high_cut: band.high_cut === "f_high as given" ? "split frequency" : band.high_cut,
     split_frequency_hz: fc,
     cautions,
+    label: band.label,
+    parameters: names,
+    bias,
   };
 }
 

@@ -35,13 +35,18 @@ export class NotMonotonicError extends Error {
 const DECADES = Array.from({ length: 49 }, (_, k) => 10 ** (-60 + 2.5 * k));
 const BISECTION_STEPS = 64;
 
+/** The scan's grid of the coupling, ascending: positive, or both signs (NotMonotonicError.between are two neighbours of it). */
+export function scanGrid(eitherSign: boolean): number[] {
+  return eitherSign ? [...DECADES.map((v) => -v).reverse(), ...DECADES] : DECADES;
+}
+
 /**
  * `evaluate(xs, out)` must return F at x = xs[i] for sample i (a vectorised evaluator with the coupling's
  * column set to xs). Samples with skip[i] = 1 are left alone.
  */
 export function invertColumns(evaluate: (xs: Float64Array, out: Float64Array) => Float64Array, beta: Float64Array, skip: Uint8Array, eitherSign: boolean): ColumnInversion {
   const n = beta.length;
-  const grid = eitherSign ? [...DECADES.map((v) => -v).reverse(), ...DECADES] : DECADES;
+  const grid = scanGrid(eitherSign);
   const xs = new Float64Array(n);
   const out = new Float64Array(n);
   const prev = new Float64Array(n).fill(Number.NaN);

@@ -1,7 +1,7 @@
 import { thresholdText } from "../../../../common/number-text.ts";
 import { conditionText } from "../../../../common/symbol-text.ts";
 import { useEffect, useState, type FormEvent } from "react";
-import { couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
+import { DEFAULT_TEST_CURVE, couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
@@ -19,7 +19,7 @@ const VERDICT_LABEL = { valid: "valid", outside_validity: "outside validity", no
 
 function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
   return (
-    <table className="w-full text-sm" data-testid="exclusion-table">
+    <table className="w-full min-w-[40rem] text-sm" data-testid="exclusion-table">
       <caption className="text-left text-ink-soft">
         Smallest {data.coupling.symbol} ({data.coupling.unit}) at which GR is excluded at {Math.round(data.credibility * 100)} %, remnant M_f = {sig(data.remnant.M_f)} M☉, χ_f = {sig(data.remnant.chi_f)}.
         Widths: inspiral σ(M_f) = {sig(data.widths.inspiral.sigma_M_f)} M☉, σ(χ_f) = {sig(data.widths.inspiral.sigma_chi_f)}, ρ = {data.widths.inspiral.rho.toFixed(2)} ({data.widths.inspiral.from}); merger-ringdown σ(M_f) ={" "}
@@ -32,6 +32,7 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
           <th scope="col">exact reading</th>
           <th scope="col">linear reading</th>
           <th scope="col">linear reading parts by 10 % from</th>
+          {data.inspiral_bias && <th scope="col">inspiral bias past 1σ from</th>}
           <th scope="col">verdict</th>
         </tr>
       </thead>
@@ -42,6 +43,16 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
             <td>{s.x === null ? <span className="text-ink-faint">{s.reason}</span> : sig(s.x)}</td>
             <td>{s.x_linear === null ? "—" : sig(s.x_linear)}</td>
             <td>{s.linear_breaks_at === null ? "not reached" : sig(s.linear_breaks_at)}</td>
+            {data.inspiral_bias && (
+              <td data-testid={`bias-sigma-${s.side}`}>
+                {s.bias_exceeds_sigma_at === null ? "not reached" : sig(s.bias_exceeds_sigma_at)}
+                {s.bias_sigmas_at_bound !== null && (
+                  <p className={`text-xs ${s.bias_sigmas_at_bound > 1 ? "text-amber" : "text-ink-soft"}`}>
+                    {s.bias_sigmas_at_bound.toFixed(1)}σ at the bound{s.bias_sigmas_at_bound > 1 ? ": linear bias stretched" : ""}
+                  </p>
+                )}
+              </td>
+            )}
             <td>
               <Badge tone={VERDICT_TONE[s.verdict]}>{VERDICT_LABEL[s.verdict]}</Badge>
               {s.validity
@@ -57,6 +68,30 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
         ))}
       </tbody>
     </table>
+  );
+}
+
+const CURVE_FROM = { "test.forecast": "the forecast's detector", "test.inspiral_bias": "the detector chosen for the bias", default: "the default detector" } as const;
+
+/** Whether the theory's inspiral term entered, with which detector and band, and the caution that goes with it. */
+function InspiralBiasNote({ data }: { data: CouplingExclusionResponse }) {
+  const b = data.inspiral_bias;
+  const caution = data.inspiral_side;
+  return (
+    <div data-testid="inspiral-bias-note" className="flex flex-col gap-1 text-sm">
+      <p>
+        <Badge tone={b ? "ok" : "neutral"}>{b ? "inspiral bias included" : "no inspiral bias"}</Badge>{" "}
+        {b ? (
+          <>
+            ppE term{b.terms.length > 1 ? "s" : ""} at b = {b.terms.map((t) => t.b).join(", ")}, linear bias from the Fisher matrix of {b.label} ({CURVE_FROM[b.curve_from]}), {b.f_low.toPrecision(3)}–{b.f_high.toPrecision(4)} Hz; per unit β:{" "}
+            {b.terms.map((t) => `d ln M_f = ${sig(t.d_ln_M_f_per_beta)}, dχ_f = ${sig(t.d_chi_f_per_beta)}`).join("; ")}.
+          </>
+        ) : (
+          <span className="text-ink-soft">the inspiral estimate is the GR remnant.</span>
+        )}
+      </p>
+      {caution && <Caution title={b ? "Linear bias: trusted to about one standard deviation" : undefined}>{caution}</Caution>}
+    </div>
   );
 }
 
@@ -83,11 +118,15 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
   const f0 = request?.test.forecast;
   const [widthsFrom, setWidthsFrom] = useState<"test" | "forecast">(f0 ? "forecast" : "test");
   const [fc, setFc] = useState({ curve: f0?.curve ?? "aligo-design", f_low: str(f0?.f_low ?? 10), distance_mpc: str(f0?.distance_mpc), ringdown_snr: str(f0?.ringdown_snr ?? 20) });
+  const b1 = request?.test.inspiral_bias;
+  const [bias, setBias] = useState({ include: b1?.include ?? true, curve: b1?.curve ?? DEFAULT_TEST_CURVE });
   const curves = useCurves(null);
   const builtIn = (curves.data?.curves ?? []).filter((c) => !c.custom && !c.space);
   const result = useCouplingExclusion(request);
   const serverFields = result.error instanceof ApiError ? result.error.fields : {};
   const shown = { ...serverFields, ...errors };
+  const selected = ringdownTheories.find((t) => t.slug === (slug || ringdownTheories[0]?.slug));
+  const hasPhaseTerm = selected?.mappings.some((m) => m.kind === "inspiral_phase" && !m.retired) ?? false;
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
@@ -107,7 +146,10 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
     const parsed = couplingExclusionRequestSchema.safeParse({
       theory: slug || ringdownTheories[0]?.slug || "",
       binary: Object.fromEntries([...Object.entries(binary).map(([k, v]) => [k, num(v)] as const).filter(([, v]) => v !== undefined), ["frame", frame]]),
-      test: widthsFrom === "test" && test ? { inspiral: width(test.inspiral), merger_ringdown: width(test.merger_ringdown) } : { forecast },
+      test:
+        widthsFrom === "test" && test
+          ? { inspiral: width(test.inspiral), merger_ringdown: width(test.merger_ringdown), ...(hasPhaseTerm ? { inspiral_bias: bias.include ? { curve: bias.curve } : { include: false } } : {}) }
+          : { forecast, ...(hasPhaseTerm && !bias.include ? { inspiral_bias: { include: false } } : {}) },
     });
     if (!parsed.success) {
       const next: Record<string, string> = {};
@@ -128,9 +170,9 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
         What coupling would this test exclude?
       </h2>
       <p className="max-w-3xl text-ink-soft">
-        A theory that shifts the ringdown or the remnant makes a GR template infer a different remnant from the merger-ringdown part. With the test's widths (from the
-        summaries above, or forecast for a detector) and a binary, this finds the smallest coupling at which (0, 0) would leave the credible region, and draws the expected
-        deviation over the contours.
+        A theory that shifts the ringdown or the remnant makes a GR template infer a different remnant from the merger-ringdown part; its ppE term biases the inspiral
+        part too. With the test's widths (from the summaries above, or forecast for a detector) and a binary, this finds the smallest coupling at which (0, 0) would leave
+        the credible region, and draws the expected deviation over the contours.
       </p>
       <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
         <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
@@ -196,6 +238,31 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
             </div>
           )}
         </fieldset>
+        {hasPhaseTerm && (
+          <fieldset className="flex flex-col gap-2" data-testid="inspiral-bias-options">
+            <legend className="font-semibold">Inspiral side</legend>
+            <label className="flex items-center gap-2">
+              <input type="checkbox" name="test.inspiral_bias.include" checked={bias.include} onChange={(e) => setBias((v) => ({ ...v, include: e.target.checked }))} />
+              include the bias of the inspiral estimate from the entry&apos;s ppE term (linear, Fisher matrix on f_low – split frequency)
+            </label>
+            {bias.include && widthsFrom === "test" && (
+              <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+                <Field label="Detector for the bias" error={shown["test.inspiral_bias.curve"] ?? shown["test.inspiral_bias.f_low"]} hint="its noise curve sets the bias" className="col-span-2">
+                  {(control) => (
+                    <Select {...control} name="test.inspiral_bias.curve" value={bias.curve} onChange={(e) => setBias((v) => ({ ...v, curve: e.target.value }))}>
+                      {(builtIn.length > 0 ? builtIn : [{ id: bias.curve, name: bias.curve }]).map((c) => (
+                        <option key={c.id} value={c.id}>
+                          {c.name}
+                        </option>
+                      ))}
+                    </Select>
+                  )}
+                </Field>
+              </div>
+            )}
+            {bias.include && widthsFrom === "forecast" && <p className="text-sm text-ink-soft">The bias uses the forecast&apos;s detector and band.</p>}
+          </fieldset>
+        )}
         {shown.test && (
           <p role="alert" className="text-sm text-brick">
             {shown.test}
@@ -212,12 +279,18 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
       {result.error && !(result.error instanceof ApiError && Object.keys(result.error.fields).length > 0) && <ErrorNote error={result.error} title="The forecast failed." />}
       {data && (
         <>
-          <ExclusionTable data={data} />
+          {/* Six columns do not fit a phone: the table scrolls sideways instead of squeezing the verdicts. */}
+          <div className="overflow-x-auto">
+            <ExclusionTable data={data} />
+          </div>
+          <InspiralBiasNote data={data} />
           <Caution title="Where this estimate stops being trustworthy">
             <ul className="list-disc pl-5">
-              {data.cautions.map((c) => (
-                <li key={c}>{conditionText(c)}</li>
-              ))}
+              {data.cautions
+                .filter((c) => c !== data.inspiral_side)
+                .map((c) => (
+                  <li key={c}>{conditionText(c)}</li>
+                ))}
             </ul>
           </Caution>
         </>

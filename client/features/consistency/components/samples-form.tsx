@@ -1,22 +1,33 @@
 import { useState, type FormEvent, type ReactNode } from "react";
 import { consistencyJobRequestSchema, consistencyResultSchema, type ConsistencyResult } from "../../../../common/consistency.ts";
+import { jobIdSchema } from "../../../../common/jobs.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useJob, useSubmitConsistencyJob } from "../api/consistency-job.ts";
 
+interface Props {
+  children: (result: ConsistencyResult, jobId: string) => ReactNode;
+  /** The job to show (the page keeps it in the address, ?job=<id>, so a link reopens the result). */
+  jobId?: string | undefined;
+  /** Called with a new job's id once the server has taken the files. */
+  onJob?: (id: string) => void;
+}
+
 /**
  * Two posterior-samples files, run as a background job: text tables with a header naming M_f and
  * chi_f, or m1 and m2 (chi1, chi2 optional) to go through the remnant fit.
  */
-export function SamplesForm({ children }: { children: (result: ConsistencyResult, jobId: string) => ReactNode }) {
+export function SamplesForm({ children, jobId: shownJob, onJob }: Props) {
   const [files, setFiles] = useState<{ inspiral?: File; merger_ringdown?: File }>({});
   const [frame, setFrame] = useState<"detector" | "source">("detector");
   const [z, setZ] = useState("");
   const [errors, setErrors] = useState<Record<string, string>>({});
   const submit = useSubmitConsistencyJob();
-  const jobId = submit.data?.job.id;
+  // A job id from a link is checked before it is asked for: a mangled link says so instead of failing.
+  const linkProblem = shownJob !== undefined && !jobIdSchema.safeParse(shownJob).success ? "the job id in this link is not a job id" : null;
+  const jobId = linkProblem ? undefined : (shownJob ?? submit.data?.job.id);
   const job = useJob(jobId);
   const serverFields = submit.error instanceof ApiError ? submit.error.fields : {};
   const shown = { ...serverFields, ...errors };
@@ -30,11 +41,11 @@ export function SamplesForm({ children }: { children: (result: ConsistencyResult
     if (!parsed.success) for (const issue of parsed.error.issues) next[issue.path.join(".")] ??= issue.message;
     setErrors(next);
     if (Object.keys(next).length > 0 || !parsed.success || !files.inspiral || !files.merger_ringdown) return;
-    submit.mutate({ inspiral: files.inspiral, merger_ringdown: files.merger_ringdown, request: parsed.data });
+    submit.mutate({ inspiral: files.inspiral, merger_ringdown: files.merger_ringdown, request: parsed.data }, { onSuccess: (created) => onJob?.(created.job.id) });
   };
 
   const view = job.data;
-  const result = view?.status === "done" ? consistencyResultSchema.safeParse(view.result) : undefined;
+  const result = view?.status === "done" && view.kind === "consistency" ? consistencyResultSchema.safeParse(view.result) : undefined;
 
   return (
     <div className="flex flex-col gap-4">
@@ -89,6 +100,17 @@ export function SamplesForm({ children }: { children: (result: ConsistencyResult
         </p>
       )}
       {job.isPending && jobId && <Loading what="the job" />}
+      {(linkProblem || job.error) && (
+        <p role="alert" className="text-brick" data-testid="samples-job-unavailable">
+          This job's result cannot be shown: {linkProblem ?? (job.error instanceof ApiError && job.error.status === 404 ? job.error.message : `the job could not be read (${job.error?.message ?? "unknown error"})`)}. Run
+          the test on the files again.
+        </p>
+      )}
+      {view && view.kind !== "consistency" && (
+        <p role="alert" className="text-brick" data-testid="samples-job-unavailable">
+          This job's result cannot be shown here: job {view.id} is a {view.kind} job, not a consistency test.
+        </p>
+      )}
       {view?.status === "failed" && (
         <p role="alert" className="text-brick" data-testid="samples-job-error">
           The job failed: {view.error?.message}

@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from "react";
+import { useState, type FormEvent, type ReactNode } from "react";
 import { consistencyRequestSchema, type ConsistencyRequest } from "../../../../common/consistency.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
@@ -11,11 +11,21 @@ const DEMO: { inspiral: Estimate; merger_ringdown: Estimate } = {
   merger_ringdown: { M_f: "68.4", chi_f: "0.72", sigma_M_f: "4.6", sigma_chi_f: "0.08", rho: "0.9" },
 };
 
-const LABELS: Record<keyof Estimate, string> = {
-  M_f: "M_f (M☉)",
-  chi_f: "χ_f",
-  sigma_M_f: "σ(M_f) (M☉)",
-  sigma_chi_f: "σ(χ_f)",
+const Mf = (
+  <>
+    M<sub>f</sub>
+  </>
+);
+const chif = (
+  <>
+    χ<sub>f</sub>
+  </>
+);
+const LABELS: Record<keyof Estimate, ReactNode> = {
+  M_f: <>{Mf} (M☉)</>,
+  chi_f: chif,
+  sigma_M_f: <>σ({Mf}) (M☉)</>,
+  sigma_chi_f: <>σ({chif})</>,
   rho: "correlation ρ",
 };
 
@@ -107,10 +117,10 @@ export function SummariesForm({ onSubmit, serverErrors, initial }: Props) {
         <Field label="Credible levels" error={shown.levels ?? shown["levels.0"] ?? shown["levels.1"] ?? shown["levels.2"]} className="col-span-2">
           {(control) => <TextInput {...control} name="levels" value={levels} onChange={(e) => setLevels(e.target.value)} />}
         </Field>
-        <Field label="Full-signal M_f (M☉)" error={shown["full_signal.M_f"] ?? shown.full_signal} hint="optional; sets the split frequency (else the inspiral estimate's)">
+        <Field label={<>Full-signal {Mf} (M☉)</>} error={shown["full_signal.M_f"] ?? shown.full_signal} hint="optional; sets the split frequency (else the inspiral estimate's)">
           {(control) => <TextInput {...control} name="full_signal.M_f" inputMode="decimal" value={full.M_f} onChange={(e) => setFull((f) => ({ ...f, M_f: e.target.value }))} />}
         </Field>
-        <Field label="Full-signal χ_f" error={shown["full_signal.chi_f"]}>
+        <Field label={<>Full-signal {chif}</>} error={shown["full_signal.chi_f"]}>
           {(control) => <TextInput {...control} name="full_signal.chi_f" inputMode="decimal" value={full.chi_f} onChange={(e) => setFull((f) => ({ ...f, chi_f: e.target.value }))} />}
         </Field>
       </div>

@@ -10,7 +10,7 @@ import {
 } from "../../../../common/forecasts.ts";
 import type { PageForecastInput } from "../lib/forecast-url.ts";
 import { jobCreatedSchema, jobViewSchema } from "../../../../common/jobs.ts";
-import { apiRequest } from "../../../lib/api-client.ts";
+import { ApiError, apiRequest } from "../../../lib/api-client.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 
 export const forecastKeys = {
@@ -47,11 +47,25 @@ const sleep = (ms: number, signal: AbortSignal) =>
 /**
  * More values of b than one request takes go to the job queue: start the job, follow it until it is
  * done, and answer its forecast. Leaving (or cancelling) aborts the signal, which cancels the job.
+ * The page keeps the job's id in the address beside the request, so a reload or a later visit reads
+ * the finished job back instead of computing it again; a job that is gone, not the caller's, failed
+ * or cancelled is replaced by a new one.
  */
-async function runForecastJob(input: PageForecastInput, signal: AbortSignal, onProgress: (p: JobProgress) => void): Promise<ForecastRun> {
+async function runForecastJob(input: PageForecastInput, signal: AbortSignal, onProgress: (p: JobProgress) => void, known: JobLink): Promise<ForecastRun> {
+  if (known.id) {
+    const view = await apiRequest(apiPaths.job(known.id), jobViewSchema, { signal }).catch((err: unknown) => {
+      if (err instanceof ApiError && (err.status === 404 || err.status === 403 || err.status === 401 || err.status === 400)) return null;
+      throw err;
+    });
+    if (view && view.kind === "forecast" && (view.status === "done" || view.status === "queued" || view.status === "running")) return followForecastJob(view.id, signal, onProgress);
+  }
   const { source, more_sources: more, ...settings } = input;
   const created = await apiRequest(apiPaths.forecastJob(), jobCreatedSchema, { method: "POST", body: { ...settings, sources: [source, ...(more ?? [])] }, signal });
-  const id = created.job.id;
+  known.onCreated(created.job.id);
+  return followForecastJob(created.job.id, signal, onProgress);
+}
+
+async function followForecastJob(id: string, signal: AbortSignal, onProgress: (p: JobProgress) => void): Promise<ForecastRun> {
   try {
     for (;;) {
       const view = await apiRequest(apiPaths.job(id), jobViewSchema, { signal });
@@ -70,6 +84,12 @@ async function runForecastJob(input: PageForecastInput, signal: AbortSignal, onP
   }
 }
 
+/** The job a link names (if any), and what to do when a new one is started (put its id in the address). */
+export interface JobLink {
+  id: string | null;
+  onCreated: (id: string) => void;
+}
+
 /**
  * The forecast of the request in the address. It is a query keyed on that request (a link, back and
  * forward show their own result), never retried and never refetched on its own, since each run spends
@@ -81,7 +101,7 @@ export interface ForecastRun {
   grid: ForecastResponse[] | null;
 }
 
-export function useForecast(url: { input: PageForecastInput; text: string; job: boolean } | undefined, onProgress: (p: JobProgress | null) => void) {
+export function useForecast(url: { input: PageForecastInput; text: string; job: boolean } | undefined, onProgress: (p: JobProgress | null) => void, jobLink: JobLink) {
   // The request's text identifies it (input and job follow from it); progress is a side channel.
   // eslint-disable-next-line @tanstack/query/exhaustive-deps
   return useQuery({
@@ -89,7 +109,7 @@ export function useForecast(url: { input: PageForecastInput; text: string; job: 
     queryFn: url
       ? async ({ signal }) => {
           try {
-            if (url.job) return await runForecastJob(url.input, signal, onProgress);
+            if (url.job) return await runForecastJob(url.input, signal, onProgress, jobLink);
             const { more_sources: _none, ...single } = url.input;
             return { main: await apiRequest(apiPaths.forecasts(), forecastResponseSchema, { method: "POST", body: single, signal }), grid: null };
           } finally {

@@ -251,7 +251,7 @@ export function ForecastForm({ state, onChange, onSubmit, busy, error, localErro
                 )}
               </Field>
               <Field label="Label">{(c) => <TextInput {...c} value={d.label} placeholder={curve?.name ?? ""} onChange={(e) => setDetector(d.key, { label: e.target.value })} />}</Field>
-              <Field label="f_low [Hz]" error={err(`detectors.${i}.f_low`)} hint={curve ? `curve from ${curve.f_min} Hz` : undefined}>
+              <Field label={<>f<sub>low</sub> [Hz]</>} error={err(`detectors.${i}.f_low`)} hint={curve ? `curve from ${curve.f_min} Hz` : undefined}>
                 {(c) => <TextInput {...c} inputMode="decimal" value={d.f_low} placeholder={curve && !curve.space ? String(curve.default_f_low) : "window"} onChange={(e) => setDetector(d.key, { f_low: e.target.value })} />}
               </Field>
               {curve?.space ? (
@@ -333,9 +333,9 @@ export function ForecastForm({ state, onChange, onSubmit, busy, error, localErro
         >
           {(c) => <TextInput {...c} value={state.b} onChange={(e) => set({ b: e.target.value })} />}
         </Field>
-        <Field label="σ prior φ_c" error={err("priors.phi_c")} hint="blank: no prior">{(c) => <TextInput {...c} value={state.phi_c} onChange={(e) => set({ phi_c: e.target.value })} />}</Field>
-        <Field label="σ prior χ_s" error={err("priors.chi_s")}>{(c) => <TextInput {...c} value={state.chi_s} onChange={(e) => set({ chi_s: e.target.value })} />}</Field>
-        <Field label="σ prior χ_a" error={err("priors.chi_a")}>{(c) => <TextInput {...c} value={state.chi_a} onChange={(e) => set({ chi_a: e.target.value })} />}</Field>
+        <Field label={<>σ prior φ<sub>c</sub></>} error={err("priors.phi_c")} hint="blank: no prior">{(c) => <TextInput {...c} value={state.phi_c} onChange={(e) => set({ phi_c: e.target.value })} />}</Field>
+        <Field label={<>σ prior χ<sub>s</sub></>} error={err("priors.chi_s")}>{(c) => <TextInput {...c} value={state.chi_s} onChange={(e) => set({ chi_s: e.target.value })} />}</Field>
+        <Field label={<>σ prior χ<sub>a</sub></>} error={err("priors.chi_a")}>{(c) => <TextInput {...c} value={state.chi_a} onChange={(e) => set({ chi_a: e.target.value })} />}</Field>
         <Field label="Credibility" error={err("credibility")}>{(c) => <TextInput {...c} value={state.credibility} onChange={(e) => set({ credibility: e.target.value })} />}</Field>
         <Field label="Sides">
           {(c) => (

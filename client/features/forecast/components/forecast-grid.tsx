@@ -6,8 +6,8 @@ import { NETWORK_COLOURS, networkName } from "./forecast-plots.tsx";
 
 /**
  * A grid of binaries side by side: one row per binary, one column per network, the bound on |β| at
- * one b (chosen here), with the network SNR under it. The plots and tables above are the first
- * binary's.
+ * one b (chosen here), with the network SNR under it. The plots and tables above show the binary
+ * chosen on the page (the first by default).
  */
 export function ForecastGrid({ forecasts }: { forecasts: ForecastResponse[] }) {
   const first = forecasts[0]!;
@@ -29,7 +29,7 @@ export function ForecastGrid({ forecasts }: { forecasts: ForecastResponse[] }) {
             </Select>
           )}
         </Field>
-        <p className="text-sm text-ink-soft">Forecast {Math.round(first.credibility * 100)} % bound on |β| per binary and network; the plots above show the first binary.</p>
+        <p className="text-sm text-ink-soft">Forecast {Math.round(first.credibility * 100)} % bound on |β| per binary and network; the plots and tables above show the binary chosen above them.</p>
       </div>
       <div className="overflow-x-auto">
         <table className="w-full border-collapse text-sm">

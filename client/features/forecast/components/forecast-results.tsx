@@ -31,9 +31,16 @@ export function ForecastAssumptions({ result }: { result: ForecastResponse }) {
           (|β| &lt; {result.multiplier.toFixed(3)} σ<sub>β</sub>).
         </li>
         <li data-testid="forecast-coalescence-used">
-          {result.coalescence === "shared"
-            ? "One coalescence phase φ_c and time t_c for all detectors of a network (phase-coherent)."
-            : `Each detector of a network has its own ${result.coalescence === "phi_c_per_detector" ? "coalescence phase φ_c" : "coalescence phase φ_c and time t_c"} (not phase-coherent); the φ_c prior stays on the first detector's.`}
+          {result.coalescence === "shared" ? (
+            <>
+              One coalescence phase φ<sub>c</sub> and time t<sub>c</sub> for all detectors of a network (phase-coherent).
+            </>
+          ) : (
+            <>
+              Each detector of a network has its own coalescence phase φ<sub>c</sub>
+              {result.coalescence === "phi_c_per_detector" ? "" : <> and time t<sub>c</sub></>} (not phase-coherent); the φ<sub>c</sub> prior stays on the first detector&apos;s.
+            </>
+          )}
         </li>
         {result.detectors.map((d) => (
           <li key={d.index}>

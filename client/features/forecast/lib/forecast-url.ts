@@ -16,6 +16,8 @@ import {
  * and a link that no longer parses says which field is wrong instead of silently showing the preset.
  */
 export const FORECAST_PARAM = "q";
+/** The background job that computed the request of a link (grids and long b lists). */
+export const JOB_PARAM = "job";
 
 // Up to MAX_GRID_B values of b, and more binaries beside the first (the page's own field, never sent
 // as such): past MAX_FORECAST_B values of b, or with more binaries, the page sends a grid job.

@@ -7,7 +7,9 @@ import { ErrorNote } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useTheoriesAtB } from "../../translate/api/theories-at-b.ts";
 import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, type DeviationValues } from "../../translate/components/samples-panel-fields.tsx";
-import { previewFile, startSamplesJob, useCancelJob, useJob } from "../api/jobs.ts";
+import { previewFile, startSamplesJob } from "../api/jobs.ts";
+import { useJobView } from "../api/use-job-view.ts";
+import { JobStatus, Progress } from "./job-status.tsx";
 import { SamplesJobResultView } from "./samples-job-result.tsx";
 
 /**
@@ -57,16 +59,6 @@ export function guessRoles(names: readonly string[]): Partial<Record<ColumnRoleN
   return guessed;
 }
 
-export function Progress({ label, value, testId }: { label: string; value: number; testId: string }) {
-  return (
-    <div className="flex items-center gap-3 text-sm">
-      <span className="w-40 text-ink-soft">{label}</span>
-      <progress className="h-3 w-64" max={1} value={value} data-testid={testId} aria-label={label} />
-      <span>{Math.round(value * 100)}%</span>
-    </div>
-  );
-}
-
 export function SamplesJobPanel() {
   const [deviation, setDeviation] = useState<DeviationValues>(DEFAULT_DEVIATION);
   const theories = useTheoriesAtB(bOfDeviation(deviation));
@@ -81,8 +73,7 @@ export function SamplesJobPanel() {
   const [upload, setUpload] = useState<{ what: string; value: number } | null>(null);
   const [error, setError] = useState<unknown>(null);
   const [jobId, setJobId] = useState<string | null>(null);
-  const job = useJob(jobId);
-  const cancel = useCancelJob();
+  const job = useJobView(jobId, samplesJobResultSchema);
 
   const columns = preview?.tables[table]?.columns ?? [];
   const choose = async (e: ChangeEvent<HTMLInputElement>) => {
@@ -129,9 +120,6 @@ export function SamplesJobPanel() {
     }
   };
 
-  const view = job.data;
-  const running = view && (view.status === "queued" || view.status === "running");
-  const result = view?.status === "done" ? samplesJobResultSchema.safeParse(view.result) : null;
   const fields = error instanceof ApiError ? error.fields : {};
 
   return (
@@ -240,28 +228,15 @@ export function SamplesJobPanel() {
             <Field label="high">{(c) => <TextInput {...c} value={range.hi} onChange={(e) => setRange({ ...range, hi: e.target.value })} placeholder="optional" />}</Field>
           </div>
           <div>
-            <Button kind="primary" onClick={() => void run()} busy={upload !== null} disabled={running === true} data-testid="job-run">
+            <Button kind="primary" onClick={() => void run()} busy={upload !== null} disabled={job.running} data-testid="job-run">
               Translate the file
             </Button>
           </div>
         </div>
       )}
       {error !== null && <ErrorNote error={error} title="The file could not be used." />}
-      {view && running && (
-        <div className="flex items-center gap-4" data-testid="job-running">
-          <Progress label={view.status === "queued" ? "Waiting for a worker" : "Translating"} value={view.progress} testId="job-progress" />
-          <Button kind="danger" onClick={() => cancel.mutate(view.id)} busy={cancel.isPending} data-testid="job-cancel">
-            Cancel
-          </Button>
-        </div>
-      )}
-      {view?.status === "cancelled" && <p className="text-sm text-ink-soft" data-testid="job-cancelled">The job was cancelled; nothing of it was kept but its record.</p>}
-      {view?.status === "failed" && (
-        <p role="alert" className="text-sm text-brick" data-testid="job-error">
-          {view.error?.message ?? "The job failed."}
-        </p>
-      )}
-      {result?.success && <SamplesJobResultView id={view!.id} data={result.data} />}
+      <JobStatus job={job} testIdPrefix="job" working="Translating" cancelled="The job was cancelled; nothing of it was kept but its record." failed="The job failed." />
+      {job.view && job.result && <SamplesJobResultView id={job.view.id} data={job.result} />}
     </section>
   );
 }

@@ -1,11 +1,12 @@
 import { useCallback } from "react";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesJobResult } from "../../../../common/jobs.ts";
 import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 import { CautionList } from "../../translate/components/caution-list.tsx";
-import { PlotFigure } from "../../translate/components/plot-figure.tsx";
+import { PlotFigure } from "../../../components/ui/figure.tsx";
+import { MARK_STYLE } from "../../../components/ui/theory-labels.ts";
 import { VerdictBadge } from "../../translate/components/results-table.tsx";
 import { decadeLabel, formatPlain, SciNumber, unitText } from "../../translate/components/sci-number.tsx";
 
@@ -15,7 +16,7 @@ const pct = (x: number) => `${(Math.round(x * 1000) / 10).toString()}%`;
 
 function CouplingHistogram({ data }: { data: SamplesJobResult }) {
   const build = useCallback(
-    (Plot: PlotModule) => {
+    (Plot: PlotModule, width: number) => {
       const h = data.histogram;
       const bins = h.mass.map((mass, i) => ({ x1: h.edges[i]!, x2: h.edges[i + 1]!, mass }));
       if (bins.length === 0) throw new Error("no sample to plot");
@@ -24,7 +25,7 @@ function CouplingHistogram({ data }: { data: SamplesJobResult }) {
       const log = h.scale === "log";
       const wide = log && bins[bins.length - 1]!.x2 / bins[0]!.x1 >= 100;
       return Plot.plot({
-        width: 560,
+        width,
         height: 240,
         marginLeft: 50,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
@@ -42,9 +43,12 @@ function CouplingHistogram({ data }: { data: SamplesJobResult }) {
   return (
     <PlotFigure
       build={build}
+      width={560}
       title={`${data.theory_name}: posterior of ${symbolText(data.coupling.symbol, data.coupling.latex)}`}
       filename={`${data.theory}-${data.coupling.symbol}-posterior`}
       testId="job-histogram"
+      legend={[{ ...MARK_STYLE[data.verdict], label: `the bound (brick line): ${MARK_STYLE[data.verdict].label}` }]}
+      cautions={data.cautions.map((c) => conditionText(c.message))}
       caption={`The coupling's posterior under the ${data.prior.kind.replace("_", " ")} prior (weighted); brick: the ${pct(data.credibility)} ${data.coupling.side === "interval" ? "interval" : `${data.coupling.side} bound`}.`}
     />
   );

@@ -8,8 +8,10 @@ import { apiRequest, ApiError } from "../../../lib/api-client.ts";
 import { apiPaths } from "../../../lib/paths.ts";
 import { useTheoriesAtB } from "../../translate/api/theories-at-b.ts";
 import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, type DeviationValues } from "../../translate/components/samples-panel-fields.tsx";
-import { previewFile, startSamplesJob, startStackJob, useCancelJob, useJob } from "../api/jobs.ts";
-import { guessRoles, Progress } from "./samples-job-panel.tsx";
+import { previewFile, startSamplesJob, startStackJob } from "../api/jobs.ts";
+import { useJobView } from "../api/use-job-view.ts";
+import { JobStatus, Progress } from "./job-status.tsx";
+import { guessRoles } from "./samples-job-panel.tsx";
 import { StackResultView } from "./stack-result.tsx";
 
 /**
@@ -84,8 +86,7 @@ export function StackPanel() {
   const [step, setStep] = useState<{ what: string; value: number } | null>(null);
   const [error, setError] = useState<unknown>(null);
   const [stackId, setStackId] = useState<string | null>(null);
-  const job = useJob(stackId);
-  const cancel = useCancelJob();
+  const job = useJobView(stackId, stackJobResultSchema);
   const setCell = <K extends keyof EventRow>(i: number, key: K, value: EventRow[K]) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: value } : r)));
 
   /** A per-event file: preview, guessed columns, a samples job with the stack's settings, followed until done. */
@@ -152,9 +153,6 @@ export function StackPanel() {
     }
   };
 
-  const view = job.data;
-  const running = view && (view.status === "queued" || view.status === "running");
-  const result = view?.status === "done" ? stackJobResultSchema.safeParse(view.result) : null;
   const fields = error instanceof ApiError ? error.fields : {};
   const fieldList = Object.entries(fields);
 
@@ -268,7 +266,7 @@ export function StackPanel() {
           <input type="checkbox" checked={includeOutside} onChange={(e) => setIncludeOutside(e.target.checked)} />
           keep events whose own bound is outside validity
         </label>
-        <Button kind="primary" onClick={() => void run()} busy={step !== null} disabled={running === true} data-testid="stack-run">
+        <Button kind="primary" onClick={() => void run()} busy={step !== null} disabled={job.running} data-testid="stack-run">
           Combine
         </Button>
       </div>
@@ -284,21 +282,8 @@ export function StackPanel() {
       ) : (
         <ErrorNote error={error} title="The events could not be combined." />
       ))}
-      {view && running && (
-        <div className="flex flex-wrap items-center gap-4" data-testid="stack-running">
-          <Progress label={view.status === "queued" ? "Waiting for a worker" : "Combining"} value={view.progress} testId="stack-progress" />
-          <Button kind="danger" onClick={() => cancel.mutate(view.id)} busy={cancel.isPending} data-testid="stack-cancel">
-            Cancel
-          </Button>
-        </div>
-      )}
-      {view?.status === "cancelled" && <p className="text-sm text-ink-soft">The combination was cancelled.</p>}
-      {view?.status === "failed" && (
-        <p role="alert" className="text-sm text-brick" data-testid="stack-error">
-          {view.error?.message ?? "The combination failed."}
-        </p>
-      )}
-      {result?.success && <StackResultView id={view!.id} data={result.data} />}
+      <JobStatus job={job} testIdPrefix="stack" working="Combining" cancelled="The combination was cancelled." failed="The combination failed." />
+      {job.view && job.result && <StackResultView id={job.view.id} data={job.result} />}
     </section>
   );
 }

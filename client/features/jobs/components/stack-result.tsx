@@ -1,9 +1,11 @@
 import { useCallback } from "react";
 import type { StackJobResult } from "../../../../common/jobs.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
+import { MARK_STYLE } from "../../../components/ui/theory-labels.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 import { CautionList } from "../../translate/components/caution-list.tsx";
-import { PlotFigure } from "../../translate/components/plot-figure.tsx";
+import { PlotFigure } from "../../../components/ui/figure.tsx";
 import { VerdictBadge } from "../../translate/components/results-table.tsx";
 import { decadeLabel, formatPlain, SciNumber, unitText } from "../../translate/components/sci-number.tsx";
 
@@ -19,22 +21,27 @@ function Bound({ coupling }: { coupling: StackJobResult["coupling"] }) {
   if (coupling.signed_interval) {
     return (
       <>
-        {coupling.symbol} ∈ [<SciNumber value={coupling.signed_interval[0]} />, <SciNumber value={coupling.signed_interval[1]} />] {unit}
+        {symbolText(coupling.symbol, coupling.latex)} ∈ [<SciNumber value={coupling.signed_interval[0]} />, <SciNumber value={coupling.signed_interval[1]} />] {unit}
       </>
     );
   }
   return (
     <>
-      {coupling.symbol} {coupling.side === "lower" ? "≥" : "≤"} <SciNumber value={coupling.value ?? Number.NaN} className="font-semibold" /> {unit}
+      {symbolText(coupling.symbol, coupling.latex)} {coupling.side === "lower" ? "≥" : "≤"} <SciNumber value={coupling.value ?? Number.NaN} className="font-semibold" /> {unit}
     </>
   );
+}
+
+/** One name per event, told apart when two share a label. */
+function seriesNames(data: StackJobResult): string[] {
+  return data.events.map((e, i) => `${e.label}${e.used ? "" : " (left out)"}` + (data.events.filter((f) => f.label === e.label).length > 1 ? ` #${i + 1}` : ""));
 }
 
 /** Each event's coupling posterior (its likelihood under the stack's prior) and the combined one, with the combined bound marked. */
 export function StackPlot({ data }: { data: StackJobResult }) {
   const build = useCallback(
-    (Plot: PlotModule) => {
-      const labels = data.events.map((e, i) => `${e.label}${e.used ? "" : " (left out)"}` + (data.events.filter((f) => f.label === e.label).length > 1 ? ` #${i + 1}` : ""));
+    (Plot: PlotModule, width: number) => {
+      const labels = seriesNames(data);
       const rows: { x: number; y: number; series: string }[] = [];
       data.events.forEach((_, i) => data.grid.x.forEach((x, j) => rows.push({ x, y: data.grid.events[i]![j]!, series: labels[i]! })));
       data.grid.x.forEach((x, j) => rows.push({ x, y: data.grid.combined[j]!, series: "combined" }));
@@ -45,13 +52,14 @@ export function StackPlot({ data }: { data: StackJobResult }) {
       const marks = data.coupling.signed_interval ?? (data.coupling.value !== undefined ? [data.coupling.value] : []);
       const domain = [...labels, "combined"];
       return Plot.plot({
-        width: 620,
+        width,
         height: 280,
         marginLeft: 50,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
-        x: { type: log ? "log" : "linear", label: `${data.coupling.symbol}${unit ? ` (${unit})` : ""} →`, ...(log ? { tickFormat: decadeLabel } : { ticks: 5, tickFormat: (d: number) => formatPlain(d, 2) }) },
+        x: { type: log ? "log" : "linear", label: `${symbolText(data.coupling.symbol, data.coupling.latex)}${unit ? ` (${unit})` : ""} →`, ...(log ? { tickFormat: decadeLabel } : { ticks: 5, tickFormat: (d: number) => formatPlain(d, 2) }) },
         y: { label: "↑ posterior density (peak = 1)", grid: true, domain: [0, 1.05] },
-        color: { domain, range: [...labels.map((_, i) => EVENT_TONES[i % EVENT_TONES.length]!), SEA], legend: true },
+        // The legend is the figure's own (under the plot and in the downloaded files), not Plot's HTML swatches.
+        color: { domain, range: [...labels.map((_, i) => EVENT_TONES[i % EVENT_TONES.length]!), SEA] },
         marks: [
           Plot.line(
             rows.filter((r) => r.series !== "combined" && (!log || r.x > 0)),
@@ -71,9 +79,16 @@ export function StackPlot({ data }: { data: StackJobResult }) {
   return (
     <PlotFigure
       build={build}
-      title={`${data.theory_name}: each event's posterior of ${data.coupling.symbol} and the combination`}
+      width={620}
+      title={`${data.theory_name}: each event's posterior of ${symbolText(data.coupling.symbol, data.coupling.latex)} and the combination`}
       filename={`${data.theory}-${data.coupling.symbol}-stack`}
       testId="stack-plot"
+      legend={[
+        ...seriesNames(data).map((name, i) => ({ mark: "╌", color: EVENT_TONES[i % EVENT_TONES.length]!, label: name })),
+        { mark: "━", color: SEA, label: "combined" },
+        { ...MARK_STYLE[data.verdict], label: `combined bound (brick line): ${MARK_STYLE[data.verdict].label}` },
+      ]}
+      cautions={data.cautions.map((c) => conditionText(c.message))}
       caption={`Dashed: each event's likelihood times the ${data.prior.kind.replace("_", " ")} prior, on the common grid; solid: their product (the combined posterior); brick: the combined ${pct(data.credibility)} ${data.coupling.side === "interval" ? "interval" : `${data.coupling.side} bound`}. Each curve is scaled to peak at 1.`}
     />
   );
@@ -105,7 +120,7 @@ export function StackResultView({ id, data }: { id: string; data: StackJobResult
           <caption className="sr-only">Each event's own bound and whether it entered the combination</caption>
           <thead className="bg-paper-deep text-left text-sm">
             <tr>
-              {["Event", "Input", `Own bound on ${data.coupling.symbol}`, "Validity", "In the combination"].map((h) => (
+              {["Event", "Input", `Own bound on ${symbolText(data.coupling.symbol, data.coupling.latex)}`, "Validity", "In the combination"].map((h) => (
                 <th key={h} scope="col" className="border-b border-paper-edge px-3 py-2 font-semibold">
                   {h}
                 </th>

@@ -6,23 +6,44 @@ import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
 import { ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import { CautionList } from "../../translate/components/caution-list.tsx";
+import { bestReference } from "../../translate/components/results-table.tsx";
+import { unitText } from "../../translate/components/sci-number.tsx";
 import { useRingdownConvert } from "../../consistency/api/run-consistency.ts";
+import { AnswerBibliography } from "./answer-bibliography.tsx";
 
 const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
 const sig = (x: number) => Number(x.toPrecision(3)).toString();
 const TONE = { valid: "ok", outside_validity: "fail", not_assessed: "caution" } as const;
 const LABEL = { valid: "valid", outside_validity: "outside validity", not_assessed: "not assessed" } as const;
 
+/** The published bound beside a ringdown limit, as on an inspiral row: the tightest comparable one, the others on hover. */
+function Comparison({ r }: { r: RingdownResult }) {
+  const best = bestReference(r.reference_bounds);
+  if (!best) return r.status === "bounded" ? <p className="text-xs text-ink-faint">no published bound on it in the catalogue</p> : null;
+  const tone = best.verdict === "tighter" ? "text-moss" : best.verdict === "weaker" ? "text-ink-soft" : "text-ink-faint";
+  const others = r.reference_bounds.filter((c) => c !== best).map((c) => c.sentence);
+  return (
+    <p className={`text-xs ${tone}`} title={others.join("\n") || undefined} data-testid={`ringdown-comparison-${r.slug}`}>
+      {best.sentence}
+    </p>
+  );
+}
+
 function Row({ r }: { r: RingdownResult }) {
+  const name = r.coupling ? symbolText(r.coupling.symbol, r.coupling.latex) : "";
+  const unit = r.coupling && r.coupling.unit !== "1" ? ` ${unitText(r.coupling.unit)}` : "";
   const limit =
     r.status !== "bounded"
       ? null
       : r.lower && r.upper
-        ? `${sig(r.lower.value)} ≤ ${r.coupling?.symbol} ≤ ${sig(r.upper.value)}`
+        ? `${sig(r.lower.value)} ≤ ${name} ≤ ${sig(r.upper.value)}${unit}`
         : r.upper
-          ? `${r.coupling?.symbol} ≤ ${sig(r.upper.value)}`
-          : `${r.coupling?.symbol} ≥ ${sig(r.lower!.value)}`;
+          ? `${name} ≤ ${sig(r.upper.value)}${unit}`
+          : `${name} ≥ ${sig(r.lower!.value)}${unit}`;
+  // The magnitude in the unit the literature quotes, when it differs from the signed line above (√α in km for α in km²).
+  const quoted = r.limit && (r.limit.symbol !== r.coupling?.symbol || (r.lower !== null && r.upper !== null)) ? r.limit : null;
   // Each condition that does not simply hold at a limit: stretched (kept as valid) or failing.
   const flagged = [...(r.lower?.validity ?? []), ...(r.upper?.validity ?? [])].filter((c, i, all) => c.status !== "ok" && all.findIndex((d) => d.label === c.label && d.status === c.status) === i);
   return (
@@ -30,7 +51,16 @@ function Row({ r }: { r: RingdownResult }) {
       <th scope="row" className="text-left font-normal">
         {r.name}
       </th>
-      <td>{limit ?? <span className="text-ink-faint">{r.reason}</span>}</td>
+      <td>
+        {limit ?? <span className="text-ink-faint">{r.reason}</span>}
+        {quoted && (
+          <p className="text-ink-soft" data-testid={`ringdown-quoted-${r.slug}`}>
+            {symbolText(quoted.symbol, quoted.latex)} ≤ {sig(quoted.value)}
+            {quoted.unit !== "1" ? ` ${unitText(quoted.unit)}` : ""}
+          </p>
+        )}
+        <Comparison r={r} />
+      </td>
       <td>
         {r.status === "bounded" && <Badge tone={TONE[r.verdict]}>{LABEL[r.verdict]}</Badge>}
         {flagged.map((c) => (
@@ -43,6 +73,7 @@ function Row({ r }: { r: RingdownResult }) {
       </td>
       <td className="text-xs text-ink-soft">
         {r.mapping && <code>{r.mapping.expression}</code>}
+        {r.references.length > 0 && <p>sources: {r.references.map((c) => c.citation).join("; ")}</p>}
         {r.unconstrained.map((u) => (
           <p key={u.side}>
             {u.side} side: {u.reason}
@@ -132,10 +163,10 @@ export function RingdownPanel() {
         <Field label="Credibility" error={shown["bound.credibility"]}>
           {(c) => <TextInput {...c} inputMode="decimal" value={f.credibility} onChange={set("credibility")} />}
         </Field>
-        <Field label="Remnant M_f (M☉)" error={shown["remnant.M_f"]}>
+        <Field label={<>Remnant M<sub>f</sub> (M☉)</>} error={shown["remnant.M_f"]}>
           {(c) => <TextInput {...c} inputMode="decimal" value={f.M_f} onChange={set("M_f")} />}
         </Field>
-        <Field label="Remnant χ_f" error={shown["remnant.chi_f"]}>
+        <Field label={<>Remnant χ<sub>f</sub></>} error={shown["remnant.chi_f"]}>
           {(c) => <TextInput {...c} inputMode="decimal" value={f.chi_f} onChange={set("chi_f")} />}
         </Field>
         <Field label="Remnant frame" error={shown["remnant.frame"]}>
@@ -185,6 +216,7 @@ export function RingdownPanel() {
             </div>
           )}
           <CautionList cautions={result.data.cautions} testId="ringdown-cautions" />
+          <AnswerBibliography entries={result.data.bibliography} testId="ringdown-bibliography" />
         </>
       )}
     </section>

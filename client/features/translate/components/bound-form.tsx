@@ -183,7 +183,7 @@ export function BoundForm({ onSubmit, serverError, busy = false, initial = EXAMP
         <Field label="Credibility" hint="fraction, e.g. 0.9" error={err("bound.credibility")}>
           {(c) => <TextInput {...c} type="number" step="any" {...register("bound.credibility", num)} />}
         </Field>
-        <Field label="Lowest band frequency f_low (Hz)" hint={`${DEFAULT_F_LOW_HZ} Hz is common practice; validity conditions use it`} error={err("bound.f_low")}>
+        <Field label={<>Lowest band frequency f<sub>low</sub> (Hz)</>} hint={`${DEFAULT_F_LOW_HZ} Hz is common practice; validity conditions use it`} error={err("bound.f_low")}>
           {(c) => <TextInput {...c} type="number" step="any" {...register("bound.f_low", num)} />}
         </Field>
         {parameter === "ppe_alpha" || ratio ? (

@@ -2,7 +2,7 @@ import { useCallback } from "react";
 import type { PlotModule } from "../../../lib/plot.ts";
 import type { ConvertResult, QuotedValueDto } from "../../../../common/convert.ts";
 import { symbolText } from "../../../../common/symbol-text.ts";
-import { PlotFigure, type LegendEntry } from "./plot-figure.tsx";
+import { NARROW_PX, PlotFigure, type LegendEntry } from "../../../components/ui/figure.tsx";
 import { decadeLabel, formatPlain, unitText } from "./sci-number.tsx";
 
 interface Row {
@@ -49,7 +49,7 @@ function legendFor(result: ConvertResult): LegendEntry[] {
 
 export function CouplingPlot({ result }: { result: ConvertResult }) {
   const build = useCallback(
-    (Plot: PlotModule) => {
+    (Plot: PlotModule, width: number) => {
       const found = comparableQuantity(result);
       if (!found) throw new Error("no published bound in the same quantity");
       const { quantity, rows } = found;
@@ -60,12 +60,13 @@ export function CouplingPlot({ result }: { result: ConvertResult }) {
       const unit = unitText(quantity.unit);
       const symbol = symbolText(quantity.symbol, quantity.latex);
       return Plot.plot({
-        width: 560,
+        width,
         height: 50 + 34 * rows.length,
-        marginLeft: 200,
+        // On a phone the row names get less room and are cut at the end (the full name is in the tooltip and the table).
+        marginLeft: width < NARROW_PX ? 128 : 200,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
-        x: { type: "log", domain: [lo, hi], label: `${symbol}${unit ? ` (${unit})` : ""} →`, grid: true, tickFormat: decadeLabel },
-        y: { label: null, domain: rows.map((r) => r.label) },
+        x: { type: "log", domain: [lo, hi], label: `${symbol}${unit ? ` (${unit})` : ""} →`, grid: true, tickFormat: decadeLabel, ...(width < NARROW_PX ? { ticks: 3 } : {}) },
+        y: { label: null, domain: rows.map((r) => r.label), tickFormat: (label: string) => (width < NARROW_PX && label.length > 19 ? `${label.slice(0, 18).trimEnd()}…` : label) },
         marks: [
           Plot.ruleY(rows, {
             y: "label",
@@ -78,7 +79,7 @@ export function CouplingPlot({ result }: { result: ConvertResult }) {
           // Ours a circle, published bounds diamonds: told apart by shape, not colour alone.
           Plot.dot(rows.filter((r) => r.ours), { y: "label", x: "value", r: 5, fill: SEA, title: (r: Row) => `${r.label}: ${formatPlain(r.value)} ${unit}` }),
           Plot.dot(rows.filter((r) => !r.ours), { y: "label", x: "value", r: 6, symbol: "diamond", fill: AMBER, title: (r: Row) => `${r.label}: ${formatPlain(r.value)} ${unit}` }),
-          Plot.text(rows, { y: "label", x: "value", text: (r: Row) => formatPlain(r.value), dy: -10, fontSize: 10 }),
+          Plot.text(rows, { y: "label", x: "value", text: (r: Row) => formatPlain(r.value), dy: -11, fontSize: 11 }),
         ],
       });
     },
@@ -88,6 +89,7 @@ export function CouplingPlot({ result }: { result: ConvertResult }) {
   return (
     <PlotFigure
       build={build}
+      width={560}
       title={`${result.theory_name}: ${quantity.side === "upper" ? "upper" : "lower"} limits on ${symbolText(quantity.symbol, quantity.latex)}${result.convention !== "canonical" ? ` (convention ${result.convention})` : ""}`}
       filename={`${result.theory}-${quantity.symbol}-limits`}
       testId={`coupling-plot-${result.theory}`}

@@ -2,7 +2,7 @@ import { useCallback } from "react";
 import { symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesResponse } from "../../../../common/convert-samples.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
-import { PlotFigure } from "./plot-figure.tsx";
+import { PlotFigure } from "../../../components/ui/figure.tsx";
 import { decadeLabel, formatPlain, unitText } from "./sci-number.tsx";
 
 const SEA = "#24484a";
@@ -21,14 +21,14 @@ export function histogramBins(h: SamplesResponse["histogram"]): Bin[] {
 /** The translated samples on log-spaced bins, with the credible bound drawn across them. */
 export function SamplesHistogram({ data }: { data: SamplesResponse }) {
   const build = useCallback(
-    (Plot: PlotModule) => {
+    (Plot: PlotModule, width: number) => {
       const bins = histogramBins(data.histogram);
       if (bins.length === 0) throw new Error("no positive sample to plot");
       const unit = unitText(data.coupling.unit);
       const { value } = data.coupling;
       const wide = bins[bins.length - 1]!.x2 / bins[0]!.x1 >= 100;
       return Plot.plot({
-        width: 560,
+        width,
         height: 240,
         marginLeft: 50,
         style: { fontFamily: '"Source Serif 4", Georgia, serif', fontSize: "12px", background: "transparent" },
@@ -48,6 +48,7 @@ export function SamplesHistogram({ data }: { data: SamplesResponse }) {
   return (
     <PlotFigure
       build={build}
+      width={560}
       title={`${data.theory_name}: ${symbolText(data.coupling.symbol, data.coupling.latex)} per sample`}
       filename={`${data.theory}-${data.coupling.symbol}-samples`}
       testId="samples-histogram"
