@@ -26,7 +26,7 @@ function deviationTrack(e: CouplingExclusionResponse): DeviationTrack {
   return {
     theory: shortTheoryName(e.theory.name, e.theory.slug),
     track: e.track,
-    marks: e.sides.flatMap((s) => (s.x === null ? [] : [{ x: s.x, label: `${symbol} = ${sciText(s.x, 3)}`, verdict: s.verdict }])),
+    marks: e.sides.flatMap((s) => (s.x === null ? [] : [{ x: s.x, label: `${symbol} = ${sciText(s.x, 3).replace("-", "−")}`, verdict: s.verdict }])),
     cautions: e.cautions,
   };
 }

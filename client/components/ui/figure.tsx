@@ -64,6 +64,7 @@ export function Figure({ draw, problem, title, filename, testId, caption, legend
   const room = useContentWidth(box);
   const shownWidth = room === undefined ? width : Math.min(width, room);
   const [failure, setFailure] = useState<string | undefined>();
+  const [overflowing, setOverflowing] = useState(false);
 
   const rendered = useMemo((): { node?: Element; error?: string } => {
     if (!draw) return {};
@@ -79,6 +80,8 @@ export function Figure({ draw, problem, title, filename, testId, caption, legend
     const el = host.current;
     if (!el || !rendered.node) return;
     el.replaceChildren(rendered.node);
+    // A plot wider than its box (every label kept at its size) scrolls: measured after each drawing, which follows every change of room.
+    setOverflowing(el.scrollWidth > el.clientWidth + 1);
     return () => el.replaceChildren();
   }, [rendered]);
 
@@ -119,7 +122,16 @@ export function Figure({ draw, problem, title, filename, testId, caption, legend
       {shownProblem && <p className="text-sm text-brick">The plot could not be drawn: {shownProblem}</p>}
       <div ref={box} className="w-full min-w-0">
         {/* A plot wider than the room (many labels side by side) scrolls inside its box, never the page. */}
-        <div ref={host} className="max-w-full overflow-x-auto" data-role="plot-host" data-drawn-width={rendered.node ? shownWidth : undefined} />
+        <div
+          ref={host}
+          className="max-w-full overflow-x-auto"
+          data-role="plot-host"
+          data-drawn-width={rendered.node ? shownWidth : undefined}
+          // While it scrolls, the box takes a tab stop and a name, so the arrow keys reach the rest of the plot.
+          role={overflowing ? "region" : undefined}
+          aria-label={overflowing ? `${title} (scrolls sideways)` : undefined}
+          tabIndex={overflowing ? 0 : undefined}
+        />
       </div>
       {legend && legend.length > 0 && (
         <ul className="flex flex-col gap-0.5 text-xs text-ink-soft" aria-label="Legend" data-testid={`${testId}-legend`}>

@@ -12,6 +12,7 @@ import { bestReference } from "../../translate/components/results-table.tsx";
 import { unitText } from "../../translate/components/sci-number.tsx";
 import { useRingdownConvert } from "../../consistency/api/run-consistency.ts";
 import { AnswerBibliography } from "./answer-bibliography.tsx";
+import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 
 const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
 const sig = (x: number) => Number(x.toPrecision(3)).toString();
@@ -217,6 +218,7 @@ export function RingdownPanel() {
           )}
           <CautionList cautions={result.data.cautions} testId="ringdown-cautions" />
           <AnswerBibliography entries={result.data.bibliography} testId="ringdown-bibliography" />
+          {request && <SaveToSheet what="this ringdown translation" payload={{ kind: "ringdown", request }} defaults={{ analysis_method: "ringdown: bound on a quasinormal-mode shift" }} />}
         </>
       )}
     </section>

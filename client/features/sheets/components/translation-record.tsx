@@ -101,7 +101,7 @@ function LimitsTable({ label, translation }: { label: string; translation: Conve
   );
 }
 
-function CatalogueVersion({ token }: { token: string }) {
+export function CatalogueVersion({ token }: { token: string }) {
   return (
     <span title={`catalogue version ${token}`} className="underline decoration-dotted">
       {catalogueVersionText(token)}
@@ -120,7 +120,7 @@ function changeCounts(entries: EntryChange[]): string {
   return [added && `${added} new`, revised && `${revised} revised`, retired && `${retired} retired`].filter(Boolean).join(", ");
 }
 
-function StaleNote({ r, onRetranslate, busy }: { r: TranslationRecord; onRetranslate?: (() => void) | undefined; busy: boolean }) {
+export function StaleNote({ r, onRetranslate, busy }: { r: Pick<TranslationRecord, "stale">; onRetranslate?: (() => void) | undefined; busy: boolean }) {
   if (!r.stale) return null;
   const entries = r.stale.entries;
   return (
