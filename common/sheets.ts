@@ -3,6 +3,7 @@ import { dbId, MAX_DB_INT } from "./ids.ts";
 import { consistencyJobRequestSchema, consistencyRequestSchema, consistencyResultSchema } from "./consistency.ts";
 import { bibliographyEntrySchema, binarySchema, boundSchema, convertResponseSchema, convertResultSchema, cosmologySchema, theorySlugSchema } from "./convert.ts";
 import { jobIdSchema, samplesJobRequestSchema, samplesJobResultSchema, stackJobRequestSchema, stackJobResultSchema } from "./jobs.ts";
+import { ringdownConvertRequestSchema, ringdownConvertResponseSchema } from "./ringdown.ts";
 
 /**
  * Saved sheets: a named set of records (translated bounds, posterior-samples and stacking results,
@@ -29,7 +30,9 @@ const provenance = {
  * - translation: a bound and its binary, translated by the server when the record is added;
  * - samples_job / stack: a finished posterior-samples or stacking job, copied with its provenance;
  * - consistency: an IMR-consistency result, from two Gaussian summaries (computed when added) or a
- *   finished consistency job.
+ *   finished consistency job;
+ * - ringdown: a bound on a quasinormal-mode shift with its remnant (or binary), translated through the
+ *   catalogue's ringdown mappings when the record is added (re-translatable like a translation).
  * Every result is stored as computed and never recomputed on read; re-translating a translation
  * record is an explicit action (preview, then accept).
  */
@@ -55,15 +58,19 @@ export const consistencyRecordInputSchema = z
   })
   .refine((r) => (r.summaries === undefined) !== (r.job === undefined), { path: ["summaries"], message: "give exactly one of summaries (Gaussian estimates) and job (a finished consistency job)" });
 
-export const RECORD_KINDS = ["translation", "samples_job", "stack", "consistency"] as const;
+/** The request as POST /convert takes a ringdown bound: { bound: { parameter: qnm_dfreq | qnm_dtau, mode, upper | interval, credibility }, remnant | binary }. */
+export const ringdownRecordInputSchema = z.strictObject({ kind: z.literal("ringdown"), ...provenance, request: ringdownConvertRequestSchema });
+
+export const RECORD_KINDS = ["translation", "samples_job", "stack", "consistency", "ringdown"] as const;
 export type RecordKind = (typeof RECORD_KINDS)[number];
 
-export const sheetRecordInputSchema = z.discriminatedUnion("kind", [translationRecordInputSchema, samplesJobRecordInputSchema, stackRecordInputSchema, consistencyRecordInputSchema], {
+export const sheetRecordInputSchema = z.discriminatedUnion("kind", [translationRecordInputSchema, samplesJobRecordInputSchema, stackRecordInputSchema, consistencyRecordInputSchema, ringdownRecordInputSchema], {
   error: `kind must be one of ${RECORD_KINDS.join(", ")}`,
 });
 export type SheetRecordInput = z.output<typeof sheetRecordInputSchema>;
 export type SheetRecordFormInput = z.input<typeof sheetRecordInputSchema>;
 export type TranslationRecordInput = z.output<typeof translationRecordInputSchema>;
+export type RingdownRecordInput = z.output<typeof ringdownRecordInputSchema>;
 
 /** In PATCH records: keep an existing record exactly as stored (at this place in the list). */
 export const keepRecordSchema = z.strictObject({ kind: z.literal("keep"), id: dbId("id") });
@@ -73,7 +80,11 @@ const description = text("description", 4000);
 const records = z.array(sheetRecordInputSchema).max(MAX_SHEET_RECORDS, `a sheet holds at most ${MAX_SHEET_RECORDS} records`);
 /** PATCH: the new list; `{ "kind": "keep", "id": n }` keeps record n as stored, any other item is a new record. */
 const patchRecords = z
-  .array(z.discriminatedUnion("kind", [keepRecordSchema, translationRecordInputSchema, samplesJobRecordInputSchema, stackRecordInputSchema, consistencyRecordInputSchema], { error: `kind must be keep or one of ${RECORD_KINDS.join(", ")}` }))
+  .array(
+    z.discriminatedUnion("kind", [keepRecordSchema, translationRecordInputSchema, samplesJobRecordInputSchema, stackRecordInputSchema, consistencyRecordInputSchema, ringdownRecordInputSchema], {
+      error: `kind must be keep or one of ${RECORD_KINDS.join(", ")}`,
+    }),
+  )
   .max(MAX_SHEET_RECORDS, `a sheet holds at most ${MAX_SHEET_RECORDS} records`);
 
 export const createSheetSchema = z.strictObject({
@@ -160,6 +171,15 @@ export const historyItemSchema = z.object({
 });
 export type HistoryItem = z.infer<typeof historyItemSchema>;
 
+/** A ringdown record's replaced translation. */
+export const ringdownHistoryItemSchema = z.object({
+  translation: ringdownConvertResponseSchema,
+  translated_at: z.string(),
+  entry_revisions: z.record(z.string(), z.number().int()).nullable(),
+  replaced_at: z.string(),
+});
+export type RingdownHistoryItem = z.infer<typeof ringdownHistoryItemSchema>;
+
 const fileSchema = z.object({ name: z.string(), bytes: z.number().int(), sha256: z.string().nullable(), format: z.string() });
 const jobRefSchema = z.object({ id: z.string(), created_at: z.string(), finished_at: z.string().nullable() });
 
@@ -226,7 +246,21 @@ export const consistencyRecordSchema = z.object({
 });
 export type ConsistencyRecord = z.infer<typeof consistencyRecordSchema>;
 
-export const sheetRecordSchema = z.discriminatedUnion("kind", [translationRecordSchema, samplesJobRecordSchema, stackRecordSchema, consistencyRecordSchema]);
+/** A ringdown translation as computed when saved (or last re-translated), with what it was computed against. */
+export const ringdownRecordSchema = z.object({
+  kind: z.literal("ringdown"),
+  ...recordBase,
+  request: ringdownConvertRequestSchema,
+  translation: ringdownConvertResponseSchema,
+  translated_at: z.string(),
+  /** Revision of each accepted entry with a ringdown mapping when it was translated. */
+  entry_revisions: z.record(z.string(), z.number().int()).nullable(),
+  stale: staleSchema.nullable(),
+  history: z.array(ringdownHistoryItemSchema),
+});
+export type RingdownRecord = z.infer<typeof ringdownRecordSchema>;
+
+export const sheetRecordSchema = z.discriminatedUnion("kind", [translationRecordSchema, samplesJobRecordSchema, stackRecordSchema, consistencyRecordSchema, ringdownRecordSchema]);
 export type SheetRecord = z.infer<typeof sheetRecordSchema>;
 
 export const sheetSchema = z.object({
@@ -284,7 +318,8 @@ export const recordRetranslationSchema = z.object({
   /** False when every limit and verdict reads the same. */
   changed: z.boolean(),
   limits: z.array(limitChangeSchema),
-  translation: convertResponseSchema,
+  /** The new translation: an inspiral one, or a ringdown one (kind "ringdown") for a ringdown record. */
+  translation: z.union([convertResponseSchema, ringdownConvertResponseSchema]),
 });
 export type RecordRetranslation = z.infer<typeof recordRetranslationSchema>;
 

@@ -13,6 +13,7 @@ import * as submissionVersions from "./20261202004000_submission_versions.ts";
 import * as sheetRecordKinds from "./20261202004100_sheet_record_kinds.ts";
 import * as jobBlobsStorage from "./20261202004500_job_blobs_storage.ts";
 import * as remnantMappingKinds from "./20261202005100_remnant_mapping_kinds.ts";
+import * as sheetRingdownRecords from "./20261202133000_sheet_ringdown_records.ts";
 
 /**
  * Every migration, in order. Listed explicitly (not read from the folder) so that the same code runs
@@ -33,4 +34,5 @@ export const migrations: Record<string, Knex.Migration> = {
   "20261202004100_sheet_record_kinds": sheetRecordKinds,
   "20261202004500_job_blobs_storage": jobBlobsStorage,
   "20261202005100_remnant_mapping_kinds": remnantMappingKinds,
+  "20261202133000_sheet_ringdown_records": sheetRingdownRecords,
 };

@@ -138,7 +138,7 @@ export function createApp(deps: AppDeps): DragomanApp {
   table.mount(api, "/api", consistencyJobRoutes(db, config, jobQueue));
   table.mount(api, "/api", consistencyRoutes(config, ringdown, curvesRepository(db)));
   table.mount(api, "/api", ringdownRoutes(ringdownTranslator, config));
-  table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock), config));
+  table.mount(api, "/api", sheetsRoutes(sheetsService(db, translator, deps.clock, ringdownTranslator), config));
   const forecasts = forecastsService(curvesRepository(db), getForecastPool({ nice: config.WORKER_NICE }), translator);
   table.mount(api, "/api", forecastsRoutes(forecasts, config));
   table.mount(api, "/api", forecastJobRoutes(db, config, jobQueue, forecasts));

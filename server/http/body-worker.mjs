@@ -2,19 +2,12 @@
 // The body worker thread (see body-pool.ts): large JSON bodies are decoded, parsed, guarded and
 // validated here, so a 4 MiB samples body never blocks the server's event loop. The code is
 // TypeScript, so the thread registers the tsx loader once when it starts and then stays warm.
-import { setPriority } from "node:os";
+import { lowerThisThread } from "../threads/lower-priority.mjs";
 import { parentPort, workerData } from "node:worker_threads";
 import { register } from "tsx/esm/api";
 
-// A nice value belongs to one thread on Linux: this lowers the body thread only (WORKER_NICE).
-const nice = Number(workerData?.nice ?? 0);
-if (nice > 0) {
-  try {
-    setPriority(nice);
-  } catch {
-    // Not permitted or not supported: run at the normal priority.
-  }
-}
+// The body thread only (WORKER_NICE).
+lowerThisThread(workerData?.nice);
 register();
 const { readBodyBytes } = await import("./body-kinds.ts");
 

@@ -3,19 +3,12 @@
 // is tens of milliseconds of arithmetic, too long for the server's event loop. The engine is
 // TypeScript, so the thread registers the tsx loader once when it starts and then stays warm; it
 // compiles the catalogue snapshot it is sent and keeps it until the revision changes.
-import { setPriority } from "node:os";
+import { lowerThisThread } from "../../threads/lower-priority.mjs";
 import { parentPort, workerData } from "node:worker_threads";
 import { register } from "tsx/esm/api";
 
-// A nice value belongs to one thread on Linux: this lowers the forecast thread only (WORKER_NICE).
-const nice = Number(workerData?.nice ?? 0);
-if (nice > 0) {
-  try {
-    setPriority(nice);
-  } catch {
-    // Not permitted or not supported: run at the normal priority.
-  }
-}
+// The forecast thread only (WORKER_NICE).
+lowerThisThread(workerData?.nice);
 register();
 const { forecastWithTranslations } = await import("./run.ts");
 const { compileCatalogue } = await import("../convert/compiled-catalogue.ts");

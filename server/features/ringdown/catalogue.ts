@@ -86,6 +86,8 @@ export function ringdownCatalogue(db: Knex): RingdownCatalogue {
         const parsed = theoryEntrySchema.safeParse(row.entry);
         if (!parsed.success) continue;
         const entry = parsed.data;
+        // A retired entry leaves translations (it stays readable in the catalogue), as for inspiral bounds.
+        if (entry.retired) continue;
         const mappings: CompiledRingdownMapping[] = [];
         const remnant: CompiledRemnantMapping[] = [];
         const inspiral: CompiledMapping[] = [];

@@ -1,6 +1,8 @@
 import { catalogueVersionText } from "../../../common/catalogue-version.ts";
-import { sciText } from "../../../common/number-text.ts";
-import type { ConsistencyRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
+import { sciText, thresholdText } from "../../../common/number-text.ts";
+import type { RingdownResult } from "../../../common/ringdown.ts";
+import { ringdownLimitOf } from "../../../common/ringdown-limit.ts";
+import type { ConsistencyRecord, RingdownRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
 import { symbolText } from "../../../common/symbol-text.ts";
 import { boundIndex, bytesText, columnsText, exportLines, failedConditions, priorText } from "./export-rows.ts";
 
@@ -220,6 +222,47 @@ function consistencyRow(r: ConsistencyRecord): Row {
   };
 }
 
+/** A ringdown translation's line: the bound and the remnant it was measured on, and one entry's limit (or why none). */
+function ringdownRow(r: RingdownRecord, x: RingdownResult): Row {
+  const q = r.request;
+  const t = r.translation;
+  const limit = ringdownLimitOf(x);
+  const failed = [...(x.lower?.validity ?? []), ...(x.upper?.validity ?? [])].filter((v) => !v.ok).map((v) => `${v.label}: ${v.value === null ? "not a number" : sciText(v.value, 3)} > ${thresholdText(v.max)}`);
+  return {
+    ...provenance(r),
+    parameter: `${q.bound.parameter}_${q.bound.mode}`,
+    upper: q.bound.upper ?? null,
+    interval_lo: q.bound.interval?.[0] ?? null,
+    interval_hi: q.bound.interval?.[1] ?? null,
+    credibility: q.bound.credibility,
+    m1: q.binary?.m1 ?? null,
+    m2: q.binary?.m2 ?? null,
+    chi1: q.binary?.chi1 ?? null,
+    chi2: q.binary?.chi2 ?? null,
+    frame: q.remnant?.frame ?? q.binary?.frame ?? null,
+    z: q.remnant?.z ?? q.binary?.z ?? null,
+    theory: x.slug,
+    status: x.status,
+    symbol: limit ? symbolText(limit.symbol, limit.latex) : x.coupling ? symbolText(x.coupling.symbol, x.coupling.latex) : null,
+    coupling_id: x.coupling?.symbol ?? null,
+    side: limit ? (limit.signed_interval ? "both" : limit.side) : null,
+    value: limit ? (limit.signed_interval ? null : limit.value) : null,
+    unit: limit?.unit ?? x.coupling?.unit ?? null,
+    also: limit?.signed_interval ? `${sciText(limit.signed_interval.lower, 4)} ≤ ${symbolText(limit.symbol, limit.latex)} ≤ ${sciText(limit.signed_interval.upper, 4)} ${limit.unit}` : "",
+    valid: x.status === "bounded" ? x.verdict === "valid" : null,
+    verdict: x.status === "bounded" ? x.verdict : null,
+    failed_conditions: failed.join("; "),
+    reason: x.reason ?? null,
+    catalogue_version: t.catalogue_revision ? catalogueCell(t.catalogue_revision) : null,
+    details: [
+      `remnant M_f = ${t.remnant.M_f_source.toPrecision(4)} M_sun (source frame), chi_f = ${t.remnant.chi_f.toPrecision(3)} (${t.remnant.from === "fit" ? "from the binary through the Husa et al. 2016 fits" : "as given"})`,
+      `Kerr (${t.qnm.mode.split("").join(",")}) mode f = ${t.qnm.frequency_hz.toPrecision(4)} Hz, tau = ${(t.qnm.damping_time_s * 1e3).toPrecision(3)} ms (${t.qnm.frame} frame)`,
+      ...(x.mapping ? [`mapping ${x.mapping.kind}: ${x.mapping.expression} (${x.mapping.source_status})`] : []),
+      ...x.reference_bounds.filter((c) => c.verdict !== "incomparable").map((c) => c.sentence),
+    ].join("; "),
+  };
+}
+
 export function sheetToCsv(sheet: Sheet): string {
   const rows: Row[] = [];
   for (const line of exportLines(sheet, { includeNotApplicable: true })) {
@@ -254,6 +297,9 @@ export function sheetToCsv(sheet: Sheet): string {
         break;
       case "consistency":
         rows.push(consistencyRow(line.record));
+        break;
+      case "ringdown":
+        rows.push(ringdownRow(line.record, line.result));
         break;
     }
   }

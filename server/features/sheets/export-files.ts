@@ -23,6 +23,12 @@ export function sheetBibliography(sheet: Sheet): BibliographyEntry[] {
         for (const c of r.reference_bounds) cited.add(c.reference.key);
       }
       for (const entry of record.translation.bibliography) if (!details.has(entry.key)) details.set(entry.key, entry);
+    } else if (record.kind === "ringdown") {
+      for (const r of record.translation.results) {
+        for (const c of r.references) cited.add(c.key);
+        for (const c of r.reference_bounds) cited.add(c.reference.key);
+      }
+      for (const entry of record.translation.bibliography) if (!details.has(entry.key)) details.set(entry.key, entry);
     } else if (record.kind === "samples_job" || record.kind === "stack") {
       // The mapping's sources, copied from the catalogue when the result was saved.
       for (const entry of record.references) {

@@ -1,6 +1,8 @@
 import type { ConvertResult } from "../../../common/convert.ts";
 import { shortTheoryName } from "../../../common/theory-name.ts";
-import type { ConsistencyRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
+import type { RingdownResult } from "../../../common/ringdown.ts";
+import { ringdownLimitOf, ringdownStretched } from "../../../common/ringdown-limit.ts";
+import type { ConsistencyRecord, RingdownRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
 import { unitLatex } from "../../physics/latex-format.ts";
 import { exportLines, priorText } from "./export-rows.ts";
 import { fileStem } from "./export-stem.ts";
@@ -136,6 +138,27 @@ function stackHead(record: StackRecord, withCredibility: boolean): string {
 
 const samplesVerdict = (v: "valid" | "outside_validity" | "not_assessed"): LimitVerdict => (v === "valid" ? "valid" : v === "outside_validity" ? "not_valid" : "not_assessed");
 
+const ringdownVerdict = (r: RingdownResult): LimitVerdict => (r.verdict === "valid" ? (ringdownStretched(r) ? "caution" : "valid") : samplesVerdict(r.verdict));
+
+/** "$|\delta f_{220}/f_{220}| \le 0.05$ at the remnant $M_f = 62\,M_\odot$, $\chi_f = 0.68$": a ringdown record's bound. */
+function ringdownHead(record: RingdownRecord, digits: number, withCredibility: boolean): string {
+  const b = record.request.bound;
+  const mode = b.mode;
+  const symbol = b.parameter === "qnm_dfreq" ? `\\delta f_{${mode}}/f_{${mode}}` : `\\delta\\tau_{${mode}}/\\tau_{${mode}}`;
+  let text: string;
+  if (b.upper !== undefined) text = `$|${symbol}| \\le ${numberLatex(b.upper, digits)}$`;
+  else {
+    const [lo, hi] = b.interval ?? [null, null];
+    if (lo !== null && hi !== null) text = `$${symbol} \\in [${numberLatex(lo, digits)}, ${numberLatex(hi, digits)}]$`;
+    else if (lo !== null) text = `$${symbol} \\ge ${numberLatex(lo, digits)}$`;
+    else text = `$${symbol} \\le ${numberLatex(hi ?? Number.NaN, digits)}$`;
+  }
+  const rem = record.translation.remnant;
+  const where = `at the remnant $M_f = ${numberLatex(rem.M_f_source, 3)}\\,M_\\odot$ (source frame), $\\chi_f = ${Number(rem.chi_f.toPrecision(2))}$${rem.from === "fit" ? " from the binary" : ""}`;
+  const cred = withCredibility ? ` (${percent(b.credibility)})` : "";
+  return groupRow(record, `${text} ${where}${cred}`);
+}
+
 const COLUMNS = 5;
 
 function credibilityOf(r: Sheet["records"][number]): number | null {
@@ -147,6 +170,8 @@ function credibilityOf(r: Sheet["records"][number]): number | null {
       return r.result.credibility;
     case "consistency":
       return null;
+    case "ringdown":
+      return r.request.bound.credibility;
   }
 }
 
@@ -190,6 +215,17 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
         row(shortTheoryName(record.result.theory_name, record.result.theory), record.result.coupling, samplesVerdict(record.result.verdict), record.references.map((r) => r.key));
         break;
       }
+      case "ringdown": {
+        const { record, result } = line;
+        const limit = ringdownLimitOf(result);
+        if (!limit) break;
+        head(record.id, ringdownHead(record, digits, perGroupCredibility));
+        const coupling = limit.signed_interval
+          ? { latex: limit.latex, unit: limit.unit, side: "upper", signed_interval: [limit.signed_interval.lower, limit.signed_interval.upper] as [number, number] }
+          : { latex: limit.latex, unit: limit.unit, side: limit.side, value: limit.value };
+        row(shortTheoryName(result.name, result.slug).replace(/,$/, ""), coupling, ringdownVerdict(result), result.references.map((r) => r.key));
+        break;
+      }
       default:
         break;
     }
@@ -201,6 +237,7 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
   const caption = [
     "Limits on theory couplings translated from the bounds of ``" + escapeLatex(sheet.name) + `''${credibilityText}.`,
     "Leading post-Newtonian mappings; a flat prior on the deviation is not flat in the coupling.",
+    ...(sheet.records.some((r) => r.kind === "ringdown") ? ["Ringdown limits come from the quasinormal-mode shifts of each entry at the remnant stated."] : []),
     ...(legend.length > 0 ? [`${legend.join("; ")}.`] : []),
   ].join(" ");
   return [

@@ -1,7 +1,8 @@
 import type { ConvertResult, NotApplicable } from "../../../common/convert.ts";
 import { sciText, thresholdText } from "../../../common/number-text.ts";
 import { COLUMN_ROLES } from "../../../common/jobs.ts";
-import type { ConsistencyRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
+import type { RingdownResult } from "../../../common/ringdown.ts";
+import type { ConsistencyRecord, RingdownRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
 
 /**
  * One line per (record, theory): the flat view every tabular export (CSV, LaTeX) is built from, so
@@ -13,7 +14,9 @@ export type ExportLine =
   | { kind: "not_applicable"; record: TranslationRecord; item: NotApplicable }
   | { kind: "samples_job"; record: SamplesJobRecord }
   | { kind: "stack"; record: StackRecord }
-  | { kind: "consistency"; record: ConsistencyRecord };
+  | { kind: "consistency"; record: ConsistencyRecord }
+  /** One line per entry of a ringdown translation: bounded, or (with includeNotApplicable) why not. */
+  | { kind: "ringdown"; record: RingdownRecord; result: RingdownResult };
 
 export function exportLines(sheet: Sheet, options: { includeNotApplicable?: boolean } = {}): ExportLine[] {
   const lines: ExportLine[] = [];
@@ -33,6 +36,9 @@ export function exportLines(sheet: Sheet, options: { includeNotApplicable?: bool
         break;
       case "consistency":
         lines.push({ kind: "consistency", record });
+        break;
+      case "ringdown":
+        for (const result of record.translation.results) if (result.status === "bounded" || options.includeNotApplicable) lines.push({ kind: "ringdown", record, result });
         break;
     }
   }

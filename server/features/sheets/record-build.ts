@@ -1,6 +1,7 @@
 import { bOfBound, DEFAULT_COSMOLOGY, type BibliographyEntry } from "../../../common/convert.ts";
 import { consistencyJobRequestSchema, consistencyResultSchema } from "../../../common/consistency.ts";
 import { samplesJobRequestSchema, samplesJobResultSchema, stackJobRequestSchema, stackJobResultSchema, type JobKind } from "../../../common/jobs.ts";
+import type { RingdownConvertRequest } from "../../../common/ringdown.ts";
 import type { SheetRecordInput, TranslationRecordInput } from "../../../common/sheets.ts";
 import type { Knex } from "../../db/knex.ts";
 import { ValidationError } from "../../errors.ts";
@@ -9,7 +10,9 @@ import { gaussianConsistency } from "../consistency/gaussian.ts";
 import type { CompiledCatalogue } from "../convert/compiled-catalogue.ts";
 import type { ConvertService } from "../convert/service.ts";
 import { jobsRepository, type JobRow } from "../jobs/repository.ts";
+import type { RingdownService } from "../ringdown/service.ts";
 import type { NewRecord } from "./repository.ts";
+import { ringdownEntryRevisions } from "./ringdown-records.ts";
 
 /**
  * Turns a record input into the record to store, computing what it needs once, now: a translation
@@ -53,8 +56,20 @@ const provenanceOf = (r: SheetRecordInput) => ({
 
 const noTranslation = { bound: null, binary: null, cosmology: null, conventions: {}, translation: null, catalogue_revision: null, entry_revisions: null };
 
-export function recordBuilder(db: Knex, convert: ConvertService) {
+export function recordBuilder(db: Knex, convert: ConvertService, ringdown?: RingdownService) {
   const jobs = jobsRepository(db);
+
+  /** Translates a ringdown bound against the current catalogue, with the revisions of the entries that have ringdown mappings. */
+  async function translateRingdownNow(request: RingdownConvertRequest) {
+    if (!ringdown) throw new ValidationError("Invalid kind: ringdown records cannot be saved here (no ringdown translator)", { kind: "ringdown records are not available" });
+    for (let attempt = 0; ; attempt++) {
+      const catalogue = await convert.catalogue();
+      const translation = await ringdown.convert(request);
+      if (translation.catalogue_revision === catalogue.revision || attempt > 0) {
+        return { translation, entry_revisions: ringdownEntryRevisions(translation.catalogue_revision === catalogue.revision ? catalogue : await convert.catalogue()) };
+      }
+    }
+  }
 
   /** Translates a bound against the current catalogue, with the revisions of the entries it was translated against. */
   async function translateNow(r: Pick<TranslationRecordInput, "bound" | "binary" | "cosmology" | "conventions">) {
@@ -132,6 +147,26 @@ export function recordBuilder(db: Knex, convert: ConvertService) {
         const catalogue = await convert.catalogue();
         return { kind: "stack", ...base, ...noTranslation, payload: { job: jobRef(row), request, event_files, result, references: mappingReferences(catalogue, result.theory, b) } };
       }
+      case "ringdown": {
+        let done;
+        try {
+          done = await translateRingdownNow(input.request);
+        } catch (err) {
+          throw withPrefix(err, `${prefix}.request`, input.label);
+        }
+        return {
+          kind: "ringdown",
+          ...base,
+          bound: null,
+          binary: null,
+          cosmology: null,
+          conventions: {},
+          translation: done.translation,
+          catalogue_revision: done.translation.catalogue_revision,
+          entry_revisions: done.entry_revisions,
+          payload: { request: input.request },
+        };
+      }
       case "consistency": {
         if (input.summaries) {
           let result;
@@ -155,5 +190,5 @@ export function recordBuilder(db: Knex, convert: ConvertService) {
     }
   }
 
-  return { build, translateNow };
+  return { build, translateNow, translateRingdownNow };
 }

@@ -136,14 +136,15 @@ export async function setPositions(trx: Knex.Transaction, sheetId: number, posit
   for (const p of positions) await trx("sheet_records").where({ sheet_id: sheetId, id: p.id }).update({ position: p.position });
 }
 
-/** Replaces a translation record's translation, keeping the one it replaces in its history. */
+/** Replaces a translation or ringdown record's translation, keeping the one it replaces in its history. */
 export async function replaceTranslation(
   trx: Knex.Transaction,
   recordId: number,
   values: { translation: unknown; catalogue_revision: string; entry_revisions: Record<string, number>; history: unknown[] },
 ): Promise<void> {
   await trx("sheet_records")
-    .where({ id: recordId, kind: "translation" })
+    .where({ id: recordId })
+    .whereIn("kind", ["translation", "ringdown"])
     .update({
       translation: JSON.stringify(values.translation),
       catalogue_revision: values.catalogue_revision,

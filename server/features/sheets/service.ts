@@ -1,9 +1,11 @@
 import { randomBytes } from "node:crypto";
 import { z } from "zod";
 import { binarySchema, boundSchema, convertResponseSchema, cosmologySchema } from "../../../common/convert.ts";
+import { ringdownConvertRequestSchema, ringdownConvertResponseSchema } from "../../../common/ringdown.ts";
 import {
   historyItemSchema,
   MAX_SHEET_RECORDS,
+  ringdownHistoryItemSchema,
   sheetRecordSchema,
   type AppendRecordRequest,
   type CreateSheetRequest,
@@ -12,6 +14,7 @@ import {
   type RecordRetranslation,
   type RetranslationAcceptRequest,
   type RetranslationPreview,
+  type RingdownHistoryItem,
   type Sheet,
   type SheetRecord,
   type SheetSummary,
@@ -26,6 +29,8 @@ import { exportSheet, type ExportFile } from "./export-files.ts";
 import { entryRevisions, recordBuilder } from "./record-build.ts";
 import * as repo from "./repository.ts";
 import { entryChanges, limitChanges } from "./retranslate.ts";
+import type { RingdownService } from "../ringdown/service.ts";
+import { ringdownEntryChanges, ringdownEntryRevisions, ringdownLimitChanges } from "./ringdown-records.ts";
 
 /**
  * Saved sheets: an analyst's own named sets of records. Each record is computed once, when it is
@@ -71,6 +76,22 @@ export function toRecord(r: repo.SheetRecordRow, catalogue: CompiledCatalogue): 
     notes: r.notes,
     saved_at: r.saved_at.toISOString(),
   };
+  if (r.kind === "ringdown") {
+    const translation = ringdownConvertResponseSchema.parse(r.translation);
+    const revisions = revisionsSchema.parse(r.entry_revisions ?? null);
+    const entries = revisions ? ringdownEntryChanges(revisions, catalogue, ringdownEntryRevisions(catalogue), translation) : [];
+    const stale = entries.length > 0 ? { catalogue_revision: catalogue.revision, entries } : !revisions && translation.catalogue_revision !== catalogue.revision ? { catalogue_revision: catalogue.revision, entries: [] } : null;
+    return {
+      kind: "ringdown",
+      ...base,
+      request: z.object({ request: ringdownConvertRequestSchema }).parse(r.payload).request,
+      translation,
+      translated_at: r.translated_at.toISOString(),
+      entry_revisions: revisions,
+      stale,
+      history: z.array(ringdownHistoryItemSchema).parse(r.history ?? []),
+    };
+  }
   if (r.kind !== "translation") {
     // Stored JSON is read back through the same schemas that admitted it.
     return sheetRecordSchema.parse({ kind: r.kind, ...base, ...(r.payload as object) });
@@ -113,8 +134,8 @@ function toSheet(row: repo.SheetRow, records: repo.SheetRecordRow[], withToken: 
   };
 }
 
-export function sheetsService(db: Knex, convert: ConvertService, clock: () => Date = () => new Date()): SheetsService {
-  const builder = recordBuilder(db, convert);
+export function sheetsService(db: Knex, convert: ConvertService, clock: () => Date = () => new Date(), ringdown?: RingdownService): SheetsService {
+  const builder = recordBuilder(db, convert, ringdown);
 
   /** Builds the new records in order; a refusal names the record's field (records.2.binary.m1). */
   const buildAll = async (items: { input: Parameters<typeof builder.build>[0]; prefix: string }[]): Promise<repo.NewRecord[]> => {
@@ -151,21 +172,37 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
     }
   };
 
-  /** The translation records named (all of them when none are named), or a 400 naming the one that is not. */
-  const translationRecords = (sheet: Sheet, ids: number[] | undefined) => {
-    const all = sheet.records.filter((r) => r.kind === "translation");
+  type Translatable = Extract<SheetRecord, { kind: "translation" | "ringdown" }>;
+  const translatable = (r: SheetRecord): r is Translatable => r.kind === "translation" || r.kind === "ringdown";
+
+  /** The translation and ringdown records named (all of them when none are named), or a 400 naming the one that is not. */
+  const translationRecords = (sheet: Sheet, ids: number[] | undefined): Translatable[] => {
+    const all = sheet.records.filter(translatable);
     if (ids === undefined) return all;
     return ids.map((id, i) => {
       const r = sheet.records.find((x) => x.id === id);
       if (!r) throw new ValidationError(`Invalid records.${i}: the sheet has no record ${id}`, { [`records.${i}`]: `no record ${id} in this sheet` });
-      if (r.kind !== "translation") throw new ValidationError(`Invalid records.${i}: record ${id} is a ${r.kind.replace("_", " ")} result, not a translation: it is kept as computed`, { [`records.${i}`]: "only translations can be re-translated" });
+      if (!translatable(r)) throw new ValidationError(`Invalid records.${i}: record ${id} is a ${r.kind.replace("_", " ")} result, not a translation: it is kept as computed`, { [`records.${i}`]: "only translations can be re-translated" });
       return r;
     });
   };
 
-  const retranslate = async (records: Extract<SheetRecord, { kind: "translation" }>[]): Promise<RecordRetranslation[]> => {
+  const retranslate = async (records: Translatable[]): Promise<RecordRetranslation[]> => {
     const out: RecordRetranslation[] = [];
     for (const r of records) {
+      if (r.kind === "ringdown") {
+        const done = await builder.translateRingdownNow(r.request);
+        out.push({
+          id: r.id,
+          label: r.label,
+          old_catalogue_revision: r.translation.catalogue_revision,
+          entries: r.entry_revisions ? ringdownEntryChanges(r.entry_revisions, await convert.catalogue(), done.entry_revisions, r.translation) : [],
+          changed: false,
+          limits: ringdownLimitChanges(r.translation, done.translation),
+          translation: done.translation,
+        });
+        continue;
+      }
       const done = await builder.translateNow(r);
       out.push({
         id: r.id,
@@ -286,8 +323,18 @@ export function sheetsService(db: Knex, convert: ConvertService, clock: () => Da
       await db.transaction(async (trx) => {
         await claimVersion(trx, id, input.version);
         for (const [i, r] of records.entries()) {
-          const replaced: HistoryItem = { translation: r.translation, translated_at: r.translated_at, entry_revisions: r.entry_revisions, replaced_at: now };
           const next = fresh[i]!;
+          if (r.kind === "ringdown") {
+            const replaced: RingdownHistoryItem = { translation: r.translation, translated_at: r.translated_at, entry_revisions: r.entry_revisions, replaced_at: now };
+            await repo.replaceTranslation(trx, r.id, {
+              translation: next.translation,
+              catalogue_revision: next.translation.catalogue_revision,
+              entry_revisions: ringdownEntryRevisions(catalogue),
+              history: [...r.history, replaced],
+            });
+            continue;
+          }
+          const replaced: HistoryItem = { translation: r.translation, translated_at: r.translated_at, entry_revisions: r.entry_revisions, replaced_at: now };
           await repo.replaceTranslation(trx, r.id, {
             translation: next.translation,
             catalogue_revision: next.translation.catalogue_revision,

@@ -6,12 +6,12 @@
 // Everything it receives was printed by our own AST printer from guarded input, with symbols
 // renamed to neutral names, so nerdamer never sees ":=", prototype names or its own reserved
 // words (e, i, gamma, ...).
-import { setPriority } from "node:os";
 import { parentPort, workerData } from "node:worker_threads";
 import nerdamer from "nerdamer";
 import "nerdamer/Algebra.js";
 import "nerdamer/Calculus.js";
 import "nerdamer/Solve.js";
+import { lowerThisThread } from "../../threads/lower-priority.mjs";
 
 /** @param {string} text */
 const cas = (text) => nerdamer(text).toString();
@@ -49,16 +49,8 @@ function run(req) {
 const port = parentPort;
 if (port === null) throw new Error("symbolic-worker must run in a worker thread");
 
-// On Linux a nice value belongs to one thread: this lowers this worker's priority only, so the
-// threads that answer requests get the cores first (WORKER_NICE, docs/operations.md).
-const nice = Number(workerData?.nice ?? 0);
-if (nice > 0) {
-  try {
-    setPriority(nice);
-  } catch {
-    // Not permitted or not supported: run at the normal priority.
-  }
-}
+// The threads that answer requests get the cores first (WORKER_NICE, docs/operations.md).
+lowerThisThread(workerData?.nice);
 
 port.on("message", (/** @type {import("./symbolic-protocol.ts").SymbolicRequest} */ req) => {
   try {

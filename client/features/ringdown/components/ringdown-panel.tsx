@@ -1,3 +1,4 @@
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { useState, type FormEvent } from "react";
 import { QNM_MODE_KEYS, ringdownConvertRequestSchema, type RingdownConvertRequest, type RingdownResult } from "../../../../common/ringdown.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -11,6 +12,7 @@ import { bestReference } from "../../translate/components/results-table.tsx";
 import { unitText } from "../../translate/components/sci-number.tsx";
 import { useRingdownConvert } from "../../consistency/api/run-consistency.ts";
 import { AnswerBibliography } from "./answer-bibliography.tsx";
+import { SaveToSheet } from "../../sheets/components/save-to-sheet.tsx";
 
 const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
 const sig = (x: number) => Number(x.toPrecision(3)).toString();
@@ -64,7 +66,7 @@ function Row({ r }: { r: RingdownResult }) {
         {r.status === "bounded" && <Badge tone={TONE[r.verdict]}>{LABEL[r.verdict]}</Badge>}
         {flagged.map((c) => (
           <p key={`${c.label}-${c.status}`} className={`text-xs ${c.status === "fails" ? "text-brick" : "text-amber"}`} data-status={c.status}>
-            {c.label}
+            {conditionText(c.label)}
             {c.factor === null ? "" : ` (× ${sig(c.factor)})`}
             {c.status === "stretched" ? ": stretched, kept as valid" : ""}
           </p>
@@ -216,6 +218,7 @@ export function RingdownPanel() {
           )}
           <CautionList cautions={result.data.cautions} testId="ringdown-cautions" />
           <AnswerBibliography entries={result.data.bibliography} testId="ringdown-bibliography" />
+          {request && <SaveToSheet what="this ringdown translation" payload={{ kind: "ringdown", request }} defaults={{ analysis_method: "ringdown: bound on a quasinormal-mode shift" }} />}
         </>
       )}
     </section>

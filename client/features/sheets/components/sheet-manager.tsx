@@ -69,8 +69,8 @@ export function SheetManager({ id }: { id: number }) {
     accept.reset();
     preview.mutate(ids);
   };
-  const translations = sheet.records.filter((r) => r.kind === "translation");
-  const stale = translations.filter((r) => r.kind === "translation" && r.stale !== null).length;
+  const translations = sheet.records.filter((r) => r.kind === "translation" || r.kind === "ringdown");
+  const stale = translations.filter((r) => (r.kind === "translation" || r.kind === "ringdown") && r.stale !== null).length;
   const writeError = removeOne.error ?? accept.error;
 
   return (

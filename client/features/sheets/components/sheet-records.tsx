@@ -3,6 +3,7 @@ import type { Sheet, SheetRecord } from "../../../../common/sheets.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
 import { ConsistencyRecordBody, SamplesRecordBody, StackRecordBody } from "./result-records.tsx";
+import { RingdownRecordBody } from "./ringdown-record.tsx";
 import { TranslationRecordBody } from "./translation-record.tsx";
 
 export { ValidityBadge } from "./translation-record.tsx";
@@ -22,13 +23,14 @@ const KIND_LABEL: Record<SheetRecord["kind"], string> = {
   samples_job: "posterior samples",
   stack: "stacked events",
   consistency: "IMR consistency",
+  ringdown: "ringdown bound",
 };
 
 interface Props {
   sheet: Sheet;
   /** Owner only: remove a record. */
   onRemove?: (record: SheetRecord) => void;
-  /** Owner only: preview re-translating a translation record against today's catalogue. */
+  /** Owner only: preview re-translating a translation or ringdown record against today's catalogue. */
   onRetranslate?: (record: SheetRecord) => void;
   busy?: boolean;
 }
@@ -57,6 +59,7 @@ export function SheetRecords({ sheet, onRemove, onRetranslate, busy = false }: P
           {r.kind === "samples_job" && <SamplesRecordBody r={r} />}
           {r.kind === "stack" && <StackRecordBody r={r} />}
           {r.kind === "consistency" && <ConsistencyRecordBody r={r} />}
+          {r.kind === "ringdown" && <RingdownRecordBody r={r} busy={busy} onRetranslate={onRetranslate ? () => onRetranslate(r) : undefined} />}
           {r.data_link && (
             <p className="text-sm">
               data:{" "}
@@ -66,7 +69,7 @@ export function SheetRecords({ sheet, onRemove, onRetranslate, busy = false }: P
             </p>
           )}
           {r.notes && <p className="mt-1 text-sm italic text-ink-soft">{r.notes}</p>}
-          {r.kind !== "translation" && <p className="mt-2 text-xs text-ink-faint">Saved {formatDateTime(r.saved_at)}; kept as computed.</p>}
+          {r.kind !== "translation" && r.kind !== "ringdown" && <p className="mt-2 text-xs text-ink-faint">Saved {formatDateTime(r.saved_at)}; kept as computed.</p>}
         </li>
       ))}
     </ol>
