@@ -20,6 +20,11 @@ const SUPER: Readonly<Record<string, string>> = {
   "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹", "-": "⁻", "+": "⁺",
 };
 
+/** \mathcal letters. */
+const SCRIPT: Readonly<Record<string, string>> = Object.fromEntries(
+  [..."ABCDEFGHIJKLMNOPQRSTUVWXYZ"].map((c, i) => [c, [..."𝒜ℬ𝒞𝒟ℰℱ𝒢ℋℐ𝒥𝒦ℒℳ𝒩𝒪𝒫𝒬ℛ𝒮𝒯𝒰𝒱𝒲𝒳𝒴𝒵"][i]!]),
+);
+
 /** Characters Unicode writes as subscripts (enough for indices, "loss", "max", "GR" stays "_GR"). */
 const SUB: Readonly<Record<string, string>> = {
   "0": "₀", "1": "₁", "2": "₂", "3": "₃", "4": "₄", "5": "₅", "6": "₆", "7": "₇", "8": "₈", "9": "₉", "+": "₊", "-": "₋",
@@ -91,6 +96,10 @@ export function latexRuns(latex: string): TextRun[] {
           i = next;
           const inner = latexText(arg);
           push(`${inner}${ACCENT[name]}`.normalize("NFC"), shift);
+        } else if (name === "mathcal" || name === "mathscr") {
+          const { arg, next } = readArg(src, i);
+          i = next;
+          push([...arg].map((c) => SCRIPT[c] ?? c).join(""), shift);
         } else if (name === "mathrm" || name === "text" || name === "mathit" || name === "mathbf" || name === "operatorname") {
           const { arg, next } = readArg(src, i);
           i = next;
@@ -128,10 +137,10 @@ export function latexRuns(latex: string): TextRun[] {
   return runs.map((r) => ({ ...r, text: r.text.replace(/\s+/g, " ").replace(/ - /g, " − ") })).filter((r) => r.text !== "");
 }
 
-/** Plain text of a LaTeX symbol: subscripts written with "_" ("λ_g", "ω_BD"), superscripts as ^ or ². */
+/** Plain text of a LaTeX symbol: numeric subscripts as ₁₃, others with "_" ("λ_g", "ω_BD"), superscripts as ^ or ². */
 export function latexText(latex: string): string {
   return latexRuns(latex)
-    .map((r) => (r.shift === "sub" ? `_${r.text.length > 1 && /[^A-Za-z0-9]/.test(r.text) ? `(${r.text})` : r.text}` : r.shift === "super" ? `^${r.text.length > 1 && !/^\(.*\)$/.test(r.text) ? `(${r.text})` : r.text}` : r.text))
+    .map((r) => (r.shift === "sub" && /^\d+$/.test(r.text) ? scriptText(r.text, SUB) : r.shift === "sub" ? `_${r.text.length > 1 && /[^A-Za-z0-9]/.test(r.text) ? `(${r.text})` : r.text}` : r.shift === "super" ? `^${r.text.length > 1 && !/^\(.*\)$/.test(r.text) ? `(${r.text})` : r.text}` : r.text))
     .join("")
     .trim();
 }
@@ -198,6 +207,9 @@ const PROSE_NAMES: ReadonlyArray<readonly [RegExp, string]> = [
   [/\bMc\b/g, "ℳ"],
   [/\bln_eta\b/g, "ln η"],
   [/\bln_A\b/g, "ln A"],
+  [/\bH0\b/g, "H₀"],
+  [/\bLambda-tilde\b/g, "Λ\u0303"],
+  [/\bsum_i\b/g, "Σᵢ"],
   [/\beps(\d)\b/g, "epsilon_$1"],
   [/\bsqrt_([A-Za-z]+)\b/g, "sqrt($1)"],
 ];
@@ -212,8 +224,8 @@ const PROSE_NAMES: ReadonlyArray<readonly [RegExp, string]> = [
 export function conditionText(text: string): string {
   let s = text;
   for (const [re, to] of PROSE_NAMES) s = s.replace(re, to);
-  // Indexed masses, spins, charges and sensitivities: m1 -> m₁, chi2 -> χ₂, alpha13 -> α₁₃.
-  s = s.replace(/\b(m|M|q|Q|s|a|chi|sigma|alpha|epsilon)(\d{1,2})\b/g, (_, v: string, d: string) => `${GREEK[v] ?? v}${scriptText(d, SUB)}`);
+  // Indexed masses, spins, charges, sensitivities and aether constants: m1 -> m₁, chi2 -> χ₂, alpha13 -> α₁₃, c13 -> c₁₃.
+  s = s.replace(/\b(m|M|q|Q|s|a|c|chi|sigma|alpha|epsilon)(\d{1,2})\b/g, (_, v: string, d: string) => `${GREEK[v] ?? v}${scriptText(d, SUB)}`);
   // Dotted rates: Gdot -> Ġ, Mdot_loss -> Ṁ_loss, mdot_i -> ṁ_i.
   s = s.replace(/\b([A-Za-z])dot(?=\b|_)/g, (_, v: string) => `${v}\u0307`.normalize("NFC"));
   s = s.replace(/\bsqrt\(([^()]*)\)/g, (_, inner: string) => {
@@ -223,13 +235,13 @@ export function conditionText(text: string): string {
   // Greek letters by name, as whole words (not inside "alphabet"; "alpha_13" and "omega_BD" are words here).
   s = s.replace(/(?<![A-Za-z])([A-Za-z]+)(?![A-Za-z])/g, (w: string) => GREEK[w] ?? w);
   // Integer powers: ^2, ^-2, ^(-8) -> superscripts; fractional powers keep their caret, ^(1/3).
-  s = s.replace(/\^\((-?\d+)\)|\^(-?\d+)(?![\d./])/g, (_, g: string | undefined, one: string | undefined) => scriptText(g ?? one ?? "", SUPER) ?? `^${g ?? one}`);
+  s = s.replace(/\^\((-?\d+)\)|\^(-?\d+)(?!\d|\.\d)/g, (_, g: string | undefined, one: string | undefined) => scriptText(g ?? one ?? "", SUPER) ?? `^${g ?? one}`);
   // Numeric and i indices: D_0 -> D₀, epsilon_3 -> ε₃, m_i -> mᵢ.
-  s = s.replace(/([A-Za-zα-ωΑ-Ωħ])_(\d+|i)(?![\w])/g, (_, v: string, d: string) => `${v}${scriptText(d, SUB)}`);
+  s = s.replace(/([A-Za-zα-ωΑ-ΩħĠġṀṁ])_(\d+|i)(?![\w])/g, (_, v: string, d: string) => `${v}${scriptText(d, SUB)}`);
   // Scientific notation: 1.03e13 -> 1.03 × 10¹³.
   s = s.replace(/\b(\d+(?:\.\d+)?)e([+-]?)(\d+)\b/g, (_, m: string, sign: string, e: string) => `${m} × 10${scriptText(`${sign === "-" ? "-" : ""}${String(Number(e))}`, SUPER)}`);
   s = s.replace(/>>/g, "≫").replace(/<</g, "≪").replace(/<=/g, "≤").replace(/>=/g, "≥").replace(/<~/g, "≲").replace(/>~/g, "≳");
-  s = s.replace(/\+\/-/g, "±").replace(/ -> /g, " → ").replace(/\s\*\s|\*/g, " ");
+  s = s.replace(/\+\/-|\+-(?=\s)/g, "±").replace(/!=/g, "≠").replace(/(\d\)?) x (?=10)/g, "$1 × ").replace(/ -> /g, " → ").replace(/\s\*\s|\*/g, " ");
   // "16 π α²" -> "16π α²"; "α² / m₁⁴" -> "α²/m₁⁴" (a quotient of symbols reads as one term).
   s = s.replace(/(\d) (?=[α-ωΑ-Ω])/g, "$1");
   s = s.replace(/([^\s([,;:]) \/ (?=[^\s\d])/g, "$1/");

@@ -36,7 +36,7 @@ export function ruleOfThumb(
 export const dipoleAtLowEnd = (B: string): ValidityInput =>
   ruleOfThumb(
     `${B}*(pi*M*f_low)^(-2/3)`,
-    "dipole flux small against the quadrupole flux over the band: B v^-2 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
+    "dipole flux small against the quadrupole flux over the band: B v⁻² below 0.1 at the band's low end, v = (π M f_low)^(1/3)",
   );
 
 /**

@@ -42,7 +42,7 @@ export const WAVE2_REFS = {
     journal: "Astrophys. J. Lett.",
     volume: "848",
     pages: "L13",
-    locator: "Sec. 4.1: -3e-15 <= (v_GW - c)/c <= +7e-16",
+    locator: "Sec. 4.1: -3 × 10⁻¹⁵ ≤ (v_GW - c)/c ≤ +7 × 10⁻¹⁶",
     details_from_memory: true,
   },
   nordtvedt1990: {
@@ -99,7 +99,7 @@ export const WAVE2_REFS = {
     journal: "Phys. Rev. Lett.",
     volume: "119",
     pages: "091101",
-    locator: "spin-induced quadrupole coefficients kappa_i in the 2PN phase",
+    locator: "spin-induced quadrupole coefficients κᵢ in the 2PN phase",
     details_from_memory: true,
   },
   poisson1998: {
@@ -122,7 +122,7 @@ export const WAVE2_REFS = {
     journal: "Class. Quantum Grav.",
     volume: "23",
     pages: "4167",
-    locator: "quadrupole Q = -M (a^2 + epsilon M^2)",
+    locator: "quadrupole Q = -M (a² + ε M²)",
     details_from_memory: true,
   },
   damourEspositoFarese1993: {
@@ -145,7 +145,7 @@ export const WAVE2_REFS = {
     journal: "Phys. Rev. D",
     volume: "54",
     pages: "1474",
-    locator: "dipole flux proportional to (alpha_A - alpha_B)^2",
+    locator: "dipole flux proportional to (α_A - α_B)²",
     details_from_memory: true,
   },
   flanaganHinderer2008: {
@@ -212,7 +212,7 @@ export const WAVE2_REFS = {
     journal: "Phys. Rev. D",
     volume: "76",
     pages: "084033",
-    locator: "energy flux of a binary: quadrupole factor A and dipole factor C times (s1 - s2)^2",
+    locator: "energy flux of a binary: quadrupole factor A and dipole factor C times (s₁ - s₂)²",
     details_from_memory: true,
   },
   yagiBlasBarausseYunes2014: {
@@ -260,7 +260,7 @@ export const WAVE2_REFS = {
     journal: "Phys. Rev. D",
     volume: "97",
     pages: "124023",
-    locator: "abstract: |c13| <= 1e-15 from the GW170817 / GRB 170817A speed range",
+    locator: "abstract: |c₁₃| ≤ 1 × 10⁻¹⁵ from the GW170817/GRB 170817A speed range",
     details_from_memory: true,
   },
   alsing2012: {
@@ -272,7 +272,7 @@ export const WAVE2_REFS = {
     journal: "Phys. Rev. D",
     volume: "85",
     pages: "064041",
-    locator: "abstract: omega_BD > 40000 for m_s < 2.5e-20 eV (Cassini, 95 %)",
+    locator: "abstract: ω_BD > 40000 for m_s < 2.5 × 10⁻²⁰ eV (Cassini, 95 %)",
     details_from_memory: true,
   },
 } satisfies Record<string, ReferenceInput>;

@@ -81,7 +81,7 @@ export const REFS = {
     authors: "E. M. Sänger et al.",
     title: "Tests of general relativity with GW230529: a neutron star merging with a lower mass-gap compact object",
     year: 2024,
-    locator: "EdGB coupling quoted as l_GB and as sqrt(alpha)",
+    locator: "EdGB coupling quoted as l_GB and as √α",
     details_from_memory: true,
   }),
   yagiSteinYunesTanaka2012: ref({
@@ -159,7 +159,7 @@ export const REFS = {
     title: "Tests of general relativity with GW150914",
     year: 2016,
     journal: "Phys. Rev. Lett. 116, 221101",
-    locator: "graviton bound quoted as lambda_g and m_g",
+    locator: "graviton bound quoted as λ_g and m_g",
   }),
   lvk2021Gwtc3Tgr: ref({
     key: "lvk-2021-tgr-gwtc3",

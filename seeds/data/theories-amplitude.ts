@@ -58,8 +58,8 @@ export const AMPLITUDE_REFS = {
     journal: "Phys. Rev. D",
     volume: "106",
     pages: "044067",
-    locator: "opacity parameter kappa <~ 0.74 / Gpc (abstract)",
-    note: "The bound on kappa is confirmed from the abstract; the arXiv id, author list and journal details are from memory.",
+    locator: "opacity parameter κ ≲ 0.74/Gpc (abstract)",
+    note: "The bound on κ is confirmed from the abstract; the arXiv id, author list and journal details are from memory.",
     details_from_memory: true,
   },
   ngIsiWongFarr2023: {
@@ -68,7 +68,7 @@ export const AMPLITUDE_REFS = {
     authors: ["K. K. Y. Ng", "M. Isi", "K. W. K. Wong", "W. M. Farr"],
     title: "Constraining gravitational wave amplitude birefringence with GWTC-3",
     year: 2023,
-    locator: "kappa = -0.019 +0.038 -0.029 / Gpc at 100 Hz, 90% credibility, 71 binary black holes (abstract)",
+    locator: "κ = -0.019 +0.038 -0.029/Gpc at 100 Hz, 90% credibility, 71 binary black holes (abstract)",
     note: "Title, arXiv id and the bound are confirmed from the abstract; the first authors' initials and the journal are from memory.",
     details_from_memory: true,
   },
@@ -82,8 +82,8 @@ export const AMPLITUDE_REFS = {
     journal: "Phys. Rev. D",
     volume: "98",
     pages: "023510",
-    locator: "the (Xi_0, n) parametrisation of d_L^GW / d_L^EM",
-    note: "The two-parameter (Xi_0, n) parametrisation is confirmed from the abstract; its formula, the authors' list and the journal details are from memory.",
+    locator: "the (Ξ₀, n) parametrisation of d_L^GW/d_L^EM",
+    note: "The two-parameter (Ξ₀, n) parametrisation is confirmed from the abstract; its formula, the authors' list and the journal details are from memory.",
     details_from_memory: true,
   },
   lagos2019: {
@@ -97,7 +97,7 @@ export const AMPLITUDE_REFS = {
     volume: "99",
     pages: "083504",
     locator: "c_M = -9 +21 -28 from GW170817 (68.3% credibility, abstract)",
-    note: "Title, authors, arXiv id and the GW170817 bound are confirmed from the abstract; the alpha_M parametrisation and the journal details are from memory.",
+    note: "Title, authors, arXiv id and the GW170817 bound are confirmed from the abstract; the α_M parametrisation and the journal details are from memory.",
     details_from_memory: true,
   },
 } as const satisfies Record<string, Ref>;
@@ -125,9 +125,9 @@ export const amplitudeBirefringence: TheoryEntryInput = {
   summary:
     "Parity-violating gravity (a Chern-Simons term, and other parity-odd corrections) makes left- and right-handed circularly polarised waves grow and decay differently as they travel: amplitude birefringence. The effect accumulates with distance and frequency. Its first-order term is a ppE amplitude correction at a = 3, opposite for the two circular polarisations.",
   assumptions: [
-    "the circular polarisation amplitudes change as exp(+/- kappa d_C f / 100 Hz) with the comoving distance d_C (form from memory; kappa in 1/Gpc at 100 Hz, as the GWTC-2 and GWTC-3 analyses quote it)",
-    "to first order in kappa d_C f / 100 Hz (the ppE amplitude term); the speed of both polarisations is c (no velocity birefringence)",
-    "generation unchanged; flat Lambda-CDM distances",
+    "the circular polarisation amplitudes change as exp(± κ d_C f / 100 Hz) with the comoving distance d_C (form from memory; κ in 1/Gpc at 100 Hz, as the GWTC-2 and GWTC-3 analyses quote it)",
+    "to first order in κ d_C f / 100 Hz (the ppE amplitude term); the speed of both polarisations is c (no velocity birefringence)",
+    "generation unchanged; flat ΛCDM distances",
   ],
   couplings: [
     {
@@ -136,7 +136,7 @@ export const amplitudeBirefringence: TheoryEntryInput = {
       dimension: "1",
       unit: "1/Gpc",
       description:
-        "opacity kappa in 1/Gpc at the reference frequency 100 Hz (the number quoted by the literature; the mapping carries the unit conversions 1 Gpc = 3.0857e22 km and 100 Hz = 3.3356e-4 / km, so kappa enters as a pure number). Its sign says which circular polarisation grows.",
+        "opacity κ in 1/Gpc at the reference frequency 100 Hz (the number quoted by the literature; the mapping carries the unit conversions 1 Gpc = 3.0857 × 10²² km and 100 Hz = 3.3356 × 10⁻⁴/km, so κ enters as a pure number). Its sign says which circular polarisation grows.",
       quoted: { form: "identity", symbol: "kappa", latex: "\\kappa", unit: "1/Gpc" },
       range: "any_sign",
       gr_value: "zero",
@@ -155,25 +155,25 @@ export const amplitudeBirefringence: TheoryEntryInput = {
       expression: "kappa*D_alpha/(Gpc_km*pi*Mc*f_ref)",
       latex: "\\alpha = \\frac{\\kappa\\, D_{2}}{\\pi\\,\\mathcal{M}\\, f_{\\rm ref}}, \\quad f_{\\rm ref} = 100\\,\\mathrm{Hz},\\ D_2 = d_C/(1+z)",
       frame_note:
-        "alpha multiplies u^3 = pi Mc_z f with the detector-frame chirp mass; written with the source-frame Mc and D_2 = d_C/(1+z), which is the same number.",
+        "α multiplies u³ = π ℳ_z f with the detector-frame chirp mass; written with the source-frame ℳ and D₂ = d_C/(1+z), which is the same number.",
       validity: [
         {
           // kappa d_C f / f_ref is largest at the top of the inspiral; at the ISCO u^3 = eta^(3/5) 6^(-3/2),
           // so |alpha| u^3 = |kappa| D_2 / (Gpc_km pi M f_ref 6^(3/2)).
           expression: "abs(kappa)*D_alpha/(Gpc_km*pi*M*f_ref*6^(3/2))",
           max: 0.1,
-          label: "first order in the exponent: |kappa| d_C f / 100 Hz below 0.1 up to the ISCO frequency",
+          label: "first order in the exponent: |κ| d_C f / 100 Hz below 0.1 up to the ISCO frequency",
           kind: "rule_of_thumb",
           reference: "project choice: 0.1 stands for 'much less than 1' (the exponential is linearised)",
         },
       ],
       caution:
-        "Amplitude birefringence has opposite signs for the two circular polarisations: this alpha is the growing one's (the other has -alpha), so a bound on |alpha| from a signal dominated by one circular polarisation (a face-on or face-off binary) bounds |kappa|; a signal that mixes both needs the mapping at the level of the detector response. The exponential form with d_C is from memory.",
+        "Amplitude birefringence has opposite signs for the two circular polarisations: this α is the growing one's (the other has -α), so a bound on |α| from a signal dominated by one circular polarisation (a face-on or face-off binary) bounds |κ|; a signal that mixes both needs the mapping at the level of the detector response. The exponential form with d_C is from memory.",
       source_status: "memory",
       references: [A.okounkova2022.key, A.ngIsiWongFarr2023.key, A.yunesOShaughnessyOwenAlexander2010.key, A.alexanderFinnYunes2008.key],
-      locator: "first-order expansion of exp(kappa d_C f / 100 Hz) (derived); the form and units from the abstracts",
+      locator: "first-order expansion of exp(κ d_C f / 100 Hz) (derived); the form and units from the abstracts",
       notes:
-        "The Chern-Simons length scale the GWTC-2 analysis also bounds (l_0 <~ 1.0e3 km) follows from kappa through the theory's scalar-field evolution, which is not written here.",
+        "The Chern-Simons length scale the GWTC-2 analysis also bounds (l₀ ≲ 1.0 × 10³ km) follows from κ through the theory's scalar-field evolution, which is not written here.",
     },
   ],
   references: [A.alexanderFinnYunes2008, A.yunesOShaughnessyOwenAlexander2010, A.okounkova2022, A.ngIsiWongFarr2023, yunesPretorius2009],
@@ -188,7 +188,7 @@ export const amplitudeBirefringence: TheoryEntryInput = {
       data: "GWTC-2 binary black holes",
       reference: A.okounkova2022.key,
       source_status: "memory",
-      note: "the value is confirmed from the abstract (kappa <~ 0.74 / Gpc); the credible level (90%) and that it bounds |kappa| are from memory",
+      note: "the value is confirmed from the abstract (κ ≲ 0.74/Gpc); the credible level (90%) and that it bounds |κ| are from memory",
     },
     {
       coupling: "kappa",
@@ -200,7 +200,7 @@ export const amplitudeBirefringence: TheoryEntryInput = {
       data: "GWTC-3, 71 binary black holes",
       reference: A.ngIsiWongFarr2023.key,
       source_status: "confirmed",
-      note: "kappa = -0.019 +0.038 -0.029 / Gpc at 100 Hz (90% credibility, abstract): the interval [-0.048, 0.019]; 0.048 is its wider side, as a bound on |kappa|",
+      note: "κ = -0.019 +0.038 -0.029/Gpc at 100 Hz (90% credibility, abstract): the interval [-0.048, 0.019]; 0.048 is its wider side, as a bound on |κ|",
     },
   ],
 };
@@ -224,12 +224,12 @@ export const modifiedFriction: TheoryEntryInput = {
   name: "Modified GW friction (running Planck mass)",
   family: "scalar-tensor",
   summary:
-    "Theories with a time-varying effective Planck mass (Horndeski-type scalar-tensor dark energy, nonlocal gravity, and others) change the friction term of gravitational waves travelling through the expanding universe, so the luminosity distance read from a wave's amplitude differs from the electromagnetic luminosity distance of its source. With a counterpart or host galaxy, the ratio d_L^GW / d_L^EM at the source's redshift bounds the theory. Two parametrisations: c_M (a running Planck mass that tracks dark energy) and (Xi_0, n).",
+    "Theories with a time-varying effective Planck mass (Horndeski-type scalar-tensor dark energy, nonlocal gravity, and others) change the friction term of gravitational waves travelling through the expanding universe, so the luminosity distance read from a wave's amplitude differs from the electromagnetic luminosity distance of its source. With a counterpart or host galaxy, the ratio d_L^GW/d_L^EM at the source's redshift bounds the theory. Two parametrisations: c_M (a running Planck mass that tracks dark energy) and (Ξ₀, n).",
   assumptions: [
     "GWs travel at the speed of light; only the friction (amplitude damping) changes",
-    "flat Lambda-CDM background with the request's Omega_m (the background expansion is GR's)",
-    "c_M: alpha_M = c_M Omega_L(z) / Omega_L0 (form from memory); Xi_0: r = Xi_0 + (1 - Xi_0)(1 + z)^(-n) with n = 5/2 (form and value from memory)",
-    "a distance ratio r is the ppE amplitude term at a = 0, alpha = 1/r - 1 (derived)",
+    "flat ΛCDM background with the request's Ω_m (the background expansion is GR's)",
+    "c_M: α_M = c_M Ω_Λ(z)/Ω_Λ,0 (form from memory); Ξ₀: r = Ξ₀ + (1 - Ξ₀)(1 + z)^(-n) with n = 5/2 (form and value from memory)",
+    "a distance ratio r is the ppE amplitude term at a = 0, α = 1/r - 1 (derived)",
   ],
   couplings: [
     {
@@ -237,7 +237,7 @@ export const modifiedFriction: TheoryEntryInput = {
       latex: "c_M",
       dimension: "1",
       unit: "1",
-      description: "running of the Planck mass, alpha_M = c_M Omega_L(z) / Omega_L0 (Lagos et al. 2019); c_M = 0 is GR",
+      description: "running of the Planck mass, α_M = c_M Ω_Λ(z)/Ω_Λ,0 (Lagos et al. 2019); c_M = 0 is GR",
       quoted: { form: "identity", symbol: "c_M", latex: "c_M", unit: "1" },
       range: "any_sign",
       gr_value: "zero",
@@ -247,15 +247,15 @@ export const modifiedFriction: TheoryEntryInput = {
       latex: "\\Xi_0 - 1",
       dimension: "1",
       unit: "1",
-      description: "Xi_0 - 1 of the (Xi_0, n) parametrisation (Belgacem et al. 2018); GR has Xi_0 = 1",
+      description: "Ξ₀ - 1 of the (Ξ₀, n) parametrisation (Belgacem et al. 2018); GR has Ξ₀ = 1",
       quoted: { form: "identity", symbol: "dXi0", latex: "\\Xi_0 - 1", unit: "1" },
       range: "any_sign",
       gr_value: "zero",
     },
   ],
   definitions: [
-    { symbol: "E2", expression: "Omega_m*(1 + z)^3 + 1 - Omega_m", description: "E^2(z) = H^2 / H0^2 of flat Lambda-CDM" },
-    { symbol: "n_Xi", expression: "5/2", description: "the exponent n of the (Xi_0, n) parametrisation, held at 5/2 (value from memory); at z << 1 a limit on Xi_0 - 1 scales as 1/n" },
+    { symbol: "E2", expression: "Omega_m*(1 + z)^3 + 1 - Omega_m", description: "E²(z) = H²/H₀² of flat ΛCDM" },
+    { symbol: "n_Xi", expression: "5/2", description: "the exponent n of the (Ξ₀, n) parametrisation, held at 5/2 (value from memory); at z ≪ 1 a limit on Ξ₀ - 1 scales as 1/n" },
   ],
   mappings: [
     {
@@ -266,12 +266,12 @@ export const modifiedFriction: TheoryEntryInput = {
       expression: "((1 + z)^3/E2)^(-c_M/(6*(1 - Omega_m))) - 1",
       latex: "\\alpha = \\frac{d_L^{\\rm EM}}{d_L^{\\rm GW}} - 1 = \\left[\\frac{(1+z)^3}{E^2(z)}\\right]^{-c_M/(6\\Omega_\\Lambda)} - 1",
       caution:
-        "The distance ratio is translated at the source's redshift with the request's Omega_m. c_M and Xi_0 are alternative parametrisations of one effect: each row is the bound in one of them, not a joint bound.",
+        "The distance ratio is translated at the source's redshift with the request's Ω_m. c_M and Ξ₀ are alternative parametrisations of one effect: each row is the bound in one of them, not a joint bound.",
       source_status: "memory",
       references: [A.lagos2019.key],
-      locator: "d_L^GW / d_L^EM = exp((1/2) int alpha_M dz/(1+z)) with alpha_M = c_M Omega_L(z)/Omega_L0 (form from memory); the integral in closed form is derived",
+      locator: "d_L^GW/d_L^EM = exp((1/2) int α_M dz/(1+z)) with α_M = c_M Ω_Λ(z)/Ω_Λ,0 (form from memory); the integral in closed form is derived",
       notes:
-        "No validity condition: the ratio is exact in c_M for the stated background, so the verdict is 'not assessed'. The parametrisation itself (alpha_M tracking dark energy) is the assumption.",
+        "No validity condition: the ratio is exact in c_M for the stated background, so the verdict is 'not assessed'. The parametrisation itself (α_M tracking dark energy) is the assumption.",
     },
     {
       kind: "inspiral_amplitude",
@@ -284,16 +284,16 @@ export const modifiedFriction: TheoryEntryInput = {
         {
           expression: "-dXi0",
           max: 1,
-          label: "Xi_0 > 0: the parametrisation's ratio stays positive at every redshift",
+          label: "Ξ₀ > 0: the parametrisation's ratio stays positive at every redshift",
           kind: "hard",
           reference: "the ratio d_L^GW / d_L^EM tends to Xi_0 at high redshift, so Xi_0 must be positive",
         },
       ],
       caution:
-        "n is held at 5/2 (value from memory). At low redshift the ratio is 1 + (Xi_0 - 1) n z, so the limit on Xi_0 - 1 scales as 1/n: for another n, multiply by 2.5/n.",
+        "n is held at 5/2 (value from memory). At low redshift the ratio is 1 + (Ξ₀ - 1) n z, so the limit on Ξ₀ - 1 scales as 1/n: for another n, multiply by 2.5/n.",
       source_status: "memory",
       references: [A.belgacem2018.key],
-      locator: "Xi(z) = Xi_0 + (1 - Xi_0)/(1 + z)^n (form from memory)",
+      locator: "Ξ(z) = Ξ₀ + (1 - Ξ₀)/(1 + z)^n (form from memory)",
     },
   ],
   references: [A.lagos2019, A.belgacem2018, yunesPretorius2009],
@@ -305,7 +305,7 @@ export const modifiedFriction: TheoryEntryInput = {
       unit: "1",
       side: "upper",
       credibility: 0.683,
-      data: "GW170817 with its host galaxy, Planck H0 as a prior",
+      data: "GW170817 with its host galaxy, Planck H₀ as a prior",
       reference: A.lagos2019.key,
       source_status: "confirmed",
       note: "c_M = -9 +21 -28 (68.3% credibility, abstract): the interval [-37, 12]; 37 is its wider side, as a bound on |c_M|",
@@ -327,7 +327,7 @@ export const dipoleAmplitude: TheoryEntryInput = {
   name: "Dipole radiation: amplitude correction",
   family: "scalar-tensor",
   summary:
-    "The amplitude companion of the generic dipole entry: an extra dipole flux F = F_GR [1 + B v^-2] makes the binary sweep faster through each frequency, which lowers the frequency-domain amplitude, alpha = -(1/2) eta^(2/5) B at a = -2. Derived from the flux through the frequency drift (the drift piece); the phase term of the same B is the entry 'Generic dipole radiation' (b = -7).",
+    "The amplitude companion of the generic dipole entry: an extra dipole flux F = F_GR [1 + B v⁻²] makes the binary sweep faster through each frequency, which lowers the frequency-domain amplitude, α = -(1/2) η^(2/5) B at a = -2. Derived from the flux through the frequency drift (the drift piece); the phase term of the same B is the entry 'Generic dipole radiation' (b = -7).",
   assumptions: [
     "the extra flux is a small correction at every frequency analysed",
     "the binding energy is unchanged at -1PN, so the Kepler law and the wave's own amplitude at a given frequency are GR's",
@@ -339,7 +339,7 @@ export const dipoleAmplitude: TheoryEntryInput = {
       latex: "B",
       dimension: "1",
       unit: "1",
-      description: "relative dipole flux coefficient (a flux, so B >= 0)",
+      description: "relative dipole flux coefficient (a flux, so B ≥ 0)",
       quoted: { form: "identity", symbol: "B_dip", latex: "B", unit: "1" },
       range: "non_negative",
       gr_value: "zero",
@@ -357,22 +357,22 @@ export const dipoleAmplitude: TheoryEntryInput = {
         order: -1,
         A: "0",
         B: "B_dip",
-        note: "the frequency-drift piece alpha = -gamma/2, gamma = [B - (k+1) A] eta^(-2k/5) at a = 2k; the Kepler-law piece is absent for a flux change",
+        note: "the frequency-drift piece α = -γ/2, γ = [B - (k+1) A] η^(-2k/5) at a = 2k; the Kepler-law piece is absent for a flux change",
       },
       validity: [
         {
           expression: "abs(B_dip)*(pi*M*f_low)^(-2/3)",
           max: 0.1,
-          label: "dipole flux small against the quadrupole flux over the band: |B| v^-2 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
+          label: "dipole flux small against the quadrupole flux over the band: |B| v⁻² below 0.1 at the band's low end, v = (π M f_low)^(1/3)",
           kind: "rule_of_thumb",
           reference: "project choice: 0.1 stands for 'much less than 1'",
         },
       ],
       caution:
-        "Drift piece only: the amplitude follows from the phase's frequency drift, alpha = -gamma/2. For a flux change this is the whole quadrupole-amplitude correction at leading order; for a theory that also changes the binding energy, the conservative (Kepler-law) piece of Tahura & Yagi 2018 is left out.",
+        "Drift piece only: the amplitude follows from the phase's frequency drift, α = -γ/2. For a flux change this is the whole quadrupole-amplitude correction at leading order; for a theory that also changes the binding energy, the conservative (Kepler-law) piece of Tahura & Yagi 2018 is left out.",
       source_status: "derived",
       references: [yunesPretorius2009.key, tahuraYagi2018.key],
-      locator: "alpha = -gamma/2 at a = b + 5 from the stationary-phase amplitude (derived)",
+      locator: "α = -γ/2 at a = b + 5 from the stationary-phase amplitude (derived)",
     },
   ],
   references: [yunesPretorius2009, tahuraYagi2018],

@@ -12,6 +12,7 @@
  * source-frame masses, so a detector-frame input with its z gives the same limit as the
  * equivalent source-frame input. Using Mc_z here would overstate beta by (1+z)^(1-alpha_md).
  */
+import { conditionText } from "../../common/symbol-text.ts";
 import { PLANCK_C_EV_M } from "../../server/physics/units.ts";
 import { REFS } from "./references.ts";
 import type { TheoryEntry } from "./theory-entry.ts";
@@ -20,18 +21,18 @@ import type { TheoryEntry } from "./theory-entry.ts";
 const ISCO_WAVELENGTH = "(6^(3/2)*pi*M)";
 
 const FRAME_NOTE =
-  "Mc is the source-frame chirp mass and D_0 / D_alpha carry the (1+z) factors; the converter derives source-frame masses from detector-frame input, so both inputs agree.";
+  "ℳ is the source-frame chirp mass and D₀/D_α carry the (1+z) factors; the converter derives source-frame masses from detector-frame input, so both inputs agree.";
 
 export const massiveGraviton: TheoryEntry = {
   slug: "massive-graviton",
   name: "Massive graviton (propagation)",
   family: "massive gravity",
   summary:
-    "A graviton mass m_g makes the group velocity frequency dependent, v_g^2 = 1 - (m_g c^2 / h f)^2. Low frequencies arrive late, a 1PN-like phase term that grows with distance.",
+    "A graviton mass m_g makes the group velocity frequency dependent, v_g² = 1 - (m_g c²/h f)². Low frequencies arrive late, a 1PN-like phase term that grows with distance.",
   assumptions: [
-    "dispersion E^2 = p^2 c^2 + m_g^2 c^4; generation unchanged",
-    "h f >> m_g c^2 over the band",
-    "flat Lambda-CDM distance D_0 (cosmology stored with each bound)",
+    "dispersion E² = p² c² + m_g² c⁴; generation unchanged",
+    "h f ≫ m_g c² over the band",
+    "flat ΛCDM distance D₀ (cosmology stored with each bound)",
   ],
   couplings: [
     {
@@ -39,7 +40,7 @@ export const massiveGraviton: TheoryEntry = {
       latex: "\\lambda_g",
       dimension: "L",
       unit: "km",
-      description: "graviton Compton wavelength h / (m_g c); m_g c^2 = h c / lambda_g",
+      description: "graviton Compton wavelength h/(m_g c); m_g c² = h c/λ_g",
       quoted: { form: "graviton_wavelength", symbol: "lambda_g", latex: "\\lambda_g", unit: "km" },
       range: "positive",
       gr_value: "infinity",
@@ -58,21 +59,21 @@ export const massiveGraviton: TheoryEntry = {
         kind: "propagation",
         order: 1,
         A: "1/lambda_g^2",
-        note: "E^2 = p^2 + m_g^2, i.e. A = m_g^2 = (h/lambda_g)^2 at alpha = 0: arrival-time delay D_0 / (2 lambda_g^2 f^2) in the stationary-phase approximation; the engine re-derives beta from the dispersion relation",
+        note: "E² = p² + m_g², i.e. A = m_g² = (h/λ_g)² at α = 0: arrival-time delay D₀/(2λ_g² f²) in the stationary-phase approximation; the engine re-derives β from the dispersion relation",
       },
       validity: [
         {
           // m_g c^2 / (h f) = lambda_GW / lambda_g is largest at the lowest frequency of the band.
           expression: "1/(f_low*lambda_g)",
           max: 0.01,
-          label: "h f >> m_g c^2 over the band: m_g c^2 / (h f_low) = (c / f_low) / lambda_g below 0.01",
+          label: "h f ≫ m_g c² over the band: m_g c²/(h f_low) = (c/f_low)/λ_g below 0.01",
           kind: "rule_of_thumb",
           reference: "project choice: 0.01 stands for 'much less than 1'",
         },
       ],
       source_status: "derived",
       references: [REFS.will1998.key],
-      notes: "Lower bound on lambda_g (beta ~ 1/lambda_g^2), i.e. upper bound on m_g.",
+      notes: "Lower bound on λ_g (β ~ 1/λ_g²), i.e. upper bound on m_g.",
     },
   ],
   references: [REFS.will1998, REFS.lvc2016Tgr, REFS.lvk2021Gwtc3Tgr],
@@ -86,7 +87,7 @@ export const massiveGraviton: TheoryEntry = {
       reference: REFS.lvc2016Tgr.key,
       source_status: "confirmed",
       credibility: 0.9,
-      note: "GW150914; the paper quotes lambda_g > 1.03e13 km alongside",
+      note: "GW150914; the paper quotes λ_g > 1.03 × 10¹³ km alongside",
     },
     {
       coupling: "lambda_g",
@@ -120,11 +121,11 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
     slug: `dispersion-a${tag}`,
     name: `Modified dispersion relation, α = ${alphaMd}`,
     family: "Lorentz-violating",
-    summary: `Generic dispersion E^2 = p^2 + A p^${alphaMd} (c = 1) for gravitational waves, a frequency-dependent group velocity that dephases the signal over cosmological distances. ${motivation}`,
+    summary: conditionText(`Generic dispersion E² = p² + A p^${alphaMd} (c = 1) for gravitational waves, a frequency-dependent group velocity that dephases the signal over cosmological distances. ${motivation}`),
     assumptions: [
-      "A p^(alpha - 2) << 1 over the band; generation unchanged",
-      "A may take either sign; lambda_A carries the sign of A, and a signed interval on beta maps to a signed interval on A",
-      "flat Lambda-CDM distance D_alpha (cosmology stored with each bound)",
+      "A p^(α - 2) ≪ 1 over the band; generation unchanged",
+      "A may take either sign; λ_A carries the sign of A, and a signed interval on β maps to a signed interval on A",
+      "flat ΛCDM distance D_α (cosmology stored with each bound)",
     ],
     couplings: [
       {
@@ -132,7 +133,7 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
         latex: `\\lambda_A^{(${alphaMd})}`,
         dimension: "L",
         unit: "km",
-        description: `length scale lambda_A = h |A|^(1/(alpha - 2)), signed like A; |A| = (h c / |lambda_A|)^(${power}) in eV^(${power}) (h c = ${PLANCK_C_EV_M.toPrecision(10)} eV m)`,
+        description: `length scale λ_A = h |A|^(1/(α - 2)), signed like A; |A| = (h c/|λ_A|)^(${power}) in eV^(${power}) (h c = ${PLANCK_C_EV_M.toPrecision(10)} eV m)`,
         quoted: { form: "dispersion_length", symbol: lambda, latex: "\\lambda_A", unit: "km", alpha_md: alphaMd },
         range: "any_sign",
         // A -> 0 is lambda_A -> infinity for alpha < 2 and lambda_A -> 0 for alpha > 2.
@@ -152,7 +153,7 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
           kind: "propagation",
           order: (b + 5) / 2,
           A: `${lambda}*abs(${lambda})^(${alphaMd - 3})`,
-          note: "A / h^(2 - alpha) = sgn(lambda_A) |lambda_A|^(alpha - 2) (lambda_A signed like A); the engine re-derives beta from the dispersion relation (particle speed p/E, as Mirshekari, Yunes & Will 2012)",
+          note: "A/h^(2 - α) = sgn(λ_A) |λ_A|^(α - 2) (λ_A signed like A); the engine re-derives β from the dispersion relation (particle speed p/E, as Mirshekari, Yunes & Will 2012)",
         },
         validity: [
           alphaMd < 2
@@ -160,7 +161,7 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
                 // For alpha < 2 the correction A p^(alpha - 2) grows toward low frequency: evaluate it at f_low.
                 expression: `(1/(f_low*abs(${lambda})))^(${power})`,
                 max: 0.01,
-                label: "A p^(alpha - 2) << 1 over the band, evaluated at f_low where it is largest",
+                label: "A p^(α - 2) ≪ 1 over the band, evaluated at f_low where it is largest",
                 kind: "rule_of_thumb" as const,
                 reference: "project choice: 0.01 stands for 'much less than 1'",
               }
@@ -168,14 +169,14 @@ function dispersionEntry(alphaMd: number, motivation: string): TheoryEntry {
                 // For alpha > 2 it grows toward high frequency: the ISCO is the end of the inspiral band.
                 expression: `(${ISCO_WAVELENGTH}/abs(${lambda}))^(${power})`,
                 max: 0.01,
-                label: "A p^(alpha - 2) << 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest",
+                label: "A p^(α - 2) ≪ 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest",
                 kind: "rule_of_thumb" as const,
                 reference: "project choice: 0.01 stands for 'much less than 1'",
               },
         ],
         source_status: "derived",
         references: [REFS.mirshekariYunesWill2012.key],
-        notes: `${side === "lower" ? "Lower" : "Upper"} bound on |lambda_A|; an upper bound on |A| either way, and a signed interval on A from a signed interval on beta.`,
+        notes: `${side === "lower" ? "Lower" : "Upper"} bound on |λ_A|; an upper bound on |A| either way, and a signed interval on A from a signed interval on β.`,
       },
     ],
     references: [REFS.mirshekariYunesWill2012, REFS.lvk2021Gwtc3Tgr],

@@ -6,12 +6,15 @@
 import { REFS } from "./references.ts";
 import type { TheoryEntry, ValidityEntry } from "./theory-entry.ts";
 
+/** Body indices as subscripts in labels (m₁, χ₂). */
+const SUB = { 1: "₁", 2: "₂" } as const;
+
 /** Horizon regularity / small coupling on each black hole with its own mass. */
 function perBlackHoleCoupling(theory: string): ValidityEntry[] {
   return ([1, 2] as const).map((i) => ({
     expression: `16*pi*alpha^2/m${i}^4`,
     max: 1 / 6,
-    label: `${theory} coupling on body ${i}: 16 pi alpha^2 / m${i}^4 below 1/6`,
+    label: `${theory} coupling on body ${i}: 16π α²/m${SUB[i]}⁴ < 1/6`,
     kind: "hard" as const,
     reference: "small-coupling expansion; 1/6 as the regular-horizon limit is a value from memory (to confirm)",
     source_status: "memory" as const,
@@ -29,9 +32,9 @@ export const edgb: TheoryEntry = {
   action_latex:
     "S = \\int d^4x\\,\\sqrt{-g}\\left[\\frac{R}{16\\pi} + \\alpha\\,\\phi\\,\\mathcal{G} - \\frac{1}{2}\\nabla_\\mu\\phi\\nabla^\\mu\\phi\\right],\\quad \\mathcal{G} = R^2 - 4R_{\\mu\\nu}R^{\\mu\\nu} + R_{\\mu\\nu\\rho\\sigma}R^{\\mu\\nu\\rho\\sigma}",
   assumptions: [
-    "small coupling: 16 pi alpha^2 / m^4 << 1 for every black hole",
+    "small coupling: 16π α²/m⁴ ≪ 1 for every black hole",
     "leading PN order of the scalar dipole flux; conservative corrections are higher order",
-    "aligned spins; spin enters only through the black-hole charge factor s(chi)",
+    "aligned spins; spin enters only through the black-hole charge factor s(χ)",
   ],
   couplings: [
     {
@@ -39,7 +42,7 @@ export const edgb: TheoryEntry = {
       latex: "\\alpha",
       dimension: "L^2",
       unit: "km^2",
-      description: "Gauss-Bonnet coupling in convention A; its sign can be absorbed into the scalar (phi -> -phi), so alpha >= 0",
+      description: "Gauss-Bonnet coupling in convention A; its sign can be absorbed into the scalar (φ → -φ), so α ≥ 0",
       quoted: { form: "sqrt", symbol: "sqrt_alpha", latex: "\\sqrt{\\alpha}", unit: "km" },
       range: "non_negative",
       gr_value: "zero",
@@ -57,7 +60,7 @@ export const edgb: TheoryEntry = {
           factor: 1 / Math.sqrt(8 * Math.PI),
           factor_expression: "1/sqrt(8*pi)",
           source_status: "derived",
-          note: "rescale phi to a canonical kinetic term with R/(16 pi) in front",
+          note: "rescale φ to a canonical kinetic term with R/(16π) in front",
         },
         {
           name: "JB",
@@ -66,7 +69,7 @@ export const edgb: TheoryEntry = {
           factor_expression: "1/sqrt(16*pi)",
           reference: REFS.sanger2024.key,
           source_status: "derived",
-          note: "check: l_GB = 0.51 M_sun in JB is sqrt(alpha_A) = 0.28 km (Sanger et al. 2024)",
+          note: "check: l_GB = 0.51 M_sun in JB is √(α_A) = 0.28 km (Sanger et al. 2024)",
         },
       ],
     },
@@ -86,14 +89,14 @@ export const edgb: TheoryEntry = {
         order: -1,
         A: "0",
         B: "(5/96)*zeta*(m1^2*s2 - m2^2*s1)^2/(M^4*eta^4)",
-        note: "dipole flux F = F_GR [1 + B v^-2]; the derivation check compares this B with beta",
+        note: "dipole flux F = F_GR [1 + B v⁻²]; the derivation check compares this B with β",
       },
       gimr_equivalent: { k: -2, expression: "-(10*pi/21)*alpha^2*(s1/m1^2 - s2/m2^2)^2", source_status: "derived" },
       body_rules: [
         {
           kind: "charge",
           description:
-            "black holes carry the spin-dependent charge factor s = 2 (sqrt(1 - chi^2) - 1 + chi^2) / chi^2 (spinning-hole charge: Yagi, Stein & Yunes 2016, value from memory, to be confirmed); neutron stars s = 0 at leading order (Yagi 2012)",
+            "black holes carry the spin-dependent charge factor s = 2 (√(1 - χ²) - 1 + χ²)/χ² (spinning-hole charge: Yagi, Stein & Yunes 2016, value from memory, to be confirmed); neutron stars s = 0 at leading order (Yagi 2012)",
           bodies: ["bh", "ns"],
           reference: REFS.yagiSteinYunes2016.key,
         },
@@ -102,7 +105,7 @@ export const edgb: TheoryEntry = {
       source_status: "derived",
       references: [REFS.yunesYagiPretorius2016.key, REFS.yagi2012.key, REFS.yagiSteinYunes2016.key],
       notes:
-        "Normalisation derived from the dipole flux; that Yunes, Yagi & Pretorius 2016 Table I prints this form is from memory. beta < 0 always; equal-mass, equal-spin black holes give beta = 0 (no constraint).",
+        "Normalisation derived from the dipole flux; that Yunes, Yagi & Pretorius 2016 Table I prints this form is from memory. β < 0 always; equal-mass, equal-spin black holes give β = 0 (no constraint).",
     },
   ],
   references: [REFS.yunesYagiPretorius2016, REFS.yagi2012, REFS.yagiSteinYunes2016, REFS.perkins2021, REFS.lyuJiangYagi2022, REFS.sanger2024],
@@ -154,10 +157,10 @@ export const dcs: TheoryEntry = {
   action_latex:
     "S = \\int d^4x\\,\\sqrt{-g}\\left[\\frac{R}{16\\pi} + \\frac{\\alpha}{4}\\,\\vartheta\\,{}^{*}\\!RR - \\frac{1}{2}\\nabla_\\mu\\vartheta\\nabla^\\mu\\vartheta\\right]",
   assumptions: [
-    "small coupling zeta = 16 pi alpha^2 / M^4 << 1",
+    "small coupling ζ = 16π α²/M⁴ ≪ 1",
     "slow rotation: leading order in the spins",
     "derived for binary black holes",
-    "action normalisation as written is from memory; the mapping's zeta convention is the one of Yagi, Stein, Yunes & Tanaka 2012",
+    "action normalisation as written is from memory; the mapping's ζ convention is the one of Yagi, Stein, Yunes & Tanaka 2012",
   ],
   couplings: [
     {
@@ -165,7 +168,7 @@ export const dcs: TheoryEntry = {
       latex: "\\alpha",
       dimension: "L^2",
       unit: "km^2",
-      description: "Chern-Simons coupling, normalised so that zeta = 16 pi alpha^2 / M^4; its sign can be absorbed into the pseudo-scalar, so alpha >= 0",
+      description: "Chern-Simons coupling, normalised so that ζ = 16π α²/M⁴; its sign can be absorbed into the pseudo-scalar, so α ≥ 0",
       quoted: { form: "sqrt", symbol: "sqrt_alpha", latex: "\\sqrt{\\alpha}", unit: "km" },
       range: "non_negative",
       gr_value: "zero",
@@ -188,7 +191,7 @@ export const dcs: TheoryEntry = {
         ...([1, 2] as const).map((i) => ({
           expression: `16*pi*alpha^2/m${i}^4`,
           max: 0.1,
-          label: `small coupling on body ${i}: 16 pi alpha^2 / m${i}^4 well below 1 (at most 0.1)`,
+          label: `small coupling on body ${i}: 16π α²/m${SUB[i]}⁴ ≪ 1 (at most 0.1)`,
           kind: "hard" as const,
           reference: "the mapping is a small-coupling expansion in each hole's own 16 pi alpha^2 / m^4; project choice: 0.1 stands for 'much less than 1'",
           body: i,
@@ -197,7 +200,7 @@ export const dcs: TheoryEntry = {
         ...([1, 2] as const).map((i) => ({
           expression: `abs(chi${i})`,
           max: 0.5,
-          label: `slow rotation of body ${i}: |chi${i}| well below 1 (rule of thumb 0.5)`,
+          label: `slow rotation of body ${i}: |χ${SUB[i]}| ≪ 1 (rule of thumb 0.5)`,
           kind: "rule_of_thumb" as const,
           reference: "the mapping is O(chi^2) (slow-rotation expansion); project choice: 0.5 as the rule of thumb",
           body: i,
@@ -206,7 +209,7 @@ export const dcs: TheoryEntry = {
       ],
       source_status: "confirmed",
       references: [REFS.yagiSteinYunesTanaka2012.key],
-      notes: "Non-spinning binaries give beta = 0 (no constraint).",
+      notes: "Non-spinning binaries give β = 0 (no constraint).",
     },
   ],
   references: [REFS.yagiSteinYunesTanaka2012, REFS.alexanderYunes2009, REFS.yunesYagiPretorius2016],
@@ -217,13 +220,13 @@ export const bransDicke: TheoryEntry = {
   name: "Brans-Dicke theory (massless scalar-tensor)",
   family: "scalar-tensor",
   summary:
-    "A massless scalar with coupling omega_BD. Bodies radiate scalar dipole waves in proportion to the difference of their sensitivities; black holes all have sensitivity 1/2, so only mixed binaries constrain omega_BD.",
+    "A massless scalar with coupling ω_BD. Bodies radiate scalar dipole waves in proportion to the difference of their sensitivities; black holes all have sensitivity 1/2, so only mixed binaries constrain ω_BD.",
   action_latex:
     "S = \\frac{1}{16\\pi}\\int d^4x\\,\\sqrt{-g}\\left[\\phi R - \\frac{\\omega_{BD}}{\\phi}\\nabla_\\mu\\phi\\nabla^\\mu\\phi\\right] + S_m[g, \\psi_m]",
   assumptions: [
-    "omega_BD >> 1 (leading order in 1/omega_BD)",
+    "ω_BD ≫ 1 (leading order in 1/ω_BD)",
     "sensitivities: black hole 1/2; neutron star from its equation of state (an input)",
-    "dipole coefficient stored as 1/(2 + omega_BD); the exact coefficient is 1/(omega_BD + 3/2). Both agree at leading order in 1/omega_BD, but published small-omega_BD numbers differ by up to about 2x depending on which is used",
+    "dipole coefficient stored as 1/(2 + ω_BD); the exact coefficient is 1/(ω_BD + 3/2). Both agree at leading order in 1/ω_BD, but published small-ω_BD numbers differ by up to about 2x depending on which is used",
   ],
   couplings: [
     {
@@ -248,7 +251,7 @@ export const bransDicke: TheoryEntry = {
         order: -1,
         A: "0",
         B: "(5/48)*(sigma1 - sigma2)^2/(2 + omega_BD)",
-        note: "dipole flux (1/3) eta^2 v^8 (a1 - a2)^2 with scalar charges a_i = (1 - 2 s_i)/sqrt(2 omega_BD + 3), to leading order in 1/omega_BD [derived]",
+        note: "dipole flux (1/3) η² v⁸ (a₁ - a₂)² with scalar charges aᵢ = (1 - 2 sᵢ)/√(2ω_BD + 3), to leading order in 1/ω_BD [derived]",
       },
       body_rules: [
         {
@@ -262,7 +265,7 @@ export const bransDicke: TheoryEntry = {
         {
           expression: "1/omega_BD",
           max: 0.1,
-          label: "omega_BD >> 1 (leading order in 1/omega_BD)",
+          label: "ω_BD ≫ 1 (leading order in 1/ω_BD)",
           kind: "rule_of_thumb",
           reference: "project choice: omega_BD >= 10 stands for 'much greater than 1'",
         },
@@ -270,9 +273,9 @@ export const bransDicke: TheoryEntry = {
       source_status: "memory",
       references: [REFS.will1994.key, REFS.yunesYagiPretorius2016.key],
       caution:
-        "The dipole coefficient is stored as 1/(2 + omega_BD); the exact one is 1/(omega_BD + 3/2). They agree at leading order in 1/omega_BD, but at small omega_BD published limits differ by up to about 2x depending on the choice.",
+        "The dipole coefficient is stored as 1/(2 + ω_BD); the exact one is 1/(ω_BD + 3/2). They agree at leading order in 1/ω_BD, but at small ω_BD published limits differ by up to about 2x depending on the choice.",
       notes:
-        "Recalled form, cross-checked by re-deriving the dipole flux. Coefficient 1/(2 + omega_BD) (exact: 1/(omega_BD + 3/2), equal at leading order in 1/omega_BD). Not a power law in omega_BD: the limit is a numeric root.",
+        "Recalled form, cross-checked by re-deriving the dipole flux. Coefficient 1/(2 + ω_BD) (exact: 1/(ω_BD + 3/2), equal at leading order in 1/ω_BD). Not a power law in ω_BD: the limit is a numeric root.",
     },
   ],
   references: [REFS.will1994, REFS.willZaglauer1989, REFS.bertottiIessTortora2003, REFS.yunesYagiPretorius2016],
@@ -286,7 +289,7 @@ export const bransDicke: TheoryEntry = {
       reference: REFS.bertottiIessTortora2003.key,
       source_status: "memory",
       credibility: 0.95,
-      note: "Shapiro delay of the Cassini radio link (Solar System, not a GW bound). 95 %: Alsing, Berti, Will & Zaglauer 2012 (arXiv:1112.4903) quote omega_BD > 40000 to 95 % confidence in their abstract (the massless limit of their theory); it is the 2-sigma end of gamma - 1 = (2.1 +- 2.3) x 10^-5 (value from memory), since 1 - gamma = 1/(2 + omega_BD).",
+      note: "Shapiro delay of the Cassini radio link (Solar System, not a GW bound). 95 %: Alsing, Berti, Will & Zaglauer 2012 (arXiv:1112.4903) quote ω_BD > 40000 to 95 % confidence in their abstract (the massless limit of their theory); it is the 2-σ end of γ - 1 = (2.1 ± 2.3) × 10⁻⁵ (value from memory), since 1 - γ = 1/(2 + ω_BD).",
     },
   ],
   needs_source_confirmation: true,
@@ -298,7 +301,7 @@ export const scalarDipole: TheoryEntry = {
   name: "Generic dipole radiation",
   family: "scalar-tensor",
   summary:
-    "Theory-agnostic extra dipole flux F = F_GR [1 + B v^-2], the common form of scalar or vector dipole emission. A limit on B can be reused for any theory that predicts it.",
+    "Theory-agnostic extra dipole flux F = F_GR [1 + B v⁻²], the common form of scalar or vector dipole emission. A limit on B can be reused for any theory that predicts it.",
   assumptions: ["the extra flux is a small correction at every frequency analysed", "the binding energy is unchanged at -1PN"],
   couplings: [
     {
@@ -306,7 +309,7 @@ export const scalarDipole: TheoryEntry = {
       latex: "B",
       dimension: "1",
       unit: "1",
-      description: "relative dipole flux coefficient (a flux, so B >= 0)",
+      description: "relative dipole flux coefficient (a flux, so B ≥ 0)",
       quoted: { form: "identity", symbol: "B_dip", latex: "B", unit: "1" },
       range: "non_negative",
       gr_value: "zero",
@@ -326,7 +329,7 @@ export const scalarDipole: TheoryEntry = {
           // the low end of the band, v = (pi M f_low)^(1/3): that is where it must be small.
           expression: "abs(B_dip)*(pi*M*f_low)^(-2/3)",
           max: 0.1,
-          label: "dipole flux small against the quadrupole flux over the band: |B| v^-2 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
+          label: "dipole flux small against the quadrupole flux over the band: |B| v⁻² below 0.1 at the band's low end, v = (π M f_low)^(1/3)",
           kind: "rule_of_thumb",
           reference: "project choice: 0.1 stands for 'much less than 1'",
         },

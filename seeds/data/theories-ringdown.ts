@@ -33,7 +33,7 @@ export const RINGDOWN_REFS = {
     title: "Geodesic stability, Lyapunov exponents and quasinormal modes",
     year: 2009,
     journal: "Phys. Rev. D 79, 064016",
-    locator: "eikonal QNMs from the light ring: omega = Omega_c l - i (n + 1/2) |lambda|",
+    locator: "eikonal QNMs from the light ring: ω = Ω_c l - i (n + 1/2) |λ|",
     details_from_memory: true,
   },
   gossan2012: {
@@ -67,7 +67,7 @@ export const RINGDOWN_REFS = {
 } satisfies Record<string, ReferenceInput>;
 
 const NAMING_TRAP =
-  "Naming trap: two metrics call a parameter epsilon_3. In Johannsen 2013 (the 'johannsen' entry) epsilon_3 enters Sigma and cancels from A/C and C/B, so it leaves the eikonal spectrum unchanged at first order; in Johannsen & Psaltis 2011 (the 'johannsen-psaltis' entry) epsilon_3 multiplies g_tt and g_rr and shifts Omega_c by +epsilon_3/54. Bounds on the two are not interchangeable.";
+  "Naming trap: two metrics call a parameter ε₃. In Johannsen 2013 (the 'johannsen' entry) ε₃ enters Σ and cancels from A/C and C/B, so it leaves the eikonal spectrum unchanged at first order; in Johannsen & Psaltis 2011 (the 'johannsen-psaltis' entry) ε₃ multiplies g_tt and g_rr and shifts Ω_c by +ε₃/54. Bounds on the two are not interchangeable.";
 
 const ringdownMapping = (kind: MappingKind, coupling: string, expression: string, latex: string, extra: Partial<MappingInput>): MappingInput => ({
   kind,
@@ -85,7 +85,7 @@ export const ringdownDeviation: TheoryEntryInput = {
   kind: "theory",
   family: "other",
   summary:
-    "The fractional shifts of the (2,2,0) quasinormal-mode frequency and damping time away from their Kerr values at the remnant's mass and spin, f = f_Kerr (1 + dfreq220), tau = tau_Kerr (1 + dtau220). Not a theory: the entry lets a ringdown bound be shown beside the theories, and lets the consistency page ask which shift a test would exclude.",
+    "The fractional shifts of the (2,2,0) quasinormal-mode frequency and damping time away from their Kerr values at the remnant's mass and spin, f = f_Kerr (1 + δf̂₂₂₀), τ = τ_Kerr (1 + δτ̂₂₂₀). Not a theory: the entry lets a ringdown bound be shown beside the theories, and lets the consistency page ask which shift a test would exclude.",
   assumptions: [
     "shifts defined at the true remnant mass and spin (a GR template fitted to a shifted mode infers a different remnant)",
     "small shifts: a mode far from Kerr is no longer a perturbed Kerr mode",
@@ -125,7 +125,7 @@ export const remnantDeviation: TheoryEntryInput = {
   kind: "theory",
   family: "other",
   summary:
-    "Fractional shifts of the remnant black hole's mass and spin away from the values general relativity predicts for the same binary, M_f = M_f,GR (1 + dMf_rem), chi_f = chi_f,GR (1 + dchif_rem). Not a theory: the entry lets the consistency page ask which remnant shift an inspiral-merger-ringdown test would exclude.",
+    "Fractional shifts of the remnant black hole's mass and spin away from the values general relativity predicts for the same binary, M_f = M_f,GR (1 + δM̂_f), χ_f = χ_f,GR (1 + δχ̂_f). Not a theory: the entry lets the consistency page ask which remnant shift an inspiral-merger-ringdown test would exclude.",
   assumptions: [
     "the remnant is still a Kerr black hole (its modes are Kerr modes at the shifted mass and spin)",
     "small shifts, read against the GR remnant fits for the same binary",
@@ -168,12 +168,12 @@ export const johannsenPsaltis: TheoryEntryInput = {
   kind: "parameterized_spacetime",
   family: "parameterized-black-hole",
   summary:
-    "A Kerr-like metric deformed by h = epsilon_3 M^3 r / Sigma^2, which multiplies g_tt and g_rr only. In the static limit -g_tt = (1 - 2M/r)(1 + epsilon_3 M^3/r^3), g_rr = (1 + epsilon_3 M^3/r^3)/(1 - 2M/r). " +
+    "A Kerr-like metric deformed by h = ε₃ M³ r/Σ², which multiplies g_tt and g_rr only. In the static limit -g_tt = (1 - 2M/r)(1 + ε₃ M³/r³), g_rr = (1 + ε₃ M³/r³)/(1 - 2M/r). " +
     NAMING_TRAP,
   metric_latex: "-g_{tt} = \\left(1 - \\frac{2M}{r}\\right)\\left(1 + \\epsilon_3 \\frac{M^3}{r^3}\\right),\\quad g_{rr} = \\frac{1 + \\epsilon_3 M^3/r^3}{1 - 2M/r}",
   assumptions: [
-    "static (non-spinning) limit, leading order in epsilon_3",
-    "the same epsilon_3 for both bodies and the remnant",
+    "static (non-spinning) limit, leading order in ε₃",
+    "the same ε₃ for both bodies and the remnant",
     "inspiral: test-body binding energy and quadrupole flux with the modified Kepler law",
     "ringdown: eikonal (light-ring) estimate, rough at l = 2; a deformed metric without field equations has no unique perturbation equation",
     "metric functions as written are from memory",
@@ -192,19 +192,19 @@ export const johannsenPsaltis: TheoryEntryInput = {
         order: 2,
         A: "eps3",
         B: "-2*eps3",
-        note: "test-body binding energy E = E_GR [1 + eps3 v^4] and quadrupole flux with the modified Kepler law F = F_GR [1 - 2 eps3 v^4] (our own derivation); the engine re-derives beta",
+        note: "test-body binding energy E = E_GR [1 + ε₃ v⁴] and quadrupole flux with the modified Kepler law F = F_GR [1 - 2ε₃ v⁴] (our own derivation); the engine re-derives β",
       },
       body_rules: [{ kind: "derived_for", description: "a deformed black-hole metric", bodies: ["bh"] }],
-      validity: [{ expression: "abs(eps3)", max: 1, label: "small deformation: |epsilon_3| below 1", kind: "rule_of_thumb", reference: "project choice" }],
+      validity: [{ expression: "abs(eps3)", max: 1, label: "small deformation: |ε₃| below 1", kind: "rule_of_thumb", reference: "project choice" }],
       source_status: "derived",
       references: ["johannsen-psaltis-2011"],
-      notes: "Our own derivation: E_b = -(1/2) mu v^2 [1 + ... + eps3 v^4], F = F_N [1 - 2 eps3 v^4], giving a 2PN (b = -1) term.",
+      notes: "Our own derivation: E_b = -(1/2) μ v² [1 + ... + ε₃ v⁴], F = F_N [1 - 2ε₃ v⁴], giving a 2PN (b = -1) term.",
     },
     ringdownMapping("ringdown_frequency", "eps3", "eps3/54", "\\delta f_{220}/f_{220} \\approx \\epsilon_3/54", {
-      validity: [{ expression: "abs(eps3)", max: 1, label: "small deformation: |epsilon_3| below 1", kind: "rule_of_thumb", reference: "project choice" }],
+      validity: [{ expression: "abs(eps3)", max: 1, label: "small deformation: |ε₃| below 1", kind: "rule_of_thumb", reference: "project choice" }],
       source_status: "derived",
       references: ["cardoso-et-al-2009", "johannsen-psaltis-2011"],
-      locator: "light ring r_c = 3M - eps3 M/18, Omega_c shifted by +eps3/54, Lyapunov exponent unchanged (our own derivation)",
+      locator: "light ring r_c = 3M - ε₃ M/18, Ω_c shifted by +ε₃/54, Lyapunov exponent unchanged (our own derivation)",
       notes: "Eikonal estimate at first order: the damping time is unchanged at this order (no damping mapping). " + NAMING_TRAP,
     }),
   ],
@@ -216,26 +216,26 @@ export const johannsenPsaltis: TheoryEntryInput = {
 export const johannsenRingdownMappings: MappingInput[] = [
   ringdownMapping("ringdown_frequency", "alpha13", "-alpha13/27", "\\delta f_{220}/f_{220} \\approx -\\alpha_{13}/27", {
     held_fixed: { eps3: 0 },
-    validity: [{ expression: "abs(alpha13)", max: 1, label: "small deformation: |alpha_13| below 1", kind: "rule_of_thumb", reference: "project choice" }],
+    validity: [{ expression: "abs(alpha13)", max: 1, label: "small deformation: |α₁₃| below 1", kind: "rule_of_thumb", reference: "project choice" }],
     source_status: "derived",
     references: ["cardoso-et-al-2009"],
-    locator: "light ring r_c = 3M + alpha13 M/9, Omega_c shifted by -alpha13/27 (our own derivation)",
-    notes: "Eikonal estimate at first order, alpha_52 = 0. " + NAMING_TRAP,
+    locator: "light ring r_c = 3M + α₁₃ M/9, Ω_c shifted by -α₁₃/27 (our own derivation)",
+    notes: "Eikonal estimate at first order, α₅₂ = 0. " + NAMING_TRAP,
   }),
   ringdownMapping("ringdown_damping", "alpha13", "alpha13/27", "\\delta\\tau_{220}/\\tau_{220} \\approx \\alpha_{13}/27", {
     held_fixed: { eps3: 0 },
-    validity: [{ expression: "abs(alpha13)", max: 1, label: "small deformation: |alpha_13| below 1", kind: "rule_of_thumb", reference: "project choice" }],
+    validity: [{ expression: "abs(alpha13)", max: 1, label: "small deformation: |α₁₃| below 1", kind: "rule_of_thumb", reference: "project choice" }],
     source_status: "derived",
     references: ["cardoso-et-al-2009"],
-    locator: "Lyapunov exponent shifted by -alpha13/27 - alpha52/18; tau ~ 1/lambda (our own derivation)",
-    notes: "Eikonal estimate at first order with alpha_52 = 0 (alpha_52 would add +alpha_52/18). " + NAMING_TRAP,
+    locator: "Lyapunov exponent shifted by -α₁₃/27 - α₅₂/18; τ ~ 1/λ (our own derivation)",
+    notes: "Eikonal estimate at first order with α₅₂ = 0 (α₅₂ would add +α₅₂/18). " + NAMING_TRAP,
   }),
 ];
 
 const EDGB_RINGDOWN_NOTE =
   "Eikonal (light-ring) estimate for a non-rotating remnant, our own first-order computation from the small-coupling static EdGB metric of Yunes & Stein 2011 " +
-  "(-g_tt = f (1 + h), g_rr = (1 + k)/f, f = 1 - 2M/r; h = zeta/(3f) (M/r)^3 [1 + 26 M/r + 66/5 (M/r)^2 + 96/5 (M/r)^3 - 80 (M/r)^4], " +
-  "k = -zeta/f (M/r)^2 [1 + M/r + 52/3 (M/r)^2 + 2 (M/r)^3 + 16/5 (M/r)^4 - 368/3 (M/r)^5]), with zeta = 16 pi alpha^2/M^4 at the remnant. " +
+  "(-g_tt = f (1 + h), g_rr = (1 + k)/f, f = 1 - 2M/r; h = ζ/(3f) (M/r)³ [1 + 26 M/r + 66/5 (M/r)² + 96/5 (M/r)³ - 80 (M/r)⁴], " +
+  "k = -ζ/f (M/r)² [1 + M/r + 52/3 (M/r)² + 2 (M/r)³ + 16/5 (M/r)⁴ - 368/3 (M/r)⁵]), with ζ = 16π α²/M⁴ at the remnant. " +
   "The metric coefficients are recalled from memory (source to be confirmed). Published QNM computations (Blazquez-Salcedo et al. 2016, Phys. Rev. D 94, 104024) " +
   "were not transcribed: their fits should replace this estimate once confirmed. Axial modes follow the light ring in EdGB at this order (Bryant et al. 2021, as we read its abstract); polar modes mix with the scalar.";
 
@@ -247,22 +247,22 @@ const EDGB_RINGDOWN_NOTE =
 export const edgbRingdownMappings: MappingInput[] = [
   ringdownMapping("ringdown_frequency", "alpha", "(4397/21870)*16*pi*alpha^2/M_f^4", "\\delta f_{220}/f_{220} \\approx \\frac{4397}{21870}\\,\\zeta_f,\\ \\zeta_f = 16\\pi\\alpha^2/M_f^4", {
     validity: [
-      { expression: "16*pi*alpha^2/M_f^4", max: 0.1, label: "small coupling at the remnant: 16 pi alpha^2 / M_f^4 well below 1", kind: "rule_of_thumb", reference: "project choice" },
+      { expression: "16*pi*alpha^2/M_f^4", max: 0.1, label: "small coupling at the remnant: 16π α²/M_f⁴ well below 1", kind: "rule_of_thumb", reference: "project choice" },
       { expression: "chi_f", max: 0.3, label: "non-rotating result: the remnant must spin slowly", kind: "hard", reference: "project choice: the shift was computed for a static black hole" },
     ],
     source_status: "memory",
     references: ["cardoso-et-al-2009"],
-    locator: "light ring of the small-coupling static metric: Omega_c shifted by h(3M)/2 (our own derivation)",
+    locator: "light ring of the small-coupling static metric: Ω_c shifted by h(3M)/2 (our own derivation)",
     notes: EDGB_RINGDOWN_NOTE,
   }),
   ringdownMapping("ringdown_damping", "alpha", "0.0843*16*pi*alpha^2/M_f^4", "\\delta\\tau_{220}/\\tau_{220} \\approx 0.0843\\,\\zeta_f", {
     validity: [
-      { expression: "16*pi*alpha^2/M_f^4", max: 0.1, label: "small coupling at the remnant: 16 pi alpha^2 / M_f^4 well below 1", kind: "rule_of_thumb", reference: "project choice" },
+      { expression: "16*pi*alpha^2/M_f^4", max: 0.1, label: "small coupling at the remnant: 16π α²/M_f⁴ well below 1", kind: "rule_of_thumb", reference: "project choice" },
       { expression: "chi_f", max: 0.3, label: "non-rotating result: the remnant must spin slowly", kind: "hard", reference: "project choice: the shift was computed for a static black hole" },
     ],
     source_status: "memory",
     references: ["cardoso-et-al-2009"],
-    locator: "Lyapunov exponent of the small-coupling static metric, computed numerically (our own computation); tau ~ 1/lambda",
+    locator: "Lyapunov exponent of the small-coupling static metric, computed numerically (our own computation); τ ~ 1/λ",
     notes: EDGB_RINGDOWN_NOTE,
   }),
 ];

@@ -12,10 +12,10 @@ export const varyingG: TheoryEntry = {
   name: "Time-varying Newton constant",
   family: "varying constants",
   summary:
-    "A slow drift of G changes the binding energy and the radiation reaction of the binary; the leading phase correction is a -4PN term proportional to (dG/dt / G) times the chirp mass.",
+    "A slow drift of G changes the binding energy and the radiation reaction of the binary; the leading phase correction is a -4PN term proportional to (dG/dt/G) times the chirp mass.",
   assumptions: [
-    "Gdot/G constant over the observed inspiral and evaluated at the source (source-frame Mc)",
-    "the same drift for the conservative and dissipative sectors (Gdot_C = Gdot_D)",
+    "Ġ/G constant over the observed inspiral and evaluated at the source (source-frame ℳ)",
+    "the same drift for the conservative and dissipative sectors (Ġ_C = Ġ_D)",
     "constant masses and zero sensitivities (the general case with sensitivities: Tahura & Yagi 2018)",
   ],
   couplings: [
@@ -40,23 +40,23 @@ export const varyingG: TheoryEntry = {
         kind: "frequency_drift",
         order: -4,
         gamma: "(55/768)*Gdot*Mc",
-        note: "conservative: the orbital angular momentum is an adiabatic invariant, so G M a is constant and the orbital frequency grows as G^2 (df/dt adds 2 (Gdot/G) f); dissipative: the GR drift goes as (G Mc)^(5/3) with G(t) = G_c [1 - (Gdot/G)(t_c - t)] and t_c - t = (5/256) Mc u^-8. gamma = 5/48 - 25/768 = 55/768 (derived)",
+        note: "conservative: the orbital angular momentum is an adiabatic invariant, so G M a is constant and the orbital frequency grows as G² (df/dt adds 2 (Ġ/G) f); dissipative: the GR drift goes as (G ℳ)^(5/3) with G(t) = G_c [1 - (Ġ/G)(t_c - t)] and t_c - t = (5/256) ℳ u⁻⁸. γ = 5/48 - 25/768 = 55/768 (derived)",
       },
       latex: "\\beta = -\\frac{275}{851968}\\,\\frac{\\dot G}{G}\\,\\mathcal{M}",
       frame_note:
-        "Gdot/G is the rate at the source and Mc the source-frame chirp mass; the observed rate (1+z)^-1 Gdot/G times Mc_z gives the same product.",
+        "Ġ/G is the rate at the source and ℳ the source-frame chirp mass; the observed rate (1+z)⁻¹ Ġ/G times ℳ_z gives the same product.",
       validity: [
         {
           expression: "abs(Gdot)*tau",
           max: 0.1,
-          label: "G changes little while the signal is in band: |Gdot/G| tau below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)",
+          label: "G changes little while the signal is in band: |Ġ/G| τ below 0.1, τ = (5/256) ℳ (π ℳ f_low)^(-8/3)",
           kind: "rule_of_thumb",
           reference: "in-band time at leading order (common practice); project choice: 0.1 stands for 'much less than 1'",
         },
       ],
       source_status: "derived",
       references: [REFS.tahuraYagi2018.key, REFS.yunesPretoriusSpergel2010.key],
-      notes: "General form -(25/851968)(14 Gdot_C/G - 3 Gdot_D/G) Mc; here Gdot_C = Gdot_D.",
+      notes: "General form -(25/851968)(14 Ġ_C/G - 3 Ġ_D/G) ℳ; here Ġ_C = Ġ_D.",
     },
   ],
   references: [REFS.yunesPretoriusSpergel2010, REFS.tahuraYagi2018],
@@ -74,14 +74,14 @@ const mdotOfEll = `${literal(RSII_RATE_AT_UNIT)}*${literal(SOLAR_MASS_LENGTH_KM)
 const massLossShape = "(3 - 26*eta + 34*eta^2)/(eta^(2/5)*(1 - 2*eta))";
 const BLACK_HOLES_ONLY = {
   kind: "only_for" as const,
-  description: "black holes only: a neutron star does not lose mass into the bulk, and the mass-ratio factor assumes the per-hole law mdot_i = -C/m_i^2 on both bodies",
+  description: "black holes only: a neutron star does not lose mass into the bulk, and the mass-ratio factor assumes the per-hole law ṁᵢ = -C/mᵢ² on both bodies",
   bodies: ["bh" as const],
 };
 const massLossValidity = (rate: string) => [
   {
     expression: `${rate}*tau/M`,
     max: 0.1,
-    label: "masses change little while the signal is in band: |Mdot| tau / M below 0.1, tau = (5/256) Mc (pi Mc f_low)^(-8/3)",
+    label: "masses change little while the signal is in band: |Ṁ| τ/M below 0.1, τ = (5/256) ℳ (π ℳ f_low)^(-8/3)",
     kind: "rule_of_thumb" as const,
     reference: "in-band time at leading order (common practice); project choice: 0.1 stands for 'much less than 1'",
   },
@@ -92,11 +92,11 @@ export const extraDimension: TheoryEntry = {
   name: "Randall-Sundrum II braneworld: black-hole mass loss",
   family: "extra dimensions",
   summary:
-    "With one warped extra dimension of AdS curvature length ell, black holes on the brane may lose mass at a rate growing as ell^2 / M^2. The drift of the masses during the inspiral is a -4PN phase correction.",
+    "With one warped extra dimension of AdS curvature length ℓ, black holes on the brane may lose mass at a rate growing as ℓ²/M². The drift of the masses during the inspiral is a -4PN phase correction.",
   assumptions: [
-    "|Mdot| T_obs << M: the masses change little during the observation",
+    "|Ṁ| T_obs ≪ M: the masses change little during the observation",
     "the mass-loss estimate of Emparan, Garcia-Bellido & Kaloper applies (debated in the literature)",
-    "the ell mapping applies the rate to each hole on its own, mdot_i = -C(ell)/m_i^2 (the rate formula is from memory)",
+    "the ℓ mapping applies the rate to each hole on its own, ṁᵢ = -C(ℓ)/mᵢ² (the rate formula is from memory)",
     "black holes only: neutron stars do not lose mass into the extra dimension",
   ],
   couplings: [
@@ -132,7 +132,7 @@ export const extraDimension: TheoryEntry = {
         kind: "frequency_drift",
         order: -4,
         gamma: `(5/768)*Mdot_loss*${massLossShape}`,
-        note: "per-hole law mdot_i = -C/m_i^2 with Mdot = mdot_1 + mdot_2 = -Mdot_loss. Conservative: isotropic mass loss keeps the specific angular momentum, so a M is constant and df/dt adds 2 (Mdot/M) f; dissipative: the GR drift goes as Mc^(5/3), with d ln Mc/dt = (Mdot/M)(3 - 10 eta + 2 eta^2)/(5 eta (1 - 2 eta)) over t_c - t = (5/256) Mc u^-8 (derived)",
+        note: "per-hole law ṁᵢ = -C/mᵢ² with Ṁ = ṁ₁ + ṁ₂ = -Ṁ_loss. Conservative: isotropic mass loss keeps the specific angular momentum, so a M is constant and df/dt adds 2 (Ṁ/M) f; dissipative: the GR drift goes as ℳ^(5/3), with d ln ℳ/dt = (Ṁ/M)(3 - 10η + 2η²)/(5η (1 - 2η)) over t_c - t = (5/256) ℳ u⁻⁸ (derived)",
       },
       latex: "\\beta = \\frac{25}{851968}\\,\\dot M\\,\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad \\dot M = -|\\dot M|",
       body_rules: [BLACK_HOLES_ONLY],
@@ -140,7 +140,7 @@ export const extraDimension: TheoryEntry = {
       source_status: "derived",
       references: [REFS.yunesYagiPretorius2016.key],
       notes:
-        "Derived; matches the review form [memory]. The sign of beta follows 3 - 26 eta + 34 eta^2, which vanishes near eta = 0.1416: such a binary constrains nothing.",
+        "Derived; matches the review form [memory]. The sign of β follows 3 - 26η + 34η², which vanishes near η = 0.1416: such a binary constrains nothing.",
     },
     {
       kind: "inspiral_phase",
@@ -152,7 +152,7 @@ export const extraDimension: TheoryEntry = {
         kind: "frequency_drift",
         order: -4,
         gamma: `(5/768)*(${mdotOfEll})*${massLossShape}`,
-        note: "the drift of the Mdot mapping with Mdot = -C(ell) (1/m1^2 + 1/m2^2) (per-hole law; the rate C(ell) is from memory)",
+        note: "the drift of the Ṁ mapping with Ṁ = -C(ℓ) (1/m₁² + 1/m₂²) (per-hole law; the rate C(ℓ) is from memory)",
       },
       latex:
         "\\beta = -\\frac{25}{851968}\\,C(\\ell)\\left(\\frac{1}{m_1^2} + \\frac{1}{m_2^2}\\right)\\frac{3 - 26\\eta + 34\\eta^2}{\\eta^{2/5}(1 - 2\\eta)},\\quad C(\\ell) = 2.8\\times10^{-7}\\,M_\\odot^3/\\mathrm{yr}\\,(\\ell/10\\,\\mu\\mathrm{m})^2",
@@ -161,7 +161,7 @@ export const extraDimension: TheoryEntry = {
       source_status: "memory",
       references: [REFS.emparanGarciaBellidoKaloper2003.key, REFS.yunesYagiPretorius2016.key],
       notes:
-        "Per-hole law mdot_i = -C(ell)/m_i^2, so Mdot = -C (1/m1^2 + 1/m2^2) [derived]; the rate C(ell) is from memory: an editor must confirm it.",
+        "Per-hole law ṁᵢ = -C(ℓ)/mᵢ², so Ṁ = -C (1/m₁² + 1/m₂²) [derived]; the rate C(ℓ) is from memory: an editor must confirm it.",
     },
   ],
   references: [REFS.emparanGarciaBellidoKaloper2003, REFS.yunesYagiPretorius2016],

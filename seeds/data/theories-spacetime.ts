@@ -10,8 +10,8 @@ export const noncommutative: TheoryEntry = {
   name: "Noncommutative spacetime",
   family: "noncommutative geometry",
   summary:
-    "Coordinates that do not commute, [x^mu, x^nu] = i theta^{mu nu}, modify the binary's dynamics at 2PN through the dimensionless Lambda^2 = theta^{0i} theta_{0i} / (l_P t_P)^2 [memory].",
-  assumptions: ["Lambda^2 v^4 << 1 over the band", "leading PN order"],
+    "Coordinates that do not commute, [x^μ, x^ν] = i θ^μν, modify the binary's dynamics at 2PN through the dimensionless Λ² = θ⁰ⁱ θ₀ᵢ/(l_P t_P)² [memory].",
+  assumptions: ["Λ² v⁴ ≪ 1 over the band", "leading PN order"],
   couplings: [
     {
       symbol: "Lambda2",
@@ -35,7 +35,7 @@ export const noncommutative: TheoryEntry = {
         {
           expression: "Lambda2/36",
           max: 0.1,
-          label: "Lambda^2 v^4 << 1 at the ISCO (v^2 = 1/6)",
+          label: "Λ² v⁴ ≪ 1 at the ISCO (v² = 1/6)",
           kind: "rule_of_thumb",
           reference: "project choice: 0.1 stands for 'much less than 1'",
         },
@@ -44,7 +44,7 @@ export const noncommutative: TheoryEntry = {
         "The correction depends on the orientation of the noncommutativity tensor relative to the orbit (Jenks, Yagi & Alexander 2020); this mapping takes the orientation-averaged form, so a limit for a specific orientation can differ.",
       source_status: "memory",
       references: [REFS.kobakhidzeLaggerManning2016.key, REFS.jenksYagiAlexander2020.key],
-      notes: "2 eta - 1 < 0 for every binary, so beta > 0.",
+      notes: "2η - 1 < 0 for every binary, so β > 0.",
     },
   ],
   references: [REFS.kobakhidzeLaggerManning2016, REFS.jenksYagiAlexander2020],
@@ -57,7 +57,7 @@ export const noncommutative: TheoryEntry = {
       side: "upper",
       reference: REFS.kobakhidzeLaggerManning2016.key,
       source_status: "confirmed",
-      note: "GW150914: sqrt(Lambda) < 3.5 (abstract), i.e. Lambda^2 < 3.5^4 = 150. No credibility: the abstract writes the bound as sqrt(Lambda) of order 3.5 or less and states no credible level.",
+      note: "GW150914: √Λ < 3.5 (abstract), i.e. Λ² < 3.5⁴ = 150. No credibility: the abstract writes the bound as √Λ of order 3.5 or less and states no credible level.",
     },
   ],
   needs_source_confirmation: true,
@@ -70,7 +70,7 @@ export const johannsen: TheoryEntry = {
   name: "Johannsen parameterized black-hole spacetime (static, leading order)",
   family: "parameterized black hole",
   summary:
-    "A regular, Kerr-like metric with free deformation functions. At leading order for a non-spinning binary the deviations epsilon_3 and alpha_13 shift the orbital dynamics at 2PN.",
+    "A regular, Kerr-like metric with free deformation functions. At leading order for a non-spinning binary the deviations ε₃ and α₁₃ shift the orbital dynamics at 2PN.",
   metric_latex:
     "g_{tt} = -\\frac{\\tilde\\Sigma\\,[\\Delta - a^2 A_2(r)^2 \\sin^2\\theta]}{[(r^2 + a^2) A_1(r) - a^2 A_2(r) \\sin^2\\theta]^2},\\quad A_1 = 1 + \\sum_n \\alpha_{1n} (M/r)^n,\\ f(r) = \\sum_n \\epsilon_n M^n / r^{n-2}",
   assumptions: [
@@ -112,14 +112,14 @@ export const johannsen: TheoryEntry = {
       order: 2,
       A: "eps3 - 2*alpha13",
       B: "-2*(eps3 - 2*alpha13)",
-      note: "static limit -g_tt = (1 - 2x)(1 + (eps3 - 2 alpha13) x^3) to first order, x = M/r: test-body binding energy E = E_GR [1 + (eps3 - 2 alpha13) v^4] and quadrupole flux with the modified Kepler law F = F_GR [1 - 2 (eps3 - 2 alpha13) v^4] (derived)",
+      note: "static limit -g_tt = (1 - 2x)(1 + (ε₃ - 2α₁₃) x³) to first order, x = M/r: test-body binding energy E = E_GR [1 + (ε₃ - 2α₁₃) v⁴] and quadrupole flux with the modified Kepler law F = F_GR [1 - 2 (ε₃ - 2α₁₃) v⁴] (derived)",
     },
     body_rules: [{ kind: "derived_for" as const, description: "a deformed black-hole metric", bodies: ["bh" as const] }],
     validity: [
       {
         expression: "abs(eps3 - 2*alpha13)",
         max: 1,
-        label: "small deformation: |epsilon_3 - 2 alpha_13| below 1",
+        label: "small deformation: |ε₃ - 2α₁₃| below 1",
         kind: "rule_of_thumb" as const,
         reference: "project choice",
       },

@@ -22,14 +22,14 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
     name: "Einstein-aether and khronometric gravity (dipole, 0PN flux and tensor speed)",
     family: "lorentz-violating",
     summary:
-      "A unit timelike vector field, the aether, picks a preferred frame at every point; khronometric gravity (the low-energy limit of Hořava gravity) is the case of an aether orthogonal to a foliation. Compact bodies carry aether sensitivities s_i, so a binary radiates dipole waves (-1PN, b = -7) in proportion to (s1 - s2)^2; the quadrupole flux itself is changed by a factor A (0PN, b = -5); and tensor waves travel at c_T^2 = 1/(1 - c13). The entry states the first two terms through the flux coefficients they change, in our own normalisation; their values in terms of c1 ... c4 and the sensitivities are the long expressions of Foster 2007 and Yagi et al. 2014, not transcribed here (source to be confirmed).",
+      "A unit timelike vector field, the aether, picks a preferred frame at every point; khronometric gravity (the low-energy limit of Hořava gravity) is the case of an aether orthogonal to a foliation. Compact bodies carry aether sensitivities sᵢ, so a binary radiates dipole waves (-1PN, b = -7) in proportion to (s₁ - s₂)²; the quadrupole flux itself is changed by a factor A (0PN, b = -5); and tensor waves travel at c_T² = 1/(1 - c₁₃). The entry states the first two terms through the flux coefficients they change, in our own normalisation; their values in terms of c₁ ... c₄ and the sensitivities are the long expressions of Foster 2007 and Yagi et al. 2014, not transcribed here (source to be confirmed).",
     action_latex:
       "S = \\frac{1}{16\\pi G}\\int d^4x\\,\\sqrt{-g}\\left[R - c_1 \\nabla_\\mu u_\\nu \\nabla^\\mu u^\\nu - c_2 (\\nabla_\\mu u^\\mu)^2 - c_3 \\nabla_\\mu u_\\nu \\nabla^\\nu u^\\mu + c_4\\, u^\\mu u^\\nu \\nabla_\\mu u_\\rho \\nabla_\\nu u^\\rho + \\lambda (u^\\mu u_\\mu + 1)\\right]",
     assumptions: [
-      "small couplings c_i (decoupling limit) and non-spinning bodies on quasi-circular orbits, as Hansen, Yunes & Yagi 2015",
-      "khronometric gravity: alpha = c14, beta = c13, lambda = c2 (Jacobson 2010, value from memory)",
+      "small couplings cᵢ (decoupling limit) and non-spinning bodies on quasi-circular orbits, as Hansen, Yunes & Yagi 2015",
+      "khronometric gravity: α = c₁₄, β = c₁₃, λ = c₂ (Jacobson 2010, value from memory)",
       "binding energy as in GR once the effective gravitational constant of the pair is absorbed in the measured masses: the 0PN term is the change of the quadrupole flux relative to that Kepler law",
-      "D_ae and dA_ae are properties of the binary analysed (they contain the bodies' sensitivities): a limit holds for that binary, not for the c_i directly",
+      "𝒟_ae and δ𝒜 are properties of the binary analysed (they contain the bodies' sensitivities): a limit holds for that binary, not for the cᵢ directly",
     ],
     couplings: [
       {
@@ -38,7 +38,7 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         dimension: 0,
         unit: "1",
         description:
-          "dipole-to-quadrupole flux ratio times v^2: F_dip = D_ae v^-2 F_GR; proportional to (s1 - s2)^2 and to the dipole factor of Foster 2007 (value from memory that the dependence is through that factor only)",
+          "dipole-to-quadrupole flux ratio times v²: F_dip = 𝒟_ae v⁻² F_GR; proportional to (s₁ - s₂)² and to the dipole factor of Foster 2007 (value from memory that the dependence is through that factor only)",
         quoted: { form: "identity", symbol: "D_ae", latex: "\\mathcal{D}_{\\rm ae}", unit: "1" },
         range: "non_negative",
         gr_value: "zero",
@@ -48,7 +48,7 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         latex: "\\delta\\mathcal{A}",
         dimension: 0,
         unit: "1",
-        description: "fractional change of the quadrupole flux at fixed orbital frequency, relative to GR with the pair's Kepler law: F_quad = (1 + dA_ae) F_GR",
+        description: "fractional change of the quadrupole flux at fixed orbital frequency, relative to GR with the pair's Kepler law: F_quad = (1 + δ𝒜) F_GR",
         quoted: { form: "identity", symbol: "dA_ae", latex: "\\delta\\mathcal{A}", unit: "1" },
         range: "any_sign",
         gr_value: "zero",
@@ -58,7 +58,7 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         latex: "c_{13}",
         dimension: 0,
         unit: "1",
-        description: "c1 + c3, which sets the speed of tensor waves: c_T^2 = 1/(1 - c13), so (c_T - c)/c = c13/2 at leading order (khronometric: beta)",
+        description: "c₁ + c₃, which sets the speed of tensor waves: c_T² = 1/(1 - c₁₃), so (c_T - c)/c = c₁₃/2 at leading order (khronometric: β)",
         quoted: { form: "identity", symbol: "c13", latex: "c_{13}", unit: "1" },
         range: "any_sign",
         gr_value: "zero",
@@ -70,7 +70,7 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         expression: "-(3/224)*eta^(2/5)*D_ae",
         latex: "\\beta_{-7} = -\\frac{3}{224}\\,\\eta^{2/5}\\,\\mathcal{D}_{\\rm ae}",
         B: "D_ae",
-        flux_note: "dipole flux F_dip = D_ae v^-2 F_GR by the definition of D_ae; the binding energy is unchanged at -1PN (derived)",
+        flux_note: "dipole flux F_dip = 𝒟_ae v⁻² F_GR by the definition of 𝒟_ae; the binding energy is unchanged at -1PN (derived)",
         body_rules: [
           {
             kind: "charge",
@@ -84,7 +84,7 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         source_status: "derived",
         references: EA_SOURCES,
         notes:
-          "beta follows from D_ae by energy balance (derived). How D_ae depends on c1 ... c4 and the sensitivities (Foster 2007; Yagi et al. 2014; the ppE form of Hansen, Yunes & Yagi 2015) is not transcribed: source to be confirmed.",
+          "β follows from 𝒟_ae by energy balance (derived). How 𝒟_ae depends on c₁ ... c₄ and the sensitivities (Foster 2007; Yagi et al. 2014; the ppE form of Hansen, Yunes & Yagi 2015) is not transcribed: source to be confirmed.",
       }),
       {
         kind: "inspiral_phase",
@@ -98,15 +98,15 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
           order: 0,
           A: "0",
           B: "dA_ae",
-          note: "quadrupole flux (1 + dA_ae) F_GR at the same orbital frequency, binding energy of GR with the pair's Kepler law (derived)",
+          note: "quadrupole flux (1 + δ𝒜) F_GR at the same orbital frequency, binding energy of GR with the pair's Kepler law (derived)",
         },
-        body_rules: [{ kind: "derived_for", description: "any compact bodies; dA_ae contains the sensitivities of both", bodies: ["bh", "ns"] }],
-        validity: [ruleOfThumb("abs(dA_ae)", "the quadrupole flux changes little: |dA_ae| below 0.1")],
+        body_rules: [{ kind: "derived_for", description: "any compact bodies; δ𝒜 contains the sensitivities of both", bodies: ["bh", "ns"] }],
+        validity: [ruleOfThumb("abs(dA_ae)", "the quadrupole flux changes little: |δ𝒜| below 0.1")],
         caution:
           "b = -5 is the order of the chirp mass itself: a phase bound at b = -5 is degenerate with the chirp mass and reflects its prior as much as the theory. Prefer analyses that fix the chirp mass independently or fit both terms together (Hansen, Yunes & Yagi 2015).",
         source_status: "derived",
         references: EA_SOURCES,
-        notes: "beta follows from dA_ae by energy balance (derived). The value of dA_ae in terms of the c_i (through Foster's quadrupole factor A and the pair's effective G) is not transcribed: source to be confirmed.",
+        notes: "β follows from δ𝒜 by energy balance (derived). The value of δ𝒜 in terms of the cᵢ (through Foster's quadrupole factor A and the pair's effective G) is not transcribed: source to be confirmed.",
       },
       {
         kind: "inspiral_phase",
@@ -117,18 +117,18 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         expression: "-D_alpha*c13/Mc",
         latex: "\\beta_{3} = -\\frac{D_{2}}{\\mathcal{M}}\\,c_{13}",
         frame_note:
-          "Mc is the source-frame chirp mass and D_alpha (alpha = 2) carries the (1+z) factors (Mirshekari, Yunes & Will 2012); the converter derives source-frame masses from detector-frame input.",
+          "ℳ is the source-frame chirp mass and D_α (α = 2) carries the (1+z) factors (Mirshekari, Yunes & Will 2012); the converter derives source-frame masses from detector-frame input.",
         derivation: {
           kind: "propagation",
           order: 4,
           A: "-c13",
-          note: "c_T^2 = 1/(1 - c13) gives (c_T - c)/c = c13/2; with the particle speed p/E of the 'gw-speed' entry, E^2 = (1 + A) p^2 with A = -2 (c_T - c)/c = -c13 (derived)",
+          note: "c_T² = 1/(1 - c₁₃) gives (c_T - c)/c = c₁₃/2; with the particle speed p/E of the 'gw-speed' entry, E² = (1 + A) p² with A = -2 (c_T - c)/c = -c₁₃ (derived)",
         },
-        validity: [ruleOfThumb("abs(c13)", "|c13| << 1", { max: 0.01 })],
+        validity: [ruleOfThumb("abs(c13)", "|c₁₃| ≪ 1", { max: 0.01 })],
         source_status: "derived",
         references: [FIRST.mirshekari.key, WAVE2_REFS.gw170817Grb.key],
         notes:
-          "b = 3 is degenerate with the coalescence time: a phase bound gives no limit here (the translator says so). The bound on c13 comes from the arrival times of GW170817 and GRB 170817A, shown as a reference bound.",
+          "b = 3 is degenerate with the coalescence time: a phase bound gives no limit here (the translator says so). The bound on c₁₃ comes from the arrival times of GW170817 and GRB 170817A, shown as a reference bound.",
       },
     ],
     reference_bounds: intervalBounds(
@@ -139,7 +139,7 @@ export const einsteinAether: TheoryEntryInput = defineEntry(
         data: "GW170817 and GRB 170817A arrival times",
         reference: WAVE2_REFS.oostMukohyamaWang2018.key,
         source_status: "confirmed",
-        note: "|c13| <= 1e-15 as the abstract states it. No credibility on purpose: it follows from the GW170817 speed range, which is not a credible interval (an assumed emission delay of 0 to 10 s).",
+        note: "|c₁₃| ≤ 1 × 10⁻¹⁵ as the abstract states it. No credibility on purpose: it follows from the GW170817 speed range, which is not a credible interval (an assumed emission delay of 0 to 10 s).",
       },
       -1e-15,
       1e-15,
@@ -159,14 +159,14 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
     name: "Massive scalar-tensor gravity (Brans-Dicke with a scalar mass): Yukawa-suppressed dipole",
     family: "scalar-tensor",
     summary:
-      "Brans-Dicke gravity with a scalar of mass m_s. The scalar force between the bodies falls off as exp(-m_s r) and the scalar dipole is radiated only where the orbital angular frequency omega exceeds m_s c^2 / h-bar, with the factor (1 - m_s^2/omega^2)^(3/2). For a scalar light against the band the -1PN dipole of Brans-Dicke applies (b = -7, coupling omega_BD); the first mass correction is a -4PN term (b = -13) in xi = m_s^2 / (2 + omega_BD). A scalar heavier than the orbital frequency at the band's low end switches the dipole off over the band, and a GW phase bound says nothing about omega_BD then.",
+      "Brans-Dicke gravity with a scalar of mass m_s. The scalar force between the bodies falls off as exp(-m_s r) and the scalar dipole is radiated only where the orbital angular frequency ω exceeds m_s c²/ħ, with the factor (1 - m_s²/ω²)^(3/2). For a scalar light against the band the -1PN dipole of Brans-Dicke applies (b = -7, coupling ω_BD); the first mass correction is a -4PN term (b = -13) in ξ = m_s²/(2 + ω_BD). A scalar heavier than the orbital frequency at the band's low end switches the dipole off over the band, and a GW phase bound says nothing about ω_BD then.",
     action_latex:
       "S = \\frac{1}{16\\pi}\\int d^4x\\,\\sqrt{-g}\\left[\\phi R - \\frac{\\omega_{BD}}{\\phi}\\,\\partial_\\mu\\phi\\,\\partial^\\mu\\phi - M(\\phi)\\right] + S_m,\\qquad m_s^2 \\propto M''(\\phi_0)",
     assumptions: [
-      "omega_BD >> 1; leading order in 1/(2 + omega_BD); sensitivities s_i as in Brans-Dicke (1/2 for a black hole)",
-      "dipole flux of a massive field: the far field of a dipole d oscillating at omega has wavenumber k = sqrt(omega^2 - m_s^2), and the radiated power goes as omega k^3 |d|^2 instead of omega^4 |d|^2, a factor (1 - m_s^2/omega^2)^(3/2) (derived; the form Alsing et al. 2012 give, value from memory)",
-      "m_s as an inverse length, m_s c / h-bar in 1/km: m_s c^2 = 1e-13 eV is 5.07e-4 /km",
-      "the conservative Yukawa correction to Kepler's law, of order (1 - 2 s1)(1 - 2 s2) (m_s r)^2 / (2 + omega_BD) at -2PN, and the scalar monopole and quadrupole radiation at 0PN are left out; the first vanishes when either body is a black hole",
+      "ω_BD ≫ 1; leading order in 1/(2 + ω_BD); sensitivities sᵢ as in Brans-Dicke (1/2 for a black hole)",
+      "dipole flux of a massive field: the far field of a dipole d oscillating at ω has wavenumber k = √(ω² - m_s²), and the radiated power goes as ω k³ |d|² instead of ω⁴ |d|², a factor (1 - m_s²/ω²)^(3/2) (derived; the form Alsing et al. 2012 give, value from memory)",
+      "m_s as an inverse length, m_s c/ħ in 1/km: m_s c² = 1 × 10⁻¹³ eV is 5.07 × 10⁻⁴ /km",
+      "the conservative Yukawa correction to Kepler's law, of order (1 - 2 s₁)(1 - 2 s₂) (m_s r)²/(2 + ω_BD) at -2PN, and the scalar monopole and quadrupole radiation at 0PN are left out; the first vanishes when either body is a black hole",
     ],
     couplings: [
       {
@@ -174,7 +174,7 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
         latex: "\\omega_{BD}",
         dimension: 0,
         unit: "1",
-        description: "Brans-Dicke coupling; GR at omega_BD -> infinity",
+        description: "Brans-Dicke coupling; GR at ω_BD → infinity",
         quoted: { form: "identity", symbol: "omega_BD", latex: "\\omega_{BD}", unit: "1" },
         range: "positive",
         gr_value: "infinity",
@@ -184,7 +184,7 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
         latex: "\\xi = m_s^2/(2 + \\omega_{BD})",
         dimension: -2,
         unit: "1/km^2",
-        description: "squared scalar mass (as an inverse length) over 2 + omega_BD; 0 in GR (omega_BD -> infinity) and in massless Brans-Dicke",
+        description: "squared scalar mass (as an inverse length) over 2 + ω_BD; 0 in GR (ω_BD → infinity) and in massless Brans-Dicke",
         quoted: { form: "identity", symbol: "xi_ms", latex: "m_s^2/(2 + \\omega_{BD})", unit: "1/km^2" },
         range: "non_negative",
         gr_value: "zero",
@@ -196,21 +196,21 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
         expression: "-(5/3584)*eta^(2/5)*(sigma1 - sigma2)^2/(2 + omega_BD)",
         latex: "\\beta_{-7} = -\\frac{5}{3584}\\,\\eta^{2/5}\\,\\frac{(s_1 - s_2)^2}{2 + \\omega_{BD}}",
         B: `${BD_DIPOLE}/(2 + omega_BD)`,
-        flux_note: "the massless Brans-Dicke dipole (5/48)(s1 - s2)^2 / (2 + omega_BD) v^-2 F_GR, the light-scalar limit of the suppression factor",
+        flux_note: "the massless Brans-Dicke dipole (5/48)(s₁ - s₂)²/(2 + ω_BD) v⁻² F_GR, the light-scalar limit of the suppression factor",
         body_rules: [
           {
             kind: "charge",
-            description: "sensitivity s = 1/2 for a black hole, about 0.1 to 0.3 for a neutron star (equation of state); supplied as sigma1, sigma2. Two black holes emit no dipole.",
+            description: "sensitivity s = 1/2 for a black hole, about 0.1 to 0.3 for a neutron star (equation of state); supplied as σ₁, σ₂. Two black holes emit no dipole.",
             bodies: ["bh", "ns"],
             reference: FIRST.will1994.key,
           },
         ],
         validity: [dipoleAtLowEnd(`${BD_DIPOLE}/(2 + omega_BD)`)],
         caution:
-          "Holds only for a scalar light over the whole band: m_s c^2 below h-bar pi f_low (4.1e-14 eV at f_low = 20 Hz). A heavier scalar switches the dipole off where the orbital angular frequency is below m_s c^2 / h-bar, and the limit on omega_BD does not apply to it.",
+          "Holds only for a scalar light over the whole band: m_s c² below ħ π f_low (4.1 × 10⁻¹⁴ eV at f_low = 20 Hz). A heavier scalar switches the dipole off where the orbital angular frequency is below m_s c²/ħ, and the limit on ω_BD does not apply to it.",
         source_status: "derived",
         references: [WAVE2_REFS.alsing2012.key, FIRST.will1994.key],
-        notes: "The same term as the 'brans-dicke' entry (leading order in 1/omega_BD); the mass enters only through where it holds.",
+        notes: "The same term as the 'brans-dicke' entry (leading order in 1/ω_BD); the mass enters only through where it holds.",
       }),
       {
         kind: "inspiral_phase",
@@ -224,19 +224,19 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
           order: -4,
           A: "0",
           B: `-(3/2)*${BD_DIPOLE}*M^2*xi_ms`,
-          note: "the dipole (5/48)(s1 - s2)^2/(2 + omega_BD) v^-2 (1 - m_s^2/omega^2)^(3/2) with omega = v^3/M, expanded to first order in m_s^2 M^2 v^-6: a flux term -(3/2)(5/48)(s1 - s2)^2 M^2 xi v^-8 (derived)",
+          note: "the dipole (5/48)(s₁ - s₂)²/(2 + ω_BD) v⁻² (1 - m_s²/ω²)^(3/2) with ω = v³/M, expanded to first order in m_s² M² v⁻⁶: a flux term -(3/2)(5/48)(s₁ - s₂)² M² ξ v⁻⁸ (derived)",
         },
         body_rules: [
-          { kind: "charge", description: "as the dipole: sensitivities sigma1, sigma2; two black holes give beta = 0", bodies: ["bh", "ns"], reference: FIRST.will1994.key },
+          { kind: "charge", description: "as the dipole: sensitivities σ₁, σ₂; two black holes give β = 0", bodies: ["bh", "ns"], reference: FIRST.will1994.key },
         ],
         validity: [
           ruleOfThumb(
             `(3/2)*${BD_DIPOLE}*M^2*xi_ms*(pi*M*f_low)^(-8/3)`,
-            "the mass correction stays small against the quadrupole flux: (3/2) B M^2 xi v^-8 below 0.1 at the band's low end, v = (pi M f_low)^(1/3)",
+            "the mass correction stays small against the quadrupole flux: (3/2) B M² ξ v⁻⁸ below 0.1 at the band's low end, v = (π M f_low)^(1/3)",
           ),
         ],
         caution:
-          "The expansion of the suppression factor needs the scalar light against the orbital angular frequency over the band: m_s^2 = xi (2 + omega_BD) below about 0.07 (pi f_low)^2 in 1/km^2 units, a condition on the pair (xi, omega_BD) that the translator cannot check from xi alone.",
+          "The expansion of the suppression factor needs the scalar light against the orbital angular frequency over the band: m_s² = ξ (2 + ω_BD) below about 0.07 (π f_low)² in 1/km² units, a condition on the pair (ξ, ω_BD) that the translator cannot check from ξ alone.",
         source_status: "derived",
         references: [WAVE2_REFS.alsing2012.key],
         notes:
@@ -251,10 +251,10 @@ export const massiveScalarTensor: TheoryEntryInput = defineEntry(
         unit: "1",
         side: "lower",
         credibility: 0.95,
-        data: "Cassini Shapiro delay (Solar System), for scalar masses m_s < 2.5e-20 eV",
+        data: "Cassini Shapiro delay (Solar System), for scalar masses m_s < 2.5 × 10⁻²⁰ eV",
         reference: WAVE2_REFS.alsing2012.key,
         source_status: "confirmed",
-        note: "as the abstract states it, at 95 % confidence; it holds for m_s < 2.5e-20 eV, a scalar far lighter than any GW band's orbital frequency",
+        note: "as the abstract states it, at 95 % confidence; it holds for m_s < 2.5 × 10⁻²⁰ eV, a scalar far lighter than any GW band's orbital frequency",
       },
     ],
     needs_source_confirmation: true,
@@ -271,12 +271,12 @@ export const massiveVectorCharges: TheoryEntryInput = defineEntry(
     name: "Massive dark-photon charges: Yukawa binding and the vector dipole",
     family: "other",
     summary:
-      "Compact bodies charged under a dark U(1) whose vector boson has a mass m_V. Between the bodies the force is Q1 Q2 exp(-m_V r)/r, and a binary radiates vector dipole waves in proportion to (q1 - q2)^2. Two mappings: the -1PN dipole of a vector light against the band (coupling |q1 - q2|, as the massless entry; its first mass correction vanishes at order m_V^2), and the -2PN Yukawa term of the binding (coupling y = q1 q2 m_V^2 / (1 - q1 q2)), which is there even for equal charges.",
+      "Compact bodies charged under a dark U(1) whose vector boson has a mass m_V. Between the bodies the force is Q₁ Q₂ exp(-m_V r)/r, and a binary radiates vector dipole waves in proportion to (q₁ - q₂)². Two mappings: the -1PN dipole of a vector light against the band (coupling |q₁ - q₂|, as the massless entry; its first mass correction vanishes at order m_V²), and the -2PN Yukawa term of the binding (coupling y = q₁ q₂ m_V²/(1 - q₁ q₂)), which is there even for equal charges.",
     assumptions: [
-      "charge-to-mass ratios q_i in the units of the 'vector-charges' entry (the force is q1 q2 m1 m2 / r^2 at short range); like charges repel (q1 q2 > 0)",
-      "potential per reduced mass -(M/r)[1 - q1 q2 exp(-m_V r)]: the factor (1 - q1 q2) is absorbed in the measured masses, the constant term exerts no force, and the orbit lies well inside the range (m_V r << 1): -(M'/r)(1 - y r^2/2), M' = M (1 - q1 q2), y = q1 q2 m_V^2 / (1 - q1 q2) (derived)",
-      "massive vector (Proca) dipole: the radiated power of an oscillating dipole goes as omega k (omega^2 - k^2/3) |p|^2 with k^2 = omega^2 - m_V^2 (sum over the three polarisations, current conserved), a factor (1 - m_V^2/omega^2)^(1/2) (1 + m_V^2/(2 omega^2)) = 1 - (3/8) m_V^4/omega^4 + ... of the massless flux (derived): no correction at order m_V^2",
-      "m_V as an inverse length, m_V c / h-bar in 1/km: m_V c^2 = 1e-13 eV is 5.07e-4 /km",
+      "charge-to-mass ratios qᵢ in the units of the 'vector-charges' entry (the force is q₁ q₂ m₁ m₂/r² at short range); like charges repel (q₁ q₂ > 0)",
+      "potential per reduced mass -(M/r)[1 - q₁ q₂ exp(-m_V r)]: the factor (1 - q₁ q₂) is absorbed in the measured masses, the constant term exerts no force, and the orbit lies well inside the range (m_V r ≪ 1): -(M'/r)(1 - y r²/2), M' = M (1 - q₁ q₂), y = q₁ q₂ m_V²/(1 - q₁ q₂) (derived)",
+      "massive vector (Proca) dipole: the radiated power of an oscillating dipole goes as ω k (ω² - k²/3) |p|² with k² = ω² - m_V² (sum over the three polarisations, current conserved), a factor (1 - m_V²/ω²)^(1/2) (1 + m_V²/(2ω²)) = 1 - (3/8) m_V⁴/ω⁴ + ... of the massless flux (derived): no correction at order m_V²",
+      "m_V as an inverse length, m_V c/ħ in 1/km: m_V c² = 1 × 10⁻¹³ eV is 5.07 × 10⁻⁴ /km",
     ],
     couplings: [
       DQ_COUPLING,
@@ -285,7 +285,7 @@ export const massiveVectorCharges: TheoryEntryInput = defineEntry(
         latex: "y = \\frac{q_1 q_2\\,m_V^2}{1 - q_1 q_2}",
         dimension: -2,
         unit: "1/km^2",
-        description: "Yukawa coupling of the pair: q1 q2 m_V^2 / (1 - q1 q2); positive for like charges (repulsive), negative for opposite charges; 0 without charges (GR)",
+        description: "Yukawa coupling of the pair: q₁ q₂ m_V²/(1 - q₁ q₂); positive for like charges (repulsive), negative for opposite charges; 0 without charges (GR)",
         quoted: { form: "identity", symbol: "y_V", latex: "q_1 q_2 m_V^2/(1 - q_1 q_2)", unit: "1/km^2" },
         range: "any_sign",
         gr_value: "zero",
@@ -295,7 +295,7 @@ export const massiveVectorCharges: TheoryEntryInput = defineEntry(
       larmorDipole({
         references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
         caution:
-          "Holds for a vector light against the orbital angular frequency over the band (m_V c^2 below h-bar pi f_low, 4.1e-14 eV at 20 Hz); the mass correction of the dipole starts at order m_V^4 / omega^4 (b = -19), left out. A heavier vector switches the dipole off where the orbital frequency is below m_V c^2 / h-bar.",
+          "Holds for a vector light against the orbital angular frequency over the band (m_V c² below ħ π f_low, 4.1 × 10⁻¹⁴ eV at 20 Hz); the mass correction of the dipole starts at order m_V⁴/ω⁴ (b = -19), left out. A heavier vector switches the dipole off where the orbital frequency is below m_V c²/ħ.",
         notes: "The same term as the 'vector-charges' entry, listed here beside the Yukawa term of the same theory.",
       }),
       {
@@ -310,17 +310,17 @@ export const massiveVectorCharges: TheoryEntryInput = defineEntry(
           order: -2,
           A: `-(5/3)*${YUKAWA_VECTOR}`,
           B: `(2/3)*${YUKAWA_VECTOR}`,
-          note: "potential -(M/r)(1 - y r^2/2): omega^2 = (M/r^3)(1 + y r^2/2), so M/r = v^2 (1 - y r^2/6), E = -(1/2) mu v^2 [1 - (5/3) y r^2] and the quadrupole flux (32/5) eta^2 v^10 [1 + (2/3) y r^2], r^2 = M^2 v^-4 (derived; the 'massive-graviton-yukawa' entry with 1/lambda_g^2 -> -y)",
+          note: "potential -(M/r)(1 - y r²/2): ω² = (M/r³)(1 + y r²/2), so M/r = v² (1 - y r²/6), E = -(1/2) μ v² [1 - (5/3) y r²] and the quadrupole flux (32/5) η² v¹⁰ [1 + (2/3) y r²], r² = M² v⁻⁴ (derived; the 'massive-graviton-yukawa' entry with 1/λ_g² → -y)",
         },
         body_rules: [{ kind: "charge", description: "any charged bodies; y contains the product of both charges, so a neutral companion gives y = 0", bodies: ["bh", "ns"] }],
         validity: [
           ruleOfThumb(
             `abs(${YUKAWA_VECTOR})*(pi*M*f_low)^(-4/3)`,
-            "the Yukawa term stays a correction to the binding: |y| r^2 below 0.1 at the band's low end, r = M (pi M f_low)^(-2/3)",
+            "the Yukawa term stays a correction to the binding: |y| r² below 0.1 at the band's low end, r = M (π M f_low)^(-2/3)",
           ),
         ],
         caution:
-          "The expansion needs the orbit well inside the force's range, m_V r << 1 at the band's low end: a condition on m_V alone, which the translator cannot check from y. For m_V r of order 1 or more the force is screened and this term does not apply.",
+          "The expansion needs the orbit well inside the force's range, m_V r ≪ 1 at the band's low end: a condition on m_V alone, which the translator cannot check from y. For m_V r of order 1 or more the force is screened and this term does not apply.",
         source_status: "derived",
         references: [WAVE2_REFS.cardosoMacedoPaniFerrari2016.key],
         notes:

@@ -22,19 +22,19 @@ const GW170817_SPEED_NOTE =
   "no credibility on purpose: not a credible interval, but the range allowed by the 1.74 s delay between the signals and an assumed emission delay of 0 to 10 s (hence asymmetric)";
 
 const FRAME_NOTE =
-  "Mc is the source-frame chirp mass and D_alpha carries the (1+z) factors (Mirshekari, Yunes & Will 2012); the converter derives source-frame masses from detector-frame input, so both inputs agree.";
+  "ℳ is the source-frame chirp mass and D_α carries the (1+z) factors (Mirshekari, Yunes & Will 2012); the converter derives source-frame masses from detector-frame input, so both inputs agree.";
 
 export const dispersionA35: TheoryEntryInput = defineEntry({
   slug: "dispersion-a3p5",
   name: "Modified dispersion relation, α = 3.5",
   family: "lorentz-violating",
   summary:
-    "Generic dispersion E^2 = p^2 + A p^3.5 (c = 1) for gravitational waves, one of the exponents tested on GW catalogues. High frequencies travel at a different speed, a +6.25PN-like phase term (b = 7.5) that grows with distance.",
+    "Generic dispersion E² = p² + A p^3.5 (c = 1) for gravitational waves, one of the exponents tested on GW catalogues. High frequencies travel at a different speed, a +6.25PN-like phase term (b = 7.5) that grows with distance.",
   assumptions: [
-    "A p^(alpha - 2) << 1 over the band; generation unchanged",
-    "A may take either sign; lambda_A carries the sign of A, |A| = (h / |lambda_A|)^(2 - alpha)",
-    "particle speed v = p/E, as Mirshekari, Yunes & Will 2012 (the group velocity would multiply beta by 1 - alpha = -2.5)",
-    "flat Lambda-CDM distance D_alpha (cosmology stored with each bound)",
+    "A p^(α - 2) ≪ 1 over the band; generation unchanged",
+    "A may take either sign; λ_A carries the sign of A, |A| = (h/|λ_A|)^(2 - α)",
+    "particle speed v = p/E, as Mirshekari, Yunes & Will 2012 (the group velocity would multiply β by 1 - α = -2.5)",
+    "flat ΛCDM distance D_α (cosmology stored with each bound)",
   ],
   couplings: [
     {
@@ -42,7 +42,7 @@ export const dispersionA35: TheoryEntryInput = defineEntry({
       latex: "\\lambda_A^{(3.5)}",
       dimension: 1,
       unit: "km",
-      description: "length scale lambda_A = h |A|^(1/(alpha - 2)), signed like A; for alpha > 2, GR is lambda_A -> 0",
+      description: "length scale λ_A = h |A|^(1/(α - 2)), signed like A; for α > 2, GR is λ_A → 0",
       quoted: { form: "dispersion_length", symbol: "lambda_A35", latex: "\\lambda_A", unit: "km", alpha_md: 3.5 },
       range: "any_sign",
       gr_value: "zero",
@@ -61,18 +61,18 @@ export const dispersionA35: TheoryEntryInput = defineEntry({
         kind: "propagation",
         order: 6.25,
         A: "lambda_A35*abs(lambda_A35)^(0.5)",
-        note: "A / h^(2 - alpha) = sgn(lambda_A) |lambda_A|^(alpha - 2) = sgn(lambda_A) |lambda_A|^1.5; the engine re-derives beta from the dispersion relation",
+        note: "A/h^(2 - α) = sgn(λ_A) |λ_A|^(α - 2) = sgn(λ_A) |λ_A|^1.5; the engine re-derives β from the dispersion relation",
       },
       validity: [
         ruleOfThumb(
           "(abs(lambda_A35)/(6^(3/2)*pi*M))^(1.5)",
-          "A p^(alpha - 2) << 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest (alpha > 2)",
+          "A p^(α - 2) ≪ 1 over the band, evaluated at the GW wavelength of the ISCO where it is largest (α > 2)",
           { max: 0.01 },
         ),
       ],
       source_status: "derived",
       references: [FIRST.mirshekari.key],
-      notes: "Upper bound on |lambda_A| and on |A|; a signed interval on beta maps to a signed interval on A.",
+      notes: "Upper bound on |λ_A| and on |A|; a signed interval on β maps to a signed interval on A.",
     },
   ],
 }, WAVE2_LIBRARY, [FIRST.lvkGwtc3]);
@@ -82,10 +82,10 @@ export const gwSpeed: TheoryEntryInput = defineEntry({
   name: "Speed of gravitational waves (frequency independent)",
   family: "lorentz-violating",
   summary:
-    "Gravitational waves travelling at a constant speed c_g different from c: the dispersion E^2 = (1 + A) p^2 with A = -2 (c_g - c)/c, the alpha = 2 case. The arrival time shifts by the same amount at every frequency, which the coalescence time absorbs: a GW signal alone cannot bound it (b = 3). The bound comes from comparing the arrival of a gravitational and an electromagnetic signal.",
+    "Gravitational waves travelling at a constant speed c_g different from c: the dispersion E² = (1 + A) p² with A = -2 (c_g - c)/c, the α = 2 case. The arrival time shifts by the same amount at every frequency, which the coalescence time absorbs: a GW signal alone cannot bound it (b = 3). The bound comes from comparing the arrival of a gravitational and an electromagnetic signal.",
   assumptions: [
-    "|c_g - c| << c, independent of frequency",
-    "particle speed v = p/E = 1 - A/2 (Mirshekari, Yunes & Will 2012 at alpha = 2)",
+    "|c_g - c| ≪ c, independent of frequency",
+    "particle speed v = p/E = 1 - A/2 (Mirshekari, Yunes & Will 2012 at α = 2)",
     "the phase term at b = 3 is degenerate with the coalescence time: no phase bound exists; the reference bound is multimessenger",
   ],
   couplings: [
@@ -113,9 +113,9 @@ export const gwSpeed: TheoryEntryInput = defineEntry({
         kind: "propagation",
         order: 4,
         A: "-2*delta_cg",
-        note: "E^2 = (1 + A) p^2 gives v = 1 - A/2, so A = -2 (c_g - c)/c at alpha = 2; the engine re-derives beta and notes the degeneracy",
+        note: "E² = (1 + A) p² gives v = 1 - A/2, so A = -2 (c_g - c)/c at α = 2; the engine re-derives β and notes the degeneracy",
       },
-      validity: [ruleOfThumb("abs(delta_cg)", "|c_g - c| << c", { max: 0.01 })],
+      validity: [ruleOfThumb("abs(delta_cg)", "|c_g - c| ≪ c", { max: 0.01 })],
       source_status: "derived",
       references: [FIRST.mirshekari.key],
       notes: "b = 3 is degenerate with the coalescence time: this mapping documents the term, and the translator gives no limit from a phase bound. Use the GW-EM arrival-time bound.",
@@ -142,10 +142,10 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = defineEntry({
   name: "Massive graviton at two orders: propagation and Yukawa binding",
   family: "massive-gravity",
   summary:
-    "A graviton mass both delays low frequencies on the way (b = -3, 1PN) and, in theories without screening, turns the Newtonian potential into a Yukawa potential -(M/r) exp(-r/lambda_g), which changes the binding energy and Kepler's law at -2PN (b = -9). One coupling, two mappings: a ppE bound at one b uses the term at that b only.",
+    "A graviton mass both delays low frequencies on the way (b = -3, 1PN) and, in theories without screening, turns the Newtonian potential into a Yukawa potential -(M/r) exp(-r/λ_g), which changes the binding energy and Kepler's law at -2PN (b = -9). One coupling, two mappings: a ppE bound at one b uses the term at that b only.",
   assumptions: [
-    "dispersion E^2 = p^2 + m_g^2 (c = 1) for the propagation term",
-    "static potential -(M/r) exp(-r/lambda_g) with the orbit well inside lambda_g, expanded to (r/lambda_g)^2; the constant term exerts no force and the 1/r normalisation is absorbed in the measured masses",
+    "dispersion E² = p² + m_g² (c = 1) for the propagation term",
+    "static potential -(M/r) exp(-r/λ_g) with the orbit well inside λ_g, expanded to (r/λ_g)²; the constant term exerts no force and the 1/r normalisation is absorbed in the measured masses",
     "quadrupole flux of GR evaluated on the modified orbit; the mass correction to the radiation itself enters at -3PN (b = -11) and is not included",
     "no Vainshtein screening: in nonlinear massive gravity (dRGT) screening suppresses the Yukawa term inside the Vainshtein radius and the b = -9 mapping does not apply",
   ],
@@ -155,7 +155,7 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = defineEntry({
       latex: "\\lambda_g",
       dimension: 1,
       unit: "km",
-      description: "graviton Compton wavelength h / (m_g c); GR at lambda_g -> infinity",
+      description: "graviton Compton wavelength h/(m_g c); GR at λ_g → infinity",
       quoted: { form: "graviton_wavelength", symbol: "lambda_g", latex: "\\lambda_g", unit: "km" },
       range: "positive",
       gr_value: "infinity",
@@ -170,8 +170,8 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = defineEntry({
       expression: "-pi^2*D_0*Mc/lambda_g^2",
       latex: "\\beta_{-3} = -\\frac{\\pi^2 D_0\\,\\mathcal{M}}{\\lambda_g^2}",
       frame_note: FRAME_NOTE,
-      derivation: { kind: "propagation", order: 1, A: "1/lambda_g^2", note: "A = m_g^2 = (h/lambda_g)^2 at alpha = 0 (Will 1998)" },
-      validity: [ruleOfThumb("1/(f_low*lambda_g)", "h f >> m_g c^2 over the band: the GW wavelength at f_low far below lambda_g", { max: 0.01 })],
+      derivation: { kind: "propagation", order: 1, A: "1/lambda_g^2", note: "A = m_g² = (h/λ_g)² at α = 0 (Will 1998)" },
+      validity: [ruleOfThumb("1/(f_low*lambda_g)", "h f ≫ m_g c² over the band: the GW wavelength at f_low far below λ_g", { max: 0.01 })],
       source_status: "derived",
       references: [FIRST.will1998.key],
       notes: "The same term as the 'massive-graviton' entry, listed here beside the binding term of the same coupling.",
@@ -187,9 +187,9 @@ export const massiveGravitonTwoOrders: TheoryEntryInput = defineEntry({
         order: -2,
         A: "(5/3)*M^2/lambda_g^2",
         B: "-(2/3)*M^2/lambda_g^2",
-        note: "Potential -(M/r)(1 + r^2/(2 lambda_g^2)) up to a constant: omega^2 = (M/r^3)(1 - x/2), x = r^2/lambda_g^2; then M/r = v^2 (1 + x/6), E = -(1/2) mu v^2 [1 + (5/3) x] and the quadrupole flux (32/5) eta^2 v^10 [1 - (2/3) x], x = M^2 v^-4 / lambda_g^2 (our own derivation)",
+        note: "Potential -(M/r)(1 + r²/(2λ_g²)) up to a constant: ω² = (M/r³)(1 - x/2), x = r²/λ_g²; then M/r = v² (1 + x/6), E = -(1/2) μ v² [1 + (5/3) x] and the quadrupole flux (32/5) η² v¹⁰ [1 - (2/3) x], x = M² v⁻⁴/λ_g² (our own derivation)",
       },
-      validity: [ruleOfThumb("M*(pi*M*f_low)^(-2/3)/lambda_g", "orbit well inside the Yukawa range: r/lambda_g small at the band's low end, r = M (pi M f_low)^(-2/3)")],
+      validity: [ruleOfThumb("M*(pi*M*f_low)^(-2/3)/lambda_g", "orbit well inside the Yukawa range: r/λ_g small at the band's low end, r = M (π M f_low)^(-2/3)")],
       source_status: "derived",
       references: [WAVE2_REFS.deRham2017.key, FIRST.will1998.key],
       notes:

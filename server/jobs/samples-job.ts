@@ -1,3 +1,4 @@
+import { symbolText } from "../../common/symbol-text.ts";
 import { createGzip } from "node:zlib";
 import { performance } from "node:perf_hooks";
 import type { SamplesJobRequest, SamplesJobResult } from "../../common/jobs.ts";
@@ -109,7 +110,7 @@ export async function runSamplesJob(input: SamplesJobInput): Promise<SamplesJobO
     samples: { read: pipeline.samples.read, used: pipeline.samples.used, dropped: pipeline.samples.dropped, dropped_reasons: pipeline.samples.dropped_reasons },
     effective_sample_size: pipeline.effective_sample_size,
     histogram: pipeline.histogram,
-    cautions: resultCautions(pipeline, request, target, quoted.symbol),
+    cautions: resultCautions(pipeline, request, target, symbolText(quoted.symbol, quoted.latex)),
     file,
     columns: Object.fromEntries(roles.map((r) => [r, request.columns[r]!])),
     table: request.table ?? null,
@@ -127,8 +128,8 @@ function resultCautions(p: PipelineResult, request: SamplesJobRequest, target: R
   const out: Caution[] = [];
   const priorText =
     request.prior.kind === "as_translated"
-      ? `Prior "as translated": the analysis prior (uniform in ${request.parameter === "ppe_beta" ? "beta" : "dphi"} over [${p.analysis_range.map((v) => v.toPrecision(3)).join(", ")}]) carried through the change of variables; it is not flat in ${symbol}.`
-      : `Prior ${request.prior.kind === "uniform" ? "uniform" : "log-uniform"} in the coupling${request.prior.range ? ` over [${request.prior.range.join(", ")}]` : ""}: the samples were reweighted from the analysis prior (uniform in ${request.parameter === "ppe_beta" ? "beta" : "dphi"} over [${p.analysis_range.map((v) => v.toPrecision(3)).join(", ")}]).`;
+      ? `Prior "as translated": the analysis prior (uniform in ${request.parameter === "ppe_beta" ? "β" : "δφ"} over [${p.analysis_range.map((v) => v.toPrecision(3)).join(", ")}]) carried through the change of variables; it is not flat in ${symbol}.`
+      : `Prior ${request.prior.kind === "uniform" ? "uniform" : "log-uniform"} in the coupling${request.prior.range ? ` over [${request.prior.range.join(", ")}]` : ""}: the samples were reweighted from the analysis prior (uniform in ${request.parameter === "ppe_beta" ? "β" : "δφ"} over [${p.analysis_range.map((v) => v.toPrecision(3)).join(", ")}]).`;
   out.push({ code: "prior", message: priorText });
   if (p.effective_sample_size < ESS_WARNING) {
     out.push({ code: "prior", message: `The effective sample size is ${p.effective_sample_size.toFixed(0)} (below ${ESS_WARNING}): the reweighted bound rests on few samples and may be noisy.` });

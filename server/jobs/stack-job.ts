@@ -1,3 +1,4 @@
+import { symbolText } from "../../common/symbol-text.ts";
 import type { Caution } from "../../common/convert.ts";
 import { DEFAULT_COSMOLOGY } from "../../common/convert.ts";
 import type { SamplesJobResult, StackJobRequest, StackJobResult } from "../../common/jobs.ts";
@@ -76,7 +77,7 @@ export async function runStackJob(input: { request: StackJobRequest; catalogue: 
       const got = await input.load(e.job);
       if (!got) throw new SampleInputError(`events.${i}.job: job ${e.job} is no longer available.`);
       const result = got.result;
-      if (result.coupling.symbol !== mapping.coupling.quoted.symbol) throw new SampleInputError(`events.${i}.job: that job translated ${result.coupling.symbol}, this stack ${mapping.coupling.quoted.symbol}.`);
+      if (result.coupling.symbol !== mapping.coupling.quoted.symbol) throw new SampleInputError(`events.${i}.job: that job translated ${symbolText(result.coupling.symbol, result.coupling.latex)}, this stack ${symbolText(mapping.coupling.quoted.symbol, mapping.coupling.quoted.latex)}.`);
       if (result.power === null) throw new SampleInputError(`events.${i}.job: that job's mapping is not a power law in the coupling (its samples were inverted one by one); stacking needs a power law.`);
       power = result.power;
       loaded.push({ label: e.label, kind: "samples", values: got.values, result });

@@ -6,6 +6,7 @@
  * The input type is structural (the shape of seeds/data/theory-entry.ts and of the database
  * rows), so the server does not import seed data.
  */
+import { thresholdText } from "../../common/number-text.ts";
 import type { BodyKind } from "./binary.ts";
 import type { CouplingSpec, Env, MappingChannel, MappingSpec, ValidityCondition } from "./convert.ts";
 import { compileExpression } from "./expr/compile.ts";
@@ -199,7 +200,8 @@ export function compileMapping(entry: CatalogueTheory, index: number): CompiledM
     const bound = bindFn(c.fn);
     return {
       label: v.label,
-      condition: `${v.expression} <= ${v.max}`,
+      // The engine expression with its threshold as people write it (1/6, not 0.16666666666666666).
+      condition: `${v.expression} <= ${thresholdText(v.max)}`,
       evaluate: (x: number, env: Env) => bound(env)(x),
       max: v.max,
       kind: v.kind ?? "rule_of_thumb",

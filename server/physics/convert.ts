@@ -8,6 +8,7 @@
  * closed form, x_lim = (beta_max / |F(1)|)^(1/p); otherwise find the root of |F(x)| = beta_max on
  * a log scale; finally evaluate the mapping's validity conditions at the limit.
  */
+import { conditionText, symbolText } from "../../common/symbol-text.ts";
 import { binarySymbols, makeBinary, type Binary, type BinaryInput } from "./binary.ts";
 import type {
   BoundInput,
@@ -205,7 +206,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   }
   const dev = resolved.symbol;
   // The deviation in plain text for the sentences below.
-  const word = resolved.channel === "phase" ? "beta" : "alpha";
+  const word = resolved.channel === "phase" ? "β" : "α";
   const sym = resolved.channel === "phase" ? "β" : "α";
   const warnings: string[] = [];
   const cautions: string[] = [...resolved.cautions, ...(mapping.cautions ?? [])];
@@ -223,7 +224,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
   const env = context.envFor(mapping);
   for (const s of mapping.requires ?? []) {
     if (env[s] === undefined) {
-      throw new PhysicsInputError(fieldOfSymbol(s), `this mapping needs ${s}, which the binary does not provide`);
+      throw new PhysicsInputError(fieldOfSymbol(s), `this mapping needs ${conditionText(s)}, which the binary does not provide`);
     }
   }
   if (mapping.derivedFor) {
@@ -401,7 +402,7 @@ export function convertInContext(bound: BoundInput, context: ConversionContext, 
     side = root.side;
     if (!root.monotonic) {
       warnings.push(
-        `|beta| is not monotonic in ${mapping.coupling.symbol}: the limit is the edge of the allowed region that contains GR; further allowed intervals may exist`,
+        `|β| is not monotonic in ${symbolText(mapping.coupling.symbol, mapping.coupling.latex)}: the limit is the edge of the allowed region that contains GR; further allowed intervals may exist`,
       );
     }
   }

@@ -8,6 +8,7 @@
  * graviton phase (Will 1998, Phys. Rev. D 57, 2061); the general alpha_md form is that of
  * Mirshekari, Yunes & Will 2012 (Phys. Rev. D 85, 024041). With c restored, 1/H0 -> c/H0.
  */
+import { DEFAULT_COSMOLOGY } from "../../common/convert.ts";
 import { PhysicsInputError, requireFinite } from "./input-error.ts";
 import { SPEED_OF_LIGHT_KM_S, mpcToKm } from "./units.ts";
 
@@ -24,7 +25,8 @@ export interface Cosmology {
  * Table 2. Every stored bound keeps the cosmology it was converted with, so a later correction
  * here does not silently change old results.
  */
-export const PLANCK_2018: Cosmology = Object.freeze({ H0: 67.66, Omega_m: 0.3111 });
+// One source for the default: the API schema (common/convert.ts) and the translate form use the same numbers.
+export const PLANCK_2018: Cosmology = Object.freeze({ H0: DEFAULT_COSMOLOGY.H0, Omega_m: DEFAULT_COSMOLOGY.Omega_m });
 
 export function validateCosmology(cosmology: Cosmology): Cosmology {
   const H0 = requireFinite("cosmology.H0", cosmology.H0);

@@ -261,7 +261,7 @@ describe("POST /api/v1/convert: the bound model", () => {
     expect(rel(eps3.signed_interval!.upper!, 0.01 / K)).toBeLessThan(1e-9);
     expect(rel(alpha13.signed_interval!.lower!, -0.01 / (2 * K))).toBeLessThan(1e-9);
     expect(rel(alpha13.signed_interval!.upper!, 0.02 / (2 * K))).toBeLessThan(1e-9);
-    expect(eps3.cautions.some((c) => c.code === "couplings" && /alpha13 = 0/.test(c.message))).toBe(true);
+    expect(eps3.cautions.some((c) => c.code === "couplings" && /α₁₃ = 0/.test(c.message))).toBe(true);
 
     const rs = await convert({ bound: { parameter: "ppe_beta", b: -13, upper: 1e-6, credibility: 0.9 }, binary: { m1: 20, m2: 12, frame: "source" }, theories: ["extra-dimension"] });
     const byCoupling = new Map(rows(rs, "extra-dimension").map((x) => [x.coupling_symbol, x]));

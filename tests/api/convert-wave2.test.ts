@@ -77,7 +77,7 @@ describe("POST /api/v1/convert with the second batch of entries", () => {
     expect(res.canonical.symbol).toBe("xi_ms");
     expect(rel(res.canonical.value, 1e-2 / perXi)).toBeLessThan(1e-9);
     expect(r.results.filter((x) => x.theory === "massive-scalar-tensor").map((x) => x.b)).toEqual([-13]);
-    expect(JSON.stringify(res)).toMatch(/cannot check from xi alone/);
+    expect(JSON.stringify(res)).toMatch(/cannot check from ξ alone/);
   });
 
   it("when a -2PN bound is given, then the massive dark photon's Yukawa coupling y gets a signed interval, and equal charges do not hide it", async () => {

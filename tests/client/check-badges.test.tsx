@@ -61,7 +61,7 @@ describe("<CheckBadge> and <CheckList>", () => {
     ]);
     const dimension = container.querySelector('[data-check="dimension"]');
     expect(dimension?.textContent).toContain("Dimension");
-    expect(dimension?.textContent).toContain("beta must be dimensionless");
+    expect(dimension?.textContent).toContain("β must be dimensionless");
     expect(dimension?.textContent).toContain("failed");
   });
 

@@ -14,6 +14,7 @@ describe("symbols and conditions as a physicist writes them (common/symbol-text.
     expect(latexText("\\omega_{BD}")).toBe("ω_BD");
     expect(latexText("\\Lambda^2")).toBe("Λ²");
     expect(latexText("\\frac{1}{\\omega_{BD}}")).toBe("1/ω_BD");
+    expect(latexText("\\alpha_{13}")).toBe("α₁₃");
   });
 
   it("when only the stored identifier is at hand, then it still reads as the symbol", () => {

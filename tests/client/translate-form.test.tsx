@@ -4,6 +4,8 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import type { ConvertRequest } from "../../common/convert.ts";
 import { BoundForm } from "../../client/features/translate/components/bound-form.tsx";
 import { ApiError } from "../../client/lib/api-client.ts";
+import { formInitial, readRequestParam, requestParam } from "../../client/features/translate/lib/request-url.ts";
+import { PLANCK_2018 } from "../../server/physics/cosmology.ts";
 
 afterEach(cleanup);
 
@@ -130,5 +132,30 @@ describe("<BoundForm>", () => {
     submit();
     await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
     expect(onSubmit.mock.calls[0]![0].bound).toEqual({ parameter: "distance_ratio", interval: [0.8, 1.3], z: 0.3, credibility: 0.9, f_low: 20 });
+  });
+});
+
+describe("the translate page's address and the default cosmology", () => {
+  const withoutCosmology: ConvertRequest = {
+    bound: { parameter: "ppe_beta", b: -7, upper: 1e-3, credibility: 0.9, sign_convention: "plus", f_low: 20 },
+    binary: { m1: 10, m2: 5, chi1: 0, chi2: 0, bodies: ["bh", "bh"], frame: "source" },
+  };
+
+  it("when a link carries no cosmology, then the form shows the server's default (Planck 2018, as the API assumes) instead of empty fields", () => {
+    const read = readRequestParam(JSON.stringify(withoutCosmology));
+    expect(read.kind).toBe("ok");
+    if (read.kind !== "ok") return;
+    expect(read.request.cosmology).toBeUndefined();
+    render(<BoundForm onSubmit={vi.fn()} initial={formInitial(read.request)} />);
+    // The server's default: server/physics/cosmology.ts takes it from common/convert.ts.
+    expect(field("H₀ (km/s/Mpc)").value).toBe(String(PLANCK_2018.H0));
+    expect(field("Ωₘ (flat)").value).toBe(String(PLANCK_2018.Omega_m));
+  });
+
+  it("when the cosmology is the default, then the address leaves it out; another cosmology stays in", () => {
+    expect(JSON.parse(requestParam({ ...withoutCosmology, cosmology: { H0: 67.66, Omega_m: 0.3111 } }))).toEqual(withoutCosmology);
+    expect(JSON.parse(requestParam({ ...withoutCosmology, cosmology: { H0: 70, Omega_m: 0.3111 } })).cosmology).toEqual({ H0: 70, Omega_m: 0.3111 });
+    const other = readRequestParam(requestParam({ ...withoutCosmology, cosmology: { H0: 70, Omega_m: 0.3 } }));
+    expect(other.kind === "ok" && formInitial(other.request).cosmology).toEqual({ H0: 70, Omega_m: 0.3 });
   });
 });

@@ -1,3 +1,4 @@
+import { conditionText } from "../../../common/symbol-text.ts";
 import { Badge, type Tone } from "./badge.tsx";
 
 /** The engine's verdict on one expression, as the API reports it. */
@@ -73,7 +74,7 @@ export function CheckList({ checks, onlyProblems = false, testId }: ListProps) {
           <li key={`${c.name}-${i}`} className="flex items-baseline gap-2" data-check={c.name} data-outcome={outcome}>
             <CheckBadge outcome={outcome} />
             <span className="font-semibold">{checkLabel(c.name)}</span>
-            <span className="text-ink-soft">{c.message}</span>
+            <span className="text-ink-soft">{conditionText(c.message)}</span>
           </li>
         );
       })}

@@ -93,7 +93,7 @@ export function buildResult({ theory, ready, result, bound, requestedConvention,
 
   const cautions: Caution[] = [...validityCautions(result)];
   cautions.push(channel === "phase" ? leadingPnCaution(ready.notes.pnOrder) : amplitudeMappingCaution(channel, ready.notes.pnOrder));
-  cautions.push(priorCaution(coupling.symbol));
+  cautions.push(priorCaution(coupling.symbol, coupling.latex));
   const oneSigned = oneSignedCaution(result, bound);
   if (oneSigned) {
     cautions.push(oneSigned);

@@ -1,3 +1,4 @@
+import { conditionText } from "../../../common/symbol-text.ts";
 import type { BibliographyEntry } from "../../../common/convert.ts";
 import type { StoredReference, TheoryDetail } from "../../../common/catalogue.ts";
 import type { Knex } from "../../db/knex.ts";
@@ -72,7 +73,8 @@ export function acceptedTheoryOf(detail: TheoryDetail): AcceptedTheory {
       validity: m.validity.map((v) => ({
         expression: v.expression,
         max: v.max,
-        label: v.label,
+        // Conditions stored in ASCII (entries published before labels were typeset) read as mathematics.
+        label: conditionText(v.label),
         kind: v.kind,
         ...(v.reference ? { reference: keyOf(v.reference) } : v.reference_note ? { reference: v.reference_note } : {}),
         ...(v.body === null ? {} : { body: v.body }),
@@ -80,7 +82,7 @@ export function acceptedTheoryOf(detail: TheoryDetail): AcceptedTheory {
       })),
       body_rules: m.body_rules.map((r) => ({ kind: r.kind, description: r.description, ...(r.bodies ? { bodies: r.bodies } : {}) })),
       source_status: m.source_status,
-      ...(m.caution ? { caution: m.caution } : {}),
+      ...(m.caution ? { caution: conditionText(m.caution) } : {}),
     })),
   };
   const references = new Map<string, BibliographyEntry>();

@@ -1,4 +1,6 @@
 import { RULE_OF_THUMB_STRETCH, type AmplitudeBoundRequest, type Caution, type CautionCode, type ConvertBoundRequest } from "../../../common/convert.ts";
+import { sciText, thresholdText, unitText } from "../../../common/number-text.ts";
+import { symbolText } from "../../../common/symbol-text.ts";
 import type { BoundedResult } from "../../physics/convert.ts";
 
 /**
@@ -7,7 +9,8 @@ import type { BoundedResult } from "../../physics/convert.ts";
  * conventions, spin terms of gIMR coefficients and log terms.
  */
 
-const fmt = (x: number) => (Number.isFinite(x) ? Number(x.toPrecision(3)).toString() : String(x));
+/** Three figures, in scientific notation as papers print it when large or small (3.26 × 10¹⁶, not 32600000000000000). */
+const fmt = (x: number) => (Number.isFinite(x) ? sciText(x, 3) : String(x));
 
 export function validityCautions(result: Pick<BoundedResult, "validity">): Caution[] {
   return result.validity
@@ -16,10 +19,10 @@ export function validityCautions(result: Pick<BoundedResult, "validity">): Cauti
       code: "validity" as const,
       message:
         v.status === "stretched"
-          ? `Stretched approximation at this limit: the rule of thumb “${v.label}” is exceeded ${fmt(v.factor)} times (${fmt(v.value)} > ${fmt(v.max)}), by no more than ${RULE_OF_THUMB_STRETCH} times, so the limit is kept as valid but the expansion is pushed.`
+          ? `Stretched approximation at this limit: the rule of thumb “${v.label}” is exceeded ${fmt(v.factor)} times (${fmt(v.value)} > ${thresholdText(v.max)}), by no more than ${RULE_OF_THUMB_STRETCH} times, so the limit is kept as valid but the expansion is pushed.`
           : v.kind === "hard"
-            ? `Outside validity at this limit: “${v.label}” fails ${Number.isFinite(v.factor) ? `by a factor ${fmt(v.factor)} ` : ""}(${fmt(v.value)} > ${fmt(v.max)}), so the expansion behind the mapping does not hold there.`
-            : `Outside validity at this limit: the rule of thumb “${v.label}” fails ${Number.isFinite(v.factor) ? `by a factor ${fmt(v.factor)} ` : ""}(${fmt(v.value)} > ${fmt(v.max)}), more than ${RULE_OF_THUMB_STRETCH} times its threshold.`,
+            ? `Outside validity at this limit: “${v.label}” fails ${Number.isFinite(v.factor) ? `by a factor ${fmt(v.factor)} ` : ""}(${fmt(v.value)} > ${thresholdText(v.max)}), so the expansion behind the mapping does not hold there.`
+            : `Outside validity at this limit: the rule of thumb “${v.label}” fails ${Number.isFinite(v.factor) ? `by a factor ${fmt(v.factor)} ` : ""}(${fmt(v.value)} > ${thresholdText(v.max)}), more than ${RULE_OF_THUMB_STRETCH} times its threshold.`,
     }));
 }
 
@@ -39,7 +42,7 @@ export function amplitudeMappingCaution(channel: "amplitude" | "distance_ratio",
   if (channel === "distance_ratio") {
     return {
       code: "amplitude",
-      message: "Distance ratio: the limit treats d_L^GW / d_L^EM as the amplitude correction at a = 0 (alpha = d_L^EM / d_L^GW − 1, derived); the theory's other effects on the waveform and on the background expansion are left out, and the ratio carries the uncertainty of the electromagnetic distance.",
+      message: "Distance ratio: the limit treats d_L^GW/d_L^EM as the amplitude correction at a = 0 (α = d_L^EM/d_L^GW − 1, derived); the theory's other effects on the waveform and on the background expansion are left out, and the ratio carries the uncertainty of the electromagnetic distance.",
     };
   }
   const order = pnOrder === null ? "" : ` at ${pnOrder}PN relative order`;
@@ -55,7 +58,7 @@ export function amplitudeBoundCautions(bound: AmplitudeBoundRequest): Caution[] 
     return [
       {
         code: "amplitude",
-        message: `The ratio d_L^GW / d_L^EM at z = ${bound.z} was translated as the amplitude correction at a = 0, alpha = 1/r − 1 (derived): the interval on r becomes one on alpha with its ends swapped.`,
+        message: `The ratio d_L^GW/d_L^EM at z = ${bound.z} was translated as the amplitude correction at a = 0, α = 1/r − 1 (derived): the interval on r becomes one on α with its ends swapped.`,
       },
     ];
   }
@@ -63,17 +66,18 @@ export function amplitudeBoundCautions(bound: AmplitudeBoundRequest): Caution[] 
     return [
       {
         code: "amplitude",
-        message: "An amplitude correction at a = 0 is a constant factor, fully degenerate with the luminosity distance: it is measurable only with an independent (electromagnetic) distance, which is the distance_ratio bound.",
+        message: "An amplitude correction at a = 0 is a constant factor, fully degenerate with the luminosity distance: it is measurable only with an independent (electromagnetic) distance, which is the distance-ratio bound (distance_ratio in the API).",
       },
     ];
   }
   return [];
 }
 
-export function priorCaution(symbol: string): Caution {
+/** The coupling by its symbol as people write it (√α), from its LaTeX when given, else from its identifier. */
+export function priorCaution(symbol: string, latex?: string | null): Caution {
   return {
     code: "prior",
-    message: `A flat prior on the deviation is not flat in ${symbol}: translating posterior samples one by one is better than translating this summary bound.`,
+    message: `A flat prior on the deviation is not flat in ${symbolText(symbol, latex)}: translating posterior samples one by one is better than translating this summary bound.`,
   };
 }
 
@@ -89,7 +93,7 @@ export function oneSignedCaution(result: BoundedResult, bound: ConvertBoundReque
     const [lo, hi] = bound.interval;
     return {
       code: "one_signed",
-      message: `For this source the theory gives d_L^GW / d_L^EM ${below ? "< 1" : "> 1"} at every value of its coupling, so only the ${below ? "lower" : "upper"} end of the ratio's interval (${below ? lo : hi}) constrains it; the other end says nothing about this theory.`,
+      message: `For this source the theory gives d_L^GW/d_L^EM ${below ? "< 1" : "> 1"} at every value of its coupling, so only the ${below ? "lower" : "upper"} end of the ratio's interval (${below ? lo : hi}) constrains it; the other end says nothing about this theory.`,
     };
   }
   const dev = bound.parameter === "ppe_alpha" ? "α" : "β";
@@ -111,7 +115,8 @@ export function signedIntervalCaution(result: BoundedResult): Caution | undefine
   const s = result.signed_interval;
   if (!s) return undefined;
   const end = (x: number | null, inf: string) => (x === null ? inf : fmt(x));
-  const interval = `${s.symbol} ∈ [${end(s.lower, "−∞")}, ${end(s.upper, "+∞")}]${s.unit && s.unit !== "1" ? ` ${s.unit}` : ""}`;
+  const unit = unitText(s.unit);
+  const interval = `${symbolText(s.symbol, s.latex)} ∈ [${end(s.lower, "−∞")}, ${end(s.upper, "+∞")}]${unit ? ` ${unit}` : ""}`;
   return {
     code: "signed_interval",
     message: result.signed_headline

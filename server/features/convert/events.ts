@@ -1,4 +1,5 @@
 import type { EventsRequest, EventsResponse } from "../../../common/convert-samples.ts";
+import { symbolText } from "../../../common/symbol-text.ts";
 import type { Caution, ConvertBoundRequest, ConvertResult } from "../../../common/convert.ts";
 import { ValidationError } from "../../errors.ts";
 import { detectPowerLaw, solveMagnitude } from "../../physics/invert.ts";
@@ -110,7 +111,7 @@ export function convertEvents(catalogue: CompiledCatalogue, request: EventsReque
     const answer = translateBound(catalogue, prepared, eventBound(request, event), { theories: [target.theory.theory.slug] });
     const result: ConvertResult | undefined = answer.results.find((r) => r.coupling_symbol === symbol);
     if (!result) {
-      const na = answer.not_applicable.find((n) => n.reason.startsWith(`${symbol}:`)) ?? answer.not_applicable[0];
+      const na = answer.not_applicable.find((n) => n.reason.startsWith(`${symbolText(symbol, mapping.coupling.latex)}:`)) ?? answer.not_applicable[0];
       rows.push({ label: event.label, limit: null, valid: null, verdict: null, combined: false, beta_max: answer.bound.beta_max, prefactor: null, reason: na?.reason ?? "no limit for this event" });
       return;
     }

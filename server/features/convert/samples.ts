@@ -1,3 +1,4 @@
+import { symbolText } from "../../../common/symbol-text.ts";
 import { HISTOGRAM_BINS, type SampleColumn, type SamplesRequest, type SamplesResponse } from "../../../common/convert-samples.ts";
 import { DEFAULT_COSMOLOGY, type Caution } from "../../../common/convert.ts";
 import { ValidationError } from "../../errors.ts";
@@ -177,7 +178,7 @@ export async function convertSamples(catalogue: CompiledCatalogue, request: Samp
     evaluated: evaluated[j]!,
   }));
   const cautions: Caution[] = [
-    { code: "prior", message: `A flat prior on beta is not flat in ${quoted.symbol}: these samples are not reweighted for the prior.` },
+    { code: "prior", message: `A flat prior on β is not flat in ${symbolText(quoted.symbol, quoted.latex)}: these samples are not reweighted for the prior.` },
   ];
   for (const f of fractions) {
     if (f.fraction_ok < 1) {

@@ -13,6 +13,7 @@ import {
   type CosmologyRequest,
   type NotApplicable,
 } from "../../../common/convert.ts";
+import { symbolText } from "../../../common/symbol-text.ts";
 import { ValidationError } from "../../errors.ts";
 import { makeBinary, type Binary } from "../../physics/binary.ts";
 import { convertInContext, createConversionContext, type BoundInput, type ConversionContext } from "../../physics/convert.ts";
@@ -234,22 +235,24 @@ function translateTheory(t: CompiledTheory, summary: BoundSummary, boundInput: B
   const couplingsHere = [...new Set(ready.map((m) => m.compiled.coupling.symbol))];
   return ready.map((m) => {
     const symbol = m.compiled.coupling.symbol;
+    // People read the symbol (√α, ω_BD); the identifier stays for lookups.
+    const shown = (id: string) => symbolText(id, pool.find((o) => o.compiled.coupling.symbol === id)?.compiled.coupling.latex);
     const extra: Caution[] = [];
     if (couplingsHere.length > 1) {
       const others = couplingsHere.filter((c) => c !== symbol);
       const held = m.compiled.heldFixed && Object.keys(m.compiled.heldFixed).length > 0
-        ? ` (held at ${Object.entries(m.compiled.heldFixed).map(([k, v]) => `${k} = ${v}`).join(", ")})`
+        ? ` (held at ${Object.entries(m.compiled.heldFixed).map(([k, v]) => `${shown(k)} = ${v}`).join(", ")})`
         : "";
       extra.push({
         code: "couplings",
-        message: `${t.theory.name} has ${couplingsHere.length} couplings entering at ${letter} = ${fmtB(b)}; each is translated on its own with the others at their GR value${held}. This row bounds ${symbol}; ${others.join(", ")} ${others.length === 1 ? "has its own row" : "have their own rows"}.`,
+        message: `${t.theory.name} has ${couplingsHere.length} couplings entering at ${letter} = ${fmtB(b)}; each is translated on its own with the others at their GR value${held}. This row bounds ${shown(symbol)}; ${others.map(shown).join(", ")} ${others.length === 1 ? "has its own row" : "have their own rows"}.`,
       });
     }
     const otherOrders = pool.filter((o) => o.compiled.coupling.symbol === symbol && !sameB(o.compiled.b, b)).map((o) => fmtB(o.compiled.b));
     if (otherOrders.length > 0) {
       extra.push({
         code: "orders",
-        message: `This entry also maps ${symbol} at ${letter} = ${[...new Set(otherOrders)].join(", ")}; a bound at ${letter} = ${fmtB(b)} constrains only the term at that ${letter}, so those orders are left out.`,
+        message: `This entry also maps ${shown(symbol)} at ${letter} = ${[...new Set(otherOrders)].join(", ")}; a bound at ${letter} = ${fmtB(b)} constrains only the term at that ${letter}, so those orders are left out.`,
       });
     }
     let result;
@@ -263,7 +266,7 @@ function translateTheory(t: CompiledTheory, summary: BoundSummary, boundInput: B
       return notApplicable(t, "evaluation_failed", `the mapping could not be evaluated for this binary: ${err instanceof Error ? err.message : String(err)}`);
     }
     if (result.status === "no_constraint") {
-      const reason = couplingsHere.length > 1 ? `${symbol}: ${result.reason}` : result.reason;
+      const reason = couplingsHere.length > 1 ? `${shown(symbol)}: ${result.reason}` : result.reason;
       return notApplicable(t, result.code, reason);
     }
     const distance = m.compiled.distance;

@@ -22,7 +22,7 @@ import {
 } from "./amplitude.ts";
 import { builtInCurve, tabulatedPsd, type CurveConvention, type NoiseCurve } from "./curves.ts";
 import { invertFisher, type InversionStatus } from "./linalg.ts";
-import { BETA_INDEX, N_PARAMS, PARAMETER_NAMES, PHI_C_INDEX, T_C_INDEX, phaseDerivatives, phaseModel, type PhaseModel } from "./phase.ts";
+import { BETA_INDEX, N_PARAMS, PARAMETER_NAMES, PARAMETER_TEXT, PHI_C_INDEX, T_C_INDEX, phaseDerivatives, phaseModel, type PhaseModel } from "./phase.ts";
 import { boundMultiplier } from "./stats.ts";
 
 export interface ForecastSourceInput {
@@ -400,8 +400,10 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
       const k = split.indexOf(p);
       return j === 0 || k < 0 ? p : N_PARAMS + (j - 1) * split.length + k;
     };
-    const netNames: string[] = [...names];
-    for (let j = 1; j < net.length; j++) for (const p of split) netNames.push(`${names[p]!}[${bands[net[j]!]!.label}]`);
+    // Notes name the parameters as people write them (ln ℳ, φ_c), not by their API identifiers.
+    const shownNames = names.map((n) => PARAMETER_TEXT[n]);
+    const netNames: string[] = [...shownNames];
+    for (let j = 1; j < net.length; j++) for (const p of split) netNames.push(`${shownNames[p]!} (${bands[net[j]!]!.label})`);
     const rows = input.b.map((b, bi): ForecastRow => {
       const gamma = Array.from({ length: size }, () => new Array<number>(size).fill(0));
       net.forEach((d, j) => {
@@ -424,7 +426,7 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
       }
       const sigma = Math.sqrt(inv.covariance[BETA_INDEX]![BETA_INDEX]!);
       if (!Number.isFinite(sigma) || !(sigma > 0)) {
-        return { b, sigma_beta: null, bound: null, condition_number: condition, status: "no_constraint", note: "the marginalised variance of beta is not positive" };
+        return { b, sigma_beta: null, bound: null, condition_number: condition, status: "no_constraint", note: "the marginalised variance of β is not positive" };
       }
       const row: ForecastRow = { b, sigma_beta: sigma, bound: multiplier * sigma, condition_number: condition, status: inv.status };
       return inv.reason ? { ...row, note: inv.reason } : row;
@@ -435,13 +437,13 @@ export function runForecast(input: ForecastInput, customCurves: CustomCurveData[
   const cautions = [
     "Fisher-matrix estimate: valid only at high SNR and away from parameter boundaries (Vallisneri 2008, Phys. Rev. D 77, 042001)",
     `restricted TaylorF2 inspiral (3.5PN, aligned spins), sky-averaged unless stated; upper cut ${upperCut === "isco" ? `at the ISCO of the detector-frame total mass (${formatHz(fIsco)})` : `extrapolated to the PhenomA merger frequency (${formatHz(fTop)}), past the ISCO (${formatHz(fIsco)})`}`,
-    `Gaussian priors: ${(["phi_c", "chi_s", "chi_a"] as const).map((k) => `${k} ${priors[k] === null ? "none" : `sigma = ${Number(priors[k]!.toPrecision(4))}`}`).join(", ")}`,
+    `Gaussian priors: ${(["phi_c", "chi_s", "chi_a"] as const).map((k) => `${PARAMETER_TEXT[k]} ${priors[k] === null ? "none" : `σ = ${Number(priors[k]!.toPrecision(4))}`}`).join(", ")}`,
   ];
   for (const band of bands) if (band.to_confirm) cautions.push(`${band.label}: ${band.to_confirm}`);
   if (coalescence !== "shared") {
-    cautions.push(`networks of several detectors give each detector its own ${coalescence === "phi_c_per_detector" ? "coalescence phase phi_c" : "coalescence phase phi_c and time t_c"} (the prior on phi_c applies to the first detector's phase only; the others are free)`);
+    cautions.push(`networks of several detectors give each detector its own ${coalescence === "phi_c_per_detector" ? "coalescence phase φ_c" : "coalescence phase φ_c and time t_c"} (the prior on φ_c applies to the first detector's phase only; the others are free)`);
   }
-  if (model.massParameter === "delta") cautions.push("near-equal masses: the mass ratio enters the Fisher matrix as delta = (m1 - m2)/M instead of ln eta");
+  if (model.massParameter === "delta") cautions.push("near-equal masses: the mass ratio enters the Fisher matrix as δ = (m₁ − m₂)/M instead of ln η");
   if (givenD !== undefined && givenZ !== undefined) cautions.push("distance and redshift were both given: they are used as given, not related through the cosmology");
 
   const result: ForecastResult = {

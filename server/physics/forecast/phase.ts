@@ -14,6 +14,19 @@ import { phaseCoefficients, type MassRatioParameter, type SpinFiducial } from ".
 /** Parameter order of every Fisher matrix here (the mass-ratio entry is ln_eta or delta). */
 export const PARAMETER_NAMES = ["ln_A", "phi_c", "t_c", "ln_Mc", "ln_eta", "chi_s", "chi_a", "beta"] as const;
 export type ParameterName = (typeof PARAMETER_NAMES)[number] | "delta";
+
+/** The parameters as a physicist names them in notes and cautions (the identifiers above stay in the API). */
+export const PARAMETER_TEXT: Readonly<Record<ParameterName, string>> = {
+  ln_A: "ln A",
+  phi_c: "φ_c",
+  t_c: "t_c",
+  ln_Mc: "ln ℳ",
+  ln_eta: "ln η",
+  chi_s: "χ_s",
+  chi_a: "χ_a",
+  beta: "β",
+  delta: "δ",
+};
 export const N_PARAMS = 8;
 export const BETA_INDEX = 7;
 export const PHI_C_INDEX = 1;

@@ -47,7 +47,7 @@ export function CatalogueFilters({ filters, rawText, bValues, pnValues, onChange
           type="search"
           value={text}
           onChange={(e) => setText(e.target.value)}
-          placeholder="name, coupling (α, lambda_g, Gdot)…"
+          placeholder="name or coupling (α, λ_g, Ġ)…"
           className={`${selectClass} w-full`}
         />
       </div>

@@ -1,4 +1,5 @@
 import { useId, useState } from "react";
+import { conditionText } from "../../../../common/symbol-text.ts";
 import type { TheoryDetail } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
@@ -34,7 +35,15 @@ function CouplingCard({ coupling }: { coupling: StoredCoupling }) {
         )}
       </header>
       {coupling.retired && <RetiredNote retired={coupling.retired} what="This coupling" />}
-      {coupling.description && <p className="mt-1 text-[0.95rem]">{coupling.description}</p>}
+      {coupling.description && <p className="mt-1 text-[0.95rem]">{conditionText(coupling.description)}</p>}
+      <p className="mt-1 text-xs text-ink-faint" data-machine>
+        API name <code>{coupling.symbol}</code>
+        {coupling.quoted && coupling.quoted.symbol !== coupling.symbol && (
+          <>
+            ; limits as <code>{coupling.quoted.symbol}</code>
+          </>
+        )}
+      </p>
       {coupling.conventions.length > 0 && (
         <div className="mt-3 border-t border-paper-edge pt-3">
           <div className="flex flex-wrap items-center gap-3">
@@ -61,7 +70,7 @@ function CouplingCard({ coupling }: { coupling: StoredCoupling }) {
                 </p>
               )}
               {convention.action_latex && <MathTex display tex={convention.action_latex} />}
-              {convention.note && <p className="text-sm text-ink-soft">{convention.note}</p>}
+              {convention.note && <p className="text-sm text-ink-soft">{conditionText(convention.note)}</p>}
               <p className="text-sm text-ink-soft">
                 {convention.reference ? (
                   <>

@@ -1,4 +1,5 @@
 import type { TheoryDetail } from "../../../../common/catalogue.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { CheckBadge, CheckList, worstOutcome } from "../../../components/ui/check-list.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
@@ -8,6 +9,25 @@ import { authorList, equationTex, pnLabel, signed } from "./format.ts";
 import { SourceStatusBadge } from "./source-status.tsx";
 
 type StoredMapping = TheoryDetail["mappings"][number];
+type StoredCoupling = TheoryDetail["couplings"][number];
+
+/**
+ * A coupling as people name it: its symbol, the first clause of its description, and the identifier
+ * scripts use only as a small "API name" detail.
+ */
+function CouplingName({ id, couplings }: { id: string; couplings: StoredCoupling[] }) {
+  const c = couplings.find((x) => x.symbol === id);
+  const name = c?.description ? conditionText(c.description.split(";")[0]!.trim()) : null;
+  return (
+    <span>
+      <MathTex tex={c?.latex ?? id} label={symbolText(id, c?.latex)} />
+      {name && <span className="ml-2">{name}</span>}
+      <span className="ml-2 text-xs text-ink-faint" data-machine>
+        API name <code>{id}</code>
+      </span>
+    </span>
+  );
+}
 
 const kindLabel: Record<StoredMapping["kind"], string> = {
   inspiral_phase: "Inspiral phase (ppE β)",
@@ -35,7 +55,7 @@ function exponentTex(m: StoredMapping): string | undefined {
   return undefined;
 }
 
-function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
+function MappingCard({ m, index, couplings }: { m: StoredMapping; index: number; couplings: StoredCoupling[] }) {
   const all = [...m.checks, ...m.validity.flatMap((v) => v.checks)];
   const outcome = worstOutcome(all);
   const exponent = exponentTex(m);
@@ -55,14 +75,17 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
       <div className="my-3 overflow-x-auto rounded bg-paper px-3 py-2">
         <MathTex display tex={equationTex(lhsTex[m.kind], m.latex)} />
       </div>
-      <p className="text-xs text-ink-faint font-mono break-all">{m.expression}</p>
+      <p className="text-xs text-ink-faint break-all" data-machine>
+        <span className="font-serif">as the engine reads it: </span>
+        <span className="font-mono">{m.expression}</span>
+      </p>
       <dl className="mt-3 grid gap-x-6 gap-y-2 text-[0.95rem] sm:grid-cols-[10rem_1fr]">
         <dt className="font-semibold">Constrains</dt>
-        <dd className="font-mono text-sm">
-          {m.coupling}
+        <dd className="text-sm">
+          <CouplingName id={m.coupling} couplings={couplings} />
           {m.held_fixed && Object.keys(m.held_fixed).length > 0 && (
-            <span className="ml-2 text-ink-soft font-serif">
-              with {Object.entries(m.held_fixed).map(([k, v]) => `${k} = ${v}`).join(", ")} held fixed
+            <span className="block text-ink-soft">
+              with {Object.entries(m.held_fixed).map(([k, v]) => `${symbolText(k, couplings.find((c) => c.symbol === k)?.latex)} = ${v}`).join(", ")} held fixed
             </span>
           )}
         </dd>
@@ -73,13 +96,13 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
               {m.derivation.kind === "energy_flux" && (
                 <span>
                   energy and flux change at order <span className="tabular-nums">{signed(m.derivation.order)}</span>
-                  {m.derivation.A !== undefined && <span className="block font-mono">A = {m.derivation.A}</span>}
-                  {m.derivation.B !== undefined && <span className="block font-mono">B = {m.derivation.B}</span>}
+                  {m.derivation.A !== undefined && <span className="block font-mono" data-machine>A = {m.derivation.A}</span>}
+                  {m.derivation.B !== undefined && <span className="block font-mono" data-machine>B = {m.derivation.B}</span>}
                 </span>
               )}
-              {m.derivation.kind === "frequency_drift" && <span className="font-mono">γ = {m.derivation.gamma}</span>}
+              {m.derivation.kind === "frequency_drift" && <span className="font-mono" data-machine>γ = {m.derivation.gamma}</span>}
               {m.derivation.kind === "propagation" && <span>propagation over cosmological distance</span>}
-              {m.derivation.note && <span className="block text-ink-soft">{m.derivation.note}</span>}
+              {m.derivation.note && <span className="block text-ink-soft">{conditionText(m.derivation.note)}</span>}
             </dd>
           </>
         )}
@@ -87,14 +110,14 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
           <>
             <dt className="font-semibold">gIMR form</dt>
             <dd className="text-sm">
-              <MathTex tex={`\\delta\\varphi_{${m.gimr_equivalent.k}}`} /> = <span className="font-mono">{m.gimr_equivalent.expression}</span>
+              <MathTex tex={`\\delta\\varphi_{${m.gimr_equivalent.k}}`} /> = <span className="font-mono" data-machine>{m.gimr_equivalent.expression}</span>
             </dd>
           </>
         )}
         {m.frame_note && (
           <>
             <dt className="font-semibold">Frame</dt>
-            <dd className="text-sm">{m.frame_note}</dd>
+            <dd className="text-sm">{conditionText(m.frame_note)}</dd>
           </>
         )}
         {m.body_rules.length > 0 && (
@@ -103,7 +126,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
             <dd className="text-sm">
               <ul className="list-disc pl-5">
                 {m.body_rules.map((r, i) => (
-                  <li key={i}>{r.description}</li>
+                  <li key={i}>{conditionText(r.description)}</li>
                 ))}
               </ul>
             </dd>
@@ -114,7 +137,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
             <dt className="font-semibold">Sources</dt>
             <dd className="text-sm">
               {m.references.map((r) => `${authorList(r.authors, 2)} ${r.year}`).join("; ")}
-              {m.locator && <span className="text-ink-soft">, {m.locator}</span>}
+              {m.locator && <span className="text-ink-soft">, {conditionText(m.locator)}</span>}
             </dd>
           </>
         )}
@@ -126,7 +149,7 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
             {m.validity.map((v, i) => (
               <li key={i} className="flex flex-wrap items-center gap-x-3 gap-y-1 text-[0.95rem]" data-testid={`validity-${index}-${i}`}>
                 <MathTex tex={`\\displaystyle ${v.latex} < ${thresholdText(v.max)}`} />
-                <span className="text-sm text-ink-soft">{v.label}</span>
+                <span className="text-sm text-ink-soft">{conditionText(v.label)}</span>
                 <Badge tone={v.kind === "hard" ? "fail" : "neutral"}>{v.kind === "hard" ? "hard limit" : "rule of thumb"}</Badge>
                 {v.applies_to && <span className="text-xs text-ink-faint">only for {v.applies_to.join(" / ").toUpperCase()}{v.body ? `, body ${v.body}` : ""}</span>}
                 {v.source_status === "memory" && <Badge tone="caution">source to be confirmed</Badge>}
@@ -142,16 +165,17 @@ function MappingCard({ m, index }: { m: StoredMapping; index: number }) {
           <CheckList checks={all} />
         </div>
       </details>
-      {m.notes && <p className="mt-2 text-sm text-ink-soft">{m.notes}</p>}
+      {m.caution && <p className="mt-2 text-sm">{conditionText(m.caution)}</p>}
+      {m.notes && <p className="mt-2 text-sm text-ink-soft">{conditionText(m.notes)}</p>}
     </article>
   );
 }
 
-export function MappingsList({ mappings }: { mappings: StoredMapping[] }) {
+export function MappingsList({ mappings, couplings }: { mappings: StoredMapping[]; couplings: StoredCoupling[] }) {
   return (
     <div className="flex flex-col gap-4">
       {mappings.map((m, i) => (
-        <MappingCard key={m.id} m={m} index={i} />
+        <MappingCard key={m.id} m={m} index={i} couplings={couplings} />
       ))}
     </div>
   );

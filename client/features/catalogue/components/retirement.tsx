@@ -1,4 +1,5 @@
 import { useId, useState } from "react";
+import { symbolText } from "../../../../common/symbol-text.ts";
 import type { StoredRetirement, TheoryDetail } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
@@ -42,7 +43,7 @@ export function RetirementPanel({ theory }: { theory: TheoryDetail }) {
   const ids = { target: useId(), reason: useId() };
   const retiredThings: { target: Target; label: string }[] = [
     ...(theory.retired ? [{ target: "entry" as const, label: "the whole entry" }] : []),
-    ...theory.couplings.flatMap((c) => (c.retired ? [{ target: `coupling:${c.symbol}` as const, label: `coupling ${c.symbol}` }] : [])),
+    ...theory.couplings.flatMap((c) => (c.retired ? [{ target: `coupling:${c.symbol}` as const, label: `coupling ${symbolText(c.symbol, c.latex)}` }] : [])),
     ...theory.mappings.flatMap((m, i) =>
       m.retired && !theory.couplings.find((c) => c.symbol === m.coupling)?.retired ? [{ target: `mapping:${i}` as const, label: `mapping ${i + 1} (${m.kind.replace(/_/g, " ")}${m.b === null ? "" : `, b = ${m.b}`})` }] : [],
     ),
@@ -51,7 +52,7 @@ export function RetirementPanel({ theory }: { theory: TheoryDetail }) {
     ? []
     : [
         { target: "entry", label: "the whole entry" },
-        ...theory.couplings.filter((c) => !c.retired).map((c) => ({ target: `coupling:${c.symbol}` as const, label: `coupling ${c.symbol} and its mappings` })),
+        ...theory.couplings.filter((c) => !c.retired).map((c) => ({ target: `coupling:${c.symbol}` as const, label: `coupling ${symbolText(c.symbol, c.latex)} and its mappings` })),
         ...theory.mappings.flatMap((m, i) => (m.retired ? [] : [{ target: `mapping:${i}` as const, label: `mapping ${i + 1} (${m.kind.replace(/_/g, " ")}${m.b === null ? "" : `, b = ${m.b}`})` }])),
       ];
   return (

@@ -1,4 +1,5 @@
 import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { useMemo, useState } from "react";
 import { Link } from "react-router-dom";
 import { FAMILY_LABELS, type TheorySummary } from "../../../../common/catalogue.ts";
@@ -28,7 +29,7 @@ const columns = [
           <Link to={paths.theory(t.slug)} className="font-semibold">
             {t.name}
           </Link>
-          <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{t.summary}</p>
+          <p className="text-sm text-ink-soft line-clamp-2 max-w-prose">{conditionText(t.summary)}</p>
           <SourceStatusTally statuses={t.mappings.filter((m) => !m.retired).map((m) => m.source_status)} className="mt-1" />
           {t.retired && <RetiredBadge retired={t.retired} className="mt-1 mr-1" />}
           {t.source_to_be_confirmed && (
@@ -40,7 +41,8 @@ const columns = [
       );
     },
   }),
-  col.accessor((t) => FAMILY_LABELS[t.family], { id: "family", header: "Family", cell: (info) => <span className="whitespace-nowrap">{info.getValue()}</span> }),
+  // Family names wrap ("Parameterized / black hole") so the table fits a laptop screen without scrolling.
+  col.accessor((t) => FAMILY_LABELS[t.family], { id: "family", header: "Family", cell: (info) => <span className="block min-w-24">{info.getValue()}</span> }),
   col.display({
     id: "couplings",
     header: "Couplings",
@@ -74,8 +76,16 @@ const columns = [
       </ul>
     ),
   }),
-  col.accessor("revision", { header: "Revision", cell: (info) => <span className="tabular-nums">{info.getValue()}</span> }),
-  col.accessor("updated_at", { header: "Updated", cell: (info) => <span className="tabular-nums whitespace-nowrap">{shortDate(info.getValue())}</span> }),
+  // The revision number sits under its date: one column instead of two keeps the table within 1366 px.
+  col.accessor("updated_at", {
+    header: "Updated",
+    cell: (info) => (
+      <span className="tabular-nums whitespace-nowrap">
+        {shortDate(info.getValue())}
+        <span className="block text-sm text-ink-soft">revision {info.row.original.revision}</span>
+      </span>
+    ),
+  }),
 ];
 
 /** "b = −7" typeset as math (italic symbol, true minus) without loading KaTeX on the list. */

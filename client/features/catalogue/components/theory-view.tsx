@@ -1,4 +1,5 @@
 import type { ReactNode } from "react";
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { Link } from "react-router-dom";
 import { FAMILY_LABELS, type TheoryDetail } from "../../../../common/catalogue.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -60,7 +61,7 @@ export function TheoryView({ theory, proposeChange, editorTools }: Props) {
           <RetiredNote retired={t.retired} what="This entry" />
         </div>
       )}
-      <p className="mt-4 max-w-prose text-lg leading-relaxed">{t.summary}</p>
+      <p className="mt-4 max-w-prose text-lg leading-relaxed">{conditionText(t.summary)}</p>
       {t.source_to_be_confirmed && (
         <div className="mt-4 max-w-prose">
           <Caution title="Parts of this entry await confirmation">
@@ -80,7 +81,7 @@ export function TheoryView({ theory, proposeChange, editorTools }: Props) {
         <Section id="assumptions" title="Assumptions">
           <ul className="list-disc pl-6 max-w-prose">
             {t.assumptions.map((a, i) => (
-              <li key={i}>{a}</li>
+              <li key={i}>{conditionText(a)}</li>
             ))}
           </ul>
         </Section>
@@ -94,7 +95,7 @@ export function TheoryView({ theory, proposeChange, editorTools }: Props) {
               {t.definitions.map((d) => (
                 <li key={d.symbol} className="flex flex-wrap items-baseline gap-3">
                   <MathTex tex={`\\displaystyle ${equationTex(symbolTex(d.symbol), d.latex)}`} />
-                  {d.description && <span className="text-sm text-ink-soft">{d.description}</span>}
+                  {d.description && <span className="text-sm text-ink-soft">{conditionText(d.description)}</span>}
                 </li>
               ))}
             </ul>
@@ -106,11 +107,11 @@ export function TheoryView({ theory, proposeChange, editorTools }: Props) {
           Leading-order expressions in the small-coupling expansion: each holds only while its validity conditions do. Badges show the
           engine's checks (symbols, dimensions, GR limit, PN order) as stored with this revision.
         </p>
-        <MappingsList mappings={t.mappings} />
+        <MappingsList mappings={t.mappings} couplings={t.couplings} />
       </Section>
       {t.reference_bounds.length > 0 && (
         <Section id="bounds" title="Published bounds">
-          <ReferenceBounds bounds={t.reference_bounds} />
+          <ReferenceBounds bounds={t.reference_bounds} couplings={t.couplings} />
         </Section>
       )}
       <Section id="references" title="References">

@@ -1,3 +1,4 @@
+import { conditionText } from "../../../../common/symbol-text.ts";
 import type { ConsistencyResult } from "../../../../common/consistency.ts";
 import { Caution } from "../../../components/ui/states.tsx";
 import { DeviationPlot, type DeviationMark } from "./deviation-plot.tsx";
@@ -66,7 +67,7 @@ export function ConsistencyResultView({ result, track }: { result: ConsistencyRe
       <Caution title="Read this beside the number">
         <ul className="list-disc pl-5" data-testid="consistency-cautions">
           {result.cautions.map((c) => (
-            <li key={c}>{c}</li>
+            <li key={c}>{conditionText(c)}</li>
           ))}
         </ul>
       </Caution>

@@ -1,3 +1,5 @@
+import { thresholdText } from "../../../../common/number-text.ts";
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { useEffect, useState, type FormEvent } from "react";
 import { DEFAULT_TEST_CURVE, couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -57,7 +59,7 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
                 .filter((c) => c.status !== "ok")
                 .map((c) => (
                   <p key={c.label} className={`text-xs ${c.status === "fails" ? "text-brick" : "text-amber"}`}>
-                    {c.label}: {sig(c.value ?? 0)} vs {c.max}
+                    {conditionText(c.label)}: {sig(c.value ?? 0)} vs {thresholdText(c.max)}
                     {c.factor === null ? "" : ` (× ${sig(c.factor)}${c.status === "stretched" ? ", stretched: kept as valid" : ""})`}
                   </p>
                 ))}
@@ -287,7 +289,7 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
               {data.cautions
                 .filter((c) => c !== data.inspiral_side)
                 .map((c) => (
-                  <li key={c}>{c}</li>
+                  <li key={c}>{conditionText(c)}</li>
                 ))}
             </ul>
           </Caution>

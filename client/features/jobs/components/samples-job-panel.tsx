@@ -1,3 +1,4 @@
+import { thresholdText } from "../../../../common/number-text.ts";
 import { useState, type ChangeEvent } from "react";
 import { COLUMN_ROLES, samplesJobResultSchema, type ColumnRoleName, type FilePreview } from "../../../../common/jobs.ts";
 import { Button } from "../../../components/ui/button.tsx";
@@ -174,7 +175,7 @@ export function SamplesJobPanel() {
                   <td className="px-2 py-1 font-mono">{c.first.map((v) => (v === null ? "–" : v.toPrecision(4))).join(", ")}</td>
                   <td className="px-2 py-1">{c.min?.toPrecision(4) ?? "–"}</td>
                   <td className="px-2 py-1">{c.mean?.toPrecision(4) ?? "–"}</td>
-                  <td className="px-2 py-1">{c.max?.toPrecision(4) ?? "–"}</td>
+                  <td className="px-2 py-1">{c.max === null || c.max === undefined ? "–" : thresholdText(c.max)}</td>
                 </tr>
               ))}
             </tbody>

@@ -1,3 +1,4 @@
+import { conditionText } from "../../../../common/symbol-text.ts";
 import { useState, type FormEvent } from "react";
 import { QNM_MODE_KEYS, ringdownConvertRequestSchema, type RingdownConvertRequest, type RingdownResult } from "../../../../common/ringdown.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -65,7 +66,7 @@ function Row({ r }: { r: RingdownResult }) {
         {r.status === "bounded" && <Badge tone={TONE[r.verdict]}>{LABEL[r.verdict]}</Badge>}
         {flagged.map((c) => (
           <p key={`${c.label}-${c.status}`} className={`text-xs ${c.status === "fails" ? "text-brick" : "text-amber"}`} data-status={c.status}>
-            {c.label}
+            {conditionText(c.label)}
             {c.factor === null ? "" : ` (× ${sig(c.factor)})`}
             {c.status === "stretched" ? ": stretched, kept as valid" : ""}
           </p>

@@ -5,7 +5,7 @@ import type { ConsistencyRecord, SamplesJobRecord, StackRecord } from "../../../
 import { Badge } from "../../../components/ui/badge.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { num, unit } from "./translation-record.tsx";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 
 /** Samples, stacking and consistency records: the result as the job (or the test) computed it, with its provenance. */
 
@@ -45,7 +45,7 @@ function Cautions({ items }: { items: string[] }) {
   return (
     <ul className="mt-2 list-disc pl-5 text-xs text-amber">
       {items.map((c, i) => (
-        <li key={i}>{c}</li>
+        <li key={i}>{conditionText(c)}</li>
       ))}
     </ul>
   );

@@ -7,7 +7,7 @@ import { Button } from "../../../components/ui/button.tsx";
 import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { ScrollBox } from "../../../components/ui/scroll-box.tsx";
 import { sciText, unitLabel } from "../../../components/ui/text-format.ts";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 
 /** A translation record: the bound, the binary, and the translation as it was made when saved. */
 
@@ -82,7 +82,7 @@ function LimitsTable({ label, translation }: { label: string; translation: Conve
                   .filter((c) => c.code === "validity" || c.code === "one_signed")
                   .map((c, i) => (
                     <span key={i} className={`block text-xs ${c.code === "validity" ? "text-brick" : "text-amber"}`}>
-                      {c.message}
+                      {conditionText(c.message)}
                     </span>
                   ))}
               </td>

@@ -1,3 +1,4 @@
+import { conditionText } from "../../../../common/symbol-text.ts";
 import type { Caution, CautionCode } from "../../../../common/convert.ts";
 
 const codeLabel: Record<CautionCode, string> = {
@@ -27,7 +28,7 @@ export function CautionList({ cautions, compact = false, testId }: { cautions: r
       {ordered.map((c, i) => (
         <li key={`${c.code}-${i}`} data-caution={c.code} className={c.code === "validity" ? "text-brick" : "text-ink-soft"}>
           <span className={`mr-1 font-semibold uppercase tracking-wide ${c.code === "validity" ? "text-brick" : "text-amber"}`}>{codeLabel[c.code]}</span>
-          {c.message}
+          {conditionText(c.message)}
         </li>
       ))}
     </ul>

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { boundShapeLabel, toShape, type BoundShape } from "./bound-form.tsx";
 import { VerdictBadge } from "./results-table.tsx";
 import { eventsRequestSchema, MAX_EVENTS, type EventsRequest, type EventsResponse } from "../../../../common/convert-samples.ts";
@@ -132,7 +132,7 @@ export function EventsForm({ theories, theoriesLoading, deviation, onDeviation, 
             <tr>
               {COLUMNS.map((c) => (
                 <th key={c.key} scope="col" className="px-2 py-1.5 font-semibold">
-                  {c.label}
+                  {conditionText(c.label)}
                 </th>
               ))}
               <th scope="col" className="px-2 py-1.5 font-semibold">

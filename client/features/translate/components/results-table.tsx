@@ -1,5 +1,5 @@
 import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { useMemo, useState } from "react";
 import type { ConvertResult, ReferenceComparison } from "../../../../common/convert.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -72,12 +72,12 @@ function Validity({ r, id }: { r: ConvertResult; id: string }) {
       <VerdictBadge verdict={r.verdict} />
       {failing.map((v) => (
         <span key={v.label} className="text-brick" data-testid={`failing-${id}`}>
-          fails ×{fmtFactor(v.factor)}: {v.label} (<SciNumber value={v.value ?? NaN} /> &gt; {thresholdText(v.max)})
+          fails ×{fmtFactor(v.factor)}: {conditionText(v.label)} (<SciNumber value={v.value ?? NaN} /> &gt; {thresholdText(v.max)})
         </span>
       ))}
       {stretched.map((v) => (
         <span key={v.label} className="text-amber">
-          stretched ×{fmtFactor(v.factor)}: {v.label}
+          stretched ×{fmtFactor(v.factor)}: {conditionText(v.label)}
         </span>
       ))}
       {r.validity.length === 0 && <span className="text-ink-faint">no condition stated</span>}

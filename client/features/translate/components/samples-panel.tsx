@@ -1,5 +1,5 @@
 import { useState, type ChangeEvent } from "react";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { SAMPLE_COLUMNS, samplesRequestSchema, type SamplesRequest, type SamplesResponse } from "../../../../common/convert-samples.ts";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextArea } from "../../../components/ui/field.tsx";
@@ -151,7 +151,7 @@ export function SamplesResult({ data }: { data: SamplesResponse }) {
             {data.validity.map((v) => (
               <tr key={v.label} className="border-b border-paper-edge/70">
                 <td className="px-3 py-1.5">
-                  {v.label} <code className="text-xs text-ink-faint">{v.condition}</code>
+                  {conditionText(v.label)} <code className="text-xs text-ink-faint">{v.condition}</code>
                 </td>
                 <td className="px-3 py-1.5">{v.kind === "hard" ? "hard" : "rule of thumb"}</td>
                 <td className={`px-3 py-1.5 font-semibold ${v.fraction_ok < 1 ? "text-brick" : "text-moss"}`}>{pct(v.fraction_ok)}</td>

@@ -1,5 +1,5 @@
 import { useState, type ChangeEvent } from "react";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { convertTableRequestSchema, type ConvertRequest, type ConvertTableRequest, type ConvertTableResponse } from "../../../../common/convert.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
@@ -134,7 +134,7 @@ function TableResults({ data }: { data: ConvertTableResponse }) {
                   {head}
                   <td colSpan={4} className="px-3 py-2 text-sm text-ink-soft">
                     no catalogued theory is constrained here
-                    {[...row.cautions.map((c) => c.message), ...row.not_applicable.filter((n) => !["different_b", "degenerate_b", "no_ppe_equivalent"].includes(n.code)).map((n) => `${n.theory_name}: ${n.reason}`)].map((m) => (
+                    {[...row.cautions.map((c) => conditionText(c.message)), ...row.not_applicable.filter((n) => !["different_b", "degenerate_b", "no_ppe_equivalent"].includes(n.code)).map((n) => `${n.theory_name}: ${n.reason}`)].map((m) => (
                       <span key={m} className="block text-xs">
                         {m}
                       </span>

@@ -15,7 +15,7 @@ import { ResultsTable } from "./results-table.tsx";
 import { TableOverB } from "./table-over-b.tsx";
 import { RequestSummary } from "./request-summary.tsx";
 import { shortTheoryName } from "../../../../common/theory-name.ts";
-import { formSnapshot, readRequestParam, rememberedRequest, rememberRequest, REQUEST_PARAM, requestParam } from "../lib/request-url.ts";
+import { formInitial, formSnapshot, readRequestParam, rememberedRequest, rememberRequest, REQUEST_PARAM, requestParam } from "../lib/request-url.ts";
 
 /** Every theory the catalogue knows, at the b values it enters at, from whichever answer is at hand. */
 export function theoryMarks(response: ConvertResponse | undefined, table: ConvertTableResponse | undefined): TheoryMark[] {
@@ -143,7 +143,7 @@ export function TranslatePanel({ footer }: Props) {
       >
         <BoundForm
           key={urlText ?? "example"}
-          {...(request ? { initial: request } : {})}
+          {...(request ? { initial: formInitial(request) } : {})}
           onSubmit={(r) => {
             setRefused(false);
             const next = { ...r, ...(request?.conventions ? { conventions: request.conventions } : {}) };

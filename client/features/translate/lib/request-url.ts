@@ -1,4 +1,4 @@
-import { convertRequestSchema, type ConvertRequest } from "../../../../common/convert.ts";
+import { convertRequestSchema, DEFAULT_COSMOLOGY, type ConvertRequest } from "../../../../common/convert.ts";
 import { readJsonParam } from "../../../lib/json-param.ts";
 
 /**
@@ -16,8 +16,16 @@ export function readRequestParam(text: string | null): UrlRequest {
   return read.kind === "ok" ? { kind: "ok", request: read.value, text: read.text } : read;
 }
 
+/** The request as the address carries it: the default cosmology (the server's, Planck 2018) is left out, so links stay short. */
 export function requestParam(request: ConvertRequest): string {
-  return JSON.stringify(request);
+  const { cosmology, ...rest } = request;
+  const isDefault = !cosmology || (cosmology.H0 === DEFAULT_COSMOLOGY.H0 && cosmology.Omega_m === DEFAULT_COSMOLOGY.Omega_m);
+  return JSON.stringify(isDefault ? rest : request);
+}
+
+/** What the form shows for a request: a link without a cosmology means the server's default, so the fields show it. */
+export function formInitial(request: ConvertRequest): ConvertRequest {
+  return { ...request, cosmology: request.cosmology ?? { ...DEFAULT_COSMOLOGY } };
 }
 
 /** The last request of this browser tab, so leaving the page and coming back keeps the result. */
