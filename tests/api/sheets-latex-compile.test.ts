@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readBibtexFile } from "../helpers/bibtex.ts";
 import { sheetSchema, type Sheet } from "../../common/sheets.ts";
 import { catalogueSeed } from "../../seeds/catalogue.ts";
+import { ringdownCatalogueSeed } from "../../seeds/ringdown-catalogue.ts";
 import type { DragomanApp } from "../../server/app.ts";
 import { startWorker, type RunningWorker } from "../../server/jobs/worker.ts";
 import { createLogger } from "../../server/logger.ts";
@@ -76,7 +77,10 @@ describe("LaTeX export compiled with pdflatex", () => {
 
   beforeAll(async () => {
     tdb = await createTestDatabase();
-    await tdb.db.transaction((trx) => catalogueSeed.run(trx));
+    await tdb.db.transaction(async (trx) => {
+      await catalogueSeed.run(trx);
+      await ringdownCatalogueSeed.run(trx);
+    });
     app = buildTestApp(tdb, overrides);
     worker = await startWorker({ config: testConfig(tdb.url, overrides), db: tdb.db, logger: createLogger(testConfig(tdb.url, overrides)) });
     await ensureUser(tdb.db, { login: "tex-analyst", roles: ["analyst"] });
@@ -106,6 +110,12 @@ describe("LaTeX export compiled with pdflatex", () => {
       { kind: "stack", label: "KV-231107a + KV-240322c", detector_network: "Kestrel-Vireo (invented)", job: await stackJob(app, a, b) },
       { kind: "consistency", label: "KV-240815b", detector_network: "Kestrel-Vireo (invented)", summaries: GAUSSIAN_SUMMARIES },
       { kind: "consistency", label: "KV-240815b, from samples & a long label that must wrap in a narrow column", job: await consistencyJob(app) },
+      {
+        kind: "ringdown",
+        label: "KV-240815b ringdown",
+        detector_network: "Kestrel-Vireo (invented)",
+        request: { bound: { parameter: "qnm_dtau", mode: "220", interval: [-0.1, 0.2], credibility: 0.9 }, binary: { m1: 36, m2: 29, frame: "detector", z: 0.09 } },
+      },
     ];
     for (const record of more) {
       const added = await request(app).post(`/api/v1/sheets/${sheet.id}/records`).set("Authorization", token).send({ version: sheet.version, record });
@@ -124,10 +134,11 @@ describe("LaTeX export compiled with pdflatex", () => {
     const bib = (await request(app).get(`/api/v1/sheets/${sheet.id}/export?format=bibtex`).set("Authorization", token).expect(200)).text;
     const limits = sheet.records.reduce((n, r) => n + (r.kind === "translation" ? translationOf(r).results.length : 0), 0);
     expect(limits).toBeGreaterThanOrEqual(8);
-    expect(sheet.records.map((r) => r.kind)).toEqual(["translation", "translation", "translation", "translation", "translation", "samples_job", "stack", "consistency", "consistency"]);
+    expect(sheet.records.map((r) => r.kind)).toEqual(["translation", "translation", "translation", "translation", "translation", "samples_job", "stack", "consistency", "consistency", "ringdown"]);
     // The new kinds are in the table: a samples group, a stack group, and the consistency table.
     expect(tex).toMatch(/posterior samples of/);
     expect(tex).toMatch(/2 of 2 events stacked/);
+    expect(tex).toMatch(/\\delta\\tau_\{220\}\/\\tau_\{220\} \\in/);
     expect(tex).toMatch(/\\label\{tab:kestrel-vireo-bounds-paper-test-imr\}/);
     // Every key cited in the table is a key of the BibTeX export.
     const bibKeys = new Set(readBibtexFile(bib).map((e) => e.key));

@@ -111,7 +111,7 @@ describe("sheets: ringdown records", () => {
     expect(latex).toMatch(/\$\\in \[-1\.4, 1\.4\]\$ & \$\\circ\$|\$\\in \[-1\.4, 1\.4\]\$ & \$\\ast\$/);
     expect(latex).toContain("\\cite{cardoso-et-al-2009}");
     expect(latex).toMatch(/quasinormal-mode shifts/);
-    expect(latex).toContain("Parameterised ringdown deviation & $\\delta\\hat f_{220}$ & $\\in [-5.0 \\times 10^{-2}, 5.0 \\times 10^{-2}]$ & $\\circ$");
+    expect(latex).toContain("Parameterised ringdown deviation & $\\delta\\hat f_{220}$ & $\\in [-0.050, 0.050]$ & $\\circ$");
 
     const bib = readBibtexFile((await get("bibtex")).text);
     const keys = bib.map((e) => e.key);

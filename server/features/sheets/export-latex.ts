@@ -95,9 +95,15 @@ function quantityCell(coupling: { latex: string; unit: string }): string {
   return `$${coupling.latex}$${unit ? ` [$${unit}$]` : ""}`;
 }
 
-function limitCell(coupling: { side: string; value?: number | undefined; signed_interval?: [number, number] | undefined }, digits: number): string {
-  if (coupling.signed_interval) return `$\\in [${numberLatex(coupling.signed_interval[0], digits)}, ${numberLatex(coupling.signed_interval[1], digits)}]$`;
-  return `$${coupling.side === "lower" ? "\\ge" : "\\le"} ${numberLatex(coupling.value ?? Number.NaN, digits)}$`;
+function limitCell(coupling: { side: string; value?: number | undefined; signed_interval?: [number, number] | undefined }, digits: number, fmt: (x: number, digits: number) => string = numberLatex): string {
+  if (coupling.signed_interval) return `$\\in [${fmt(coupling.signed_interval[0], digits)}, ${fmt(coupling.signed_interval[1], digits)}]$`;
+  return `$${coupling.side === "lower" ? "\\ge" : "\\le"} ${fmt(coupling.value ?? Number.NaN, digits)}$`;
+}
+
+/** Fractional shifts and deformations are read as plain decimals (0.10, not 1.0 \\times 10^{-1}): the ringdown rows stay narrow enough for a column. */
+function shiftLatex(x: number, digits: number): string {
+  const a = Math.abs(x);
+  return a >= 1e-3 && a < 1 ? x.toPrecision(Math.max(1, digits)) : numberLatex(x, digits);
 }
 
 function citeCell(keys: string[]): string {
@@ -191,9 +197,9 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
     body.push(`    ${text} \\\\`);
     current = id;
   };
-  const row = (theory: string, coupling: Parameters<typeof quantityCell>[0] & Parameters<typeof limitCell>[0], verdict: LimitVerdict, keys: string[]) => {
+  const row = (theory: string, coupling: Parameters<typeof quantityCell>[0] & Parameters<typeof limitCell>[0], verdict: LimitVerdict, keys: string[], fmt?: (x: number, digits: number) => string) => {
     seen.add(verdict);
-    body.push(`    ${[escapeLatex(theory), quantityCell(coupling), limitCell(coupling, digits), VERDICT_MARK[verdict], citeCell(keys)].join(" & ")} \\\\`);
+    body.push(`    ${[escapeLatex(theory), quantityCell(coupling), limitCell(coupling, digits, fmt), VERDICT_MARK[verdict], citeCell(keys)].join(" & ")} \\\\`);
   };
   for (const line of lines) {
     switch (line.kind) {
@@ -223,7 +229,7 @@ export function sheetToLatex(sheet: Sheet, options: { digits?: number } = {}): s
         const coupling = limit.signed_interval
           ? { latex: limit.latex, unit: limit.unit, side: "upper", signed_interval: [limit.signed_interval.lower, limit.signed_interval.upper] as [number, number] }
           : { latex: limit.latex, unit: limit.unit, side: limit.side, value: limit.value };
-        row(shortTheoryName(result.name, result.slug).replace(/,$/, ""), coupling, ringdownVerdict(result), result.references.map((r) => r.key));
+        row(shortTheoryName(result.name, result.slug).replace(/,$/, ""), coupling, ringdownVerdict(result), result.references.map((r) => r.key), shiftLatex);
         break;
       }
       default:
