@@ -28,7 +28,11 @@ export function serializeSvg(svg: SVGSVGElement, fontFamily = '"Source Serif 4",
   copy.setAttribute("xmlns", "http://www.w3.org/2000/svg");
   copy.setAttribute("xmlns:xlink", "http://www.w3.org/1999/xlink");
   if (!copy.getAttribute("font-family")) copy.setAttribute("font-family", fontFamily);
-  const body = new XMLSerializer().serializeToString(copy);
+  // Some serialisers write the namespace they know and the attribute set above: keep one, so strict XML readers take the file.
+  const body = new XMLSerializer().serializeToString(copy).replace(/^<svg[^>]*>/, (tag) => {
+    let seen = false;
+    return tag.replace(/ xmlns="[^"]*"/g, (attr) => (seen ? "" : ((seen = true), attr)));
+  });
   return `<?xml version="1.0" encoding="UTF-8"?>\n${body}\n`;
 }
 

@@ -43,4 +43,37 @@ describe("stored sheet records", () => {
     });
     expect(records.map((r) => r.kind)).toEqual(["translation", "samples_job", "stack", "consistency", "consistency"]);
   });
+
+  it("when a ringdown record stored on 2 December 2026 is read, then it parses through today's schemas with its request and translation", () => {
+    const [row] = JSON.parse(readFileSync("tests/api/fixtures/sheet-records-ringdown-2026-12-02.json", "utf8")) as Record<string, unknown>[];
+    const stamp = new Date("2026-12-02T14:00:00Z");
+    const record = toRecord(
+      {
+        id: 1,
+        sheet_id: 1,
+        position: 0,
+        label: "ringdown",
+        detector_network: "",
+        analysis_method: "",
+        data_link: "",
+        notes: "",
+        kind: "ringdown",
+        bound: null,
+        binary: null,
+        cosmology: null,
+        conventions: {},
+        translation: row!.translation,
+        catalogue_revision: null,
+        entry_revisions: (row!.entry_revisions ?? null) as Record<string, number> | null,
+        payload: row!.payload,
+        history: (row!.history ?? []) as unknown[],
+        translated_at: stamp,
+        saved_at: stamp,
+      },
+      seedCatalogue(),
+    );
+    if (record.kind !== "ringdown") throw new Error(`read as ${record.kind}`);
+    expect(record.request.bound).toMatchObject({ parameter: "qnm_dfreq", mode: "220", upper: 0.05 });
+    expect(record.translation.results.find((r) => r.slug === "johannsen")?.upper?.value).toBeCloseTo(1.35, 10);
+  });
 });

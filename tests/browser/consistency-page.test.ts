@@ -114,6 +114,8 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     expect(svg).toMatch(/[✓✕?] α₁₃ = −?\d/);
     expect(svg).toMatch(/Δχ<tspan baseline-shift="sub"[^>]*>f<\/tspan>/);
     for (const id of ["alpha13", "johannsen", "chi_f", "M_f"]) expect(svg).not.toContain(id);
+    // Well-formed XML, as an SVG editor reads it.
+    await expect(page.evaluate((text) => new DOMParser().parseFromString(text, "image/svg+xml").querySelector("parsererror") === null, svg)).resolves.toBe(true);
     const [pngDownload] = (await Promise.all([page.waitForEvent("download"), page.getByTestId("deviation-plot-png").click()])) as [Download, void];
     expect(pngDownload.suggestedFilename()).toBe("imr-consistency.png");
     const png = readFileSync(await pngDownload.path());

@@ -107,6 +107,7 @@ describe("browser: forecasting a multi-band bound and translating it", () => {
     expect(coupling).toMatch(/EdGB, √α \(b = -7\)/);
     expect(coupling).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>[✓✕?]<\/tspan>/);
     for (const file of [bound, coupling]) for (const id of ["sqrt_alpha", ">edgb<", "brans-dicke", "omega_BD", "lambda_g"]) expect(file).not.toContain(id);
+    for (const file of [bound, coupling]) await expect(page.evaluate((text) => new DOMParser().parseFromString(text, "image/svg+xml").querySelector("parsererror") === null, file)).resolves.toBe(true);
     // Symbols, not code names: the limits are typeset (KaTeX) and no ASCII condition text is left.
     await translations.locator(".katex").first().waitFor();
     const translated = (await translations.textContent()) ?? "";

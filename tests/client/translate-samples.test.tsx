@@ -74,6 +74,26 @@ describe("<SamplesResult>", () => {
     await waitFor(() => expect(figure.querySelector("svg")).not.toBeNull(), { timeout: 15_000 });
     // Two occupied bins (1e-7 and 1e-3 give two sqrt(alpha) values a factor 10 apart), among the 40 drawn.
     expect(figure.querySelectorAll("svg rect").length).toBeGreaterThanOrEqual(2);
+    // The downloaded SVG carries the title in symbols, the bound's legend, and the failing condition and cautions, each marked.
+    const files: Blob[] = [];
+    const created = vi.fn((b: Blob) => {
+      files.push(b);
+      return "blob:figure";
+    });
+    Object.assign(URL, { createObjectURL: created, revokeObjectURL: vi.fn() });
+    const click = vi.spyOn(HTMLAnchorElement.prototype, "click").mockImplementation(() => undefined);
+    fireEvent.click(screen.getByTestId("samples-histogram-svg"));
+    click.mockRestore();
+    expect(files).toHaveLength(1);
+    const svg = await files[0]!.text();
+    expect(svg).toMatch(/data-role="figure-title"[^>]*>[^<]*√α per sample/);
+    expect(svg).toMatch(/data-role="figure-legend"[^>]*><tspan[^>]*>│<\/tspan><tspan[^>]*>the 90% upper bound/);
+    expect(svg).toMatch(/data-role="figure-caution"[^>]*><tspan[^>]*>⚠<\/tspan>/);
+    const cautionText = [...svg.matchAll(/data-role="figure-caution"[^>]*>(.*?)<\/text>/g)].map((m) => m[1]!.replace(/<[^>]+>/g, " ")).join(" ").replace(/\s+/g, " ");
+    expect(cautionText).toMatch(/⚠ [^⚠]*fails for 50% of the 200 samples checked/);
+    // One namespace declaration on the root: a strict XML reader refuses a repeated attribute.
+    expect(svg.match(/^<\?xml[^>]*>\s*<svg[^>]*>/)![0].match(/ xmlns="/g)).toHaveLength(1);
+    expect(svg).not.toContain("sqrt_alpha");
   });
 });
 

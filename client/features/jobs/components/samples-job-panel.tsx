@@ -9,6 +9,7 @@ import { useTheoriesAtB } from "../../translate/api/theories-at-b.ts";
 import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, type DeviationValues } from "../../translate/components/samples-panel-fields.tsx";
 import { previewFile, startSamplesJob } from "../api/jobs.ts";
 import { useJobView } from "../api/use-job-view.ts";
+import { BodiesField, FrameField } from "./binary-fields.tsx";
 import { JobStatus, Progress } from "./job-status.tsx";
 import { SamplesJobResultView } from "./samples-job-result.tsx";
 
@@ -196,23 +197,8 @@ export function SamplesJobPanel() {
             ))}
           </div>
           <div className="grid gap-3 sm:grid-cols-5">
-            <Field label="Masses are in the">
-              {(c) => (
-                <Select {...c} value={frame} onChange={(e) => setFrame(e.target.value === "detector" ? "detector" : "source")} data-testid="job-frame">
-                  <option value="source">source frame</option>
-                  <option value="detector">detector frame</option>
-                </Select>
-              )}
-            </Field>
-            <Field label="Bodies">
-              {(c) => (
-                <Select {...c} value={bodies} onChange={(e) => setBodies(e.target.value)} data-testid="job-bodies">
-                  <option value="bh,bh">two black holes</option>
-                  <option value="bh,ns">black hole + neutron star</option>
-                  <option value="ns,ns">two neutron stars</option>
-                </Select>
-              )}
-            </Field>
+            <FrameField label="Masses are in the" value={frame} onChange={setFrame} testId="job-frame" />
+            <BodiesField value={bodies} onChange={setBodies} testId="job-bodies" />
             <Field label="Prior on the coupling">
               {(c) => (
                 <Select {...c} value={prior} onChange={(e) => setPrior(e.target.value === "uniform" ? "uniform" : e.target.value === "log_uniform" ? "log_uniform" : "as_translated")} data-testid="job-prior">

@@ -10,6 +10,7 @@ import { useTheoriesAtB } from "../../translate/api/theories-at-b.ts";
 import { bOfDeviation, DEFAULT_DEVIATION, DeviationFields, deviationRequest, type DeviationValues } from "../../translate/components/samples-panel-fields.tsx";
 import { previewFile, startSamplesJob, startStackJob } from "../api/jobs.ts";
 import { useJobView } from "../api/use-job-view.ts";
+import { BodiesField, FrameField } from "./binary-fields.tsx";
 import { JobStatus, Progress } from "./job-status.tsx";
 import { guessRoles } from "./samples-job-panel.tsx";
 import { StackResultView } from "./stack-result.tsx";
@@ -240,23 +241,8 @@ export function StackPanel() {
           {(c) => <TextInput {...c} value={range.lo} onChange={(e) => setRange({ ...range, lo: e.target.value })} placeholder="optional" data-testid="stack-range-lo" />}
         </Field>
         <Field label="high">{(c) => <TextInput {...c} value={range.hi} onChange={(e) => setRange({ ...range, hi: e.target.value })} placeholder="optional" data-testid="stack-range-hi" />}</Field>
-        <Field label="Uploaded files' masses are in the">
-          {(c) => (
-            <Select {...c} value={frame} onChange={(e) => setFrame(e.target.value === "detector" ? "detector" : "source")}>
-              <option value="source">source frame</option>
-              <option value="detector">detector frame</option>
-            </Select>
-          )}
-        </Field>
-        <Field label="Bodies">
-          {(c) => (
-            <Select {...c} value={bodies} onChange={(e) => setBodies(e.target.value)}>
-              <option value="bh,bh">two black holes</option>
-              <option value="bh,ns">black hole + neutron star</option>
-              <option value="ns,ns">two neutron stars</option>
-            </Select>
-          )}
-        </Field>
+        <FrameField label="Uploaded files' masses are in the" value={frame} onChange={setFrame} />
+        <BodiesField value={bodies} onChange={setBodies} />
       </div>
       <div className="flex flex-wrap items-center gap-4">
         <Button onClick={() => setRows((rs) => [...rs, emptyRow(rs.length + 1)])} disabled={rows.length >= 50} data-testid="stack-add">

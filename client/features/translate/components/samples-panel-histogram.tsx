@@ -1,5 +1,5 @@
 import { useCallback } from "react";
-import { symbolText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import type { SamplesResponse } from "../../../../common/convert-samples.ts";
 import type { PlotModule } from "../../../lib/plot.ts";
 import { PlotFigure } from "../../../components/ui/figure.tsx";
@@ -52,6 +52,11 @@ export function SamplesHistogram({ data }: { data: SamplesResponse }) {
       title={`${data.theory_name}: ${symbolText(data.coupling.symbol, data.coupling.latex)} per sample`}
       filename={`${data.theory}-${data.coupling.symbol}-samples`}
       testId="samples-histogram"
+      legend={[{ mark: "│", color: BRICK, label: `the ${Math.round(data.credibility * 1000) / 10}% ${data.coupling.side} bound` }]}
+      cautions={[
+        ...data.validity.filter((v) => v.fraction_ok < 1).map((v) => `${conditionText(v.label)}: fails for ${formatPlain((1 - v.fraction_ok) * 100, 2)}% of the ${v.evaluated} samples checked (${conditionText(v.condition)})`),
+        ...data.cautions.map((c) => conditionText(c.message)),
+      ]}
       caption={`Each sample's ${symbolText(data.coupling.symbol, data.coupling.latex)} at its own binary; brick: the ${Math.round(data.credibility * 1000) / 10}% ${data.coupling.side} bound. Not reweighted for the prior.`}
     />
   );
