@@ -3,7 +3,7 @@ import { sciText, thresholdText } from "../../../common/number-text.ts";
 import type { RingdownResult } from "../../../common/ringdown.ts";
 import { ringdownLimitOf } from "../../../common/ringdown-limit.ts";
 import type { ConsistencyRecord, RingdownRecord, SamplesJobRecord, Sheet, StackRecord, TranslationRecord } from "../../../common/sheets.ts";
-import { symbolText } from "../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../common/symbol-text.ts";
 import { boundIndex, bytesText, columnsText, exportLines, failedConditions, priorText } from "./export-rows.ts";
 
 /**
@@ -146,7 +146,7 @@ function samplesRow(r: SamplesJobRecord): Row {
     ...couplingCells(x.coupling),
     valid: x.verdict === "valid",
     verdict: x.verdict,
-    failed_conditions: x.conditions.filter((c) => c.fraction_outside > 0).map((c) => `${c.label}: ${(c.fraction_outside * 100).toPrecision(3)}% of samples outside`).join("; "),
+    failed_conditions: x.conditions.filter((c) => c.fraction_outside > 0).map((c) => `${conditionText(c.label)}: ${(c.fraction_outside * 100).toPrecision(3)}% of samples outside`).join("; "),
     catalogue_version: catalogueCell(x.catalogue_revision),
     job: r.job.id,
     files: fileCell(r.file),
@@ -217,7 +217,7 @@ function consistencyRow(r: ConsistencyRecord): Row {
         : []),
       ...(r.summaries ? [estimate("inspiral", r.summaries.inspiral), estimate("merger-ringdown", r.summaries.merger_ringdown)] : []),
       ...(r.summaries?.full_signal ? [`full-signal M_f = ${r.summaries.full_signal.M_f}, chi_f = ${r.summaries.full_signal.chi_f}`] : []),
-      ...x.cautions.map((c) => `caution: ${c}`),
+      ...x.cautions.map((c) => `caution: ${conditionText(c)}`),
     ].join("; "),
   };
 }
@@ -227,7 +227,7 @@ function ringdownRow(r: RingdownRecord, x: RingdownResult): Row {
   const q = r.request;
   const t = r.translation;
   const limit = ringdownLimitOf(x);
-  const failed = [...(x.lower?.validity ?? []), ...(x.upper?.validity ?? [])].filter((v) => !v.ok).map((v) => `${v.label}: ${v.value === null ? "not a number" : sciText(v.value, 3)} > ${thresholdText(v.max)}`);
+  const failed = [...(x.lower?.validity ?? []), ...(x.upper?.validity ?? [])].filter((v) => !v.ok).map((v) => `${conditionText(v.label)}: ${v.value === null ? "not a number" : sciText(v.value, 3)} > ${thresholdText(v.max)}`);
   return {
     ...provenance(r),
     parameter: `${q.bound.parameter}_${q.bound.mode}`,

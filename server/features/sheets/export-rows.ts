@@ -1,4 +1,5 @@
 import type { ConvertResult, NotApplicable } from "../../../common/convert.ts";
+import { conditionText } from "../../../common/symbol-text.ts";
 import { sciText, thresholdText } from "../../../common/number-text.ts";
 import { COLUMN_ROLES } from "../../../common/jobs.ts";
 import type { RingdownResult } from "../../../common/ringdown.ts";
@@ -52,7 +53,7 @@ export function boundIndex(record: TranslationRecord): { b: number | null; k: nu
 
 /** The conditions that failed at the limit, as "label: value > max", the threshold as people write it (1/6). */
 export function failedConditions(result: ConvertResult): string[] {
-  return result.validity.filter((v) => !v.ok).map((v) => `${v.label}: ${v.value === null ? "not a number" : sciText(v.value, 3)} > ${thresholdText(v.max)}`);
+  return result.validity.filter((v) => !v.ok).map((v) => `${conditionText(v.label)}: ${v.value === null ? "not a number" : sciText(v.value, 3)} > ${thresholdText(v.max)}`);
 }
 
 /** "uniform in the coupling over [a, b]", "as translated (the analysis prior)", "log-uniform over [a, b]". */

@@ -4,6 +4,7 @@
  * function, with its validity conditions. Ringdown mappings have no ppE exponent, so they do not pass
  * through the inspiral compiler.
  */
+import { thresholdText } from "../../../common/number-text.ts";
 import { lengthPower } from "../catalogue-mapping.ts";
 import { compileExpression } from "../expr/compile.ts";
 import { guardExpression } from "../expr/guard.ts";
@@ -133,7 +134,7 @@ function compileShift(entry: RingdownEntry, index: number): Omit<CompiledRingdow
     evaluate: main.evaluate,
     validity: (m.validity ?? []).map((v) => {
       const k = compileIn(v.expression, table, args, held, symbol);
-      return { label: v.label, condition: `${v.expression} <= ${v.max}`, max: v.max, kind: v.kind ?? "rule_of_thumb", uses: k.uses, evaluate: k.evaluate };
+      return { label: v.label, condition: `${v.expression} <= ${thresholdText(v.max)}`, max: v.max, kind: v.kind ?? "rule_of_thumb", uses: k.uses, evaluate: k.evaluate };
     }),
     ...(m.notes ? { notes: m.notes } : {}),
   };
