@@ -92,7 +92,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await page.getByTestId("run-exclusion").click();
     await page.getByTestId("exclusion-table").waitFor();
     await page.getByTestId("deviation-track").waitFor();
-    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/alpha13 > 0/);
+    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/α₁₃ > 0/);
     // The entry's 2PN term biases the inspiral estimate: the note beside the table says so, with the detector used.
     await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/inspiral bias included.*b = -1.*Advanced LIGO design \(the detector chosen for the bias\)/);
     await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/one standard deviation/);
@@ -164,7 +164,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     const row = page.getByTestId("ringdown-result-johannsen");
     await row.waitFor();
     // df = -alpha13/27 and |df| <= 0.05: |alpha13| <= 1.35 (light ring; tests/api/convert-ringdown.test.ts checks it against the metric).
-    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ α_13 ≤ 1\.35\|α_13\| ≤ 1\.35/);
+    await expect(row.textContent()).resolves.toMatch(/-1\.35 ≤ α₁₃ ≤ 1\.35\|α₁₃\| ≤ 1\.35/);
     // The mapping's source beside the row, and every cited reference in the answer's bibliography with its BibTeX.
     await expect(row.textContent()).resolves.toMatch(/sources: Cardoso et al\. 2009/);
     const bibliography = page.getByTestId("ringdown-bibliography");
