@@ -92,7 +92,7 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await page.getByTestId("run-exclusion").click();
     await page.getByTestId("exclusion-table").waitFor();
     await page.getByTestId("deviation-track").waitFor();
-    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/alpha13 > 0/);
+    await expect(page.getByTestId("exclusion-table").textContent()).resolves.toMatch(/α₁₃ > 0/);
     // The entry's 2PN term biases the inspiral estimate: the note beside the table says so, with the detector used.
     await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/inspiral bias included.*b = -1.*Advanced LIGO design \(the detector chosen for the bias\)/);
     await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/one standard deviation/);

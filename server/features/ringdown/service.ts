@@ -2,6 +2,7 @@ import { intervalOf, type BibliographyEntry, type Caution } from "../../../commo
 import type { RingdownConvertRequest, RingdownConvertResponse, RingdownResult, RingdownSideLimit } from "../../../common/ringdown.ts";
 import { ValidationError } from "../../errors.ts";
 import { PhysicsInputError } from "../../physics/input-error.ts";
+import { toLatex } from "../../physics/expr/index.ts";
 import { qnm } from "../../physics/ringdown/qnm.ts";
 import { translateRingdownBound, type ShiftBound, type SideLimit } from "../../physics/ringdown/ringdown-bound.ts";
 import { failingDto, validityItemDto } from "../convert/build-result.ts";
@@ -98,7 +99,7 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
       if (/eikonal|light ring/i.test(`${m.notes ?? ""}`)) cautions.push({ code: "engine", message: "Eikonal (light-ring) estimate: only a rough guide at l = 2." });
       const described = {
         coupling: { symbol: m.coupling.symbol, latex: m.coupling.latex, unit: m.coupling.unit },
-        mapping: { kind: m.kind, mode: m.mode, expression: m.expression, ...(m.latex ? { latex: m.latex } : {}), source_status: m.sourceStatus },
+        mapping: { kind: m.kind, mode: m.mode, expression: m.expression, ...mappingLatex(m.latex, m.expression), source_status: m.sourceStatus },
       };
       try {
         const tr = translateRingdownBound(m, shift, remnant.env);
@@ -164,4 +165,14 @@ async function convert(catalogue: RingdownCatalogue, request: RingdownConvertReq
     cautions,
     bibliography: [...bibliography.values()],
   };
+}
+
+/** The mapping's LaTeX as stored, else typeset from its expression (which passed the engine's checks), so the page shows a formula, not code. */
+function mappingLatex(stored: string | undefined, expression: string): { latex?: string } {
+  if (stored) return { latex: stored };
+  try {
+    return { latex: toLatex(expression) };
+  } catch {
+    return {};
+  }
 }

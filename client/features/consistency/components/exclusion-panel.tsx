@@ -1,5 +1,5 @@
 import { thresholdText } from "../../../../common/number-text.ts";
-import { conditionText } from "../../../../common/symbol-text.ts";
+import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { useEffect, useState, type FormEvent } from "react";
 import { DEFAULT_TEST_CURVE, couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
@@ -18,12 +18,13 @@ const VERDICT_TONE = { valid: "ok", outside_validity: "fail", not_assessed: "cau
 const VERDICT_LABEL = { valid: "valid", outside_validity: "outside validity", not_assessed: "not assessed" } as const;
 
 function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
+  const symbol = symbolText(data.coupling.symbol, data.coupling.latex);
   return (
     <table className="w-full min-w-[40rem] text-sm" data-testid="exclusion-table">
       <caption className="text-left text-ink-soft">
-        Smallest {data.coupling.symbol} ({data.coupling.unit}) at which GR is excluded at {Math.round(data.credibility * 100)} %, remnant M_f = {sig(data.remnant.M_f)} M☉, χ_f = {sig(data.remnant.chi_f)}.
-        Widths: inspiral σ(M_f) = {sig(data.widths.inspiral.sigma_M_f)} M☉, σ(χ_f) = {sig(data.widths.inspiral.sigma_chi_f)}, ρ = {data.widths.inspiral.rho.toFixed(2)} ({data.widths.inspiral.from}); merger-ringdown σ(M_f) ={" "}
-        {sig(data.widths.merger_ringdown.sigma_M_f)} M☉, σ(χ_f) = {sig(data.widths.merger_ringdown.sigma_chi_f)}, ρ = {data.widths.merger_ringdown.rho.toFixed(2)} ({data.widths.merger_ringdown.from})
+        Smallest {symbol} ({data.coupling.unit}) at which GR is excluded at {Math.round(data.credibility * 100)} %, remnant M<sub>f</sub> = {sig(data.remnant.M_f)} M☉, χ<sub>f</sub> = {sig(data.remnant.chi_f)}.
+        Widths: inspiral σ(M<sub>f</sub>) = {sig(data.widths.inspiral.sigma_M_f)} M☉, σ(χ<sub>f</sub>) = {sig(data.widths.inspiral.sigma_chi_f)}, ρ = {data.widths.inspiral.rho.toFixed(2)} ({data.widths.inspiral.from}); merger-ringdown σ(M<sub>f</sub>) ={" "}
+        {sig(data.widths.merger_ringdown.sigma_M_f)} M☉, σ(χ<sub>f</sub>) = {sig(data.widths.merger_ringdown.sigma_chi_f)}, ρ = {data.widths.merger_ringdown.rho.toFixed(2)} ({data.widths.merger_ringdown.from})
         {data.widths.forecast ? `; inspiral SNR ${data.widths.forecast.snr.toFixed(1)} on ${data.widths.forecast.f_low.toPrecision(3)}–${data.widths.forecast.f_high.toPrecision(4)} Hz` : ""}.
       </caption>
       <thead>
@@ -39,7 +40,7 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
       <tbody>
         {data.sides.map((s) => (
           <tr key={s.side} className="border-t border-paper-edge align-top">
-            <td>{s.side === "positive" ? `${data.coupling.symbol} > 0` : `${data.coupling.symbol} < 0`}</td>
+            <td>{s.side === "positive" ? `${symbol} > 0` : `${symbol} < 0`}</td>
             <td>{s.x === null ? <span className="text-ink-faint">{s.reason}</span> : sig(s.x)}</td>
             <td>{s.x_linear === null ? "—" : sig(s.x_linear)}</td>
             <td>{s.linear_breaks_at === null ? "not reached" : sig(s.linear_breaks_at)}</td>
@@ -84,7 +85,12 @@ function InspiralBiasNote({ data }: { data: CouplingExclusionResponse }) {
         {b ? (
           <>
             ppE term{b.terms.length > 1 ? "s" : ""} at b = {b.terms.map((t) => t.b).join(", ")}, linear bias from the Fisher matrix of {b.label} ({CURVE_FROM[b.curve_from]}), {b.f_low.toPrecision(3)}–{b.f_high.toPrecision(4)} Hz; per unit β:{" "}
-            {b.terms.map((t) => `d ln M_f = ${sig(t.d_ln_M_f_per_beta)}, dχ_f = ${sig(t.d_chi_f_per_beta)}`).join("; ")}.
+            {b.terms.map((t, i) => (
+              <span key={t.b}>
+                {i > 0 ? "; " : ""}δ ln M<sub>f</sub> = {sig(t.d_ln_M_f_per_beta)}, δχ<sub>f</sub> = {sig(t.d_chi_f_per_beta)}
+              </span>
+            ))}
+            .
           </>
         ) : (
           <span className="text-ink-soft">the inspiral estimate is the GR remnant.</span>
@@ -226,7 +232,7 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
                   </Select>
                 )}
               </Field>
-              <Field label="f_low (Hz)" error={shown["test.forecast.f_low"]}>
+              <Field label={<>f<sub>low</sub> (Hz)</>} error={shown["test.forecast.f_low"]}>
                 {(control) => <TextInput {...control} name="test.forecast.f_low" inputMode="decimal" value={fc.f_low} onChange={(e) => setFc((v) => ({ ...v, f_low: e.target.value }))} />}
               </Field>
               <Field label="Distance (Mpc)" error={shown["test.forecast.distance_mpc"]} hint="blank: from z">
@@ -243,7 +249,7 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
             <legend className="font-semibold">Inspiral side</legend>
             <label className="flex items-center gap-2">
               <input type="checkbox" name="test.inspiral_bias.include" checked={bias.include} onChange={(e) => setBias((v) => ({ ...v, include: e.target.checked }))} />
-              include the bias of the inspiral estimate from the entry&apos;s ppE term (linear, Fisher matrix on f_low – split frequency)
+              include the bias of the inspiral estimate from the entry&apos;s ppE term (linear, Fisher matrix on f<sub>low</sub> – split frequency)
             </label>
             {bias.include && widthsFrom === "test" && (
               <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">

@@ -1,3 +1,4 @@
+import { MathTex } from "../../../components/ui/math-tex.tsx";
 import { conditionText } from "../../../../common/symbol-text.ts";
 import { useState, type FormEvent } from "react";
 import { QNM_MODE_KEYS, ringdownConvertRequestSchema, type RingdownConvertRequest, type RingdownResult } from "../../../../common/ringdown.ts";
@@ -73,7 +74,7 @@ function Row({ r }: { r: RingdownResult }) {
         ))}
       </td>
       <td className="text-xs text-ink-soft">
-        {r.mapping && <code>{r.mapping.expression}</code>}
+        {r.mapping && (r.mapping.latex ? <MathTex tex={r.mapping.latex} label={r.mapping.expression} /> : <code>{r.mapping.expression}</code>)}
         {r.references.length > 0 && <p>sources: {r.references.map((c) => c.citation).join("; ")}</p>}
         {r.unconstrained.map((u) => (
           <p key={u.side}>

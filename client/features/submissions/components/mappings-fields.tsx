@@ -13,8 +13,8 @@ const kindLabel: Record<(typeof MAPPING_KINDS)[number], string> = {
   inspiral_amplitude: "inspiral amplitude (ppE α)",
   ringdown_frequency: "ringdown frequency shift",
   ringdown_damping: "ringdown damping-time shift",
-  remnant_mass: "remnant mass shift δM_f/M_f",
-  remnant_spin: "remnant spin shift δχ_f/χ_f",
+  remnant_mass: "remnant mass shift (fractional)",
+  remnant_spin: "remnant spin shift (fractional)",
 };
 const sourceLabel: Record<(typeof SOURCE_STATUSES)[number], string> = {
   confirmed: "read in the cited source",
@@ -109,8 +109,8 @@ function MappingFieldset({ index, onRemove, canRemove }: { index: number; onRemo
                   : "Expression for δτ/τ"
                 : isRemnant
                   ? kind === "remnant_mass"
-                    ? "Expression for δM_f/M_f"
-                    : "Expression for δχ_f/χ_f"
+                    ? <>Expression for δM<sub>f</sub>/M<sub>f</sub></>
+                    : <>Expression for δχ<sub>f</sub>/χ<sub>f</sub></>
                   : "Expression for β"
             }
             as="textarea"
