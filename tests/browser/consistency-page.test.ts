@@ -152,6 +152,11 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await expect(page.getByTestId("inspiral-bias-note").textContent()).resolves.toMatch(/the forecast's detector/);
     await page.getByTestId("exclusion-panel").screenshot({ path: screenshotPath("consistency-forecast-widths") });
     expect(new URL(page.url()).searchParams.get("c")).toMatch(/"forecast"/);
+    // Space curves are offered too; choosing one asks for its observing window and leaves f_low to it.
+    await page.locator('select[name="test.forecast.curve"]').selectOption("lisa");
+    await expect(page.locator('input[name="test.forecast.f_low"]').inputValue()).resolves.toBe("");
+    await page.locator('input[name="test.forecast.years_observed"]').fill("2");
+    await expect(page.locator('input[name="test.forecast.years_before_merger"]').isVisible()).resolves.toBe(true);
     expect(errors).toEqual([]);
     expect(againErrors).toEqual([]);
   });

@@ -9,6 +9,7 @@ import { Caution, ErrorNote, Loading } from "../../../components/ui/states.tsx";
 import { ApiError } from "../../../lib/api-client.ts";
 import { useTheories } from "../../catalogue/api/get-theories.ts";
 import { useCurves } from "../../forecast/api/forecasts.ts";
+import { useAuth } from "../../auth/components/auth-context.tsx";
 import { useCouplingExclusion } from "../api/run-consistency.ts";
 
 const num = (s: string) => (s.trim() === "" ? undefined : Number(s));
@@ -123,11 +124,23 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const f0 = request?.test.forecast;
   const [widthsFrom, setWidthsFrom] = useState<"test" | "forecast">(f0 ? "forecast" : "test");
-  const [fc, setFc] = useState({ curve: f0?.curve ?? "aligo-design", f_low: str(f0?.f_low ?? 10), distance_mpc: str(f0?.distance_mpc), ringdown_snr: str(f0?.ringdown_snr ?? 20) });
+  const [fc, setFc] = useState({
+    curve: f0?.curve ?? "aligo-design",
+    f_low: str(f0 ? f0.f_low : 10),
+    distance_mpc: str(f0?.distance_mpc),
+    ringdown_snr: str(f0?.ringdown_snr ?? 20),
+    years_observed: str(f0?.years_observed),
+    years_before_merger: str(f0?.years_before_merger),
+  });
   const b1 = request?.test.inspiral_bias;
   const [bias, setBias] = useState({ include: b1?.include ?? true, curve: b1?.curve ?? DEFAULT_TEST_CURVE });
-  const curves = useCurves(null);
+  const { user } = useAuth();
+  const curves = useCurves(user?.login ?? null);
   const builtIn = (curves.data?.curves ?? []).filter((c) => !c.custom && !c.space);
+  // The forecast widths take any curve the forecasts take: ground, space (with an observing window) and the caller's own.
+  const allCurves = curves.data?.curves ?? [];
+  const fcCurve = allCurves.find((c) => c.id === fc.curve);
+  const fcSpace = fcCurve?.space ?? false;
   const result = useCouplingExclusion(request);
   const serverFields = result.error instanceof ApiError ? result.error.fields : {};
   const shown = { ...serverFields, ...errors };
@@ -146,6 +159,12 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
         ["curve", fc.curve],
         ["f_low", num(fc.f_low)],
         ["distance_mpc", num(fc.distance_mpc)],
+        ...(fcSpace
+          ? [
+              ["years_observed", num(fc.years_observed)],
+              ["years_before_merger", num(fc.years_before_merger)],
+            ]
+          : []),
         ["ringdown_snr", num(fc.ringdown_snr)],
       ].filter(([, v]) => v !== undefined),
     );
@@ -223,18 +242,52 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
             <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
               <Field label="Detector" error={shown["test.forecast.curve"]}>
                 {(control) => (
-                  <Select {...control} name="test.forecast.curve" value={fc.curve} onChange={(e) => setFc((v) => ({ ...v, curve: e.target.value }))}>
-                    {(builtIn.length > 0 ? builtIn : [{ id: fc.curve, name: fc.curve }]).map((c) => (
-                      <option key={c.id} value={c.id}>
-                        {c.name}
-                      </option>
-                    ))}
+                  <Select
+                    {...control}
+                    name="test.forecast.curve"
+                    value={fc.curve}
+                    onChange={(e) => {
+                      const next = allCurves.find((c) => c.id === e.target.value);
+                      // A space detector's band comes from its observing window unless f_low is given.
+                      setFc((v) => ({ ...v, curve: e.target.value, f_low: next?.space ? "" : v.f_low === "" ? String(next?.default_f_low ?? 10) : v.f_low }));
+                    }}
+                  >
+                    {allCurves.length === 0 && <option value={fc.curve}>{fc.curve}</option>}
+                    {(
+                      [
+                        ["ground", allCurves.filter((c) => !c.custom && !c.space)],
+                        ["space", allCurves.filter((c) => !c.custom && c.space)],
+                        ["your curves", allCurves.filter((c) => c.custom)],
+                      ] as const
+                    )
+                      .filter(([, list]) => list.length > 0)
+                      .map(([group, list]) => (
+                        <optgroup key={group} label={group}>
+                          {list.map((c) => (
+                            <option key={c.id} value={c.id}>
+                              {c.name}
+                            </option>
+                          ))}
+                        </optgroup>
+                      ))}
                   </Select>
                 )}
               </Field>
               <Field label={<>f<sub>low</sub> (Hz)</>} error={shown["test.forecast.f_low"]}>
-                {(control) => <TextInput {...control} name="test.forecast.f_low" inputMode="decimal" value={fc.f_low} onChange={(e) => setFc((v) => ({ ...v, f_low: e.target.value }))} />}
+                {(control) => (
+                  <TextInput {...control} name="test.forecast.f_low" inputMode="decimal" value={fc.f_low} placeholder={fcSpace ? "window" : undefined} onChange={(e) => setFc((v) => ({ ...v, f_low: e.target.value }))} />
+                )}
               </Field>
+              {fcSpace && (
+                <>
+                  <Field label="Years observed" error={shown["test.forecast.years_observed"]} hint="blank: 4">
+                    {(control) => <TextInput {...control} name="test.forecast.years_observed" inputMode="decimal" value={fc.years_observed} onChange={(e) => setFc((v) => ({ ...v, years_observed: e.target.value }))} />}
+                  </Field>
+                  <Field label="starting years before merger" error={shown["test.forecast.years_before_merger"]} hint="blank: 4">
+                    {(control) => <TextInput {...control} name="test.forecast.years_before_merger" inputMode="decimal" value={fc.years_before_merger} onChange={(e) => setFc((v) => ({ ...v, years_before_merger: e.target.value }))} />}
+                  </Field>
+                </>
+              )}
               <Field label="Distance (Mpc)" error={shown["test.forecast.distance_mpc"]} hint="blank: from z">
                 {(control) => <TextInput {...control} name="test.forecast.distance_mpc" inputMode="decimal" value={fc.distance_mpc} onChange={(e) => setFc((v) => ({ ...v, distance_mpc: e.target.value }))} />}
               </Field>
