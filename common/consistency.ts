@@ -81,6 +81,17 @@ export const consistencyResultSchema = z.object({
     })
     .optional(),
   cautions: z.array(z.string()),
+  /**
+   * From posterior samples: each estimate's sample mean, standard deviations and correlation of
+   * (M_f, chi_f), in the files' frame, so the coupling question can take the test's widths from them.
+   */
+  estimates: z
+    .object({
+      frame: massFrameSchema,
+      inspiral: z.object({ M_f: z.number(), chi_f: z.number(), sigma_M_f: z.number(), sigma_chi_f: z.number(), rho: z.number() }),
+      merger_ringdown: z.object({ M_f: z.number(), chi_f: z.number(), sigma_M_f: z.number(), sigma_chi_f: z.number(), rho: z.number() }),
+    })
+    .optional(),
 });
 export type ConsistencyResult = z.infer<typeof consistencyResultSchema>;
 

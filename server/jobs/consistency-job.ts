@@ -2,7 +2,7 @@ import type { ConsistencyJobRequest, ConsistencyResult } from "../../common/cons
 import { commonCautions, splitFor } from "../features/consistency/gaussian.ts";
 import { PhysicsInputError } from "../physics/input-error.ts";
 import { remnantFromBinary } from "../physics/ringdown/remnant.ts";
-import { sampleConsistency, type RemnantSamples } from "../physics/ringdown/sample-consistency.ts";
+import { remnantSampleSummary, sampleConsistency, type RemnantSamples } from "../physics/ringdown/sample-consistency.ts";
 import { SampleInputError } from "../physics/samples/sample-input-error.ts";
 
 /**
@@ -97,5 +97,6 @@ export async function runConsistencyJob(input: {
     contours: r.contours,
     ...(split === undefined ? {} : { split_frequency_hz: split.frequency_hz, split }),
     cautions,
+    estimates: { frame: input.request.frame, inspiral: remnantSampleSummary(I.samples), merger_ringdown: remnantSampleSummary(R.samples) },
   };
 }

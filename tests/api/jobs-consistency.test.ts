@@ -72,6 +72,21 @@ describe("POST /api/v1/jobs/consistency", () => {
     expect(r.contours.map((k) => k.level)).toEqual([0.68, 0.9, 0.95]);
     expect(r.contours.every((k) => k.paths.length > 0)).toBe(true);
     expect(r.split_frequency_hz).toBeGreaterThan(100);
+    // Each estimate's sample moments, for the coupling question's widths: the drawn Gaussians back within
+    // four standard errors (mean sigma/sqrt(n), standard deviation sigma/sqrt(2n), correlation 1/sqrt(n); common practice).
+    const n = 20_000;
+    const e = r.estimates!;
+    expect(e.frame).toBe("detector");
+    for (const [got, M, chi, sM, sC] of [
+      [e.inspiral, 62, 0.68, 2, 0.03],
+      [e.merger_ringdown, 66, 0.72, 2.5, 0.04],
+    ] as const) {
+      expect(Math.abs(got.M_f - M)).toBeLessThan((4 * sM) / Math.sqrt(n));
+      expect(Math.abs(got.chi_f - chi)).toBeLessThan((4 * sC) / Math.sqrt(n));
+      expect(Math.abs(got.sigma_M_f - sM)).toBeLessThan((4 * sM) / Math.sqrt(2 * n));
+      expect(Math.abs(got.sigma_chi_f - sC)).toBeLessThan((4 * sC) / Math.sqrt(2 * n));
+      expect(Math.abs(got.rho)).toBeLessThan(4 / Math.sqrt(n));
+    }
   });
 
   it("when the files are larger than a JSON body may be (over 2 MiB together), then the upload is accepted, not refused after being read", async () => {

@@ -228,6 +228,12 @@ describe("browser: the IMR consistency page and the ringdown panel", () => {
     await expect(page.getByTestId("input-samples").isChecked()).resolves.toBe(true);
     await page.getByTestId("gr-quantile").waitFor({ timeout: 30_000 });
     await expect(page.getByTestId("gr-quantile").textContent()).resolves.toBe(quantileText);
+
+    // The coupling question takes its widths from the sample files' moments.
+    await expect(page.getByTestId("exclusion-panel").textContent()).resolves.toMatch(/from the sample files above/);
+    await page.getByLabel("Theory").selectOption("johannsen");
+    await page.getByTestId("run-exclusion").click();
+    await expect.poll(async () => (await page.getByTestId("exclusion-table").textContent()) ?? "", { timeout: 20_000 }).toMatch(/inspiral σ\(Mf\) = (1\.9\d|2\.0\d|2) M☉.*\(given\)/);
     expect(errors).toEqual([]);
   });
 

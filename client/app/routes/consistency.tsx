@@ -1,9 +1,10 @@
-import { useCallback, useState } from "react";
+import { useCallback, useEffect, useState } from "react";
 import { useSearchParams } from "react-router-dom";
 import {
   consistencyRequestSchema,
   couplingExclusionRequestSchema,
   type ConsistencyRequest,
+  type ConsistencyResult,
   type CouplingExclusionRequest,
   type CouplingExclusionResponse,
 } from "../../../common/consistency.ts";
@@ -15,7 +16,7 @@ import { ErrorNote, Loading } from "../../components/ui/states.tsx";
 import { ApiError } from "../../lib/api-client.ts";
 import { useConsistency } from "../../features/consistency/api/run-consistency.ts";
 import { ConsistencyResultView, type DeviationTrack } from "../../features/consistency/components/consistency-result.tsx";
-import { ExclusionPanel } from "../../features/consistency/components/exclusion-panel.tsx";
+import { ExclusionPanel, type TestWidths } from "../../features/consistency/components/exclusion-panel.tsx";
 import { SamplesForm } from "../../features/consistency/components/samples-form.tsx";
 import { SummariesForm } from "../../features/consistency/components/summaries-form.tsx";
 import { SaveToSheet } from "../../features/sheets/components/save-to-sheet.tsx";
@@ -67,6 +68,9 @@ export function Component() {
   // A link to a samples job opens on the samples mode.
   const [input, setInput] = useState<"summaries" | "samples">(jobFromUrl !== undefined ? "samples" : "summaries");
   const [exclusion, setExclusion] = useState<CouplingExclusionResponse | undefined>();
+  // The coupling question takes the widths of whichever test is shown: the summaries', or the sample files' moments.
+  const [samplesWidths, setSamplesWidths] = useState<TestWidths | undefined>();
+  const testWidths: TestWidths | undefined = input === "samples" ? samplesWidths : request ? { from: "summaries", inspiral: request.inspiral, merger_ringdown: request.merger_ringdown } : undefined;
   const result = useConsistency(request);
   const fields = result.error instanceof ApiError ? result.error.fields : {};
   const track = exclusion ? deviationTrack(exclusion) : undefined;
@@ -115,6 +119,7 @@ export function Component() {
           {(r, jobId) => (
             <>
               <ConsistencyResultView result={r} track={track} />
+              <ReportWidths result={r} onWidths={setSamplesWidths} />
               <SaveToSheet what="this consistency result" payload={{ kind: "consistency", job: jobId }} defaults={{ analysis_method: "IMR consistency, posterior samples" }} />
             </>
           )}
@@ -125,7 +130,19 @@ export function Component() {
           This link's coupling question could not be read ({couplingFromUrl.message}).
         </p>
       )}
-      <ExclusionPanel key={couplingFromUrl.kind === "ok" ? couplingFromUrl.text : "demo"} test={request} onTrack={setExclusion} request={couplingRequest} onRequest={setCouplingRequest} />
+      <ExclusionPanel key={couplingFromUrl.kind === "ok" ? couplingFromUrl.text : "demo"} test={testWidths} onTrack={setExclusion} request={couplingRequest} onRequest={setCouplingRequest} />
     </article>
   );
+}
+
+/** Hands a samples job's per-estimate widths up to the page (the coupling question uses them); draws nothing. */
+function ReportWidths({ result, onWidths }: { result: ConsistencyResult; onWidths: (w: TestWidths | undefined) => void }) {
+  // Keyed by value: the job view may hand a freshly parsed result on each render, and a new object
+  // each time would set the page's state in a loop.
+  const key = result.estimates ? JSON.stringify(result.estimates) : "";
+  useEffect(() => {
+    const e = key ? (JSON.parse(key) as NonNullable<ConsistencyResult["estimates"]>) : undefined;
+    onWidths(e ? { from: "samples", inspiral: e.inspiral, merger_ringdown: e.merger_ringdown } : undefined);
+  }, [key, onWidths]);
+  return null;
 }

@@ -100,6 +100,14 @@ function moments(x: Float64Array, y: Float64Array): DeviationGaussian {
   };
 }
 
+/** One estimate's sample mean, standard deviations and correlation of (M_f, chi_f) (unbiased sample moments). */
+export function remnantSampleSummary(s: RemnantSamples): { M_f: number; chi_f: number; sigma_M_f: number; sigma_chi_f: number; rho: number } {
+  const m = moments(Float64Array.from(s.M_f), Float64Array.from(s.chi_f));
+  const sM = Math.sqrt(m.covariance[0][0]);
+  const sC = Math.sqrt(m.covariance[1][1]);
+  return { M_f: m.mean[0], chi_f: m.mean[1], sigma_M_f: sM, sigma_chi_f: sC, rho: sM > 0 && sC > 0 ? m.covariance[0][1] / (sM * sC) : 0 };
+}
+
 export function sampleConsistency(inspiral: RemnantSamples, mergerRingdown: RemnantSamples, options: SampleConsistencyOptions): SampleConsistencyResult {
   const nI = checkSamples(inspiral, "inspiral");
   const nR = checkSamples(mergerRingdown, "merger_ringdown");

@@ -1,7 +1,7 @@
 import { thresholdText } from "../../../../common/number-text.ts";
 import { conditionText, symbolText } from "../../../../common/symbol-text.ts";
 import { useEffect, useState, type FormEvent } from "react";
-import { DEFAULT_TEST_CURVE, couplingExclusionRequestSchema, type ConsistencyRequest, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
+import { DEFAULT_TEST_CURVE, couplingExclusionRequestSchema, type CouplingExclusionRequest, type CouplingExclusionResponse } from "../../../../common/consistency.ts";
 import { Badge } from "../../../components/ui/badge.tsx";
 import { Button } from "../../../components/ui/button.tsx";
 import { Field, Select, TextInput } from "../../../components/ui/field.tsx";
@@ -102,9 +102,22 @@ function InspiralBiasNote({ data }: { data: CouplingExclusionResponse }) {
   );
 }
 
+/** One estimate's widths: standard deviations of M_f (solar masses) and chi_f, and their correlation. */
+interface EstimateWidths {
+  sigma_M_f: number;
+  sigma_chi_f: number;
+  rho?: number | undefined;
+}
+
+/** The widths of the test run above: from its two Gaussian summaries, or from the moments of its sample files. */
+export interface TestWidths {
+  from: "summaries" | "samples";
+  inspiral: EstimateWidths;
+  merger_ringdown: EstimateWidths;
+}
+
 interface Props {
-  /** The widths of the test come from the summaries above. */
-  test: ConsistencyRequest | undefined;
+  test: TestWidths | undefined;
   onTrack: (data: CouplingExclusionResponse | undefined) => void;
   /** The request the page's address holds (the form starts from it), and where a new one goes. */
   request: CouplingExclusionRequest | undefined;
@@ -150,10 +163,10 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
   const submit = (e: FormEvent) => {
     e.preventDefault();
     if (widthsFrom === "test" && !test) {
-      setErrors({ test: "Run the test with two summaries first: its widths are used here (or forecast them for a detector)." });
+      setErrors({ test: "Run the test above first (two summaries or two sample files): its widths are used here (or forecast them for a detector)." });
       return;
     }
-    const width = (p: ConsistencyRequest["inspiral"]) => ({ sigma_M_f: p.sigma_M_f, sigma_chi_f: p.sigma_chi_f, ...(p.rho === undefined ? {} : { rho: p.rho }) });
+    const width = (p: EstimateWidths) => ({ sigma_M_f: p.sigma_M_f, sigma_chi_f: p.sigma_chi_f, ...(p.rho === undefined ? {} : { rho: p.rho }) });
     const forecast = Object.fromEntries(
       [
         ["curve", fc.curve],
@@ -196,7 +209,7 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
       </h2>
       <p className="max-w-3xl text-ink-soft">
         A theory that shifts the ringdown or the remnant makes a GR template infer a different remnant from the merger-ringdown part; its ppE term biases the inspiral
-        part too. With the test's widths (from the summaries above, or forecast for a detector) and a binary, this finds the smallest coupling at which (0, 0) would leave
+        part too. With the test's widths (from the test above, summaries or sample files, or forecast for a detector) and a binary, this finds the smallest coupling at which (0, 0) would leave
         the credible region, and draws the expected deviation over the contours.
       </p>
       <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
@@ -231,7 +244,7 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
           <div className="flex flex-wrap gap-4">
             <label className="flex items-center gap-2">
               <input type="radio" name="widths-from" checked={widthsFrom === "test"} onChange={() => setWidthsFrom("test")} data-testid="widths-test" />
-              from the two summaries above
+              {test?.from === "samples" ? "from the sample files above (their standard deviations and correlations)" : "from the test above"}
             </label>
             <label className="flex items-center gap-2">
               <input type="radio" name="widths-from" checked={widthsFrom === "forecast"} onChange={() => setWidthsFrom("forecast")} data-testid="widths-forecast" />
