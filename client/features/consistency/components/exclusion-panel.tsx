@@ -41,7 +41,7 @@ function ExclusionTable({ data }: { data: CouplingExclusionResponse }) {
       <tbody>
         {data.sides.map((s) => (
           <tr key={s.side} className="border-t border-paper-edge align-top">
-            <td>{s.side === "positive" ? `${symbol} > 0` : `${symbol} < 0`}</td>
+            <td className="whitespace-nowrap pr-2">{s.side === "positive" ? `${symbol} > 0` : `${symbol} < 0`}</td>
             <td>{s.x === null ? <span className="text-ink-faint">{s.reason}</span> : sig(s.x)}</td>
             <td>{s.x_linear === null ? "—" : sig(s.x_linear)}</td>
             <td>{s.linear_breaks_at === null ? "not reached" : sig(s.linear_breaks_at)}</td>
@@ -315,7 +315,9 @@ export function ExclusionPanel({ test, onTrack, request, onRequest }: Props) {
             <legend className="font-semibold">Inspiral side</legend>
             <label className="flex items-center gap-2">
               <input type="checkbox" name="test.inspiral_bias.include" checked={bias.include} onChange={(e) => setBias((v) => ({ ...v, include: e.target.checked }))} />
-              include the bias of the inspiral estimate from the entry&apos;s ppE term (linear, Fisher matrix on f<sub>low</sub> – split frequency)
+              <span>
+                include the bias of the inspiral estimate from the entry&apos;s ppE term (linear, Fisher matrix on f<sub>low</sub> – split frequency)
+              </span>
             </label>
             {bias.include && widthsFrom === "test" && (
               <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
